@@ -1,0 +1,43 @@
+package main
+
+import (
+	"runtime/debug"
+
+	"github.com/spf13/cobra"
+)
+
+// version is set at build time with -ldflags "-X main.version=..."; by
+// default it comes from the module's build information.
+var version = ""
+
+func versionString() string {
+	if version != "" {
+		return version
+	}
+	if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" && bi.Main.Version != "(devel)" {
+		return bi.Main.Version
+	}
+	return "0.1.0-dev"
+}
+
+func newRootCmd() *cobra.Command {
+	root := &cobra.Command{
+		Use:   "glossmith",
+		Short: "Build glossary drafts from technical documents",
+		Long: `glossmith reads technical documents (text, Markdown, HTML, DOCX, PDF, CoNLL-U),
+tags them with an embedded part-of-speech model, matches phrase rules written in
+its own pattern language, ranks term candidates and collocations with published
+statistics, and writes glossary drafts as text, TSV, CSV, JSON Lines or TBX.
+
+Inputs are files, directories (read recursively), glob patterns, or - for
+standard input. Problems with single inputs are reported on standard error
+with the file name and line; the other inputs are still processed, and the
+exit status is 1 when anything was skipped.`,
+		Version:       versionString(),
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetVersionTemplate("glossmith {{.Version}}\n")
+	root.CompletionOptions.HiddenDefaultCmd = true
+	return root
+}
