@@ -86,7 +86,7 @@ type Reader struct {
 	line   int
 	errs   ErrorList
 	eof    bool
-	curDoc string
+	inBad  bool // the current sentence already has an error
 }
 
 // NewReader returns a reader; name is used in error messages.
@@ -99,6 +99,10 @@ func NewReader(r io.Reader, name string) *Reader {
 func (r *Reader) Errors() ErrorList { return r.errs }
 
 func (r *Reader) errorf(line int, format string, args ...any) {
+	if r.inBad {
+		return // one error per sentence: the rest would only follow from it
+	}
+	r.inBad = true
 	r.errs = append(r.errs, &Error{File: r.name, Line: line, Msg: fmt.Sprintf(format, args...)})
 }
 
@@ -160,6 +164,7 @@ func (r *Reader) readSentence() (s *Sentence, bad bool, err error) {
 		expectID = 1
 		mwtEnd   = 0 // last word ID covered by an open multiword token
 	)
+	r.inBad = false
 	for {
 		line, ok, e := r.readLine()
 		if e == io.EOF {
