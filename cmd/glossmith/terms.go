@@ -1,0 +1,212 @@
+package main
+
+import (
+	"bufio"
+	"fmt"
+	"os"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"glossmith/extract/terms"
+	"glossmith/grammar"
+	"glossmith/pattern"
+	"glossmith/tagger/doc"
+	"glossmith/tagger/hmm"
+)
+
+// ruleFlags select the rules a command matches with.
+type ruleFlags struct {
+	files []string
+	names []string
+}
+
+func (r *ruleFlags) register(cmd *cobra.Command, what string) {
+	cmd.Flags().StringArrayVar(&r.files, "rules", nil, "rule file (.gsr) to use instead of the stock "+what+" rules (repeatable)")
+	cmd.Flags().StringArrayVar(&r.names, "rule", nil, "use only this rule of the set (repeatable)")
+}
+
+// load returns the rule set: the user's files, or the named stock set.
+func (r *ruleFlags) load(stock string) (*grammar.RuleSet, error) {
+	if len(r.files) > 0 {
+		return grammar.Load(r.files...)
+	}
+	return grammar.LoadStock(stock)
+}
+
+// modelReference adapts the model's treebank counts as a reference corpus.
+type modelReference struct{ m *hmm.Model }
+
+func (r modelReference) Freq(w string) int { return r.m.RefLemmaFreq(w) }
+func (r modelReference) Size() int         { return r.m.RefSize() }
+
+func newTermsCmd() *cobra.Command {
+	var (
+		in        inputFlags
+		rules     ruleFlags
+		reference []string
+		to        string
+		outPath   string
+		sortKey   string
+		minFreq   int
+		maxWords  int
+		contexts  int
+		stopFiles []string
+		include   string
+		exclude   string
+		all       bool
+		limit     int
+	)
+	cmd := &cobra.Command{
+		Use:   "terms [flags] INPUT...",
+		Short: "Rank term candidates with their variants, counts, measures and contexts",
+		Long: `Finds term candidates with the stock "terms" rules (or --rules), groups their
+variants under a canonical form (head lemmatized, case folded except acronyms
+and names, hyphen/space/no-space spellings unified), measures them and ranks
+them, best first.
+
+Measures (each a column, each a --sort key):
+  freq       occurrences, nested ones included
+  docs       documents the candidate occurs in
+  dp         Gries' deviation of proportions over documents (0 = evenly spread)
+  cvalue     C-value over nested candidates (Frantzi et al. 2000), log2(|a|+1) weight
+  keyness    mean signed log-likelihood of the words against the reference
+             (Rayson and Garside 2000); the reference is the tagger's training
+             treebank unless --reference names documents
+  weirdness  geometric mean weirdness ratio of the words (Ahmad et al. 1999)
+  score      the combined ranking score (see README)
+
+The default list ends where the score falls below the cut-off; --all prints
+every candidate. The list is a set of candidates for expert review, not a
+validated terminology.`,
+		Example: `  glossmith terms testdata/demo
+  glossmith terms --contexts 2 --limit 30 manuals/
+  glossmith terms --to tbx -o glossary.tbx manuals/*.docx
+  glossmith terms --reference general-texts/ --sort keyness specs/`,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			rs, err := rules.load("terms")
+			if err != nil {
+				return err
+			}
+			m, err := pattern.Compile(rs, rules.names...)
+			if err != nil {
+				return err
+			}
+			model, err := loadModel(in.model)
+			if err != nil {
+				return err
+			}
+			opt := terms.Options{MaxWords: maxWords, Contexts: contexts}
+			if opt.Stop, err = readStopLists(stopFiles); err != nil {
+				return err
+			}
+			if opt.Keep, err = spanFilter(include, exclude, rs); err != nil {
+				return err
+			}
+			var ref terms.Reference = modelReference{model}
+			if len(reference) > 0 {
+				counts := &terms.Counts{}
+				if _, err := runDocs(&in, reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc) }); err != nil {
+					return fmt.Errorf("reference: %w", err)
+				}
+				ref = counts
+			}
+			if !cmd.Flags().Changed("contexts") && to == "text" {
+				contexts = 0
+			}
+			keep := max(contexts, 3)
+			col := terms.NewCollector(m, opt)
+			corpus := terms.NewCorpus(keep)
+			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+			if corpus.Documents() == 0 {
+				return runErr
+			}
+			ranked, err := terms.Rank(corpus.Terms(ref), terms.RankOptions{MinFreq: minFreq, Sort: sortKey, All: all, Limit: limit})
+			if err != nil {
+				return err
+			}
+			out, err := openOutput(outPath)
+			if err != nil {
+				return err
+			}
+			src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
+			err = out.commit(terms.Write(out, to, ranked, terms.WriteOptions{Contexts: contexts, Source: src}))
+			if err != nil {
+				return err
+			}
+			return runErr
+		},
+	}
+	in.register(cmd, true)
+	rules.register(cmd, "terms")
+	fl := cmd.Flags()
+	fl.StringArrayVar(&reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
+	fl.StringVar(&to, "to", "text", "output format: "+strings.Join(terms.Formats, ", "))
+	fl.StringVarP(&outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	fl.StringVar(&sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
+	fl.IntVar(&minFreq, "min-freq", 2, "leave out candidates seen fewer times")
+	fl.IntVar(&maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
+	fl.IntVar(&contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
+	fl.StringArrayVar(&stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")
+	fl.StringVar(&include, "include", "", "keep only candidates that the pattern matches whole")
+	fl.StringVar(&exclude, "exclude", "", "leave out candidates that the pattern matches whole")
+	fl.BoolVar(&all, "all", false, "list every candidate, not only those above the score cut-off")
+	fl.IntVar(&limit, "limit", 0, "print at most this many terms")
+	return cmd
+}
+
+// readStopLists reads stop-word files: one word or phrase per line, "#"
+// comments, compared lower-cased.
+func readStopLists(paths []string) (map[string]bool, error) {
+	if len(paths) == 0 {
+		return nil, nil
+	}
+	stop := map[string]bool{}
+	for _, p := range paths {
+		f, err := os.Open(p)
+		if err != nil {
+			return nil, fmt.Errorf("stop list: %w", err)
+		}
+		sc := bufio.NewScanner(f)
+		for sc.Scan() {
+			line, _, _ := strings.Cut(sc.Text(), "#")
+			if w := strings.ToLower(strings.TrimSpace(line)); w != "" {
+				stop[w] = true
+			}
+		}
+		err = sc.Err()
+		f.Close()
+		if err != nil {
+			return nil, fmt.Errorf("stop list %s: %w", p, err)
+		}
+	}
+	return stop, nil
+}
+
+// spanFilter compiles --include and --exclude into a test on a candidate's
+// tokens: the pattern must match the whole candidate.
+func spanFilter(include, exclude string, rs *grammar.RuleSet) (func([]doc.Token) bool, error) {
+	compile := func(src string) (*pattern.Matcher, error) {
+		if src == "" {
+			return nil, nil
+		}
+		return pattern.CompilePattern("^ ( "+src+" ) $", rs)
+	}
+	inc, err := compile(include)
+	if err != nil {
+		return nil, fmt.Errorf("--include: %w", err)
+	}
+	exc, err := compile(exclude)
+	if err != nil {
+		return nil, fmt.Errorf("--exclude: %w", err)
+	}
+	if inc == nil && exc == nil {
+		return nil, nil
+	}
+	return func(toks []doc.Token) bool {
+		if inc != nil && len(inc.FindAll(toks)) == 0 {
+			return false
+		}
+		return exc == nil || len(exc.FindAll(toks)) == 0
+	}, nil
+}

@@ -1,0 +1,272 @@
+package terms
+
+import (
+	"math"
+	"sort"
+	"strings"
+
+	"glossmith/extract/termstat"
+)
+
+// Reference gives general-language word frequencies: by default those of
+// the tagger's training treebank, carried in the model; or counts of the
+// user's own reference documents.
+type Reference interface {
+	// Freq returns the frequency of a lower-cased lemma.
+	Freq(word string) int
+	// Size returns the number of word tokens counted.
+	Size() int
+}
+
+// Counts is a Reference built from counted words (for --reference INPUT).
+type Counts struct {
+	Words map[string]int
+	Total int
+}
+
+// Freq implements Reference.
+func (c *Counts) Freq(w string) int { return c.Words[w] }
+
+// Size implements Reference.
+func (c *Counts) Size() int { return c.Total }
+
+// Add counts the words of a document's counts.
+func (c *Counts) Add(dc *DocCounts) {
+	if c.Words == nil {
+		c.Words = map[string]int{}
+	}
+	for w, n := range dc.Words {
+		c.Words[w] += n
+	}
+	c.Total += dc.Tokens
+}
+
+type docFreq struct{ doc, n int }
+
+type group struct {
+	key      string
+	freq     int
+	perDoc   []docFreq
+	variants map[string]int
+	canon    map[string]int
+	words    map[string][]string
+	contexts []Context
+	spare    []Context // further contexts, used when too few documents offer one
+}
+
+// Corpus merges the documents' counts in input order.
+type Corpus struct {
+	docs     []string
+	docSize  []int
+	words    Counts
+	groups   map[string]*group
+	order    []string
+	contexts int
+}
+
+// NewCorpus returns an empty corpus keeping up to contexts example
+// sentences per candidate.
+func NewCorpus(contexts int) *Corpus {
+	return &Corpus{groups: map[string]*group{}, contexts: contexts}
+}
+
+// Add merges one document's counts. Call it in input order.
+func (c *Corpus) Add(dc *DocCounts) {
+	di := len(c.docs)
+	c.docs = append(c.docs, dc.Name)
+	c.docSize = append(c.docSize, dc.Tokens)
+	c.words.Add(dc)
+	for _, k := range dc.order {
+		x := dc.cands[k]
+		g := c.groups[k]
+		if g == nil {
+			g = &group{key: k, variants: map[string]int{}, canon: map[string]int{}, words: map[string][]string{}}
+			c.groups[k] = g
+			c.order = append(c.order, k)
+		}
+		g.freq += x.freq
+		g.perDoc = append(g.perDoc, docFreq{di, x.freq})
+		for v, n := range x.variants {
+			g.variants[v] += n
+		}
+		for v, n := range x.canon {
+			g.canon[v] += n
+			if _, ok := g.words[v]; !ok {
+				g.words[v] = x.words[v]
+			}
+		}
+		// Contexts: at most one per document until every candidate has
+		// its quota, so examples show the term in different documents.
+		for i, cx := range x.contexts {
+			switch {
+			case i == 0 && len(g.contexts) < c.contexts:
+				g.contexts = append(g.contexts, cx)
+			case len(g.spare) < c.contexts:
+				g.spare = append(g.spare, cx)
+			}
+		}
+	}
+}
+
+// Documents returns the number of documents merged.
+func (c *Corpus) Documents() int { return len(c.docs) }
+
+// Tokens returns the number of word tokens merged.
+func (c *Corpus) Tokens() int { return c.words.Total }
+
+// Variant is one surface form of a candidate with its count.
+type Variant struct {
+	Form  string `json:"form"`
+	Count int    `json:"count"`
+}
+
+// Term is a ranked candidate with every measure.
+type Term struct {
+	Rank     int       `json:"rank"`
+	Term     string    `json:"term"`
+	Words    int       `json:"words"`
+	Variants []Variant `json:"variants"`
+	Freq     int       `json:"freq"`
+	Docs     int       `json:"docs"`
+	// DP is Gries' deviation of proportions over documents (0 = spread as
+	// the corpus is, near 1 = concentrated in one small document).
+	DP float64 `json:"dp"`
+	// CValue is C-value with the log2(|a|+1) length weight so that single
+	// words take part (Frantzi et al. 2000; the weight is a common variant).
+	CValue float64 `json:"cvalue"`
+	// Keyness is the signed log-likelihood of the candidate's words against
+	// the reference corpus (Rayson and Garside 2000), see Rank.
+	Keyness float64 `json:"keyness"`
+	// Weirdness is the weirdness ratio (Ahmad et al. 1999) of the same.
+	Weirdness float64 `json:"weirdness"`
+	// Score is the combined ranking score.
+	Score    float64   `json:"score"`
+	Contexts []Context `json:"contexts,omitempty"`
+	key      string
+	words    []string
+}
+
+// canonical picks a group's display form: the most frequent canonical
+// spelling, preferring a lower-case one when the candidate also occurs in
+// lower case (so a capitalized heading does not decide). Ties go to the
+// byte-wise smallest spelling.
+func (g *group) canonical() (string, []string) {
+	best, bestN, bestLower := "", -1, false
+	for s, n := range g.canon {
+		lower := s == strings.ToLower(s)
+		better := false
+		switch {
+		case lower != bestLower:
+			better = lower
+		case n != bestN:
+			better = n > bestN
+		default:
+			better = s < best
+		}
+		if bestN < 0 || better {
+			best, bestN, bestLower = s, n, lower
+		}
+	}
+	return best, g.words[best]
+}
+
+// Terms computes the statistics of every candidate against the reference
+// and returns them in first-occurrence order, unranked (Score and Rank are
+// set by Rank).
+func (c *Corpus) Terms(ref Reference) []*Term {
+	out := make([]*Term, 0, len(c.order))
+	sizes := make([]float64, len(c.docSize))
+	for i, n := range c.docSize {
+		sizes[i] = float64(n)
+	}
+	parts, partsErr := termstat.NewParts(sizes)
+	freqs := make([]float64, len(c.docSize))
+	cands := make([]termstat.Candidate, 0, len(c.order))
+	for _, k := range c.order {
+		g := c.groups[k]
+		name, words := g.canonical()
+		t := &Term{Term: name, Words: len(words), Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
+		for v, n := range g.variants {
+			t.Variants = append(t.Variants, Variant{v, n})
+		}
+		sort.Slice(t.Variants, func(i, j int) bool {
+			a, b := t.Variants[i], t.Variants[j]
+			if a.Count != b.Count {
+				return a.Count > b.Count
+			}
+			return a.Form < b.Form
+		})
+		if partsErr == nil {
+			clear(freqs)
+			for _, df := range g.perDoc {
+				freqs[df.doc] += float64(df.n)
+			}
+			t.DP, _ = parts.DP(freqs)
+		}
+		t.Contexts = g.contexts
+		for _, cx := range g.spare {
+			if len(t.Contexts) >= c.contexts {
+				break
+			}
+			t.Contexts = append(t.Contexts, cx)
+		}
+		t.Keyness, t.Weirdness = c.specificity(words, ref)
+		out = append(out, t)
+		lw := make([]string, len(words))
+		for i, w := range words {
+			lw[i] = strings.ToLower(w)
+		}
+		cands = append(cands, termstat.Candidate{Words: lw, Freq: float64(g.freq)})
+	}
+	if cv, err := termstat.CValue(dedupe(cands), termstat.CValueOptions{Weight: termstat.Log2LengthPlusOne}); err == nil {
+		for i := range out {
+			out[i].CValue = cv[i].Score
+		}
+	}
+	return out
+}
+
+// dedupe makes word sequences unique for C-value: two groups can share
+// their lower-cased words only when their keys differ in hyphenation, which
+// the key already removed, so this is a safety net that appends a marker.
+func dedupe(cands []termstat.Candidate) []termstat.Candidate {
+	seen := map[string]bool{}
+	for i := range cands {
+		k := strings.Join(cands[i].Words, "\x00")
+		for seen[k] {
+			w := append([]string(nil), cands[i].Words...)
+			w[len(w)-1] += "\u200b"
+			cands[i].Words = w
+			k = strings.Join(w, "\x00")
+		}
+		seen[k] = true
+	}
+	return cands
+}
+
+// specificity returns the domain specificity of a candidate's words: the
+// mean signed log-likelihood keyness and the geometric mean weirdness of
+// its words against the reference.
+func (c *Corpus) specificity(words []string, ref Reference) (ll, weird float64) {
+	if ref == nil || ref.Size() == 0 || c.words.Total == 0 {
+		return 0, 0
+	}
+	var sumLL, sumLogW float64
+	n := 0
+	for _, w := range words {
+		for _, part := range strings.FieldsFunc(strings.ToLower(w), func(r rune) bool { return r == '-' }) {
+			k := termstat.Contrast{Study: float64(c.words.Words[part]), Reference: float64(ref.Freq(part)),
+				StudySize: float64(c.words.Total), ReferenceSize: float64(ref.Size())}
+			if k.Study > k.StudySize {
+				k.Study = k.StudySize
+			}
+			sumLL += k.LL()
+			sumLogW += math.Log(max(k.Weirdness(), 1e-9))
+			n++
+		}
+	}
+	if n == 0 {
+		return 0, 0
+	}
+	return sumLL / float64(n), math.Exp(sumLogW / float64(n))
+}

@@ -1,0 +1,113 @@
+package terms
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// RankOptions select, score and order candidates.
+type RankOptions struct {
+	MinFreq int    // candidates seen fewer times are left out (0 = 1)
+	Sort    string // measure to sort by: score (default), freq, docs, keyness, weirdness, cvalue, dp, term
+	// All keeps every candidate; otherwise the list ends at the default
+	// cut-off (see Cutoff).
+	All   bool
+	Limit int // at most this many terms (0 = no limit)
+}
+
+// SortKeys lists the names RankOptions.Sort accepts.
+var SortKeys = []string{"score", "freq", "docs", "keyness", "weirdness", "cvalue", "dp", "term"}
+
+// Rank scores the candidates, filters and orders them and numbers the
+// ranks from 1. Ties are broken by frequency (higher first), then by the
+// term's text in byte order, so the same input always gives the same list.
+func Rank(ts []*Term, opt RankOptions) ([]*Term, error) {
+	key := opt.Sort
+	if key == "" {
+		key = "score"
+	}
+	get, ok := sortKey(key)
+	if !ok {
+		return nil, fmt.Errorf("unknown sort key %q (want one of %s)", opt.Sort, strings.Join(SortKeys, ", "))
+	}
+	minFreq := max(opt.MinFreq, 1)
+	var out []*Term
+	for _, t := range ts {
+		t.Score = Score(t)
+		if t.Freq >= minFreq {
+			out = append(out, t)
+		}
+	}
+	byScore := func(a, b *Term) bool {
+		if a.Score != b.Score {
+			return a.Score > b.Score
+		}
+		if a.Freq != b.Freq {
+			return a.Freq > b.Freq
+		}
+		return a.Term < b.Term
+	}
+	sort.SliceStable(out, func(i, j int) bool { return byScore(out[i], out[j]) })
+	if !opt.All {
+		n := 0
+		for n < len(out) && out[n].Score >= Cutoff {
+			n++
+		}
+		out = out[:n]
+	}
+	if key != "score" {
+		sort.SliceStable(out, func(i, j int) bool {
+			a, b := out[i], out[j]
+			if key == "term" {
+				return a.Term < b.Term
+			}
+			x, y := get(a), get(b)
+			if key == "dp" {
+				x, y = -x, -y // evenly spread first
+			}
+			if x != y {
+				return x > y
+			}
+			return byScore(a, b)
+		})
+	}
+	for i, t := range out {
+		t.Rank = i + 1
+	}
+	if opt.Limit > 0 && len(out) > opt.Limit {
+		out = out[:opt.Limit]
+	}
+	return out, nil
+}
+
+func sortKey(name string) (func(*Term) float64, bool) {
+	switch name {
+	case "score":
+		return func(t *Term) float64 { return t.Score }, true
+	case "freq":
+		return func(t *Term) float64 { return float64(t.Freq) }, true
+	case "docs":
+		return func(t *Term) float64 { return float64(t.Docs) }, true
+	case "keyness":
+		return func(t *Term) float64 { return t.Keyness }, true
+	case "weirdness":
+		return func(t *Term) float64 { return t.Weirdness }, true
+	case "cvalue":
+		return func(t *Term) float64 { return t.CValue }, true
+	case "dp":
+		return func(t *Term) float64 { return t.DP }, true
+	case "term":
+		return func(t *Term) float64 { return 0 }, true
+	}
+	return nil, false
+}
+
+// Cutoff is the score at which the default list ends.
+const Cutoff = 0.0
+
+// Score is the combined ranking score of a candidate.
+func Score(t *Term) float64 {
+	return t.Keyness * math.Log2(1+float64(t.Freq))
+}

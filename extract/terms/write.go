@@ -1,0 +1,219 @@
+package terms
+
+import (
+	"bufio"
+	"encoding/csv"
+	"encoding/json"
+	"encoding/xml"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+)
+
+// Formats lists the output formats of a term list.
+var Formats = []string{"text", "tsv", "csv", "jsonl", "tbx"}
+
+// WriteOptions tune the writers.
+type WriteOptions struct {
+	Contexts int    // text format: example sentences printed under each term
+	Source   string // TBX header: what the list was made from
+}
+
+// columns are the measure columns of tsv, csv and text output, in order.
+var columns = []string{"rank", "term", "score", "freq", "docs", "words", "keyness", "weirdness", "cvalue", "dp", "variants"}
+
+func (t *Term) cells() []string {
+	vs := make([]string, len(t.Variants))
+	for i, v := range t.Variants {
+		vs[i] = v.Form + " (" + strconv.Itoa(v.Count) + ")"
+	}
+	return []string{strconv.Itoa(t.Rank), t.Term, num(t.Score), strconv.Itoa(t.Freq), strconv.Itoa(t.Docs),
+		strconv.Itoa(t.Words), num(t.Keyness), num(t.Weirdness), num(t.CValue), num(t.DP), strings.Join(vs, "; ")}
+}
+
+// num formats a measure with four significant decimals, never NaN or Inf
+// (the measures are finite by construction; this is the last guard).
+func num(x float64) string {
+	if x != x || x > 1e300 || x < -1e300 {
+		x = 0
+	}
+	return strconv.FormatFloat(x, 'f', 4, 64)
+}
+
+// Write writes the ranked terms in the named format.
+func Write(w io.Writer, format string, terms []*Term, opt WriteOptions) error {
+	bw := bufio.NewWriter(w)
+	var err error
+	switch format {
+	case "text":
+		err = writeText(bw, terms, opt)
+	case "tsv":
+		err = writeTSV(bw, terms)
+	case "csv":
+		err = writeCSV(bw, terms)
+	case "jsonl":
+		err = writeJSONL(bw, terms)
+	case "tbx":
+		err = writeTBX(bw, terms, opt)
+	default:
+		return fmt.Errorf("unknown output format %q (want one of %s)", format, strings.Join(Formats, ", "))
+	}
+	if err != nil {
+		return err
+	}
+	return bw.Flush()
+}
+
+func writeTSV(w *bufio.Writer, terms []*Term) error {
+	w.WriteString(strings.Join(columns, "\t") + "\n")
+	for _, t := range terms {
+		cells := t.cells()
+		for i, c := range cells {
+			cells[i] = strings.NewReplacer("\t", " ", "\n", " ", "\r", " ").Replace(c)
+		}
+		w.WriteString(strings.Join(cells, "\t") + "\n")
+	}
+	return nil
+}
+
+func writeCSV(w *bufio.Writer, terms []*Term) error {
+	cw := csv.NewWriter(w)
+	if err := cw.Write(columns); err != nil {
+		return err
+	}
+	for _, t := range terms {
+		if err := cw.Write(t.cells()); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+func writeJSONL(w *bufio.Writer, terms []*Term) error {
+	enc := json.NewEncoder(w)
+	enc.SetEscapeHTML(false)
+	for _, t := range terms {
+		if err := enc.Encode(t); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// writeText prints an aligned table: rank, term, score, freq, docs and the
+// most frequent other spellings; with Contexts > 0 the example sentences
+// follow each row, indented.
+func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
+	head := []string{"#", "term", "score", "freq", "docs", "keyness", "dp", "variants"}
+	rows := [][]string{head}
+	for _, t := range terms {
+		var other []string
+		for _, v := range t.Variants {
+			if v.Form != t.Term && len(other) < 3 {
+				other = append(other, v.Form)
+			}
+		}
+		if len(t.Variants) > 3+1 {
+			other = append(other, "…")
+		}
+		rows = append(rows, []string{strconv.Itoa(t.Rank), t.Term, strconv.FormatFloat(t.Score, 'f', 2, 64),
+			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
+			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")})
+	}
+	width := make([]int, len(head))
+	for _, r := range rows {
+		for i, c := range r {
+			width[i] = max(width[i], utf8.RuneCountInString(c))
+		}
+	}
+	right := map[int]bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
+	for ri, r := range rows {
+		var line strings.Builder
+		for i, c := range r {
+			pad := strings.Repeat(" ", width[i]-utf8.RuneCountInString(c))
+			if i > 0 {
+				line.WriteString("  ")
+			}
+			if right[i] {
+				line.WriteString(pad + c)
+			} else if i == len(r)-1 {
+				line.WriteString(c)
+			} else {
+				line.WriteString(c + pad)
+			}
+		}
+		w.WriteString(strings.TrimRight(line.String(), " ") + "\n")
+		if ri > 0 && opt.Contexts > 0 {
+			for k, cx := range terms[ri-1].Contexts {
+				if k >= opt.Contexts {
+					break
+				}
+				fmt.Fprintf(w, "      %s:%d: %s\n", cx.Doc, cx.Line, cx.Text)
+			}
+		}
+	}
+	return nil
+}
+
+// writeTBX writes a TermBase eXchange document in the TBX v3 core
+// structure (ISO 30042:2019, dialect TBX-Core, DCT style): one conceptEntry
+// per candidate, one langSec, the canonical term and its other surface
+// forms as termSecs, the statistics, contexts and source documents as notes.
+func writeTBX(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
+	w.WriteString(xml.Header)
+	w.WriteString(`<tbx style="dct" type="TBX-Core" xml:lang="en" xmlns="urn:iso:std:iso:30042:ed-2">` + "\n")
+	w.WriteString("  <tbxHeader>\n    <fileDesc>\n      <sourceDesc>\n        <p>")
+	xmlText(w, "Term candidates for review, extracted by glossmith. "+opt.Source)
+	w.WriteString("</p>\n      </sourceDesc>\n    </fileDesc>\n  </tbxHeader>\n  <text>\n    <body>\n")
+	for _, t := range terms {
+		fmt.Fprintf(w, "      <conceptEntry id=\"c%d\">\n", t.Rank)
+		w.WriteString("        <note>")
+		xmlText(w, fmt.Sprintf("candidate rank %d; score %s; frequency %d in %d document(s)", t.Rank, num(t.Score), t.Freq, t.Docs))
+		w.WriteString("</note>\n")
+		w.WriteString("        <langSec xml:lang=\"en\">\n")
+		forms := []string{t.Term}
+		seen := map[string]bool{t.Term: true}
+		for _, v := range t.Variants {
+			if !seen[v.Form] {
+				seen[v.Form] = true
+				forms = append(forms, v.Form)
+			}
+		}
+		for i, f := range forms {
+			w.WriteString("          <termSec>\n            <term>")
+			xmlText(w, f)
+			w.WriteString("</term>\n")
+			if i > 0 {
+				for _, v := range t.Variants {
+					if v.Form == f {
+						w.WriteString("            <note>")
+						xmlText(w, fmt.Sprintf("surface form; %d occurrence(s)", v.Count))
+						w.WriteString("</note>\n")
+					}
+				}
+			}
+			if i == 0 {
+				for _, cx := range t.Contexts {
+					w.WriteString("            <note>")
+					xmlText(w, fmt.Sprintf("context (%s, line %d): %s", cx.Doc, cx.Line, cx.Text))
+					w.WriteString("</note>\n")
+				}
+			}
+			w.WriteString("          </termSec>\n")
+		}
+		w.WriteString("        </langSec>\n      </conceptEntry>\n")
+	}
+	w.WriteString("    </body>\n  </text>\n</tbx>\n")
+	return nil
+}
+
+// xmlText writes s escaped for XML character data, dropping characters XML
+// 1.0 does not allow.
+func xmlText(w *bufio.Writer, s string) {
+	var b strings.Builder
+	xml.EscapeText(&b, []byte(s))
+	w.WriteString(b.String())
+}

@@ -1,0 +1,154 @@
+package pattern
+
+import (
+	"math/bits"
+	"regexp"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/grammar"
+)
+
+// The token fields atoms read; each has its own cache.
+const (
+	fieldUPOS = iota
+	fieldXPOS
+	fieldForm
+	fieldLemma
+	numFields
+)
+
+// atom is one distinct token test, evaluated once per distinct value of
+// the field it reads.
+type atom struct {
+	kind  grammar.TestKind
+	key   string
+	value string
+	re    *regexp.Regexp
+	first *[256]bool          // bytes a matching word can start with, or nil
+	set   map[string]struct{} // for alternations of plain words or lemmas
+	fold0 byte                // Word: the value's first byte when ASCII and lower case, else 0
+}
+
+func newAtom(t *grammar.Test) *atom {
+	a := &atom{kind: t.Kind, key: t.Key(), value: t.Value, re: t.Re}
+	if t.Kind == grammar.WordRe && t.Re != nil {
+		a.first = firstBytes(t.Re)
+	}
+	if (t.Kind == grammar.Word || t.Kind == grammar.Prefix) && t.Value != "" && t.Value[0] < 0x80 && t.Value[0] != 'k' && t.Value[0] != 's' {
+		// k and s have non-ASCII case variants (Kelvin sign, long s)
+		// that EqualFold accepts; for them the full test always runs.
+		a.fold0 = lowerASCII(t.Value[0])
+	}
+	return a
+}
+
+func newSetAtom(kind grammar.TestKind, items []string) *atom {
+	items = sortedKeys(items)
+	a := &atom{kind: kind, set: make(map[string]struct{}, len(items))}
+	a.key = "set:" + kind.String() + ":" + strings.Join(items, "\x00")
+	for _, w := range items {
+		a.set[w] = struct{}{}
+	}
+	return a
+}
+
+func (a *atom) field() int {
+	switch a.kind {
+	case grammar.UPOS:
+		return fieldUPOS
+	case grammar.Tag, grammar.TagRe:
+		return fieldXPOS
+	case grammar.Lemma, grammar.LemmaRe:
+		return fieldLemma
+	}
+	return fieldForm
+}
+
+// direct reports whether the atom is cheap enough to evaluate on every
+// token (a comparison with a short word) rather than through a cache.
+func (a *atom) direct() bool {
+	switch a.kind {
+	case grammar.Word, grammar.WordExact, grammar.Prefix, grammar.Suffix:
+		return a.set == nil
+	}
+	return false
+}
+
+// test evaluates the atom on the value of its field.
+func (a *atom) test(s string) bool {
+	switch a.kind {
+	case grammar.Any:
+		return true
+	case grammar.UPOS, grammar.Tag, grammar.WordExact:
+		return s == a.value
+	case grammar.Word, grammar.Lemma:
+		if a.set != nil {
+			if _, ok := a.set[s]; ok {
+				return true
+			}
+			_, ok := a.set[strings.ToLower(s)]
+			return ok
+		}
+		return strings.EqualFold(s, a.value)
+	case grammar.TagRe, grammar.LemmaRe:
+		return a.re.MatchString(s)
+	case grammar.WordRe:
+		if a.first != nil && (s == "" || !a.first[s[0]]) {
+			return false
+		}
+		return a.re.MatchString(s)
+	case grammar.Prefix:
+		return len(s) >= len(a.value) && strings.EqualFold(s[:len(a.value)], a.value)
+	case grammar.Suffix:
+		return len(s) >= len(a.value) && strings.EqualFold(s[len(s)-len(a.value):], a.value)
+	case grammar.Shape:
+		return Shape(s) == a.value
+	case grammar.ShapeRe:
+		return a.re.MatchString(Shape(s))
+	}
+	return false
+}
+
+// evalField returns the bits of the atoms reading field f that hold for
+// the value s.
+func (m *Matcher) evalField(f int, s string) uint64 {
+	var out uint64
+	mask := m.fieldMask[f]
+	for mask != 0 {
+		i := bits.TrailingZeros64(mask)
+		mask &^= 1 << uint(i)
+		if m.atoms[i].test(s) {
+			out |= 1 << uint(i)
+		}
+	}
+	return out
+}
+
+// Shape returns the word shape of s: upper-case letters become X,
+// lower-case letters x, digits d, other characters stay, and runs of the
+// same symbol collapse to one: "Turbine-2" → "Xx-d", "EC" → "X", "pH7" →
+// "xXd". Letters without case (as in many scripts) count as lower case.
+func Shape(s string) string {
+	var b strings.Builder
+	var last rune = -1
+	for len(s) > 0 {
+		r, n := utf8.DecodeRuneInString(s)
+		s = s[n:]
+		c := r
+		switch {
+		case unicode.IsUpper(r):
+			c = 'X'
+		case unicode.IsLetter(r):
+			c = 'x'
+		case unicode.IsDigit(r):
+			c = 'd'
+		}
+		if c != last {
+			b.WriteRune(c)
+			last = c
+		}
+	}
+	return b.String()
+}

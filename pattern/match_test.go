@@ -1,0 +1,351 @@
+package pattern
+
+import (
+	"fmt"
+	"reflect"
+	"strings"
+	"sync"
+	"testing"
+
+	"glossmith/grammar"
+	"glossmith/tagger/doc"
+)
+
+func render(ms []Match) string {
+	var parts []string
+	for _, m := range ms {
+		s := fmt.Sprintf("%s[%d,%d)", m.Rule, m.Start, m.End)
+		if m.Slots != nil {
+			var ls []string
+			for _, k := range sortedSlotNames(m.Slots) {
+				v := m.Slots[k]
+				ls = append(ls, fmt.Sprintf("%s=%d:%d", k, v[0], v[1]))
+			}
+			s += "{" + strings.Join(ls, ",") + "}"
+		}
+		parts = append(parts, s)
+	}
+	return strings.Join(parts, " ")
+}
+
+func sortedSlotNames(m map[string][2]int) []string {
+	var out []string
+	for k := range m {
+		out = append(out, k)
+	}
+	for i := range out {
+		for j := i + 1; j < len(out); j++ {
+			if out[j] < out[i] {
+				out[i], out[j] = out[j], out[i]
+			}
+		}
+	}
+	return out
+}
+
+const greenhouse = "the/DET/DT stainless/ADJ/JJ steel/NOUN/NN valve/NOUN/NN body/NOUN/NN of/ADP/IN the/DET/DT north/ADJ/JJ greenhouse/NOUN/NN cracked/VERB/VBD ./PUNCT/."
+
+func TestFindAllLeftmostLongest(t *testing.T) {
+	m := mustCompile(t, `
+modifier = ADJ | NOUN ;
+term = modifier* NOUN ;
+of_term = term "of" DET? term ;
+`, "term", "of_term")
+	got := render(m.FindAll(toks(greenhouse)))
+	// term: [1,5) "stainless steel valve body" is the longest at 1; then
+	// [7,9) "north greenhouse". of_term: [1,9). Sorted by start, then
+	// rule order.
+	want := "term[1,5) of_term[1,9) term[7,9)"
+	if got != want {
+		t.Errorf("got  %s\nwant %s", got, want)
+	}
+}
+
+func TestFindNestedEverySpan(t *testing.T) {
+	m := mustCompile(t, "term = (ADJ | NOUN)* NOUN ;")
+	got := render(m.FindNested(toks("stainless/ADJ steel/NOUN valve/NOUN cracked/VERB")))
+	// Every span that ends in a noun and holds only ADJ/NOUN before it.
+	want := "term[0,2) term[0,3) term[1,2) term[1,3) term[2,3)"
+	if got != want {
+		t.Errorf("got  %s\nwant %s", got, want)
+	}
+	if ms := m.FindAll(toks("stainless/ADJ steel/NOUN valve/NOUN cracked/VERB")); render(ms) != "term[0,3)" {
+		t.Errorf("FindAll: %s", render(ms))
+	}
+}
+
+func TestNoEmptyMatches(t *testing.T) {
+	m := mustCompile(t, "r = ADJ* ;")
+	got := render(m.FindAll(toks("a/NOUN b/ADJ c/ADJ d/NOUN e/ADJ")))
+	if got != "r[1,3) r[4,5)" {
+		t.Errorf("got %s", got)
+	}
+	if n := m.FindNested(toks("a/NOUN")); n != nil {
+		t.Errorf("nested on no ADJ: %s", render(n))
+	}
+}
+
+func TestLabels(t *testing.T) {
+	m := mustCompile(t, `verb_obj = @verb VERB DET? ADJ* @object NOUN ;`)
+	got := render(m.FindAll(toks("we/PRON flushed/VERB the/DET long/ADJ line/NOUN and/CCONJ fixed/VERB valves/NOUN")))
+	want := "verb_obj[1,5){object=4:5,verb=1:2} verb_obj[6,8){object=7:8,verb=6:7}"
+	if got != want {
+		t.Errorf("got  %s\nwant %s", got, want)
+	}
+	if l := m.Labels("verb_obj"); !reflect.DeepEqual(l, []string{"verb", "object"}) {
+		t.Errorf("Labels = %v", l)
+	}
+}
+
+func TestLabelChoice(t *testing.T) {
+	// The span "a b" (ADJ NOUN) parses as @x ADJ @y NOUN or, through the
+	// second alternative, as @z (ADJ NOUN). The first alternative in
+	// written order wins.
+	m := mustCompile(t, `r = @x ADJ @y NOUN | @z (ADJ NOUN) ;`)
+	if got := render(m.FindAll(toks("a/ADJ b/NOUN"))); got != "r[0,2){x=0:1,y=1:2}" {
+		t.Errorf("got %s", got)
+	}
+	m = mustCompile(t, `r = @z (ADJ NOUN) | @x ADJ @y NOUN ;`)
+	if got := render(m.FindAll(toks("a/ADJ b/NOUN"))); got != "r[0,2){z=0:2}" {
+		t.Errorf("got %s", got)
+	}
+	// Greedy repetition: @first takes as many tokens as the span allows.
+	m = mustCompile(t, `r = @first NOUN* @rest NOUN* ;`)
+	if got := render(m.FindAll(toks("a/NOUN b/NOUN c/NOUN"))); got != "r[0,3){first=0:3,rest=3:3}" {
+		t.Errorf("got %s", got)
+	}
+	// A label inside a repetition holds the last round.
+	m = mustCompile(t, `r = (@n NOUN ",")+ ;`)
+	if got := render(m.FindAll(toks("a/NOUN ,/PUNCT b/NOUN ,/PUNCT"))); got != "r[0,4){n=2:3}" {
+		t.Errorf("got %s", got)
+	}
+	// A label in an alternative not taken is absent.
+	m = mustCompile(t, `r = @a ADJ | @n NOUN ;`)
+	if got := render(m.FindAll(toks("x/NOUN"))); got != "r[0,1){n=0:1}" {
+		t.Errorf("got %s", got)
+	}
+	// Labels of referenced rules stay inside them.
+	m = mustCompile(t, "np = @head NOUN ; r = @obj np ;", "r")
+	if got := render(m.FindAll(toks("x/NOUN"))); got != "r[0,1){obj=0:1}" {
+		t.Errorf("got %s", got)
+	}
+}
+
+func TestAnchors(t *testing.T) {
+	s := toks("Valves/NOUN leak/VERB and/CCONJ pumps/NOUN fail/VERB")
+	for _, c := range []struct{ rule, want string }{
+		{"r = ^ NOUN ;", "r[0,1)"},
+		{"r = NOUN $ ;", ""},
+		{"r = VERB $ ;", "r[4,5)"},
+		{"r = ^ _* $ ;", "r[0,5)"},
+		{"r = (^ | CCONJ) NOUN ;", "r[0,1) r[2,4)"},
+		{"r = NOUN ^ ;", ""},
+		{"r = _ (VERB $ | NOUN) ;", "r[2,4)"},
+	} {
+		m := mustCompile(t, c.rule)
+		if got := render(m.FindAll(s)); got != c.want {
+			t.Errorf("%s: got %q, want %q", c.rule, got, c.want)
+		}
+	}
+}
+
+func TestSentenceBoundary(t *testing.T) {
+	// "valve ." ends one sentence, "Body cracked" starts the next: a rule
+	// for two nouns in a row must not join "valve" and "Body".
+	m := mustCompile(t, "pair = NOUN NOUN ;")
+	first, second := toks("the/DET valve/NOUN"), toks("body/NOUN cracked/VERB")
+	if got := append(m.FindAll(first), m.FindAll(second)...); len(got) != 0 {
+		t.Errorf("matched across sentences: %s", render(got))
+	}
+	if got := render(m.FindAll(append(first, second...))); got != "pair[1,3)" {
+		t.Errorf("control: got %s", got)
+	}
+}
+
+func TestTokenTests(t *testing.T) {
+	s := toks("The/DET/DT Turbine-2/PROPN/NNP unsealed/VERB/VBN EC/PROPN/NNP valves/NOUN/NNS sealing/VERB/VBG Valve/NOUN/NN")
+	s[4].Lemma = "valve"
+	for _, c := range []struct{ rule, want string }{
+		{`r = tag:NNS ;`, "r[4,5)"},
+		{`r = tag:/^VB/ ;`, "r[2,3) r[5,6)"},
+		{`r = "valve" ;`, "r[6,7)"},
+		{`r = 'Valve' ;`, "r[6,7)"},
+		{`r = 'valve' ;`, ""},
+		{`r = "the" | "ec" ;`, "r[0,1) r[3,4)"},
+		{`r = lemma:valve ;`, "r[4,5) r[6,7)"},
+		{`r = lemma:/^val/ & NOUN ;`, "r[4,5) r[6,7)"},
+		{`r = /^[A-Z]{2,5}$/ ;`, "r[3,4)"},
+		{`r = prefix:un ;`, "r[2,3)"},
+		{`r = suffix:ING ;`, "r[5,6)"},
+		{`r = shape:Xx-d ;`, "r[1,2)"},
+		{`r = shape:/^X$/ ;`, "r[3,4)"},
+		{`r = _ ;`, "r[0,7)"},
+		{`r = _+ ;`, "r[0,7)"},
+		{`r = !NOUN & !DET ;`, "r[1,4) r[5,6)"},
+		{`r = !(NOUN | DET) ;`, "r[1,4) r[5,6)"},
+		{`r = !!NOUN ;`, "r[4,5) r[6,7)"},
+		{`r = VERB & tag:VBN | DET ;`, "r[0,1) r[2,3)"},
+		{`r = PROPN{2} ;`, ""},
+		{`r = (PROPN VERB?){2,} ;`, "r[1,4)"},
+		{`r = "unsealed ec" ;`, "r[2,4)"},
+	} {
+		m := mustCompile(t, c.rule)
+		var got []string
+		for _, mt := range m.FindAll(s) {
+			got = append(got, fmt.Sprintf("r[%d,%d)", mt.Start, mt.End))
+		}
+		// _ and ! rules match runs; compare their merged form.
+		g := strings.Join(got, " ")
+		if c.rule == `r = _ ;` || strings.HasPrefix(c.rule, `r = !`) {
+			g = mergeRuns(m.FindAll(s))
+		}
+		if g != c.want {
+			t.Errorf("%s: got %q, want %q", c.rule, g, c.want)
+		}
+	}
+}
+
+// mergeRuns joins adjacent one-token matches into runs, to keep the table
+// above short.
+func mergeRuns(ms []Match) string {
+	var out []string
+	for i := 0; i < len(ms); {
+		j := i
+		for j+1 < len(ms) && ms[j+1].Start == ms[j].End {
+			j++
+		}
+		out = append(out, fmt.Sprintf("r[%d,%d)", ms[i].Start, ms[j].End))
+		i = j + 1
+	}
+	return strings.Join(out, " ")
+}
+
+func TestShape(t *testing.T) {
+	for in, want := range map[string]string{
+		"Turbine-2": "Xx-d", "EC": "X", "pH7": "xXd", "valve": "x", "2024": "d", "A/B": "X/X", "": "",
+	} {
+		if got := Shape(in); got != want {
+			t.Errorf("Shape(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+func TestCompilePattern(t *testing.T) {
+	rs := mustSet(t, "term = ADJ* NOUN ;")
+	m, err := CompilePattern(`term "of" term`, rs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := render(m.FindAll(toks("rate/NOUN of/ADP dry/ADJ air/NOUN")))
+	if got != "pattern[0,4)" {
+		t.Errorf("got %s", got)
+	}
+	_, err = CompilePattern(`term NUON`, rs)
+	el, ok := err.(grammar.ErrorList)
+	if !ok || len(el) != 1 {
+		t.Fatalf("want one error, got %v", err)
+	}
+	if e := el[0]; e.Pos.Line != 1 || e.Pos.Col != 6 || !strings.Contains(e.Msg, "did you mean NOUN?") || e.Source != "term NUON" {
+		t.Errorf("error = %v (source %q)", e, e.Source)
+	}
+	if _, err := CompilePattern(`NOUN (`, nil); err == nil {
+		t.Error("no error for a broken pattern")
+	}
+}
+
+func TestCompileErrors(t *testing.T) {
+	rs := mustSet(t, "term = NOUN ; _helper = ADJ ;")
+	if _, err := Compile(rs, "trem"); err == nil || !strings.Contains(err.Error(), "did you mean term?") {
+		t.Errorf("err = %v", err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := m.Rules(); !reflect.DeepEqual(got, []string{"term"}) {
+		t.Errorf("default rules = %v (helpers named _… must be left out)", got)
+	}
+}
+
+func TestConcurrentUse(t *testing.T) {
+	rs, err := grammar.LoadStock("terms")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	corpus := syntheticCorpus(300)
+	want := make([]string, len(corpus))
+	for i, s := range corpus {
+		want[i] = render(m.FindAll(s)) + "|" + render(m.FindNested(s))
+	}
+	var wg sync.WaitGroup
+	errs := make(chan string, 8)
+	for g := 0; g < 8; g++ {
+		wg.Add(1)
+		go func(g int) {
+			defer wg.Done()
+			for k := range corpus {
+				i := (k + g*37) % len(corpus)
+				if got := render(m.FindAll(corpus[i])) + "|" + render(m.FindNested(corpus[i])); got != want[i] {
+					errs <- fmt.Sprintf("goroutine %d, sentence %d: %s != %s", g, i, got, want[i])
+					return
+				}
+			}
+		}(g)
+	}
+	wg.Wait()
+	close(errs)
+	for e := range errs {
+		t.Error(e)
+	}
+}
+
+func TestCacheResetKeepsResults(t *testing.T) {
+	rs, err := grammar.LoadStock("terms", "pairs")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	corpus := syntheticCorpus(200)
+	var want []string
+	for _, s := range corpus {
+		want = append(want, render(m.FindAll(s)))
+	}
+	defer func(c, s int) { maxClasses, maxDFAStates = c, s }(maxClasses, maxDFAStates)
+	maxClasses, maxDFAStates = 2, 2 // drop the caches before almost every sentence
+	m2, _ := Compile(rs)
+	for i, s := range corpus {
+		if got := render(m2.FindAll(s)); got != want[i] {
+			t.Fatalf("sentence %d: %s != %s", i, got, want[i])
+		}
+	}
+}
+
+func TestPairsLabels(t *testing.T) {
+	rs, err := grammar.LoadStock("pairs")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, name := range m.Rules() {
+		if l := m.Labels(name); !reflect.DeepEqual(l, []string{"head", "dep"}) && !reflect.DeepEqual(l, []string{"dep", "head"}) {
+			t.Errorf("%s labels %v, want head and dep", name, l)
+		}
+	}
+	got := render(m.FindNested(toks("flush/VERB/VB the/DET/DT drip/NOUN/NN line/NOUN/NN")))
+	want := "verb_obj[0,3){dep=2:3,head=0:1} verb_obj[0,4){dep=3:4,head=0:1} noun_noun[2,4){dep=2:3,head=3:4}"
+	if got != want {
+		t.Errorf("got  %s\nwant %s", got, want)
+	}
+}
+
+var _ = doc.Token{}

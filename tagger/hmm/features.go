@@ -1,0 +1,258 @@
+package hmm
+
+import (
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/tagger/doc"
+)
+
+// Feature templates of the perceptron model. Each feature is a 64-bit
+// hash of its template and value; a collision between two kept features
+// is possible in principle but has odds far below one in a million for
+// the feature counts of a treebank.
+const (
+	fBias = iota + 1
+	fForm
+	fLower
+	fSuf1 // fSuf1..fSuf1+4: suffixes of 1..5 bytes of the lower-cased word
+	_
+	_
+	_
+	_
+	fPre1 // fPre1..fPre1+3: prefixes of 1..4 bytes
+	_
+	_
+	_
+	fShape
+	fCapFirst    // capitalized word at the start of the sentence
+	fCapInside   // capitalized word elsewhere
+	fAllUpper    // every letter upper case (and more than one letter)
+	fDigit       // contains a digit
+	fHyphen      // contains a hyphen
+	fNoLetter    // no letter at all
+	fPrev1       // lower-cased word at i-1
+	fNext1       // … at i+1
+	fPrev2       // … at i-2
+	fNext2       // … at i+2
+	fPrevSuf3    // 3-byte suffix of the word at i-1
+	fNextSuf3    // … at i+1
+	fPrevWord    // word i-1 with word i
+	fWordNext    // word i with word i+1
+	fPrevShape   // shape at i-1
+	fNextShape   // shape at i+1
+	fNextPrefix1 // first byte of the next word, lower-cased
+)
+
+const (
+	fnvOffset = 14695981039346656037
+	fnvPrime  = 1099511628211
+)
+
+func hashBytes(b []byte) uint64 {
+	h := uint64(fnvOffset)
+	for _, c := range b {
+		h ^= uint64(c)
+		h *= fnvPrime
+	}
+	return h
+}
+
+func hashString(s string) uint64 {
+	h := uint64(fnvOffset)
+	for i := 0; i < len(s); i++ {
+		h ^= uint64(s[i])
+		h *= fnvPrime
+	}
+	return h
+}
+
+// mix is the finalizer of splitmix64: it spreads the bits of a hash so that
+// combined keys do not cluster in the open-addressing table.
+func mix(x uint64) uint64 {
+	x ^= x >> 30
+	x *= 0xbf58476d1ce4e5b9
+	x ^= x >> 27
+	x *= 0x94d049bb133111eb
+	x ^= x >> 31
+	return x
+}
+
+func key(template int, h uint64) uint64 {
+	k := mix(h ^ uint64(template)*0x9E3779B97F4A7C15)
+	if k == 0 {
+		k = 1 // 0 marks an empty slot
+	}
+	return k
+}
+
+func key2(template int, h1, h2 uint64) uint64 {
+	return key(template, mix(h1)+h2)
+}
+
+// tokenInfo holds the per-token hashes that neighbouring tokens reuse.
+type tokenInfo struct {
+	lower, suf3, shape, pre1 uint64
+}
+
+var (
+	hStart = hashBytes([]byte("\x00<s>"))
+	hEnd   = hashBytes([]byte("\x00</s>"))
+)
+
+// extractFeatures writes the feature keys of every token into l.feats,
+// those of token i at l.feats[l.foff[i]:l.foff[i+1]]; the keys from
+// l.fmid[i] on depend on the token's neighbours or position, those before
+// on the word alone. It allocates nothing
+// once the lattice's buffers have grown.
+func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) []tokenInfo {
+	n := len(toks)
+	if cap(info) < n {
+		info = make([]tokenInfo, n)
+	}
+	info = info[:n]
+	buf := l.buf[:0]
+	for i := range toks {
+		buf = lowerInto(buf[:0], toks[i].Form)
+		ti := &info[i]
+		ti.lower = hashBytes(buf)
+		ti.suf3 = hashBytes(buf[max(0, len(buf)-3):])
+		ti.pre1 = hashBytes(buf[:min(1, len(buf))])
+		buf = shapeInto(buf[:0], toks[i].Form)
+		ti.shape = hashBytes(buf)
+	}
+	f := l.feats[:0]
+	l.foff = append(l.foff[:0], 0)
+	l.fmid = l.fmid[:0]
+	at := func(i int) *tokenInfo {
+		if i < 0 || i >= n {
+			return nil
+		}
+		return &info[i]
+	}
+	lowerAt := func(i int) uint64 {
+		if t := at(i); t != nil {
+			return t.lower
+		}
+		if i < 0 {
+			return hStart
+		}
+		return hEnd
+	}
+	for i := range toks {
+		form := toks[i].Form
+		ti := &info[i]
+		buf = lowerInto(buf[:0], form)
+		f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
+		for k := 1; k <= 5 && k < len(buf); k++ {
+			f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
+		}
+		for k := 1; k <= 4 && k < len(buf); k++ {
+			f = append(f, key(fPre1+k-1, hashBytes(buf[:k])))
+		}
+		var upperFirst, hasLetter, hasLower, digit, hyphen bool
+		letters := 0
+		for j, r := range form {
+			switch {
+			case unicode.IsUpper(r):
+				hasLetter = true
+				letters++
+				if j == 0 {
+					upperFirst = true
+				}
+			case unicode.IsLetter(r):
+				hasLetter, hasLower = true, true
+				letters++
+			case r >= '0' && r <= '9':
+				digit = true
+			case r == '-':
+				hyphen = true
+			}
+		}
+		if hasLetter && !hasLower && letters > 1 {
+			f = append(f, key(fAllUpper, 0))
+		}
+		if digit {
+			f = append(f, key(fDigit, 0))
+		}
+		if hyphen {
+			f = append(f, key(fHyphen, 0))
+		}
+		if !hasLetter {
+			f = append(f, key(fNoLetter, 0))
+		}
+		// Above: features of the word alone; below: of its context.
+		l.fmid = append(l.fmid, int32(len(f)))
+		if upperFirst {
+			if i == 0 {
+				f = append(f, key(fCapFirst, 0))
+			} else {
+				f = append(f, key(fCapInside, 0))
+			}
+		}
+
+		p1, n1 := lowerAt(i-1), lowerAt(i+1)
+		f = append(f, key(fPrev1, p1), key(fNext1, n1), key(fPrev2, lowerAt(i-2)), key(fNext2, lowerAt(i+2)),
+			key2(fPrevWord, p1, ti.lower), key2(fWordNext, ti.lower, n1))
+		if t := at(i - 1); t != nil {
+			f = append(f, key(fPrevSuf3, t.suf3), key(fPrevShape, t.shape))
+		}
+		if t := at(i + 1); t != nil {
+			f = append(f, key(fNextSuf3, t.suf3), key(fNextShape, t.shape), key(fNextPrefix1, t.pre1))
+		}
+		l.foff = append(l.foff, int32(len(f)))
+	}
+	l.feats = f
+	l.buf = buf
+	return info
+}
+
+// lowerInto appends the lower-cased form to buf without allocating.
+func lowerInto(buf []byte, s string) []byte {
+	for i := 0; i < len(s); {
+		c := s[i]
+		if c < utf8.RuneSelf {
+			if 'A' <= c && c <= 'Z' {
+				c += 'a' - 'A'
+			}
+			buf = append(buf, c)
+			i++
+			continue
+		}
+		r, size := utf8.DecodeRuneInString(s[i:])
+		buf = utf8.AppendRune(buf, unicode.ToLower(r))
+		i += size
+	}
+	return buf
+}
+
+// shapeInto appends the word's shape: X for upper-case letters, x for
+// lower-case, d for digits, other characters as they are, runs of the same
+// class folded into one, at most 6 symbols ("Valve-3A" → "Xx-dX").
+func shapeInto(buf []byte, s string) []byte {
+	var last byte
+	for _, r := range s {
+		var c byte
+		switch {
+		case unicode.IsUpper(r):
+			c = 'X'
+		case unicode.IsLetter(r):
+			c = 'x'
+		case unicode.IsDigit(r):
+			c = 'd'
+		case r < utf8.RuneSelf:
+			c = byte(r)
+		default:
+			c = '*'
+		}
+		if c == last {
+			continue
+		}
+		last = c
+		buf = append(buf, c)
+		if len(buf) >= 6 {
+			break
+		}
+	}
+	return buf
+}

@@ -1,0 +1,289 @@
+// Package hmm is glossmith's part-of-speech tagger: trigram hidden Markov
+// models trained from a CoNLL-U treebank, decoded with Viterbi.
+//
+// Two ways of estimating the same model are offered:
+//
+//   - MethodHMM, the generative trigram tagger of Brants (2000), "TnT — a
+//     statistical part-of-speech tagger": transition probabilities
+//     interpolated from uni-, bi- and trigram estimates with weights found
+//     by deleted interpolation, emission probabilities for known words, and
+//     a suffix model (separate tables for capitalized and lower-case words)
+//     for unknown ones. Training is counting; it is the fast baseline.
+//   - MethodPerceptron, the discriminatively trained HMM of Collins (2002),
+//     "Discriminative training methods for hidden Markov models": the same
+//     trigram Viterbi decoding, with weights for rich features of the word
+//     and its neighbours and for tag bigrams and trigrams, learned by the
+//     averaged structured perceptron. It is the default model.
+//
+// The states of both are "joint" tags, a fine Penn tag together with its
+// Universal Dependencies tag (XPOS+UPOS), or fine tags alone with UPOS
+// chosen afterwards from the word and its fine tag (TagsetXPOS). Lemmas
+// come from package lemma. A Model is read-only once built and safe for
+// concurrent use.
+package hmm
+
+import (
+	"strings"
+	"sync"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/lemma"
+)
+
+// Training methods.
+const (
+	MethodHMM        = "hmm"
+	MethodPerceptron = "perceptron"
+)
+
+// Tag sets.
+const (
+	TagsetJoint = "joint" // states are XPOS+UPOS pairs
+	TagsetXPOS  = "xpos"  // states are XPOS; UPOS from (word, XPOS)
+)
+
+// maxTags is the largest number of states; tags are stored as bytes and
+// one index is kept for the sentence boundary.
+const maxTags = 255
+
+// Info describes a model for `glossmith` users and reports.
+type Info struct {
+	Method        string `json:"method"`
+	Tagset        string `json:"tagset"`
+	Source        string `json:"source"`
+	States        int    `json:"states"`
+	UPOSTags      int    `json:"upos_tags"`
+	XPOSTags      int    `json:"xpos_tags"`
+	Words         int    `json:"words"`
+	Features      int    `json:"features,omitempty"`
+	Weights       int    `json:"weights,omitempty"`
+	Epochs        int    `json:"epochs,omitempty"`
+	LemmaRules    int    `json:"lemma_rules"`
+	LemmaExcepts  int    `json:"lemma_exceptions"`
+	TrainingToken int    `json:"training_tokens"`
+}
+
+// wordEntry is what the lexicon knows of a training word form.
+type wordEntry struct {
+	count int32
+	first int32 // tagged counts in Model.wtags/wcount[first:first+ntags]
+	ntags int32
+}
+
+// Model is a trained tagger.
+type Model struct {
+	method string
+	tagset string
+	source string
+	epochs int
+
+	tags       []string // state names: "XPOS\tUPOS" (joint) or "XPOS"
+	tagX, tagU []string // per state
+
+	// Lexicon of training word forms with the tags each was seen with.
+	lex    map[string]int32
+	words  []wordEntry
+	wtags  []uint8
+	wcount []int32
+	wlemma []string // lemma of the word with tag wtags[j], precomputed
+
+	// UPOS for TagsetXPOS: by lower-cased word and XPOS state, then by XPOS.
+	uposByWord map[string][]uposChoice
+	uposByTag  []string
+
+	lem *lemma.Lemmatizer
+
+	// General-language reference counts from the training data.
+	refForm  map[string]int32
+	refLemma map[string]int32
+	refSize  int
+
+	trans transitions
+	beam  float32
+	gen   *generative
+	perc  *perceptron
+
+	pool sync.Pool // *lattice
+}
+
+type uposChoice struct {
+	xpos uint8
+	upos string
+}
+
+// Info describes the model.
+func (m *Model) Info() Info {
+	ux := map[string]bool{}
+	uu := map[string]bool{}
+	for i := range m.tags {
+		ux[m.tagX[i]] = true
+		if m.tagU[i] != "" {
+			uu[m.tagU[i]] = true
+		}
+	}
+	for _, u := range m.uposByTag {
+		uu[u] = true
+	}
+	for _, cs := range m.uposByWord {
+		for _, c := range cs {
+			uu[c.upos] = true
+		}
+	}
+	in := Info{Method: m.method, Tagset: m.tagset, Source: m.source, States: len(m.tags),
+		UPOSTags: len(uu), XPOSTags: len(ux), Words: len(m.words), Epochs: m.epochs, TrainingToken: m.refSize}
+	if m.perc != nil {
+		in.Features = len(m.perc.keys)
+		in.Weights = len(m.perc.rowW)
+	}
+	in.LemmaExcepts, in.LemmaRules = m.lem.Size()
+	return in
+}
+
+// RefFreq returns how often the lower-cased word form occurred in the
+// training data: a general-language reference count.
+func (m *Model) RefFreq(word string) int { return int(m.refForm[strings.ToLower(word)]) }
+
+// RefLemmaFreq returns how often the lower-cased lemma occurred in the
+// training data.
+func (m *Model) RefLemmaFreq(l string) int { return int(m.refLemma[strings.ToLower(l)]) }
+
+// RefSize returns the number of tokens of the training data.
+func (m *Model) RefSize() int { return m.refSize }
+
+// Known reports whether the word form was seen in training.
+func (m *Model) Known(form string) bool { _, ok := m.lex[form]; return ok }
+
+// TagDocument tags every sentence, unless the document came fully tagged.
+func (m *Model) TagDocument(d *doc.Document) {
+	if d.Tagged() {
+		return
+	}
+	for i := range d.Sentences {
+		m.Tag(&d.Sentences[i])
+	}
+}
+
+// pretagged reports whether every token has UPOS, XPOS and lemma.
+func pretagged(s *doc.Sentence) bool {
+	for i := range s.Tokens {
+		t := &s.Tokens[i]
+		if t.UPOS == "" || t.XPOS == "" || t.Lemma == "" {
+			return false
+		}
+	}
+	return len(s.Tokens) > 0
+}
+
+// Tag fills UPOS, XPOS and Lemma of every token of the sentence. A sentence
+// whose tokens all carry the three already is left as it is.
+func (m *Model) Tag(s *doc.Sentence) {
+	if len(s.Tokens) == 0 || pretagged(s) {
+		return
+	}
+	l := m.getLattice()
+	defer m.pool.Put(l)
+	m.decode(l, s.Tokens)
+	for i := range s.Tokens {
+		t := &s.Tokens[i]
+		st := l.tags[i]
+		t.XPOS = m.tagX[st]
+		t.UPOS = m.uposOf(t.Form, st)
+		t.Lemma = ""
+		if w := l.wid[i]; w >= 0 {
+			e := &m.words[w]
+			for j := e.first; j < e.first+e.ntags; j++ {
+				if m.wtags[j] == st {
+					t.Lemma = m.wlemma[j]
+					break
+				}
+			}
+		}
+		if t.Lemma == "" {
+			t.Lemma = m.lem.Lemma(t.Form, t.UPOS, t.XPOS)
+		}
+	}
+}
+
+// prepareLexicon precomputes the lemma of every (word, tag) of the
+// lexicon, which spares the lemmatizer's look-ups for most tokens.
+func (m *Model) prepareLexicon() {
+	m.wlemma = make([]string, len(m.wtags))
+	for form, w := range m.lex {
+		e := m.words[w]
+		for j := e.first; j < e.first+e.ntags; j++ {
+			st := m.wtags[j]
+			m.wlemma[j] = m.lem.Lemma(form, m.uposOf(form, st), m.tagX[st])
+		}
+	}
+}
+
+func (m *Model) getLattice() *lattice {
+	if l, ok := m.pool.Get().(*lattice); ok {
+		return l
+	}
+	return &lattice{score: make([]float32, len(m.tags))}
+}
+
+// decode builds the lattice of a sentence with the model's scores and runs
+// Viterbi; the best states are left in l.tags.
+func (m *Model) decode(l *lattice, toks []doc.Token) {
+	if m.perc != nil {
+		m.perc.buildLattice(m, l, toks)
+	} else {
+		m.gen.buildLattice(m, l, toks)
+	}
+	l.decode(&m.trans, m.beam)
+}
+
+// uposOf gives the UPOS of a word in a state.
+func (m *Model) uposOf(form string, st uint8) string {
+	if u := m.tagU[st]; u != "" {
+		return u
+	}
+	if cs, ok := m.uposByWord[form]; ok {
+		for _, c := range cs {
+			if c.xpos == st {
+				return c.upos
+			}
+		}
+	}
+	if lw := lowerASCIIFast(form); lw != form {
+		for _, c := range m.uposByWord[lw] {
+			if c.xpos == st {
+				return c.upos
+			}
+		}
+	}
+	return m.uposByTag[st]
+}
+
+// lowerASCIIFast lower-cases a string, allocating only when it changes.
+func lowerASCIIFast(s string) string { return strings.ToLower(s) }
+
+// entry returns the lexicon entry of a form.
+func (m *Model) entry(form string) (*wordEntry, bool) {
+	i, ok := m.lex[form]
+	if !ok {
+		return nil, false
+	}
+	return &m.words[i], true
+}
+
+// lookup returns the lexicon entry of a form and records its index for
+// token i of the lattice (-1 when unknown).
+func (m *Model) lookup(l *lattice, form string) (*wordEntry, bool) {
+	i, ok := m.lex[form]
+	if !ok {
+		l.wid = append(l.wid, -1)
+		return nil, false
+	}
+	l.wid = append(l.wid, i)
+	return &m.words[i], true
+}
+
+func (m *Model) stateName(x, u string) string {
+	if m.tagset == TagsetXPOS {
+		return x
+	}
+	return x + "\t" + u
+}

@@ -1,0 +1,407 @@
+package hmm
+
+import (
+	"math"
+	"math/rand/v2"
+	"sort"
+
+	"glossmith/tagger/conllu"
+	"glossmith/tagger/doc"
+)
+
+// perceptron holds the weights of the discriminative model in the form
+// decoding wants: a hash table from feature key to row, and per row the
+// non-zero weights as (tag, weight) pairs. Transition weights live in
+// Model.trans.
+type perceptron struct {
+	dictMin  int32
+	maxCands int
+
+	keys     []uint64 // feature keys, sorted; row i belongs to keys[i]
+	rowStart []int32  // weights of row i: rowTag/rowW[rowStart[i]:rowStart[i+1]]
+	rowTag   []uint8
+	rowW     []float32
+
+	slots []int32 // open-addressing table: slot → row+1 (0 = empty)
+	mask  uint64
+
+	// tri and bi are the transition weights as trained (and stored);
+	// Model.trans holds them folded into one table.
+	tri, bi []float32
+
+	// wscore[j] is the summed weight of the word-alone features of the
+	// lexicon entry m.wtags[j] for that tag, for tag-dictionary words: it
+	// spares the feature look-ups of the most frequent tokens.
+	wscore []float32
+}
+
+// prepare builds what decoding needs beyond the stored weights.
+func (p *perceptron) prepare(m *Model) {
+	p.index()
+	m.trans = (&transitions{t1: len(m.tags) + 1, tri: p.tri, bi: p.bi}).fold()
+	p.wscore = make([]float32, len(m.wtags))
+	l := &lattice{}
+	tok := make([]doc.Token, 1)
+	for form, wi := range m.lex {
+		e := m.words[wi]
+		if e.count < p.dictMin || e.ntags < 2 {
+			continue
+		}
+		tok[0].Form = form
+		l.info = extractFeatures(m, l, tok, l.info)
+		for j := e.first; j < e.first+e.ntags; j++ {
+			t := m.wtags[j]
+			var sum float32
+			for _, k := range l.feats[:l.fmid[0]] {
+				sum += p.weight(p.row(k), t)
+			}
+			p.wscore[j] = sum
+		}
+	}
+}
+
+// weight returns the weight of row r for tag t (0 when absent).
+func (p *perceptron) weight(r int32, t uint8) float32 {
+	if r < 0 {
+		return 0
+	}
+	for j := p.rowStart[r]; j < p.rowStart[r+1]; j++ {
+		if p.rowTag[j] == t {
+			return p.rowW[j]
+		}
+	}
+	return 0
+}
+
+// index builds the open-addressing table over keys.
+func (p *perceptron) index() {
+	size := 1
+	for size < 2*len(p.keys)+1 {
+		size <<= 1
+	}
+	p.slots = make([]int32, size)
+	p.mask = uint64(size - 1)
+	for i, k := range p.keys {
+		s := k & p.mask
+		for p.slots[s] != 0 {
+			s = (s + 1) & p.mask
+		}
+		p.slots[s] = int32(i + 1)
+	}
+}
+
+func (p *perceptron) row(k uint64) int32 {
+	s := k & p.mask
+	for {
+		r := p.slots[s]
+		if r == 0 {
+			return -1
+		}
+		if p.keys[r-1] == k {
+			return r - 1
+		}
+		s = (s + 1) & p.mask
+	}
+}
+
+// buildLattice scores the tags of every token and keeps the candidates:
+// the tag dictionary's tags for frequent words (one tag needs no scoring
+// at all), the best maxCands tags for the others.
+func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
+	l.info = extractFeatures(m, l, toks, l.info)
+	l.reset(len(toks))
+	nt := len(m.tags)
+	score := l.score[:nt]
+	for i := range toks {
+		e, ok := m.lookup(l, toks[i].Form)
+		dict := ok && e.count >= p.dictMin
+		if dict && e.ntags == 1 {
+			l.add(m.wtags[e.first], 0)
+			l.closePos()
+			continue
+		}
+		clear(score)
+		from := l.foff[i]
+		if dict {
+			from = l.fmid[i] // the word-alone part is in wscore
+		}
+		for _, k := range l.feats[from:l.foff[i+1]] {
+			r := p.row(k)
+			if r < 0 {
+				continue
+			}
+			a, b := p.rowStart[r], p.rowStart[r+1]
+			tags := p.rowTag[a:b]
+			ws := p.rowW[a:b]
+			for j, t := range tags {
+				score[t] += ws[j]
+			}
+		}
+		if dict {
+			for j := e.first; j < e.first+e.ntags; j++ {
+				t := m.wtags[j]
+				l.add(t, score[t]+p.wscore[j])
+			}
+			l.closePos()
+			continue
+		}
+		selectCands(l, score, p.maxCands)
+	}
+}
+
+// selectCands adds the maxCands best-scoring tags of a token to the
+// lattice, by partial selection (maxCands is small).
+func selectCands(l *lattice, score []float32, maxCands int) {
+	start := len(l.cands)
+	for t, s := range score {
+		n := len(l.cands) - start
+		if n < maxCands {
+			l.add(uint8(t), s)
+		} else if s > l.emit[len(l.emit)-1] {
+			l.cands[len(l.cands)-1], l.emit[len(l.emit)-1] = uint8(t), s
+		} else {
+			continue
+		}
+		// Keep the slice sorted by descending score.
+		for j := len(l.cands) - 1; j > start && l.emit[j] > l.emit[j-1]; j-- {
+			l.cands[j], l.cands[j-1] = l.cands[j-1], l.cands[j]
+			l.emit[j], l.emit[j-1] = l.emit[j-1], l.emit[j]
+		}
+	}
+	l.closePos()
+}
+
+// trainer holds the dense weights of perceptron training. Averaging uses
+// the trick of Daumé (2006, "Practical structured learning techniques for
+// natural language processing", §2.1.1): besides the weights w, a sum u of
+// every update multiplied by the time step c is kept, and the average of w
+// over all steps is w - u/c. This gives exactly the averaged perceptron of
+// Collins (2002) while touching only the weights an update changes — the
+// same saving as the lazy time-stamp update, with no time stamps.
+type trainer struct {
+	nt, t1   int
+	w        []float32 // features × tags
+	u        []float64
+	tri, bi  []float32 // transition weights
+	utri, ub []float64
+	c        float64
+}
+
+func (tr *trainer) updFeat(id int32, t uint8, d float32) {
+	i := int(id)*tr.nt + int(t)
+	tr.w[i] += d
+	tr.u[i] += tr.c * float64(d)
+}
+
+func (tr *trainer) updTrans(a, b, c uint8, d float32) {
+	i := (int(a)*tr.t1+int(b))*tr.t1 + int(c)
+	tr.tri[i] += d
+	tr.utri[i] += tr.c * float64(d)
+	j := int(b)*tr.t1 + int(c)
+	tr.bi[j] += d
+	tr.ub[j] += tr.c * float64(d)
+}
+
+// trainSent is one training sentence with its feature rows per token.
+type trainSent struct {
+	toks []doc.Token
+	gold []uint8
+	ids  []int32 // feature rows, token i's at ids[off[i]:off[i+1]]
+	off  []int32
+}
+
+func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
+	nt := len(m.tags)
+	t1 := nt + 1
+	// Features seen fewer than MinFeatureCount times are left out before
+	// training, not only pruned after it: a word seen once then trains the
+	// weights unknown words rely on (suffixes, shape, context) instead of
+	// its own identity feature, which decoding would not have anyway.
+	l := &lattice{score: make([]float32, nt)}
+	freq := map[uint64]int32{}
+	for _, s := range sents {
+		l.info = extractFeatures(m, l, s.Tokens, l.info)
+		for _, k := range l.feats {
+			freq[k]++
+		}
+	}
+	// Feature rows in order of first appearance, which is deterministic.
+	rows := map[uint64]int32{}
+	var keys []uint64
+	var counts []int32
+	data := make([]trainSent, len(sents))
+	for si, s := range sents {
+		l.info = extractFeatures(m, l, s.Tokens, l.info)
+		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1)}
+		ts.ids = make([]int32, 0, len(l.feats))
+		for i := range s.Tokens {
+			for _, k := range l.feats[l.foff[i]:l.foff[i+1]] {
+				if int(freq[k]) < opt.MinFeatureCount {
+					continue
+				}
+				r, ok := rows[k]
+				if !ok {
+					r = int32(len(keys))
+					rows[k] = r
+					keys = append(keys, k)
+					counts = append(counts, 0)
+				}
+				counts[r]++
+				ts.ids = append(ts.ids, r)
+			}
+			ts.off[i+1] = int32(len(ts.ids))
+		}
+		data[si] = ts
+	}
+	freq = nil
+	nf := len(keys)
+	tr := &trainer{nt: nt, t1: t1,
+		w: make([]float32, nf*nt), u: make([]float64, nf*nt),
+		tri: make([]float32, t1*t1*t1), utri: make([]float64, t1*t1*t1),
+		bi: make([]float32, t1*t1), ub: make([]float64, t1*t1)}
+	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}
+	trans := transitions{t1: t1, tri: tr.tri, bi: tr.bi}
+	order := make([]int, len(data))
+	for i := range order {
+		order[i] = i
+	}
+	rng := rand.New(rand.NewPCG(opt.Seed, 0x676c6f73736d6974))
+	bound := uint8(nt)
+	trainDict := int32(math.MaxInt32) // no tag dictionary while training
+	if opt.TrainDictMin > 0 {
+		trainDict = int32(opt.TrainDictMin)
+	}
+	for ep := 1; ep <= opt.Epochs; ep++ {
+		rng.Shuffle(len(order), func(i, j int) { order[i], order[j] = order[j], order[i] })
+		for _, si := range order {
+			ts := &data[si]
+			tr.c++
+			l.reset(len(ts.toks))
+			score := l.score[:nt]
+			for i := range ts.toks {
+				clear(score)
+				for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
+					row := tr.w[int(id)*nt : int(id)*nt+nt]
+					for t, w := range row {
+						score[t] += w
+					}
+				}
+				if e, ok := m.entry(ts.toks[i].Form); ok && e.count >= trainDict {
+					for j := e.first; j < e.first+e.ntags; j++ {
+						l.add(m.wtags[j], score[m.wtags[j]])
+					}
+					l.closePos()
+				} else {
+					selectCands(l, score, m.perc.maxCands)
+				}
+			}
+			l.decode(&trans, -1) // no pruning while learning
+			pred := l.tags
+			at := func(seq []uint8, i int) uint8 {
+				if i < 0 || i >= len(seq) {
+					return bound
+				}
+				return seq[i]
+			}
+			for i := 0; i <= len(ts.gold); i++ {
+				g2, g1, g0 := at(ts.gold, i-2), at(ts.gold, i-1), at(ts.gold, i)
+				p2, p1, p0 := at(pred, i-2), at(pred, i-1), at(pred, i)
+				if g0 != p0 && i < len(ts.gold) {
+					for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
+						tr.updFeat(id, g0, 1)
+						tr.updFeat(id, p0, -1)
+					}
+				}
+				if g2 != p2 || g1 != p1 || g0 != p0 {
+					tr.updTrans(g2, g1, g0, 1)
+					tr.updTrans(p2, p1, p0, -1)
+				}
+			}
+		}
+		if opt.Progress != nil {
+			var du, dx float64
+			if len(opt.Dev) > 0 && ep < opt.Epochs {
+				finishPerceptron(m, tr, keys, counts, &TrainOptions{MinFeatureCount: -1, PruneWeight: -1, Beam: opt.Beam})
+				r := Evaluate(m, opt.Dev)
+				du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
+			}
+			if ep == opt.Epochs {
+				finishPerceptron(m, tr, keys, counts, opt)
+				if len(opt.Dev) > 0 {
+					r := Evaluate(m, opt.Dev)
+					du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
+				}
+			}
+			opt.Progress(ep, du, dx)
+		}
+	}
+	if opt.Progress == nil {
+		finishPerceptron(m, tr, keys, counts, opt)
+	}
+	m.epochs = opt.Epochs
+}
+
+// weightStep is the resolution of stored weights: they are kept as 16-bit
+// integers times weightStep in the model file, and rounded the same way in
+// memory so that a trained model and its saved copy tag alike.
+const weightStep = 1.0 / 512
+
+func quantize(w float64) float32 {
+	q := math.Round(w / weightStep)
+	q = max(-32767, min(32767, q))
+	return float32(q * weightStep)
+}
+
+// finishPerceptron turns the averaged weights into the decoding form,
+// dropping rare features and small weights.
+func finishPerceptron(m *Model, tr *trainer, keys []uint64, counts []int32, opt *TrainOptions) {
+	nt, t1 := tr.nt, tr.t1
+	c := tr.c
+	avg := func(w float32, u float64) float64 { return float64(w) - u/c }
+	type rowRef struct {
+		key uint64
+		id  int
+	}
+	var kept []rowRef
+	for id, k := range keys {
+		if opt.MinFeatureCount > 0 && int(counts[id]) < opt.MinFeatureCount {
+			continue
+		}
+		kept = append(kept, rowRef{k, id})
+	}
+	sort.Slice(kept, func(i, j int) bool { return kept[i].key < kept[j].key })
+	p := &perceptron{dictMin: m.perc.dictMin, maxCands: m.perc.maxCands}
+	p.rowStart = append(p.rowStart, 0)
+	for _, r := range kept {
+		base := r.id * nt
+		for t := 0; t < nt; t++ {
+			w := avg(tr.w[base+t], tr.u[base+t])
+			if opt.PruneWeight > 0 && math.Abs(w) < opt.PruneWeight {
+				continue
+			}
+			q := quantize(w)
+			if q == 0 {
+				continue
+			}
+			p.rowTag = append(p.rowTag, uint8(t))
+			p.rowW = append(p.rowW, q)
+		}
+		if int(p.rowStart[len(p.rowStart)-1]) == len(p.rowW) {
+			continue // nothing left of this feature
+		}
+		p.keys = append(p.keys, r.key)
+		p.rowStart = append(p.rowStart, int32(len(p.rowW)))
+	}
+	tri := make([]float32, t1*t1*t1)
+	bi := make([]float32, t1*t1)
+	for i := range tri {
+		tri[i] = quantize(avg(tr.tri[i], tr.utri[i]))
+	}
+	for i := range bi {
+		bi[i] = quantize(avg(tr.bi[i], tr.ub[i]))
+	}
+	p.tri, p.bi = tri, bi
+	m.perc = p
+	m.beam = float32(opt.Beam)
+	p.prepare(m)
+}

@@ -1,0 +1,296 @@
+package hmm
+
+import (
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+
+	"glossmith/tagger/conllu"
+	"glossmith/tagger/lemma"
+)
+
+// TrainOptions control training. The zero value of a field means its
+// default, so TrainOptions{Method: MethodPerceptron} is a sensible call.
+type TrainOptions struct {
+	// Method is MethodHMM or MethodPerceptron (the default).
+	Method string
+	// Tagset is TagsetJoint (the default) or TagsetXPOS.
+	Tagset string
+	// Source names the training data in the model (shown by Info).
+	Source string
+	// Epochs of perceptron training (default 10).
+	Epochs int
+	// Dev, when given, is tagged after each epoch and its accuracy passed
+	// to Progress.
+	Dev []*conllu.Sentence
+	// Progress is called after each epoch (perceptron) or once (HMM) with
+	// the dev accuracies in percent (0 without Dev).
+	Progress func(epoch int, devUPOS, devXPOS float64)
+	// Seed of the sentence shuffling between epochs (default 1).
+	Seed uint64
+
+	// DictMin: when tagging, words seen at least this often in training
+	// may only take tags they were seen with (the tag dictionary); rarer
+	// words may take any tag (default 50). The dictionary shrinks the
+	// lattice, which is where the speed comes from.
+	DictMin int
+	// TrainDictMin is the same threshold during perceptron training; 0
+	// trains without the dictionary, which measured better on EWT dev:
+	// every word then competes against all tags and teaches the weights
+	// that unknown words need.
+	TrainDictMin int
+	// MaxCands is the number of best-scoring tags a word outside the tag
+	// dictionary keeps as candidates in the lattice (default 8).
+	MaxCands int
+	// MinFeatureCount prunes features seen fewer times in training
+	// (default 2); PruneWeight drops weights of smaller magnitude
+	// (default 0). Negative values disable the pruning.
+	MinFeatureCount int
+	PruneWeight     float64
+
+	// Beam is the state pruning threshold of Viterbi: states scoring more
+	// than Beam below the best state of their position are dropped. The
+	// default is ln 1000 for HMM (Brants' threshold of 1000) and 30 for the
+	// perceptron, where it applies when tagging, not while learning.
+	// Negative disables it.
+	Beam float64
+
+	// HMM suffix model: longest suffix (default 10) and highest frequency
+	// of the words it learns from (default 10), after Brants (2000).
+	SuffixLen, SuffixMaxFreq int
+}
+
+func (o *TrainOptions) defaults() error {
+	if o.Method == "" {
+		o.Method = MethodPerceptron
+	}
+	if o.Method != MethodHMM && o.Method != MethodPerceptron {
+		return fmt.Errorf("unknown training method %q (want %q or %q)", o.Method, MethodHMM, MethodPerceptron)
+	}
+	if o.Tagset == "" {
+		o.Tagset = TagsetJoint
+	}
+	if o.Tagset != TagsetJoint && o.Tagset != TagsetXPOS {
+		return fmt.Errorf("unknown tag set %q (want %q or %q)", o.Tagset, TagsetJoint, TagsetXPOS)
+	}
+	if o.Epochs <= 0 {
+		o.Epochs = 10
+	}
+	if o.Seed == 0 {
+		o.Seed = 1
+	}
+	if o.DictMin == 0 {
+		o.DictMin = 50
+	}
+	if o.MaxCands <= 0 {
+		o.MaxCands = 8
+	}
+	if o.MinFeatureCount == 0 {
+		o.MinFeatureCount = 2
+	}
+	if o.Beam == 0 {
+		if o.Method == MethodHMM {
+			o.Beam = 6.907755 // ln 1000
+		} else {
+			o.Beam = 30
+		}
+	}
+	if o.SuffixLen <= 0 {
+		o.SuffixLen = 10
+	}
+	if o.SuffixMaxFreq <= 0 {
+		o.SuffixMaxFreq = 10
+	}
+	return nil
+}
+
+// Train builds a model from annotated sentences.
+func Train(sents []*conllu.Sentence, opt TrainOptions) (*Model, error) {
+	if err := opt.defaults(); err != nil {
+		return nil, err
+	}
+	m, gold, err := newBase(sents, &opt)
+	if err != nil {
+		return nil, err
+	}
+	if opt.Method == MethodHMM {
+		trainGenerative(m, sents, gold, &opt)
+		if opt.Progress != nil {
+			var u, x float64
+			if len(opt.Dev) > 0 {
+				r := Evaluate(m, opt.Dev)
+				u, x = r.UPOS.Accuracy, r.XPOS.Accuracy
+			}
+			opt.Progress(1, u, x)
+		}
+		return m, nil
+	}
+	trainPerceptron(m, sents, gold, &opt)
+	return m, nil
+}
+
+// goldTags returns the XPOS and UPOS a training token stands for: a
+// missing XPOS is taken from UPOS, so treebanks without fine tags work.
+func goldTags(x, u string) (string, string) {
+	if x == "" {
+		x = u
+	}
+	if u == "" {
+		u = "X"
+	}
+	return x, u
+}
+
+// newBase builds what both methods share: states, lexicon, UPOS choice,
+// lemmatizer and reference counts. It returns the gold states of every
+// sentence.
+func newBase(sents []*conllu.Sentence, opt *TrainOptions) (*Model, [][]uint8, error) {
+	m := &Model{method: opt.Method, tagset: opt.Tagset, source: opt.Source,
+		refForm: map[string]int32{}, refLemma: map[string]int32{}}
+	names := map[string]bool{}
+	var examples []lemma.Example
+	for _, s := range sents {
+		for _, t := range s.Tokens {
+			if t.UPOS == "" && t.XPOS == "" {
+				return nil, nil, fmt.Errorf("line %d: token %q has neither UPOS nor XPOS", t.Line, t.Form)
+			}
+			x, u := goldTags(t.XPOS, t.UPOS)
+			names[m.stateName(x, u)] = true
+			examples = append(examples, lemma.Example{Form: t.Form, Lemma: t.Lemma, UPOS: u, XPOS: x})
+			m.refForm[strings.ToLower(t.Form)]++
+			if t.Lemma != "" {
+				m.refLemma[strings.ToLower(t.Lemma)]++
+			}
+			m.refSize++
+		}
+	}
+	if m.refSize == 0 {
+		return nil, nil, errors.New("no annotated tokens to train on")
+	}
+	if len(names) > maxTags {
+		return nil, nil, fmt.Errorf("%d distinct tags; at most %d are supported", len(names), maxTags)
+	}
+	for n := range names {
+		m.tags = append(m.tags, n)
+	}
+	sort.Strings(m.tags)
+	m.splitTags()
+	id := map[string]uint8{}
+	for i, n := range m.tags {
+		id[n] = uint8(i)
+	}
+
+	gold := make([][]uint8, len(sents))
+	wordTags := map[string]map[uint8]int32{}
+	uposCount := map[string]map[uint8]map[string]int{} // lower form → xpos state → upos
+	for si, s := range sents {
+		g := make([]uint8, len(s.Tokens))
+		for i, t := range s.Tokens {
+			x, u := goldTags(t.XPOS, t.UPOS)
+			st := id[m.stateName(x, u)]
+			g[i] = st
+			wt := wordTags[t.Form]
+			if wt == nil {
+				wt = map[uint8]int32{}
+				wordTags[t.Form] = wt
+			}
+			wt[st]++
+			if m.tagset == TagsetXPOS {
+				lw := strings.ToLower(t.Form)
+				for _, key := range []string{t.Form, lw} {
+					byX := uposCount[key]
+					if byX == nil {
+						byX = map[uint8]map[string]int{}
+						uposCount[key] = byX
+					}
+					if byX[st] == nil {
+						byX[st] = map[string]int{}
+					}
+					byX[st][u]++
+					if lw == t.Form {
+						break
+					}
+				}
+			}
+		}
+		gold[si] = g
+	}
+	forms := make([]string, 0, len(wordTags))
+	for f := range wordTags {
+		forms = append(forms, f)
+	}
+	sort.Strings(forms)
+	m.lex = make(map[string]int32, len(forms))
+	for _, f := range forms {
+		e := wordEntry{first: int32(len(m.wtags))}
+		sts := make([]int, 0, len(wordTags[f]))
+		for st := range wordTags[f] {
+			sts = append(sts, int(st))
+		}
+		sort.Ints(sts)
+		for _, st := range sts {
+			c := wordTags[f][uint8(st)]
+			m.wtags = append(m.wtags, uint8(st))
+			m.wcount = append(m.wcount, c)
+			e.count += c
+		}
+		e.ntags = int32(len(sts))
+		m.lex[f] = int32(len(m.words))
+		m.words = append(m.words, e)
+	}
+	if m.tagset == TagsetXPOS {
+		byTag := make([]map[string]int, len(m.tags))
+		for _, byX := range uposCount {
+			for st, us := range byX {
+				if byTag[st] == nil {
+					byTag[st] = map[string]int{}
+				}
+				for u, c := range us {
+					byTag[st][u] += c
+				}
+			}
+		}
+		m.uposByTag = make([]string, len(m.tags))
+		for st := range m.tags {
+			m.uposByTag[st] = argmaxString(byTag[st])
+		}
+		m.uposByWord = map[string][]uposChoice{}
+		for w, byX := range uposCount {
+			var cs []uposChoice
+			for st, us := range byX {
+				if u := argmaxString(us); u != m.uposByTag[st] {
+					cs = append(cs, uposChoice{st, u})
+				}
+			}
+			if len(cs) > 0 {
+				sort.Slice(cs, func(i, j int) bool { return cs[i].xpos < cs[j].xpos })
+				m.uposByWord[w] = cs
+			}
+		}
+	}
+	m.lem = lemma.Train(examples)
+	m.prepareLexicon()
+	m.beam = float32(opt.Beam)
+	return m, gold, nil
+}
+
+// splitTags fills tagX and tagU from the state names.
+func (m *Model) splitTags() {
+	m.tagX = make([]string, len(m.tags))
+	m.tagU = make([]string, len(m.tags))
+	for i, n := range m.tags {
+		x, u, _ := strings.Cut(n, "\t")
+		m.tagX[i], m.tagU[i] = x, u
+	}
+}
+
+func argmaxString(m map[string]int) string {
+	best, bc := "", -1
+	for s, c := range m {
+		if c > bc || (c == bc && s < best) {
+			best, bc = s, c
+		}
+	}
+	return best
+}

@@ -1,0 +1,224 @@
+package hmm
+
+import "math"
+
+// lattice holds one sentence's decoding problem and the scratch space of
+// the second-order Viterbi search. Both the generative and the perceptron
+// model reduce to it: every score is additive (log probabilities or
+// perceptron weights), so the decoder does not care which model made them.
+//
+// A state at position i is the pair (tag of i-1, tag of i), which is what
+// a trigram model needs; only the candidate tags of each position take
+// part, and states far below the best one at a position are pruned (beam).
+type lattice struct {
+	n     int
+	cands []uint8   // candidate tags of all positions, flat
+	off   []int32   // cands of position i: cands[off[i]:off[i+1]]
+	emit  []float32 // emission score per candidate, parallel to cands
+	delta []float32 // per position: prev-cand × cur-cand scores
+	back  []int16   // back pointers (index into cands of position i-2)
+	doff  []int32   // delta/back of position i start at doff[i]
+	tags  []uint8   // best path, filled by decode
+	score []float32 // scratch: one score per tag
+	buf   []byte    // scratch for lower-casing and the like
+	feats []uint64  // scratch for feature keys
+	info  []tokenInfo
+	foff  []int32
+	fmid  []int32
+	bound [1]uint8
+	wid   []int32 // lexicon index of each token, -1 if unknown
+}
+
+func (l *lattice) reset(n int) {
+	l.n = n
+	l.cands = l.cands[:0]
+	l.emit = l.emit[:0]
+	l.off = append(l.off[:0], 0)
+	l.wid = l.wid[:0]
+}
+
+// add appends a candidate tag with its emission score to the position
+// being built; closePos ends the position.
+func (l *lattice) add(tag uint8, score float32) {
+	l.cands = append(l.cands, tag)
+	l.emit = append(l.emit, score)
+}
+
+func (l *lattice) closePos() { l.off = append(l.off, int32(len(l.cands))) }
+
+var negInf = float32(math.Inf(-1))
+
+// transitions gives the score of tag c after tags a, b. tri is indexed
+// ((a*t1)+b)*t1+c with t1 = number of tags + 1; the extra index stands for
+// the sentence boundary (start as context, stop as prediction). bi, when
+// not nil, adds a bigram score bi[b*t1+c].
+type transitions struct {
+	t1  int
+	tri []float32
+	bi  []float32
+}
+
+// decode finds the best tag sequence; beam < 0 disables state pruning.
+// The result is in l.tags.
+func (l *lattice) decode(tr *transitions, beam float32) {
+	n := l.n
+	t1 := tr.t1
+	l.tags = grow(l.tags, n)
+	if n == 0 {
+		return
+	}
+	l.bound[0] = uint8(t1 - 1)
+	candAt := func(i int) []uint8 {
+		if i < 0 {
+			return l.bound[:]
+		}
+		return l.cands[l.off[i]:l.off[i+1]]
+	}
+	// Layout: position i has P(i-1) × P(i) states, P(-1) = 1 (boundary).
+	l.doff = growI32(l.doff, n+1)
+	size := 0
+	prevP := 1
+	for i := 0; i < n; i++ {
+		l.doff[i] = int32(size)
+		p := int(l.off[i+1] - l.off[i])
+		size += prevP * p
+		prevP = p
+	}
+	l.doff[n] = int32(size)
+	l.delta = growF32(l.delta, size)
+	l.back = growI16(l.back, size)
+	for i := 0; i < n; i++ {
+		prev2, prev, cur := candAt(i-2), candAt(i-1), candAt(i)
+		p1, p0 := len(prev), len(cur)
+		emit := l.emit[l.off[i]:l.off[i+1]]
+		base := int(l.doff[i])
+		delta := l.delta[base : base+p1*p0]
+		back := l.back[base : base+p1*p0]
+		for s := range delta {
+			delta[s] = negInf
+		}
+		var pdelta []float32
+		if i > 0 {
+			pb := int(l.doff[i-1])
+			pdelta = l.delta[pb : pb+len(prev2)*p1]
+		}
+		for j, b := range prev {
+			row := delta[j*p0 : j*p0+p0]
+			brow := back[j*p0 : j*p0+p0]
+			for h, a := range prev2 {
+				var d float32
+				if i > 0 {
+					d = pdelta[h*p1+j]
+					if d == negInf {
+						continue
+					}
+				}
+				tri := tr.tri[(int(a)*t1+int(b))*t1:]
+				for k, c := range cur {
+					if s := d + tri[c]; s > row[k] {
+						row[k] = s
+						brow[k] = int16(h)
+					}
+				}
+			}
+			for k, c := range cur {
+				if row[k] == negInf {
+					continue
+				}
+				row[k] += emit[k]
+				if tr.bi != nil {
+					row[k] += tr.bi[int(b)*t1+int(c)]
+				}
+			}
+		}
+		if beam >= 0 {
+			best := negInf
+			for _, d := range delta {
+				best = max(best, d)
+			}
+			cut := best - beam
+			for s, d := range delta {
+				if d < cut {
+					delta[s] = negInf
+				}
+			}
+		}
+	}
+	// Final state, with the transition to the sentence end.
+	bound := int(l.bound[0])
+	prev, cur := candAt(n-2), candAt(n-1)
+	p0 := len(cur)
+	base := int(l.doff[n-1])
+	best := negInf
+	bj, bk := 0, 0
+	for j, b := range prev {
+		for k, c := range cur {
+			d := l.delta[base+j*p0+k]
+			if d == negInf {
+				continue
+			}
+			s := d + tr.tri[(int(b)*t1+int(c))*t1+bound]
+			if tr.bi != nil {
+				s += tr.bi[int(c)*t1+bound]
+			}
+			if s > best {
+				best, bj, bk = s, j, k
+			}
+		}
+	}
+	// Back-track: state (j, k) at position i points at h at i-2.
+	j, k := bj, bk
+	for i := n - 1; i >= 0; i-- {
+		l.tags[i] = candAt(i)[k]
+		if i == 0 {
+			break
+		}
+		h := int(l.back[int(l.doff[i])+j*len(candAt(i))+k])
+		k = j
+		j = h
+	}
+}
+
+// fold adds the bigram scores into the trigram table, so that decoding
+// reads one table.
+func (tr *transitions) fold() transitions {
+	t1 := tr.t1
+	tri := make([]float32, len(tr.tri))
+	copy(tri, tr.tri)
+	if tr.bi != nil {
+		for a := 0; a < t1; a++ {
+			for bc := 0; bc < t1*t1; bc++ {
+				tri[a*t1*t1+bc] += tr.bi[bc]
+			}
+		}
+	}
+	return transitions{t1: t1, tri: tri}
+}
+
+func grow(s []uint8, n int) []uint8 {
+	if cap(s) < n {
+		return make([]uint8, n, 2*n)
+	}
+	return s[:n]
+}
+
+func growF32(s []float32, n int) []float32 {
+	if cap(s) < n {
+		return make([]float32, n, 2*n)
+	}
+	return s[:n]
+}
+
+func growI16(s []int16, n int) []int16 {
+	if cap(s) < n {
+		return make([]int16, n, 2*n)
+	}
+	return s[:n]
+}
+
+func growI32(s []int32, n int) []int32 {
+	if cap(s) < n {
+		return make([]int32, n, 2*n)
+	}
+	return s[:n]
+}

@@ -1,0 +1,358 @@
+// Package lemma turns a tagged word into its dictionary form.
+//
+// The lemmatizer is learned from a treebank in two parts. Suffix rewrite
+// rules, one table per fine tag, say how a word ending in some letters
+// becomes its lemma ("-ies" → "-y" for NNS, "-ied" → "-y" for VBD); they
+// cover words never seen in training. A table of exceptions holds the
+// (word, tag) pairs of the training data whose lemma the rules get wrong
+// ("went"/VBD → "go", "I"/PRP → "I"), so every word seen in training gets
+// the lemma it had there. Only exceptions are stored, which keeps the model
+// small. Proper nouns keep their case; other words are lower-cased first,
+// as Universal Dependencies lemmas are.
+package lemma
+
+import (
+	"bytes"
+	"encoding/binary"
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+)
+
+// MaxSuffix is the longest word ending (in bytes) a rule is keyed on.
+const MaxSuffix = 6
+
+// Example is one annotated token of the training data.
+type Example struct {
+	Form, Lemma, UPOS, XPOS string
+}
+
+// rule rewrites a word: remove Strip bytes from its end, then append Add.
+type rule struct {
+	Strip int
+	Add   string
+}
+
+// Lemmatizer maps (word, tag) to a lemma. It is read-only after Train or
+// UnmarshalBinary and safe for concurrent use.
+type Lemmatizer struct {
+	// exceptions[tag][form] is the lemma of a training word the rules miss.
+	exceptions map[string]map[string]string
+	// rules[tag][suffix] is the most frequent rewrite of words of that tag
+	// ending in suffix. Entries whose rule equals the one of the next
+	// shorter suffix are dropped: the longest-match walk finds it there.
+	rules map[string]map[string]rule
+}
+
+// tagKey is the tag rules are keyed on: the fine tag when there is one.
+func tagKey(upos, xpos string) string {
+	if xpos != "" {
+		return xpos
+	}
+	return upos
+}
+
+// IsProper reports whether a tag marks a proper noun, whose lemma keeps
+// the case of the word.
+func IsProper(upos, xpos string) bool {
+	return upos == "PROPN" || xpos == "NNP" || xpos == "NNPS"
+}
+
+// Train learns rules and exceptions from annotated tokens. Tokens without
+// a lemma are ignored. The result does not depend on the order of examples
+// beyond tie-breaking, which is made deterministic by sorting.
+func Train(examples []Example) *Lemmatizer {
+	// Most frequent lemma of each (tag, form).
+	type key struct{ tag, form string }
+	counts := map[key]map[string]int{}
+	for _, e := range examples {
+		if e.Lemma == "" || e.Form == "" {
+			continue
+		}
+		k := key{tagKey(e.UPOS, e.XPOS), e.Form}
+		m := counts[k]
+		if m == nil {
+			m = map[string]int{}
+			counts[k] = m
+		}
+		m[e.Lemma]++
+	}
+	keys := make([]key, 0, len(counts))
+	for k := range counts {
+		keys = append(keys, k)
+	}
+	sort.Slice(keys, func(i, j int) bool {
+		if keys[i].tag != keys[j].tag {
+			return keys[i].tag < keys[j].tag
+		}
+		return keys[i].form < keys[j].form
+	})
+	best := make(map[key]string, len(keys))
+	for _, k := range keys {
+		best[k] = argmax(counts[k])
+	}
+
+	// Rules are counted over word types (distinct normalized forms per
+	// tag): unseen words resemble the many rare types more than the few
+	// frequent tokens.
+	type tkey struct{ tag, norm string }
+	typeLemma := map[tkey]string{}
+	var types []tkey
+	for _, k := range keys {
+		proper := IsProper(k.tag, k.tag)
+		norm, lem := k.form, best[k]
+		if !proper {
+			norm, lem = strings.ToLower(norm), strings.ToLower(lem)
+		}
+		tk := tkey{k.tag, norm}
+		if _, ok := typeLemma[tk]; !ok {
+			types = append(types, tk)
+			typeLemma[tk] = lem
+		}
+	}
+	ruleCounts := map[string]map[string]map[rule]int{}
+	for _, tk := range types {
+		r := makeRule(tk.norm, typeLemma[tk])
+		bySuffix := ruleCounts[tk.tag]
+		if bySuffix == nil {
+			bySuffix = map[string]map[rule]int{}
+			ruleCounts[tk.tag] = bySuffix
+		}
+		for l := r.Strip; l <= MaxSuffix && l <= len(tk.norm); l++ {
+			suf := tk.norm[len(tk.norm)-l:]
+			m := bySuffix[suf]
+			if m == nil {
+				m = map[rule]int{}
+				bySuffix[suf] = m
+			}
+			m[r]++
+		}
+	}
+	l := &Lemmatizer{exceptions: map[string]map[string]string{}, rules: map[string]map[string]rule{}}
+	for tag, bySuffix := range ruleCounts {
+		full := map[string]rule{}
+		for suf, m := range bySuffix {
+			full[suf] = argmaxRule(m)
+		}
+		kept := map[string]rule{}
+		for suf, r := range full {
+			if suf != "" {
+				if p, ok := full[suf[1:]]; ok && p == r {
+					continue
+				}
+			}
+			kept[suf] = r
+		}
+		l.rules[tag] = kept
+	}
+	for _, k := range keys {
+		want := best[k]
+		if l.byRule(k.form, k.tag, k.tag) != want {
+			m := l.exceptions[k.tag]
+			if m == nil {
+				m = map[string]string{}
+				l.exceptions[k.tag] = m
+			}
+			m[k.form] = want
+		}
+	}
+	return l
+}
+
+func argmax(m map[string]int) string {
+	best, bc := "", -1
+	for s, c := range m {
+		if c > bc || (c == bc && s < best) {
+			best, bc = s, c
+		}
+	}
+	return best
+}
+
+func argmaxRule(m map[rule]int) rule {
+	var best rule
+	bc := -1
+	for r, c := range m {
+		if c > bc || (c == bc && (r.Strip < best.Strip || (r.Strip == best.Strip && r.Add < best.Add))) {
+			best, bc = r, c
+		}
+	}
+	return best
+}
+
+// makeRule finds the rewrite from form to lemma through their longest
+// common prefix.
+func makeRule(form, lemma string) rule {
+	p := 0
+	for p < len(form) && p < len(lemma) && form[p] == lemma[p] {
+		p++
+	}
+	return rule{Strip: len(form) - p, Add: lemma[p:]}
+}
+
+// Lemma returns the lemma of form read with the given tags.
+func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
+	tag := tagKey(upos, xpos)
+	if m := l.exceptions[tag]; m != nil {
+		if lem, ok := m[form]; ok {
+			return lem
+		}
+	}
+	return l.byRule(form, upos, xpos)
+}
+
+// byRule applies the rule of the longest known suffix of the word.
+func (l *Lemmatizer) byRule(form, upos, xpos string) string {
+	norm := form
+	if !IsProper(upos, xpos) {
+		norm = strings.ToLower(form)
+	}
+	rs := l.rules[tagKey(upos, xpos)]
+	if rs == nil {
+		return norm
+	}
+	for n := min(MaxSuffix, len(norm)); n >= 0; n-- {
+		r, ok := rs[norm[len(norm)-n:]]
+		if !ok {
+			continue
+		}
+		if r.Strip >= len(norm) { // would leave nothing of the word
+			return norm
+		}
+		if r.Strip == 0 && r.Add == "" {
+			return norm
+		}
+		return norm[:len(norm)-r.Strip] + r.Add
+	}
+	return norm
+}
+
+// Size returns the number of exceptions and rules, for model statistics.
+func (l *Lemmatizer) Size() (exceptions, rules int) {
+	for _, m := range l.exceptions {
+		exceptions += len(m)
+	}
+	for _, m := range l.rules {
+		rules += len(m)
+	}
+	return
+}
+
+const magic = "LEM1"
+
+// MarshalBinary encodes the lemmatizer with sorted keys, so the same
+// lemmatizer always gives the same bytes.
+func (l *Lemmatizer) MarshalBinary() ([]byte, error) {
+	var b bytes.Buffer
+	b.WriteString(magic)
+	putStr := func(s string) {
+		b.Write(binary.AppendUvarint(nil, uint64(len(s))))
+		b.WriteString(s)
+	}
+	putInt := func(n int) { b.Write(binary.AppendUvarint(nil, uint64(n))) }
+	tags := sortedKeys(l.exceptions)
+	putInt(len(tags))
+	for _, t := range tags {
+		putStr(t)
+		m := l.exceptions[t]
+		forms := sortedKeys(m)
+		putInt(len(forms))
+		for _, f := range forms {
+			putStr(f)
+			putStr(m[f])
+		}
+	}
+	tags = sortedKeys(l.rules)
+	putInt(len(tags))
+	for _, t := range tags {
+		putStr(t)
+		m := l.rules[t]
+		sufs := sortedKeys(m)
+		putInt(len(sufs))
+		for _, s := range sufs {
+			putStr(s)
+			putInt(m[s].Strip)
+			putStr(m[s].Add)
+		}
+	}
+	return b.Bytes(), nil
+}
+
+func sortedKeys[V any](m map[string]V) []string {
+	ks := make([]string, 0, len(m))
+	for k := range m {
+		ks = append(ks, k)
+	}
+	sort.Strings(ks)
+	return ks
+}
+
+var errShort = errors.New("lemmatizer data truncated")
+
+// UnmarshalBinary decodes what MarshalBinary wrote; malformed input gives
+// an error, never a panic.
+func (l *Lemmatizer) UnmarshalBinary(data []byte) error {
+	if !bytes.HasPrefix(data, []byte(magic)) {
+		return errors.New("not lemmatizer data")
+	}
+	p := data[len(magic):]
+	var err error
+	getInt := func() int {
+		if err != nil {
+			return 0
+		}
+		v, n := binary.Uvarint(p)
+		if n <= 0 || v > uint64(len(data)) {
+			err = errShort
+			return 0
+		}
+		p = p[n:]
+		return int(v)
+	}
+	getStr := func() string {
+		n := getInt()
+		if err != nil {
+			return ""
+		}
+		if n > len(p) {
+			err = errShort
+			return ""
+		}
+		s := string(p[:n])
+		p = p[n:]
+		return s
+	}
+	l.exceptions = map[string]map[string]string{}
+	l.rules = map[string]map[string]rule{}
+	nt := getInt()
+	for i := 0; i < nt && err == nil; i++ {
+		t := getStr()
+		m := map[string]string{}
+		nf := getInt()
+		for j := 0; j < nf && err == nil; j++ {
+			f := getStr()
+			m[f] = getStr()
+		}
+		l.exceptions[t] = m
+	}
+	nt = getInt()
+	for i := 0; i < nt && err == nil; i++ {
+		t := getStr()
+		m := map[string]rule{}
+		ns := getInt()
+		for j := 0; j < ns && err == nil; j++ {
+			s := getStr()
+			strip := getInt()
+			m[s] = rule{Strip: strip, Add: getStr()}
+		}
+		l.rules[t] = m
+	}
+	if err != nil {
+		return err
+	}
+	if len(p) != 0 {
+		return fmt.Errorf("lemmatizer data: %d trailing bytes", len(p))
+	}
+	return nil
+}

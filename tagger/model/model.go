@@ -1,0 +1,24 @@
+// Package model holds glossmith's default tagger model, embedded in the
+// binary so that tagging works offline with no set-up.
+//
+// The file en-ewt.glsm is a derived work of the Universal Dependencies
+// English Web Treebank (UD English EWT 2.15, CC BY-SA 4.0) and is
+// distributed under CC BY-SA 4.0; see NOTICE.md. It is rebuilt, byte for
+// byte, from the treebank by
+//
+//	go run ./tagger/model/build
+//
+// run from the module root with the treebank at ../shared/data/ud-en-ewt.
+// (Bootstrapping a tree without the file: create an empty en-ewt.glsm
+// first, so that the packages compile, then run the command above.)
+package model
+
+import _ "embed"
+
+// EnglishEWT is the default English model file (the hmm package decodes it).
+//
+//go:embed en-ewt.glsm
+var EnglishEWT []byte
+
+// Name is the file name of the default model, for messages.
+const Name = "en-ewt.glsm"

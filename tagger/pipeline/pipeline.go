@@ -1,0 +1,154 @@
+// Package pipeline runs glossmith's document stages — read, tokenize, tag —
+// and the caller's own per-document work on every core, while delivering
+// results in input order so that output never depends on scheduling.
+//
+// The shape is map/reduce over documents: Map runs on worker goroutines
+// right after a document is annotated (matching, local counting), Reduce
+// runs on the caller's goroutine in input order (merging, printing). Only a
+// bounded window of documents is in flight at once, so memory depends on
+// the largest documents, not on the size of the corpus.
+package pipeline
+
+import (
+	"runtime"
+	"sync"
+	"sync/atomic"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/read"
+	"glossmith/tagger/tokenize"
+)
+
+// Tagger fills the tags and lemmas of a document's tokens. It must be safe
+// for concurrent use.
+type Tagger interface {
+	TagDocument(d *doc.Document)
+}
+
+// Options configure a run.
+type Options struct {
+	Read    read.Options
+	Tagger  Tagger // nil: tokenize only
+	Workers int    // <= 0: one per core
+	// Report receives every problem (notes, warnings, errors) in input order.
+	Report func(read.Problem)
+	// Progress, if set, is called from the reducing goroutine after each
+	// document with the running totals.
+	Progress func(Stats)
+}
+
+// Stats are running totals of a run.
+type Stats struct {
+	Inputs    int   // inputs found after expanding directories and globs
+	Documents int   // documents read and annotated
+	Bytes     int64 // bytes of plain text
+	Tokens    int64
+	Skipped   int // inputs that could not be read (an Error problem)
+}
+
+// Run expands args into inputs and processes them. mapFn is called on a
+// worker goroutine for each annotated document; reduceFn is called in input
+// order with the document and mapFn's result. Either may be nil. Run returns
+// the totals; Skipped > 0 means some input was not processed.
+func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceFn func(*doc.Document, R)) Stats {
+	inputs, probs := read.Expand(args, opt.Read)
+	var st Stats
+	st.Inputs = len(inputs)
+	for _, p := range probs {
+		if p.Severity == read.Error {
+			st.Skipped++
+		}
+		if opt.Report != nil {
+			opt.Report(p)
+		}
+	}
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	if workers > len(inputs) {
+		workers = max(1, len(inputs))
+	}
+
+	type result struct {
+		doc   *doc.Document
+		probs []read.Problem
+		val   R
+	}
+	// window bounds the documents in flight: each slot is handed out by the
+	// reducer, so at most `window` documents are held in memory at once.
+	window := 2 * workers
+	slots := make([]chan result, len(inputs))
+	for i := range slots {
+		slots[i] = make(chan result, 1)
+	}
+	var next atomic.Int64
+	tokens := make(chan struct{}, window)
+	for i := 0; i < window; i++ {
+		tokens <- struct{}{}
+	}
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				<-tokens
+				i := int(next.Add(1) - 1)
+				if i >= len(inputs) {
+					tokens <- struct{}{}
+					return
+				}
+				var res result
+				res.doc, res.probs = Annotate(inputs[i], opt.Read, opt.Tagger)
+				if res.doc != nil && mapFn != nil {
+					res.val = mapFn(res.doc)
+				}
+				slots[i] <- res
+			}
+		}()
+	}
+	for i := range inputs {
+		res := <-slots[i]
+		slots[i] = nil
+		tokens <- struct{}{}
+		for _, p := range res.probs {
+			if p.Severity == read.Error && res.doc == nil {
+				st.Skipped++
+			}
+			if opt.Report != nil {
+				opt.Report(p)
+			}
+		}
+		if res.doc == nil {
+			continue
+		}
+		st.Documents++
+		st.Bytes += int64(len(res.doc.Text))
+		st.Tokens += int64(res.doc.TokenCount())
+		if reduceFn != nil {
+			reduceFn(res.doc, res.val)
+		}
+		if opt.Progress != nil {
+			opt.Progress(st)
+		}
+	}
+	wg.Wait()
+	return st
+}
+
+// Annotate reads one input, tokenizes it unless it came tokenized, and tags
+// it unless it came tagged or tagger is nil.
+func Annotate(in read.Input, ropt read.Options, tagger Tagger) (*doc.Document, []read.Problem) {
+	d, probs := read.Read(in, ropt)
+	if d == nil {
+		return nil, probs
+	}
+	if !d.Pretokenized {
+		tokenize.Document(d)
+	}
+	if tagger != nil && !d.Tagged() {
+		tagger.TagDocument(d)
+	}
+	return d, probs
+}

@@ -1,0 +1,129 @@
+// Package read turns the files a user names into glossmith documents:
+// plain text ready for the tokenizer, or sentences already tokenized
+// (CoNLL-U).
+//
+// # Inputs
+//
+// Expand takes command-line arguments: "-" is standard input; a file is
+// read whatever its name; a directory is walked recursively in lexical
+// order, reading the files whose extension names a format below and
+// skipping, with a note, hidden entries (names starting with "."), links
+// to directories, and files of other types (one note per directory
+// counting them by extension). With Options.Format set, every file in a
+// directory is read as that format. An argument naming no file but holding
+// * ? or [ is expanded as a pattern (filepath.Match syntax; "*" does not
+// match a leading dot), for shells that leave patterns alone. A directory
+// with no file to read, a pattern matching nothing and a missing or
+// unreadable file are Errors naming the argument.
+//
+// # Formats
+//
+// The format comes from Options.Format (the CLI's --from), else from the
+// extension — .txt .text → txt; .md .markdown → md; .html .htm .xhtml →
+// html; .docx; .pdf; .conllu — else from the content: "%PDF-" → pdf; a zip
+// → docx; HTML by the WHATWG MIME sniffing patterns (a leading <!DOCTYPE
+// html>, <html>, <head>, <body>, <p>, <div>, ... tag); CoNLL-U by 10-column
+// tab-separated rows with numeric IDs or a "# sent_id"/"# newdoc" comment;
+// Markdown by an ATX heading, a code fence, an inline link, a table
+// delimiter row, front matter, a setext heading or **strong** text; plain
+// text otherwise.
+//
+// Any of them may be gzip-compressed: a ".gz" name ("manual.md.gz" is
+// Markdown) or the gzip magic number. The decompressed size is capped at
+// Options.MaxBytes (DefaultMaxBytes, 128 MiB), counting the bytes actually
+// inflated, so a gzip bomb costs at most that much memory.
+//
+// Paragraph breaks reach the tokenizer as a blank line, or — in Markdown,
+// where adding lines would break line numbers — as U+2029 PARAGRAPH
+// SEPARATOR at the start of the block's text. The tokenizer must end a
+// sentence at either.
+//
+// txt: the text as it is. CRLF and lone CR become LF (in every text
+// format), so Token.Line is the line an editor shows.
+//
+// md (CommonMark with the GitHub tables, task lists, strikethrough and
+// footnotes): the text keeps exactly the source's lines — markup is
+// deleted within its line, dropped lines become empty lines — so
+// Token.Line is the source line. Dropped: YAML (---) or TOML (+++) front
+// matter at the top; fenced code blocks (``` or ~~~) and indented code
+// blocks, fences included, since code is not prose and its identifiers
+// would crowd the term lists; <script>, <style> and <textarea> blocks;
+// HTML comments, also across lines; HTML tags (their text is kept);
+// thematic breaks and setext underlines; link reference definitions;
+// footnote references "[^1]". Kept as text: heading text without its #
+// marks; list items without bullets or numbers (a step number is not
+// prose) and without task boxes "[ ]"; block quotes without ">"; emphasis,
+// strong and strikethrough text without their * _ ~ (CommonMark's flanking
+// rules decide which runs may open or close; a run pairs with the nearest
+// open run of the same kind, and one that pairs with none, as in "5 * 3"
+// or snake_case, stays); inline code without
+// backticks; link text for [text](url), [text][ref] and [ref] (the URL is
+// dropped); image alt text for ![alt](src); autolinks <https://...> as
+// the URL; backslash escapes as the character; entities (&amp;) decoded.
+// Tables: the delimiter row becomes an empty line, each other row stays
+// on its line with its cells trimmed and joined by U+2029, so no sentence
+// runs from one cell into the next. A heading, list item, footnote, table
+// row or quote that follows a non-blank line starts with U+2029, and so
+// does a line after a heading or table row.
+//
+// html: the visible text of the body, from golang.org/x/net/html's
+// tokenizer. Dropped with their content: head (and title, which pages
+// repeat as their first heading, so keeping it would count it twice),
+// script, style, noscript, template, svg, math, iframe, object, select,
+// textarea, canvas, audio, video, and any element with the hidden
+// attribute or an inline style display:none or visibility:hidden. Image
+// alt text is not shown on a page and is dropped. Tags are removed,
+// entities decoded, runs of white space collapsed to one space except in
+// <pre>. Each block element (p, div, h1–h6, li, td, th, tr, table,
+// blockquote, section, ...) ends a paragraph: a blank line between blocks,
+// so table cells and list items never share a sentence. <br> is a line
+// break. Token.Line is the line of the extracted text.
+//
+// docx: the main document part, word/document.xml (headers, footers,
+// footnotes and comments are not read). Each w:p paragraph — headings,
+// list items and table cells too — is a paragraph, with a blank line
+// between non-empty ones; w:t is text, w:tab a tab, w:br and w:cr a line
+// break, w:noBreakHyphen a hyphen; deleted revisions (w:delText), field
+// codes (w:instrText) and mc:Fallback copies are left out. An archive
+// with more than MaxZipEntries entries, declaring more than MaxZipTotal
+// unpacked, or whose document part declares or actually inflates to more
+// than Options.MaxBytes, is refused with an Error before memory runs out.
+// Token.Line is the line of the extracted text.
+//
+// pdf: the words that the pdftotext program of poppler-utils finds, in
+// its reading order (column by column), taken from its -bbox-layout
+// output: the words of a line joined by spaces, each line on its own line,
+// a blank line after each text block (poppler's grouping of lines into
+// paragraphs, headings and list blocks) and after each page. Plain
+// pdftotext output lacks the blocks, and -layout sets columns side by
+// side, gluing their lines together. Without pdftotext on PATH a PDF is an
+// Error that names the package to install; it is never skipped silently.
+// One run may take PDFTimeout; the markup read is capped at 16 times
+// Options.MaxBytes and the text at Options.MaxBytes. Token.Line is the
+// line of the extracted text.
+//
+// conllu: the tokens and sentence breaks as given (Document.Pretokenized),
+// read by package conllu; LEMMA, UPOS and XPOS are kept where given and
+// left empty where "_"; a malformed sentence is left out with an Error at
+// its line. Token.Line is the token's row in the file.
+//
+// # Encodings
+//
+// Text formats may be UTF-8, with or without a byte order mark (dropped),
+// or UTF-16 LE or BE with a byte order mark. A byte that is not valid
+// UTF-8 (or an unpaired UTF-16 surrogate) becomes U+FFFD with a Warning
+// naming the line — up to 10 lines per file, then one summary warning —
+// and the rest of the file is read.
+//
+// # Bad input
+//
+// An empty or blank file is a Note "no text" and is skipped. Content that
+// is not text — a known binary signature (images, archives, executables,
+// old Word files, ...), a NUL byte, or more than 10% control bytes in the
+// first 8 KiB — is an Error when the file was named and a Note when it was
+// met in a directory walk; either way it is skipped. A file larger than
+// Options.MaxBytes is refused with an Error before it is read. In txt and
+// md, a line longer than MaxLine (1 MiB) is left out — replaced by an
+// empty line so the others keep their numbers — with an Error naming the
+// line; the rest of the file is read.
+package read

@@ -1,0 +1,54 @@
+package read
+
+import (
+	"testing"
+)
+
+func htmlText(t *testing.T, src string) string {
+	t.Helper()
+	r := &reader{in: Input{Name: "t.html"}}
+	return r.html(src).Text
+}
+
+func TestHTML(t *testing.T) {
+	for _, tc := range []struct{ name, in, want string }{
+		{"page",
+			`<!DOCTYPE html><html><head><title>Valve manual</title><meta charset="utf-8">
+<style>p { color: red }</style><script>var a = "<p>no</p>";</script></head>
+<body><h1>Solenoid   valve</h1>
+<p>The valve
+   opens at <b>3&nbsp;bar</b> &amp; closes at 1&#160;bar.</p>
+<noscript>Enable scripts.</noscript><template><p>Template text</p></template>
+<ul><li>Close the valve</li><li>Bleed the line</li></ul>
+</body></html>`,
+			"Solenoid valve\n\nThe valve opens at 3\u00a0bar & closes at 1\u00a0bar.\n\nClose the valve\n\nBleed the line"},
+		{"head without end tag",
+			"<html><head><title>T</title><body><p>Body text.</p>",
+			"Body text."},
+		{"inline elements do not split",
+			"<p>An <em>inlet</em><span> valve</span>, <a href=x>see</a> <code>P1</code>.</p>",
+			"An inlet valve, see P1."},
+		{"table cells are paragraphs",
+			"<table><tr><th>Part</th><th>Function</th></tr><tr><td>Valve</td><td>Opens</td></tr></table>",
+			"Part\n\nFunction\n\nValve\n\nOpens"},
+		{"br and pre",
+			"<p>Line one<br>Line two</p><pre>  code  kept\n  as is</pre><p>After</p>",
+			"Line one\nLine two\n\n  code  kept\n  as is\n\nAfter"},
+		{"hidden content",
+			`<p>Seen</p><div hidden><p>Not seen</p><div>deep</div></div><p style="display: none">Gone</p><svg><text>drawing</text></svg><p>Also seen</p>`,
+			"Seen\n\nAlso seen"},
+		{"images and forms",
+			`<p>Fig: <img src="v.png" alt="valve"> <select><option>A</option></select><textarea>typed</textarea>done</p>`,
+			"Fig: done"},
+		{"unclosed p",
+			"<p>First<p>Second<div>Third</div>",
+			"First\n\nSecond\n\nThird"},
+		{"comments",
+			"<p>A<!-- no --> B</p>",
+			"A B"},
+	} {
+		if got := htmlText(t, tc.in); got != tc.want {
+			t.Errorf("%s:\n got %q\nwant %q", tc.name, got, tc.want)
+		}
+	}
+}

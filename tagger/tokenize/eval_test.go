@@ -1,0 +1,208 @@
+package tokenize
+
+import (
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/internal/testenv"
+	"glossmith/tagger/conllu"
+	"glossmith/tagger/doc"
+)
+
+// This file scores the tokenizer against the gold segmentation of the UD
+// English Web Treebank 2.15 (../shared/data/ud-en-ewt, CC BY-SA 4.0) with
+// the method of the CoNLL 2018 shared task on UD parsing (Zeman et al.
+// 2018, "CoNLL 2018 Shared Task: Multilingual Parsing from Raw Text to
+// Universal Dependencies", section 4.1): tokens, words and sentences are
+// character spans over the text with all white space removed, and F1
+// counts the spans that match exactly. "Tokens" are surface tokens (a
+// multiword token such as "don't" is one span); "words" are syntactic
+// words ("do" + "n't"; in EWT their forms spell the surface token exactly,
+// so they have spans of their own).
+
+// span is a [start, end) range of non-space characters.
+type span struct{ start, end int }
+
+// goldText is a treebank file rebuilt as raw text, with its gold spans.
+type goldText struct {
+	text                 string
+	tokens, words, sents []span
+	nonSpace             int // number of non-space characters
+}
+
+// readGold rebuilds the raw text of a CoNLL-U file from its "# text"
+// lines: the sentences of a paragraph joined by a space, a blank line at
+// "# newpar" and "# newdoc".
+func readGold(t testing.TB, path string) goldText {
+	t.Helper()
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	var (
+		g   goldText
+		b   strings.Builder
+		pos int // non-space characters so far
+	)
+	r := conllu.NewReader(f, filepath.Base(path))
+	for {
+		s, err := r.Next()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
+		if b.Len() > 0 {
+			if s.NewPar || s.NewDoc {
+				b.WriteString("\n\n")
+			} else {
+				b.WriteString(" ")
+			}
+		}
+		b.WriteString(s.Text)
+		if countNonSpace(s.Text) != countWordChars(s.Tokens) {
+			t.Fatalf("%s line %d: # text and the word forms differ in their characters", path, s.Line)
+		}
+		sentStart, tokStart := pos, pos
+		for _, w := range s.Tokens {
+			n := countNonSpace(w.Form)
+			g.words = append(g.words, span{pos, pos + n})
+			pos += n
+			if !w.FusedNext {
+				g.tokens = append(g.tokens, span{tokStart, pos})
+				tokStart = pos
+			}
+		}
+		g.sents = append(g.sents, span{sentStart, pos})
+	}
+	if errs := r.Errors(); len(errs) > 0 {
+		t.Fatal(errs)
+	}
+	g.text = b.String()
+	g.nonSpace = pos
+	return g
+}
+
+func countNonSpace(s string) int {
+	n := 0
+	for _, r := range s {
+		if !unicode.IsSpace(r) {
+			n++
+		}
+	}
+	return n
+}
+
+func countWordChars(ws []doc.Token) int {
+	n := 0
+	for _, w := range ws {
+		n += countNonSpace(w.Form)
+	}
+	return n
+}
+
+// systemSpans converts tokenizer output to spans over the non-space
+// characters of text.
+func systemSpans(text string, sents []doc.Sentence) (tokens, words, ss []span, nonSpace int) {
+	// at[b] is the number of non-space characters before byte b.
+	at := make([]int, len(text)+1)
+	n := 0
+	for i := 0; i < len(text); {
+		r, size := utf8.DecodeRuneInString(text[i:])
+		for k := 0; k < size; k++ {
+			at[i+k] = n
+		}
+		if !unicode.IsSpace(r) {
+			n++
+		}
+		i += size
+	}
+	at[len(text)] = n
+	for _, s := range sents {
+		tokStart := -1
+		for _, tk := range s.Tokens {
+			words = append(words, span{at[tk.Start], at[tk.End]})
+			if tokStart < 0 {
+				tokStart = at[tk.Start]
+			}
+			if !tk.FusedNext {
+				tokens = append(tokens, span{tokStart, at[tk.End]})
+				tokStart = -1
+			}
+		}
+		if len(s.Tokens) > 0 {
+			ss = append(ss, span{at[s.Start()], at[s.End()]})
+		}
+	}
+	return tokens, words, ss, n
+}
+
+// f1 returns the F1 score of the system spans against the gold spans.
+func f1(gold, sys []span) float64 {
+	in := make(map[span]bool, len(gold))
+	for _, s := range gold {
+		in[s] = true
+	}
+	match := 0
+	for _, s := range sys {
+		if in[s] {
+			match++
+		}
+	}
+	if match == 0 {
+		return 0
+	}
+	p := float64(match) / float64(len(sys))
+	r := float64(match) / float64(len(gold))
+	return 2 * p * r / (p + r)
+}
+
+type scores struct{ tokens, words, sents float64 }
+
+func evaluate(t testing.TB, path string) scores {
+	t.Helper()
+	g := readGold(t, path)
+	sents := Sentences(g.text)
+	tokens, words, ss, n := systemSpans(g.text, sents)
+	if n != g.nonSpace {
+		t.Fatalf("%s: rebuilt text has %d non-space characters, gold %d", path, n, g.nonSpace)
+	}
+	return scores{f1(g.tokens, tokens), f1(g.words, words), f1(g.sents, ss)}
+}
+
+// TestEWTSegmentation checks the targets on the EWT test file and logs the
+// dev and test figures (tuning was done on dev only).
+func TestEWTSegmentation(t *testing.T) {
+	dir := testenv.SharedDir(t, "data/ud-en-ewt")
+	dev := evaluate(t, filepath.Join(dir, "en_ewt-ud-dev.conllu"))
+	test := evaluate(t, filepath.Join(dir, "en_ewt-ud-test.conllu"))
+	t.Logf("EWT 2.15 dev:  tokens F1 %.4f  words F1 %.4f  sentences F1 %.4f", dev.tokens, dev.words, dev.sents)
+	t.Logf("EWT 2.15 test: tokens F1 %.4f  words F1 %.4f  sentences F1 %.4f", test.tokens, test.words, test.sents)
+	// Targets set in the project's issue: a naive full-stop-and-capital
+	// rule on gold tokens reaches a sentence F1 of 0.76 on this file.
+	if test.tokens < 0.985 {
+		t.Errorf("test token F1 %.4f, want >= 0.985", test.tokens)
+	}
+	if test.sents < 0.78 {
+		t.Errorf("test sentence F1 %.4f, want >= 0.78", test.sents)
+	}
+}
+
+// TestEWTRoundTrip checks on the whole EWT test text that the tokens and the
+// white space between them give the text back exactly.
+func TestEWTRoundTrip(t *testing.T) {
+	dir := testenv.SharedDir(t, "data/ud-en-ewt")
+	g := readGold(t, filepath.Join(dir, "en_ewt-ud-test.conllu"))
+	d := &doc.Document{Name: "en_ewt-ud-test", Text: g.text}
+	Document(d)
+	if err := checkRoundTrip(d.Text, d.Sentences); err != "" {
+		t.Fatal(err)
+	}
+}

@@ -1,0 +1,201 @@
+// Package tokenize splits English text into sentences of tokens following
+// the conventions of the Universal Dependencies English Web Treebank (EWT):
+// punctuation apart from words, clitics as words of their own ("don't" =
+// "do" + "n't", written as one orthographic word, see doc.Token.FusedNext),
+// most hyphenated compounds split at the hyphen ("search - engine") but
+// prefixes kept ("e-mail"), numbers, URLs, e-mail addresses, emoticons and
+// abbreviations ("Dr.", "U.S.") kept whole.
+//
+// The tokenizer is a hand-written scanner over the bytes of the text; it
+// never drops or adds a character: every non-space character belongs to
+// exactly one token, and Form is always Text[Start:End].
+//
+// Sentences end at full stops, question and exclamation marks (and the
+// quotes and brackets right after them), at blank lines, and after lines
+// that look like headings. Abbreviations that do not end sentences are
+// learned from the EWT training data (abbrev.txt).
+package tokenize
+
+import (
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/tagger/doc"
+)
+
+// Document fills d.Sentences from d.Text, unless the document came
+// pretokenized (CoNLL-U), whose sentences are kept as given.
+func Document(d *doc.Document) {
+	if d.Pretokenized {
+		return
+	}
+	d.Sentences = Sentences(d.Text)
+}
+
+// Sentences tokenizes text and splits it into sentences. Token offsets are
+// byte offsets into text; Line is the 1-based line of the token.
+func Sentences(text string) []doc.Sentence {
+	t := tokenizer{text: text}
+	t.scan()
+	return t.split()
+}
+
+// Break kinds recorded for the first token after white space that holds
+// line breaks.
+const (
+	breakNone = iota
+	breakLine // one line break
+	breakPar  // a blank line, or the start of the text
+)
+
+type tokenizer struct {
+	text   string
+	toks   []doc.Token
+	breaks []uint8 // per token: the break kind in the white space before it
+	line   int
+	// chunkEnd is the end of the white-space-delimited chunk being split.
+	chunkEnd int
+	// nAbbrev counts tokens ending in an attached abbreviation period; the
+	// splitter may cut such a period off at a sentence end.
+	nAbbrev int
+}
+
+// scan cuts the text into tokens.
+func (t *tokenizer) scan() {
+	text := t.text
+	est := len(text)/5 + 4
+	t.toks = make([]doc.Token, 0, est)
+	t.breaks = make([]uint8, 0, est)
+	t.line = 1
+	newlines := 2 // the start of the text opens a paragraph
+	i := 0
+	for i < len(text) {
+		c := text[i]
+		if c < utf8.RuneSelf {
+			if asciiSpace[c] {
+				if c == '\n' {
+					t.line++
+					newlines++
+				}
+				i++
+				continue
+			}
+		} else if r, n := utf8.DecodeRuneInString(text[i:]); unicode.IsSpace(r) {
+			i += n
+			continue
+		}
+		// A chunk: a run of characters without white space.
+		j := i + 1
+		for j < len(text) {
+			c := text[j]
+			if c < utf8.RuneSelf {
+				if asciiSpace[c] {
+					break
+				}
+				j++
+				continue
+			}
+			r, n := utf8.DecodeRuneInString(text[j:])
+			if unicode.IsSpace(r) {
+				break
+			}
+			j += n
+		}
+		first := len(t.toks)
+		t.chunkEnd = j
+		t.chunk(i, j)
+		brk := uint8(breakNone)
+		switch {
+		case newlines >= 2:
+			brk = breakPar
+		case newlines == 1:
+			brk = breakLine
+		}
+		for k := first; k < len(t.toks); k++ {
+			t.breaks = append(t.breaks, brk)
+			brk = breakNone
+		}
+		newlines = 0
+		i = j
+	}
+}
+
+var asciiSpace = [utf8.RuneSelf]bool{' ': true, '\t': true, '\n': true, '\v': true, '\f': true, '\r': true}
+
+// emit appends the token text[s:e].
+func (t *tokenizer) emit(s, e int, fused bool) {
+	t.toks = append(t.toks, doc.Token{
+		Form:       t.text[s:e],
+		Start:      s,
+		End:        e,
+		Line:       t.line,
+		SpaceAfter: e == t.chunkEnd && e < len(t.text),
+		FusedNext:  fused,
+	})
+}
+
+// chunk splits text[s:e], a run without white space, into tokens.
+func (t *tokenizer) chunk(s, e int) {
+	i := s
+	for i < e {
+		if n := urlLen(t.text[i:e]); n > 0 {
+			end := trimURL(t.text, i, i+n)
+			t.emit(i, end, false)
+			i = end
+			continue
+		}
+		r, n := decode(t.text, i)
+		if isWord(r) || (isApostrophe(r) && i+n < e && isDigitByte(t.text[i+n])) {
+			i = t.word(i, e, s)
+			continue
+		}
+		i = t.punct(i, e, r, n)
+	}
+}
+
+func decode(s string, i int) (rune, int) {
+	if c := s[i]; c < utf8.RuneSelf {
+		return rune(c), 1
+	}
+	return utf8.DecodeRuneInString(s[i:])
+}
+
+// decodeLast returns the rune ending just before byte offset i.
+func decodeLast(s string, i int) (rune, int) {
+	if c := s[i-1]; c < utf8.RuneSelf {
+		return rune(c), 1
+	}
+	return utf8.DecodeLastRuneInString(s[:i])
+}
+
+func isWord(r rune) bool {
+	if r < utf8.RuneSelf {
+		return asciiWord[r]
+	}
+	return unicode.IsLetter(r) || unicode.IsNumber(r) || unicode.IsMark(r)
+}
+
+func isLetter(r rune) bool {
+	if r < utf8.RuneSelf {
+		return 'a' <= r && r <= 'z' || 'A' <= r && r <= 'Z'
+	}
+	return unicode.IsLetter(r)
+}
+
+func isDigit(r rune) bool { return '0' <= r && r <= '9' }
+
+func isDigitByte(c byte) bool { return '0' <= c && c <= '9' }
+
+func isApostrophe(r rune) bool { return r == '\'' || r == '’' || r == '`' }
+
+var asciiWord = func() (t [utf8.RuneSelf]bool) {
+	for c := '0'; c <= '9'; c++ {
+		t[c] = true
+	}
+	for c := 'a'; c <= 'z'; c++ {
+		t[c] = true
+		t[c-'a'+'A'] = true
+	}
+	t['_'] = true
+	return
+}()

@@ -1,0 +1,451 @@
+package tokenize
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+// word scans the word starting at i in the chunk text[cs:e] and emits it
+// as one or more tokens (a number split from its unit, a clitic split from
+// its host, an abbreviation with its period). It returns the end offset.
+func (t *tokenizer) word(i, e, cs int) int {
+	text := t.text
+	j := i
+	if r, n := decode(text, j); isApostrophe(r) { // "'90s"
+		j += n
+	}
+	email := false
+	for j < e {
+		r, n := decode(text, j)
+		if isWord(r) {
+			j += n
+			continue
+		}
+		if j+n >= e || j == i {
+			break
+		}
+		if r == '.' && strings.HasPrefix(text[j:e], "...@") {
+			// An address shortened by a mail archive: "name...@example.com".
+			j += 3
+			continue
+		}
+		nr, _ := decode(text, j+n)
+		pr, _ := decodeLast(text, j)
+		if !t.joins(r, pr, nr, i, j, e, email) {
+			break
+		}
+		if r == '@' {
+			email = true
+		}
+		j += n
+	}
+
+	// A plural possessive apostrophe ("parents'") is a clitic of its own,
+	// unless the chunk opened with a single quote that it closes.
+	apos := 0
+	if j < e && !email {
+		if r, n := decode(text, j); (r == '\'' || r == '’') && (j+n == e || !startsWord(text, j+n)) {
+			if last, _ := decodeLast(text, j); last == 's' || last == 'S' {
+				if open, _ := decode(text, cs); !(cs < i && (open == '\'' || open == '‘' || open == '`')) {
+					apos = n
+				}
+			}
+		}
+	}
+
+	// A number followed by a unit: "5kg" = "5" + "kg", "11:30am" = "11:30" + "am".
+	if isDigitByte(text[i]) {
+		if k := numberEnd(text, i, j); k < j && splitsUnit(text[k:j]) {
+			t.emit(i, k, false)
+			i = k
+		}
+	}
+
+	// Clitics: "don't" = "do" + "n't", "it's" = "it" + "'s", "cannot" = "can" + "not".
+	if !email {
+		if p := cliticSplit(text, i, j); p > i {
+			t.emit(i, p, true)
+			i = p
+		}
+	}
+
+	if apos > 0 {
+		t.emit(i, j, true)
+		t.emit(j, j+apos, false)
+		return j + apos
+	}
+
+	// An abbreviation keeps its period: "Dr.", "e.g.", "U.S.", "J.".
+	// Of two periods the first is the abbreviation's: "Inc.." = "Inc." + ".".
+	if j < e && text[j] == '.' && (j+1 == e || text[j+1] != '.' || j+2 == e || text[j+2] != '.') && isAbbrev(text, i, j) {
+		t.emit(i, j+1, false)
+		t.nAbbrev++
+		return j + 1
+	}
+	t.emit(i, j, false)
+	return j
+}
+
+// joins reports whether the non-word rune r between pr and nr continues the
+// word text[i:j] (it is at j) rather than ending it.
+func (t *tokenizer) joins(r, pr, nr rune, i, j, e int, email bool) bool {
+	text := t.text
+	switch r {
+	case '.':
+		return isWord(nr)
+	case ',', ':':
+		return isDigit(pr) && isDigit(nr)
+	case '/':
+		return isDigit(pr) && isDigit(nr) && keepSlash(text, i, j, e)
+	case '-', '‐':
+		switch {
+		case email:
+			return isWord(nr)
+		case isLetter(nr) && hyphenPrefix(text[i:j]):
+			return true
+		case isDigit(pr) && isDigit(nr):
+			return keepNumberHyphen(text, i, j, e)
+		}
+		return false
+	case '\'', '’', '`':
+		return isLetter(nr)
+	case '&', '·':
+		return isLetter(pr) && isLetter(nr)
+	case '@':
+		return isWord(nr) && !email
+	}
+	return false
+}
+
+func startsWord(text string, i int) bool {
+	r, _ := decode(text, i)
+	return isWord(r)
+}
+
+// hyphenPrefix reports whether w is a prefix that keeps its hyphen.
+func hyphenPrefix(w string) bool {
+	if len(w) > 7 {
+		return false
+	}
+	var buf [8]byte
+	for k := 0; k < len(w); k++ {
+		c := w[k]
+		switch {
+		case 'a' <= c && c <= 'z':
+		case 'A' <= c && c <= 'Z':
+			c += 'a' - 'A'
+		default:
+			return false
+		}
+		buf[k] = c
+	}
+	return hyphenPrefixes[string(buf[:len(w)])]
+}
+
+// digitGroups reads groups of digits separated by sep from i on and returns
+// their number and the lengths of the first two. ok is false when the
+// groups do not cover text[i:j] (something other than digits and sep).
+func digitGroups(text string, i, j, e int, sep byte) (n, first, second int, ok bool) {
+	k := i
+	for k < e {
+		s := k
+		for k < e && isDigitByte(text[k]) {
+			k++
+		}
+		if k == s {
+			break
+		}
+		switch n {
+		case 0:
+			first = k - s
+		case 1:
+			second = k - s
+		}
+		n++
+		if k+1 < e && text[k] == sep && isDigitByte(text[k+1]) {
+			k++
+			continue
+		}
+		break
+	}
+	return n, first, second, k >= j
+}
+
+// keepNumberHyphen decides whether the hyphen at j joins digits as in a
+// phone number or code ("713-853-3989", "345-9945") rather than a range
+// ("1969 - 1970", "3 - 4"), as EWT 2.15 writes them.
+func keepNumberHyphen(text string, i, j, e int) bool {
+	n, a, b, ok := digitGroups(text, i, j, e, '-')
+	if !ok {
+		return false
+	}
+	return n >= 3 || n == 2 && b >= 3 && !(a == 4 && b == 4)
+}
+
+// keepSlash decides whether slashes join digits as in a date ("11/28/2000",
+// "9/11") rather than a fraction or ratio ("1 / 2"), as in EWT 2.15.
+func keepSlash(text string, i, j, e int) bool {
+	n, _, b, ok := digitGroups(text, i, j, e, '/')
+	return ok && (n >= 3 || n == 2 && b >= 2)
+}
+
+// numberEnd returns the end of the number at the start of text[i:j]:
+// digits with inner separators.
+func numberEnd(text string, i, j int) int {
+	k := i
+	for k < j {
+		c := text[k]
+		if isDigitByte(c) || (c == '.' || c == ',' || c == ':' || c == '/' || c == '-') && k+1 < j && isDigitByte(text[k+1]) {
+			k++
+			continue
+		}
+		break
+	}
+	return k
+}
+
+// splitsUnit reports whether the letters after a number are a unit to
+// split off ("kg", "am", "M") rather than a suffix ("th", "s").
+func splitsUnit(suf string) bool {
+	if len(suf) > 8 {
+		return false
+	}
+	var buf [8]byte
+	for k := 0; k < len(suf); k++ {
+		c := suf[k]
+		switch {
+		case 'a' <= c && c <= 'z':
+		case 'A' <= c && c <= 'Z':
+			c += 'a' - 'A'
+		default:
+			return false
+		}
+		buf[k] = c
+	}
+	return units[string(buf[:len(suf)])]
+}
+
+// cliticSplit returns where the word text[i:j] splits into host and
+// clitic, or i when it does not.
+func cliticSplit(text string, i, j int) int {
+	w := text[i:j]
+	if len(w) <= 8 {
+		var buf [8]byte
+		ascii := true
+		for k := 0; k < len(w); k++ {
+			c := w[k]
+			if 'A' <= c && c <= 'Z' {
+				c += 'a' - 'A'
+			} else if c >= utf8.RuneSelf {
+				ascii = false
+				break
+			}
+			buf[k] = c
+		}
+		if ascii {
+			if n, ok := contractions[string(buf[:len(w)])]; ok {
+				return i + n
+			}
+		}
+	}
+	// The last apostrophe, if any, with the letters after it.
+	for k := len(w) - 1; k > 0; k-- {
+		c := w[k]
+		var n int
+		switch {
+		case c == '\'' || c == '`':
+			n = 1
+		case c == 0x99 && k >= 2 && w[k-2:k+1] == "’":
+			k -= 2
+			n = 3
+		default:
+			continue
+		}
+		if k == 0 {
+			return i
+		}
+		suf := w[k+n:]
+		if len(suf) > 2 {
+			return i
+		}
+		var buf [2]byte
+		for m := 0; m < len(suf); m++ {
+			c := suf[m]
+			if 'A' <= c && c <= 'Z' {
+				c += 'a' - 'A'
+			}
+			buf[m] = c
+		}
+		lower := string(buf[:len(suf)])
+		if cliticSuffixes[lower] {
+			if lower == "s" && isDecade(w[:k]) {
+				return i // "the 70's", "1980's": a plural, kept whole in EWT
+			}
+			return i + k
+		}
+		if lower == "t" && k >= 2 && (w[k-1] == 'n' || w[k-1] == 'N') {
+			return i + k - 1
+		}
+		return i
+	}
+	return i
+}
+
+// isDecade reports whether w names a decade: "70", "1980".
+func isDecade(w string) bool {
+	if (len(w) != 2 && len(w) != 4) || w[len(w)-1] != '0' {
+		return false
+	}
+	for k := 0; k < len(w); k++ {
+		if !isDigitByte(w[k]) {
+			return false
+		}
+	}
+	return true
+}
+
+// isAbbrev reports whether the word text[i:j], followed by a period at j,
+// is an abbreviation that keeps the period.
+func isAbbrev(text string, i, j int) bool {
+	if _, ok := abbrevs[text[i:j+1]]; ok {
+		return true
+	}
+	w := text[i:j]
+	if r, n := decode(text, i); n == len(w) && unicode.IsUpper(r) {
+		return true // an initial
+	}
+	if len(w) < 16 {
+		var buf [16]byte
+		for k := 0; k < len(w); k++ {
+			c := w[k]
+			if 'A' <= c && c <= 'Z' {
+				c += 'a' - 'A'
+			}
+			buf[k] = c
+		}
+		buf[len(w)] = '.'
+		if _, ok := abbrevs[string(buf[:len(w)+1])]; ok {
+			return true
+		}
+	}
+	return isDotted(w)
+}
+
+// isDotted reports whether w is letters in groups of one or two separated
+// by periods, like "U.S", "e.g", "a.k.a", "Ph.D".
+func isDotted(w string) bool {
+	groups, run := 0, 0
+	for k := 0; k < len(w); k++ {
+		c := w[k]
+		switch {
+		case 'a' <= c && c <= 'z' || 'A' <= c && c <= 'Z':
+			run++
+			if run > 2 {
+				return false
+			}
+		case c == '.' && run > 0:
+			groups++
+			run = 0
+		default:
+			return false
+		}
+	}
+	return groups >= 1 && run > 0
+}
+
+// urlLen returns the length of the URL at the start of s, up to the end of
+// the chunk, or 0 when s does not start with one.
+func urlLen(s string) int {
+	if len(s) < 5 {
+		return 0
+	}
+	switch s[0] {
+	case 'h', 'H', 'f', 'F', 'w', 'W', 'm', 'M':
+	default:
+		return 0
+	}
+	for _, p := range [...]string{"http://", "https://", "ftp://", "mailto:"} {
+		if len(s) > len(p) && strings.EqualFold(s[:len(p)], p) {
+			return len(s)
+		}
+	}
+	if len(s) > 4 && strings.EqualFold(s[:4], "www.") && startsWord(s, 4) {
+		return len(s)
+	}
+	return 0
+}
+
+// trimURL drops trailing punctuation from the URL text[s:e]: sentence
+// punctuation, quotes, and closing brackets that have no opening one
+// inside the URL.
+func trimURL(text string, s, e int) int {
+	for e > s+1 {
+		r, n := decodeLast(text, e)
+		switch r {
+		case '.', ',', ';', ':', '!', '?', '\'', '"', '>', '”', '’', '»':
+		case ')', ']', '}':
+			open := byte('(')
+			if r == ']' {
+				open = '['
+			} else if r == '}' {
+				open = '{'
+			}
+			if strings.Count(text[s:e], string(open)) >= strings.Count(text[s:e], string(r)) {
+				return e
+			}
+		default:
+			return e
+		}
+		e -= n
+	}
+	return e
+}
+
+// punct emits the punctuation token at i, whose first rune is r (n bytes).
+func (t *tokenizer) punct(i, e int, r rune, n int) int {
+	text := t.text
+	switch r {
+	case ':', ';', '=', '^', '<':
+		for _, em := range emoticons {
+			if strings.HasPrefix(text[i:e], em) && (i+len(em) == e || !startsWord(text, i+len(em))) {
+				t.emit(i, i+len(em), false)
+				return i + len(em)
+			}
+		}
+	}
+	j := i + n
+	switch r {
+	case '.', '!', '?', '…':
+		// Runs of sentence punctuation are one token: "...", "?!", "!!!".
+		for j < e {
+			r2, n2 := decode(text, j)
+			if r2 != '.' && r2 != '!' && r2 != '?' && r2 != '…' {
+				break
+			}
+			j += n2
+		}
+	case '#':
+		if j < e && isLetter(firstRune(text[j:e])) { // a hashtag: "#audiobooks"
+			j = i + n
+			for j < e {
+				r2, n2 := decode(text, j)
+				if !isWord(r2) {
+					break
+				}
+				j += n2
+			}
+			break
+		}
+		for j < e && text[j] == '#' {
+			j++
+		}
+	case '-', '=', '*', '~', '<', '>', '`', '\'', '+', '$':
+		// Runs of one character are one token: "--", "<<", "''", "***".
+		for j < e && text[j] == byte(r) {
+			j++
+		}
+	}
+	t.emit(i, j, false)
+	return j
+}
