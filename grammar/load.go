@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"unicode/utf8"
 )
 
 //go:embed stock/*.gsr
@@ -51,6 +52,7 @@ type RuleSet struct {
 	Files []*File
 
 	byName map[string]*Rule
+	single map[string]bool // rule name -> IsSingleToken of its body
 }
 
 // Rule returns the rule called name, or nil.
@@ -302,6 +304,7 @@ func (l *loader) check() {
 		})
 	}
 	l.checkCycles()
+	rs.computeSingle()
 	for _, r := range rs.Rules {
 		l.checkTokenOperands(r.Expr)
 	}
@@ -390,37 +393,61 @@ func (l *loader) checkTokenOperands(n Node) {
 // built only of token tests, !, & and | (following references in rs). Such
 // a node is one test about one token, which & and ! require.
 func IsSingleToken(rs *RuleSet, n Node) bool {
-	return isSingle(rs, n, map[string]bool{})
+	if rs.single == nil {
+		rs.computeSingle()
+	}
+	return rs.isSingle(n, nil)
 }
 
-func isSingle(rs *RuleSet, n Node, seen map[string]bool) bool {
+// computeSingle records for every rule whether it is a single-token test,
+// so that IsSingleToken answers for a reference with one look-up (without
+// the memo, rules built of references to references would take
+// exponential time).
+func (rs *RuleSet) computeSingle() {
+	rs.single = make(map[string]bool, len(rs.byName))
+	names := make([]string, 0, len(rs.byName))
+	for name := range rs.byName {
+		names = append(names, name)
+	}
+	sort.Strings(names)
+	for _, name := range names {
+		rs.isSingle(&Ref{Name: name}, map[string]bool{})
+	}
+}
+
+func (rs *RuleSet) isSingle(n Node, seen map[string]bool) bool {
 	switch n := n.(type) {
 	case *Test:
 		return true
 	case *Not:
-		return isSingle(rs, n.Sub, seen)
+		return rs.isSingle(n.Sub, seen)
 	case *And:
 		for _, s := range n.Subs {
-			if !isSingle(rs, s, seen) {
+			if !rs.isSingle(s, seen) {
 				return false
 			}
 		}
 		return true
 	case *Alt:
 		for _, s := range n.Alts {
-			if !isSingle(rs, s, seen) {
+			if !rs.isSingle(s, seen) {
 				return false
 			}
 		}
 		return true
 	case *Ref:
-		r := rs.Rule(n.Name)
-		if r == nil || seen[n.Name] {
-			return true // reported elsewhere
+		if v, ok := rs.single[n.Name]; ok {
+			return v
+		}
+		r := rs.byName[n.Name]
+		if r == nil || seen == nil || seen[n.Name] {
+			return true // undefined or cyclic: reported elsewhere
 		}
 		seen[n.Name] = true
-		defer delete(seen, n.Name)
-		return isSingle(rs, r.Expr, seen)
+		v := rs.isSingle(r.Expr, seen)
+		delete(seen, n.Name)
+		rs.single[n.Name] = v
+		return v
 	}
 	return false
 }
@@ -439,12 +466,17 @@ func ParsePattern(src string, base *RuleSet) (*RuleSet, error) {
 	}
 	const head = "pattern = "
 	f, perr := ParseString("pattern", head+src+" ;")
+	end := utf8.RuneCountInString(src) + 1
 	shift := func(el ErrorList) ErrorList {
 		for _, e := range el {
 			if e.Pos.File == "pattern" {
 				e.Pos.Col = max(1, e.Pos.Col-len(head))
 				e.Pos.Offset = max(0, e.Pos.Offset-len(head))
 				e.Source = src
+				if e.Pos.Col > end { // at the ";" we added
+					e.Pos.Col, e.Pos.Offset = end, len(src)
+					e.Msg = strings.Replace(e.Msg, "unexpected ';'", "unexpected end of pattern", 1)
+				}
 			}
 		}
 		return el
@@ -488,6 +520,7 @@ func (l *loader) finishOnly(f *File) (*RuleSet, error) {
 	l.rs = sub
 	l.check()
 	l.rs = full
+	full.computeSingle()
 	if len(l.errs) > 0 {
 		l.errs.Sort()
 		return nil, l.errs

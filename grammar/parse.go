@@ -3,6 +3,7 @@ package grammar
 import (
 	"errors"
 	"os"
+	"regexp"
 	"strings"
 
 	"github.com/alecthomas/participle/v2"
@@ -174,7 +175,6 @@ type pAtom struct {
 var parser = participle.MustBuild[pFile](
 	participle.Lexer(gsrLexer),
 	participle.Elide("Comment", "Whitespace"),
-	participle.UseLookahead(2),
 )
 
 // ParseFile reads and parses the rule file at path. It returns the file even
@@ -216,11 +216,11 @@ func ParseString(name, src string) (*File, error) {
 				f.convert(pf, &errs)
 			}
 		}
-		q := nextSemicolon(src, off)
-		if q < 0 || len(errs) >= maxParseErrors {
+		next := resumeAfter(src, off)
+		if next < 0 || len(errs) >= maxParseErrors {
 			break
 		}
-		from = q + 1
+		from = next
 	}
 	f.checkLocal(&errs)
 	errs.Sort()
@@ -259,24 +259,33 @@ func parseMessage(err error) string {
 	var ut *participle.UnexpectedTokenError
 	if errors.As(err, &ut) {
 		tok := ut.Unexpected
+		// Name what was expected only when it is one plain symbol.
+		expected := ""
+		if m := expectedRe.FindStringSubmatch(ut.Message()); m != nil {
+			expected = " (expected '" + m[1] + "')"
+		}
+		syms := gsrLexer.Symbols()
 		switch {
 		case tok.EOF():
+			if expected != "" && expected != " (expected ';')" {
+				return "unexpected end of file" + expected
+			}
 			return "unexpected end of file: is the ';' after the last rule missing?"
 		case tok.Value == "=":
 			return "unexpected '=': is the ';' at the end of the rule above missing?"
-		case tok.Type == gsrLexer.Symbols()["Unterminated"]:
-			switch tok.Value[0] {
-			case '/':
+		case tok.Type == syms["Unterminated"]:
+			if tok.Value[0] == '/' {
 				return "unterminated regular expression: missing closing '/'"
-			default:
-				return "unterminated string: missing closing " + string(tok.Value[0])
 			}
-		case tok.Type == gsrLexer.Symbols()["Bad"]:
+			return "unterminated string: missing closing " + string(tok.Value[0])
+		case tok.Type == syms["Bad"]:
 			return "unexpected character " + quoteToken(tok.Value)
-		case tok.Value == ";":
+		case tok.Type == syms["Label"]:
+			return "a label must be followed by the element it names, as in @head NOUN"
+		case tok.Value == ";" && expected == "":
 			return "unexpected ';': something is missing before it"
 		}
-		return "unexpected " + quoteToken(tok.Value)
+		return "unexpected " + quoteToken(tok.Value) + expected
 	}
 	var pe participle.Error
 	if errors.As(err, &pe) {
@@ -284,6 +293,8 @@ func parseMessage(err error) string {
 	}
 	return err.Error()
 }
+
+var expectedRe = regexp.MustCompile(`\(expected "([^"\s]+)"\)$`)
 
 func quoteToken(s string) string {
 	if strings.ContainsRune(s, '\'') {
@@ -326,6 +337,27 @@ func lastSemicolon(src string, from, to int) int {
 		return from
 	}
 	return s[len(s)-1] + 1
+}
+
+// statementStart matches a line that begins a new statement.
+var statementStart = regexp.MustCompile(`(?m)^(?:[A-Za-z_][A-Za-z0-9_]*[ \t]*=|use\b|expect\b|reject\b)`)
+
+// resumeAfter returns where parsing goes on after a syntax error at off:
+// after the next `;`, or at the next line that starts a statement if that
+// comes first (so that an unterminated string, which hides the `;` of its
+// own line, does not swallow the next rule). It returns -1 at the end.
+func resumeAfter(src string, off int) int {
+	next := -1
+	if q := nextSemicolon(src, off); q >= 0 {
+		next = q + 1
+	}
+	if nl := strings.IndexByte(src[off:], '\n'); nl >= 0 {
+		lineEnd := off + nl + 1
+		if loc := statementStart.FindStringIndex(src[lineEnd:]); loc != nil && (next < 0 || lineEnd+loc[0] < next) {
+			next = lineEnd + loc[0]
+		}
+	}
+	return next
 }
 
 // nextSemicolon returns the offset of the first `;` at or after from, or -1.

@@ -166,7 +166,7 @@ func Compile(rs *grammar.RuleSet, names ...string) (*Matcher, error) {
 			return nil, fmt.Errorf("pattern: the rule set has no rules to match (helpers named _… are not matched on their own)")
 		}
 	}
-	c := &compiler{rs: rs, m: &Matcher{}, atomIdx: map[string]int{}, predIdx: map[string]int{}}
+	c := &compiler{rs: rs, m: &Matcher{}, atomIdx: map[string]int{}, predIdx: map[string]int{}, refFormula: map[string]*formula{}}
 	for _, name := range names {
 		r := rs.Rule(name)
 		if r == nil {
@@ -257,6 +257,9 @@ type compiler struct {
 	m       *Matcher
 	atomIdx map[string]int
 	predIdx map[string]int
+	// refFormula memoizes the formula of single-token rules, shared by
+	// every reference to them.
+	refFormula map[string]*formula
 
 	p      *prog
 	labels map[string]int
@@ -432,7 +435,12 @@ func (c *compiler) formula(n grammar.Node, depth int) *formula {
 		}
 		return f
 	case *grammar.Ref:
-		return c.formula(c.rs.Rule(n.Name).Expr, depth+1)
+		if f, ok := c.refFormula[n.Name]; ok {
+			return f
+		}
+		f := c.formula(c.rs.Rule(n.Name).Expr, depth+1)
+		c.refFormula[n.Name] = f
+		return f
 	}
 	return &formula{op: 't'}
 }

@@ -144,7 +144,7 @@ validated terminology.`,
 	fl.StringVar(&to, "to", "text", "output format: "+strings.Join(terms.Formats, ", "))
 	fl.StringVarP(&outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.StringVar(&sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
-	fl.IntVar(&minFreq, "min-freq", 2, "leave out candidates seen fewer times")
+	fl.IntVar(&minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
 	fl.IntVar(&maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
 	fl.IntVar(&contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
 	fl.StringArrayVar(&stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")

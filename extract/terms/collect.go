@@ -48,6 +48,7 @@ type docCand struct {
 	variants map[string]int // surface form as written -> count
 	canon    map[string]int // canonical spelling -> count
 	words    map[string][]string
+	pos      map[string]string
 	contexts []Context
 	lastSent int // sentence index of the last context taken
 }
@@ -126,6 +127,7 @@ type cand struct {
 	key     string   // group key: lower-cased, hyphens and spaces removed
 	canon   string   // canonical spelling: head lemmatized, case folded
 	words   []string // canonical words
+	pos     string   // UPOS tags of the words, space-separated
 	surface string   // as written, white space folded
 }
 
@@ -142,7 +144,7 @@ func (c *Collector) candidate(d *doc.Document, toks []doc.Token, i, j int) (cand
 	if j < len(toks) && glued(toks[j-1], toks[j]) && isHyphen(toks[j].Form) {
 		return cand{}, false
 	}
-	words, lowerWords := canonicalWords(toks[i:j])
+	words, lowerWords, pos := canonicalWords(toks[i:j])
 	if len(words) == 0 || len(words) > c.opt.MaxWords {
 		return cand{}, false
 	}
@@ -166,6 +168,7 @@ func (c *Collector) candidate(d *doc.Document, toks []doc.Token, i, j int) (cand
 		key:     key.String(),
 		canon:   strings.Join(words, " "),
 		words:   words,
+		pos:     pos,
 		surface: surfaceOf(d, toks[i:j]),
 	}, true
 }
@@ -173,7 +176,7 @@ func (c *Collector) candidate(d *doc.Document, toks []doc.Token, i, j int) (cand
 func (dc *DocCounts) add(cd cand, d *doc.Document, s *doc.Sentence) {
 	g := dc.cands[cd.key]
 	if g == nil {
-		g = &docCand{variants: map[string]int{}, canon: map[string]int{}, words: map[string][]string{}}
+		g = &docCand{variants: map[string]int{}, canon: map[string]int{}, words: map[string][]string{}, pos: map[string]string{}}
 		dc.cands[cd.key] = g
 		dc.order = append(dc.order, cd.key)
 	}
@@ -182,6 +185,7 @@ func (dc *DocCounts) add(cd cand, d *doc.Document, s *doc.Sentence) {
 	g.canon[cd.canon]++
 	if _, ok := g.words[cd.canon]; !ok {
 		g.words[cd.canon] = cd.words
+		g.pos[cd.canon] = cd.pos
 	}
 	// One context per sentence; the corpus keeps the first few overall.
 	if len(g.contexts) < maxDocContexts {
@@ -198,8 +202,9 @@ const maxDocContexts = 3
 // canonicalWords joins hyphenated parts back into orthographic words and
 // normalizes them: every word lower-cased except acronyms and proper nouns,
 // the last word (the head) replaced by its lemma. It returns the canonical
-// words and their lower-cased forms.
-func canonicalWords(toks []doc.Token) (words, lower []string) {
+// words, their lower-cased forms and their UPOS tags (a hyphenated word
+// takes the tag of its last part).
+func canonicalWords(toks []doc.Token) (words, lower []string, pos string) {
 	type word struct {
 		text  string
 		last  *doc.Token
@@ -222,11 +227,7 @@ func canonicalWords(toks []doc.Token) (words, lower []string) {
 		// when a lower-case spelling of it occurs too.
 		keepCase := isAcronym(text) || w.last.UPOS == "PROPN"
 		if n == len(ws)-1 && w.last.Lemma != "" && !strings.ContainsAny(text, "-") {
-			lem := w.last.Lemma
-			if w.last.UPOS == "PROPN" && strings.EqualFold(lem, text) {
-				lem = text
-			}
-			text = lem
+			text = headLemma(text, w.last.Lemma, keepCase)
 		} else if n == len(ws)-1 && w.last.Lemma != "" {
 			// hyphenated head: lemmatize its last part ("set-points" -> "set-point")
 			if cut := strings.LastIndexAny(text, "-"); cut >= 0 && strings.EqualFold(text[cut+1:], w.last.Form) {
@@ -238,8 +239,28 @@ func canonicalWords(toks []doc.Token) (words, lower []string) {
 		}
 		words = append(words, text)
 		lower = append(lower, strings.ToLower(text))
+		if n > 0 {
+			pos += " "
+		}
+		pos += w.last.UPOS
 	}
-	return words, lower
+	return words, lower, pos
+}
+
+// headLemma returns the canonical head word. Words that keep their case
+// (acronyms, names) keep their spelling when the lemma only changes case or
+// drops a plural s ("PLCs" → "PLC", "VPD" stays "VPD").
+func headLemma(form, lemma string, keepCase bool) string {
+	if !keepCase {
+		return lemma
+	}
+	switch {
+	case strings.EqualFold(form, lemma):
+		return form
+	case strings.HasSuffix(form, "s") && strings.EqualFold(form[:len(form)-1], lemma):
+		return form[:len(form)-1]
+	}
+	return lemma
 }
 
 // WordKey is the key a word token is counted under for domain specificity:

@@ -81,7 +81,7 @@ func Evaluate(ranked []*Term, defaultLen int, gold Gold) Evaluation {
 		}
 		return s
 	}
-	if defaultLen == 0 {
+	if defaultLen == 0 { // an empty default list
 		ev.Default = at(0)
 	}
 	for i, t := range ranked {

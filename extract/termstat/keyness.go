@@ -146,3 +146,22 @@ func finite(x float64) float64 {
 	}
 	return x
 }
+
+// SmoothedWeirdness is the weirdness ratio with additive smoothing of both
+// frequencies,
+//
+//	W_α = ((a + α)/c) / ((b + α)/d),
+//
+// for ranking candidates that include rare words. Adding α to the study
+// frequency as well as to the reference frequency keeps the ratio
+// symmetric (a word equally rare in both corpora scores about c⁻¹/d⁻¹
+// whatever its count) and, with a small α, lets a word absent from the
+// reference still rank by how often the study corpus uses it. Additive
+// smoothing is common practice; the value of α is the caller's choice.
+// Invalid counts, a zero corpus size or α ≤ 0 score 0.
+func (k Contrast) SmoothedWeirdness(alpha float64) float64 {
+	if !k.Valid() || k.StudySize == 0 || k.ReferenceSize == 0 || !(alpha > 0) {
+		return 0
+	}
+	return finite(((k.Study + alpha) / k.StudySize) / ((k.Reference + alpha) / k.ReferenceSize))
+}

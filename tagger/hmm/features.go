@@ -143,7 +143,7 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 		form := toks[i].Form
 		ti := &info[i]
 		buf = lowerInto(buf[:0], form)
-		f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
+		f = append(f, key(fBias, 0), key(fLower, ti.lower), key(fShape, ti.shape))
 		for k := 1; k <= 5 && k < len(buf); k++ {
 			f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
 		}
@@ -256,3 +256,4 @@ func shapeInto(buf []byte, s string) []byte {
 	}
 	return buf
 }
+

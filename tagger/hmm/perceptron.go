@@ -22,7 +22,7 @@ type perceptron struct {
 	rowTag   []uint8
 	rowW     []float32
 
-	slots []int32 // open-addressing table: slot → row+1 (0 = empty)
+	slots []slot // open-addressing table of keys
 	mask  uint64
 
 	// tri and bi are the transition weights as trained (and stored);
@@ -73,32 +73,39 @@ func (p *perceptron) weight(r int32, t uint8) float32 {
 	return 0
 }
 
-// index builds the open-addressing table over keys.
+// slot holds a key with its row, so that a look-up touches one cache line.
+type slot struct {
+	key uint64 // 0: empty
+	row int32
+}
+
+// index builds the open-addressing table over keys, at most 2/3 full.
 func (p *perceptron) index() {
 	size := 1
-	for size < 2*len(p.keys)+1 {
+	for size*2 < 3*len(p.keys)+1 {
 		size <<= 1
 	}
-	p.slots = make([]int32, size)
+	p.slots = make([]slot, size)
 	p.mask = uint64(size - 1)
 	for i, k := range p.keys {
 		s := k & p.mask
-		for p.slots[s] != 0 {
+		for p.slots[s].key != 0 {
 			s = (s + 1) & p.mask
 		}
-		p.slots[s] = int32(i + 1)
+		p.slots[s] = slot{k, int32(i)}
 	}
 }
 
+// row returns the row of a feature key, or -1.
 func (p *perceptron) row(k uint64) int32 {
 	s := k & p.mask
 	for {
-		r := p.slots[s]
-		if r == 0 {
-			return -1
+		e := &p.slots[s]
+		if e.key == k {
+			return e.row
 		}
-		if p.keys[r-1] == k {
-			return r - 1
+		if e.key == 0 {
+			return -1
 		}
 		s = (s + 1) & p.mask
 	}

@@ -32,7 +32,7 @@ type TrainOptions struct {
 
 	// DictMin: when tagging, words seen at least this often in training
 	// may only take tags they were seen with (the tag dictionary); rarer
-	// words may take any tag (default 50). The dictionary shrinks the
+	// words may take any tag (default 10). The dictionary shrinks the
 	// lattice, which is where the speed comes from.
 	DictMin int
 	// TrainDictMin is the same threshold during perceptron training; 0
@@ -81,7 +81,7 @@ func (o *TrainOptions) defaults() error {
 		o.Seed = 1
 	}
 	if o.DictMin == 0 {
-		o.DictMin = 50
+		o.DictMin = 10
 	}
 	if o.MaxCands <= 0 {
 		o.MaxCands = 8

@@ -38,8 +38,8 @@
 // SEPARATOR at the start of the block's text. The tokenizer must end a
 // sentence at either.
 //
-// txt: the text as it is. CRLF and lone CR become LF (in every text
-// format), so Token.Line is the line an editor shows.
+// txt: the text as it is. CRLF and lone CR become LF (so in md too, and
+// in html <pre>), so Token.Line is the line an editor shows.
 //
 // md (CommonMark with the GitHub tables, task lists, strikethrough and
 // footnotes): the text keeps exactly the source's lines — markup is

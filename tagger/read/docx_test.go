@@ -7,8 +7,12 @@ import (
 	"fmt"
 	"hash/crc32"
 	"io"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
+
+	"glossmith/internal/testenv"
 )
 
 // makeZip packs name → content pairs, in order, into a zip archive.
@@ -170,4 +174,29 @@ func TestDocxDeclaredTotalTooBig(t *testing.T) {
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
 	assert.Contains(t, ps[0].Msg, "refused: the archive declares 2.0 GiB unpacked")
+}
+
+// The demo corpus's .docx is written by testdata/tools/mkdocx.py (Python's
+// zipfile, not our code) from a marked-up source text. Undoing that
+// script's documented markup on the source must give the text we extract:
+// one paragraph per non-empty line, "#"/"##" heading marks, "**" bold
+// marks and "^" run splits removed, "<br>" a line break.
+func TestDocxDemoAgainstSource(t *testing.T) {
+	root := testenv.Root(t)
+	src, err := os.ReadFile(filepath.Join(root, "testdata", "tools", "hv-valve-service-manual.txt"))
+	require.NoError(t, err)
+	var paras []string
+	for _, line := range strings.Split(string(src), "\n") {
+		if strings.TrimSpace(line) == "" {
+			continue
+		}
+		line = strings.TrimPrefix(strings.TrimPrefix(line, "## "), "# ")
+		line = strings.NewReplacer("**", "", "^", "", "<br>", "\n").Replace(line)
+		paras = append(paras, line)
+	}
+	p := filepath.Join(root, "testdata", "demo", "hv-valve-service-manual.docx")
+	d, ps := Read(Input{Name: "manual.docx", Path: p}, Options{})
+	require.NotNil(t, d, "%v", ps)
+	assert.Empty(t, ps)
+	assert.Equal(t, strings.Join(paras, "\n\n"), d.Text)
 }

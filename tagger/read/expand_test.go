@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"glossmith/internal/testenv"
 	"glossmith/tagger/doc"
 )
 
@@ -185,4 +186,36 @@ func TestBinaryInDirectoryIsNote(t *testing.T) {
 	ps = nil
 	require.NoError(t, Each([]string{"d/pic.txt"}, Options{}, func(*doc.Document) error { return nil }, func(p Problem) { ps = append(ps, p) }))
 	assert.Equal(t, []string{"error: d/pic.txt: not text (a PNG image)"}, msgs(ps))
+}
+
+// The whole demo corpus reads without errors or warnings, each file in
+// the format its name gives.
+func TestDemoCorpus(t *testing.T) {
+	demo := testenv.Demo(t)
+	want := map[string]string{}
+	entries, err := os.ReadDir(demo)
+	require.NoError(t, err)
+	for _, e := range entries {
+		if f := formatByName(e.Name()); f != "" && !isHidden(e.Name()) {
+			want[filepath.Join(demo, e.Name())] = f
+		}
+	}
+	require.NotEmpty(t, want)
+	got := map[string]string{}
+	err = Each([]string{demo}, Options{}, func(d *doc.Document) error {
+		got[d.Name] = d.Format
+		for i, line := range strings.Split(d.Text, "\n") {
+			line = strings.TrimLeft(line, " \u2029")
+			if d.Format == "md" && strings.HasPrefix(line, "#") || d.Format == "html" && strings.Contains(line, "<p") {
+				t.Errorf("%s:%d: markup left: %q", d.Name, i+1, line)
+			}
+		}
+		return nil
+	}, func(p Problem) {
+		if p.Severity != Note {
+			t.Errorf("%v: %v", p.Severity, p)
+		}
+	})
+	require.NoError(t, err)
+	assert.Equal(t, want, got)
 }

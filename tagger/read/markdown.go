@@ -132,15 +132,17 @@ func (m *mdReader) line(line string, lines []string, i int, prevBlank bool) (tex
 		m.inTable, m.inCode = false, false
 		return "", false, false, false
 	}
-	indent := indentWidth(line)
 	if m.inComment {
 		end := strings.Index(line, "-->")
 		if end < 0 {
 			return "", false, false, false
 		}
 		m.inComment = false
-		line = strings.Repeat(" ", min(indent, 80)) + line[end+3:]
+		if line = line[end+3:]; strings.TrimSpace(line) == "" {
+			return "", false, false, false
+		}
 	}
+	indent := indentWidth(line)
 	if indent >= 4 && !m.inList && (prevBlank || m.inCode) && !m.inTable {
 		m.inCode = true // indented code block: dropped like fenced code
 		return "", false, false, false

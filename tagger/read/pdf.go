@@ -36,7 +36,7 @@ func (r *reader) pdf(data []byte) *doc.Document {
 	// pdftotext wants a file. Pass the user's own file when there is one;
 	// standard input and decompressed data go through a temporary file.
 	path := r.in.Path
-	if path == "-" || isGzip(data) || isGzipName(r.in.Path) {
+	if path == "-" || r.unpacked {
 		f, err := os.CreateTemp("", "glossmith-*.pdf")
 		if err != nil {
 			r.errorf(0, "cannot make a temporary file for pdftotext: %v", err)

@@ -62,6 +62,10 @@ func TestPDF(t *testing.T) {
 	d2, ps := Read(Input{Name: "card.pdf.gz", Path: gzPath}, Options{})
 	require.NotNil(t, d2, "%v", ps)
 	assert.Equal(t, d.Text, d2.Text)
+	gzPath = writeFile(t, t.TempDir(), "card", gz(t, raw)) // gzip and PDF both found by content
+	d2, ps = Read(Input{Name: "card", Path: gzPath}, Options{})
+	require.NotNil(t, d2, "%v", ps)
+	assert.Equal(t, d.Text, d2.Text)
 	f, err := os.Open(p)
 	require.NoError(t, err)
 	defer f.Close()

@@ -170,9 +170,10 @@ func Read(in Input, opt Options) (*doc.Document, []Problem) {
 }
 
 type reader struct {
-	in    Input
-	opt   Options
-	probs []Problem
+	in       Input
+	opt      Options
+	probs    []Problem
+	unpacked bool // the data was decompressed, so the file on disk is not it
 }
 
 func (r *reader) add(sev Severity, line int, format string, args ...any) {
@@ -207,6 +208,7 @@ func (r *reader) read() *doc.Document {
 		if data, ok = r.gunzip(data, limit); !ok {
 			return nil
 		}
+		r.unpacked = true
 		if isGzipName(name) {
 			name = name[:len(name)-3]
 		}

@@ -206,3 +206,91 @@ func TestEWTRoundTrip(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+// wrapLines hard-wraps every paragraph of text at width bytes, as plain
+// text files often are, and one-per-line puts each gold sentence on a line.
+func wrapLines(text string, width int) string {
+	var b strings.Builder
+	for p, par := range strings.Split(text, "\n\n") {
+		if p > 0 {
+			b.WriteString("\n\n")
+		}
+		col := 0
+		for w, word := range strings.Fields(par) {
+			if w > 0 {
+				if col+1+len(word) > width {
+					b.WriteString("\n")
+					col = 0
+				} else {
+					b.WriteString(" ")
+					col++
+				}
+			}
+			b.WriteString(word)
+			col += len(word)
+		}
+	}
+	return b.String()
+}
+
+// TestEWTLineBreaks measures the heading rule (a line break after a short
+// line without final punctuation ends a sentence) on the EWT dev text in
+// two layouts the plain rebuild lacks: hard-wrapped at 72 columns, where
+// the rule must not cut sentences at wrapped lines, and one sentence per
+// line, where it should find the sentences that end without punctuation.
+// It fails when the rule costs more than 0.005 on wrapped text.
+func TestEWTLineBreaks(t *testing.T) {
+	dir := testenv.SharedDir(t, "data/ud-en-ewt")
+	g := readGold(t, filepath.Join(dir, "en_ewt-ud-dev.conllu"))
+	perLine := perLineText(t, filepath.Join(dir, "en_ewt-ud-dev.conllu"))
+	layouts := []struct{ name, text string }{
+		{"wrapped at 72", wrapLines(g.text, 72)},
+		{"wrapped at 50", wrapLines(g.text, 50)},
+		{"one sentence per line", perLine},
+	}
+	defer func() { headingBreaks = true }()
+	for _, l := range layouts {
+		var f [2]float64
+		for i, on := range []bool{false, true} {
+			headingBreaks = on
+			_, _, ss, n := systemSpans(l.text, Sentences(l.text))
+			if n != g.nonSpace {
+				t.Fatalf("%s: %d non-space characters, gold %d", l.name, n, g.nonSpace)
+			}
+			f[i] = f1(g.sents, ss)
+		}
+		t.Logf("EWT dev %s: sentence F1 %.4f without the heading rule, %.4f with it", l.name, f[0], f[1])
+		if strings.HasPrefix(l.name, "wrapped") && f[1] < f[0]-0.005 {
+			t.Errorf("heading rule costs %.4f sentence F1 on hard-wrapped text", f[0]-f[1])
+		}
+	}
+}
+
+// perLineText rebuilds a treebank file with one sentence per line and a
+// blank line between paragraphs.
+func perLineText(t *testing.T, path string) string {
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	var b strings.Builder
+	r := conllu.NewReader(f, filepath.Base(path))
+	for {
+		s, err := r.Next()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
+		if b.Len() > 0 {
+			b.WriteString("\n")
+			if s.NewPar || s.NewDoc {
+				b.WriteString("\n")
+			}
+		}
+		b.WriteString(s.Text)
+	}
+	return b.String()
+}

@@ -39,7 +39,7 @@ var extraAbbrevs = []string{
 	"ed.", "eds.", "eq.", "Eq.", "esp.", "est.", "excl.", "fig.", "Fig.", "figs.", "Figs.",
 	"incl.", "Incl.", "max.", "Max.", "min.", "Min.", "nos.", "Nos.", "op.", "p.", "pp.",
 	"ref.", "Ref.", "resp.", "sec.", "Sec.", "tab.", "Tab.", "vol.", "Vol.", "vs.", "viz.",
-	"Capt.", "Cmdr.", "Col.", "Drs.", "Gen.", "Hon.", "Lt.", "Maj.", "Messrs.", "Mmes.",
+	"Asst.", "Assoc.", "Univ.", "Div.", "Mgr.", "Eqn.", "Eqs.", "Refs.", "Capt.", "Cmdr.", "Col.", "Drs.", "Gen.", "Hon.", "Lt.", "Maj.", "Messrs.", "Mmes.",
 	"Mr.", "Mrs.", "Ms.", "Prof.", "Profs.", "Rep.", "Sen.", "Sgt.", "Sr.", "Jr.", "St.",
 	"Sts.", "Ave.", "Blvd.", "Rd.", "Mt.", "Ft.", "Bros.", "Co.", "Corp.", "Inc.", "Ltd.",
 	"LTD.", "Pvt.", "PVT.", "Jan.", "Feb.", "Apr.", "Jun.", "Jul.", "Aug.", "Sep.",
@@ -86,16 +86,28 @@ var hyphenPrefixes = map[string]bool{
 	"quasi": true, "macro": true, "hyper": true, "infra": true, "trans": true,
 }
 
-// contractions are clitic spellings without an apostrophe that UD EWT
-// splits into two syntactic words ("dont" = "do" + "nt", "cannot" = "can" +
-// "not", "gonna" = "gon" + "na"). The value is the byte length of the first
-// word. Ambiguous spellings ("its", "lets", "hes", "ill") are left whole.
-var contractions = map[string]int{
-	"dont": 2, "cant": 2, "wont": 2, "didnt": 3, "doesnt": 4, "isnt": 2,
-	"wasnt": 3, "werent": 4, "arent": 3, "havent": 4, "hasnt": 3, "hadnt": 3,
-	"couldnt": 5, "wouldnt": 5, "shouldnt": 6, "aint": 2, "im": 1, "ive": 1,
-	"youre": 3, "thats": 4, "whats": 4, "theres": 5, "cannot": 3, "gonna": 3,
-	"wanna": 3, "gotta": 3, "outta": 3,
+// contraction returns the byte length of the first word of a clitic
+// spelling without an apostrophe that UD EWT splits into two syntactic
+// words ("dont" = "do" + "nt", "cannot" = "can" + "not", "gonna" = "gon" +
+// "na"), or 0. lower is the word in lower case. Ambiguous spellings ("its",
+// "lets", "hes", "ill") are left whole. (A switch, not a map: this runs for
+// every word.)
+func contraction(lower string) int {
+	switch lower {
+	case "im", "ive":
+		return 1
+	case "dont", "cant", "wont", "isnt", "aint":
+		return 2
+	case "didnt", "wasnt", "arent", "hasnt", "hadnt", "youre", "cannot", "gonna", "wanna", "gotta", "outta":
+		return 3
+	case "doesnt", "werent", "havent", "thats", "whats":
+		return 4
+	case "couldnt", "wouldnt", "theres":
+		return 5
+	case "shouldnt":
+		return 6
+	}
+	return 0
 }
 
 // cliticSuffixes follow an apostrophe and are split off as words of their

@@ -55,19 +55,24 @@ type tokenizer struct {
 	line   int
 	// chunkEnd is the end of the white-space-delimited chunk being split.
 	chunkEnd int
-	// nAbbrev counts tokens ending in an attached abbreviation period; the
-	// splitter may cut such a period off at a sentence end.
-	nAbbrev int
+	// lineLens holds the length in characters of each line that ends in a
+	// single line break, for estimating the width of hard-wrapped text.
+	lineLens []int
+	// wrapWidth is computed from lineLens when first needed.
+	wrapWidth int
 }
 
 // scan cuts the text into tokens.
 func (t *tokenizer) scan() {
 	text := t.text
+	// English text runs at 5 to 6 bytes a token; the slack leaves room for
+	// the periods that split may cut off abbreviations without a copy.
 	est := len(text)/5 + 4
-	t.toks = make([]doc.Token, 0, est)
+	t.toks = make([]doc.Token, 0, est+est/32)
 	t.breaks = make([]uint8, 0, est)
 	t.line = 1
 	newlines := 2 // the start of the text opens a paragraph
+	lineStart, lineEnd := 0, 0
 	i := 0
 	for i < len(text) {
 		c := text[i]
@@ -101,6 +106,13 @@ func (t *tokenizer) scan() {
 			}
 			j += n
 		}
+		if newlines == 1 {
+			t.lineLens = append(t.lineLens, utf8.RuneCountInString(text[lineStart:lineEnd]))
+		}
+		if newlines > 0 {
+			lineStart = i
+		}
+		lineEnd = j
 		first := len(t.toks)
 		t.chunkEnd = j
 		t.chunk(i, j)
@@ -122,16 +134,23 @@ func (t *tokenizer) scan() {
 
 var asciiSpace = [utf8.RuneSelf]bool{' ': true, '\t': true, '\n': true, '\v': true, '\f': true, '\r': true}
 
-// emit appends the token text[s:e].
+// emit appends the token text[s:e]. It fills the fields of a slot in the
+// (zeroed) array rather than copying a whole struct in, which spares the
+// garbage collector's bulk write barrier on every token.
 func (t *tokenizer) emit(s, e int, fused bool) {
-	t.toks = append(t.toks, doc.Token{
-		Form:       t.text[s:e],
-		Start:      s,
-		End:        e,
-		Line:       t.line,
-		SpaceAfter: e == t.chunkEnd && e < len(t.text),
-		FusedNext:  fused,
-	})
+	n := len(t.toks)
+	if n < cap(t.toks) {
+		t.toks = t.toks[:n+1]
+	} else {
+		t.toks = append(t.toks, doc.Token{})
+	}
+	tk := &t.toks[n]
+	tk.Form = t.text[s:e]
+	tk.Start = s
+	tk.End = e
+	tk.Line = t.line
+	tk.SpaceAfter = e == t.chunkEnd && e < len(t.text)
+	tk.FusedNext = fused
 }
 
 // chunk splits text[s:e], a run without white space, into tokens.

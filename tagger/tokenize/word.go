@@ -17,6 +17,10 @@ func (t *tokenizer) word(i, e, cs int) int {
 	}
 	email := false
 	for j < e {
+		if c := text[j]; c < utf8.RuneSelf && asciiWord[c] { // fast path
+			j++
+			continue
+		}
 		r, n := decode(text, j)
 		if isWord(r) {
 			j += n
@@ -80,7 +84,6 @@ func (t *tokenizer) word(i, e, cs int) int {
 	// Of two periods the first is the abbreviation's: "Inc.." = "Inc." + ".".
 	if j < e && text[j] == '.' && (j+1 == e || text[j+1] != '.' || j+2 == e || text[j+2] != '.') && isAbbrev(text, i, j) {
 		t.emit(i, j+1, false)
-		t.nAbbrev++
 		return j + 1
 	}
 	t.emit(i, j, false)
@@ -244,7 +247,7 @@ func cliticSplit(text string, i, j int) int {
 			buf[k] = c
 		}
 		if ascii {
-			if n, ok := contractions[string(buf[:len(w)])]; ok {
+			if n := contraction(string(buf[:len(w)])); n > 0 {
 				return i + n
 			}
 		}
@@ -416,6 +419,12 @@ func (t *tokenizer) punct(i, e int, r rune, n int) int {
 	}
 	j := i + n
 	switch r {
+	case '°':
+		// A temperature unit is one token: "°C", "°F" (common practice;
+		// EWT has no example).
+		if j < e && (text[j] == 'C' || text[j] == 'F') && (j+1 == e || !startsWord(text, j+1)) {
+			j++
+		}
 	case '.', '!', '?', '…':
 		// Runs of sentence punctuation are one token: "...", "?!", "!!!".
 		for j < e {
