@@ -197,4 +197,3 @@ all cut-offs of the full ranking with the rank where it is reached.`,
 	cmd.Flags().IntVar(&minFreq, "min-freq", 1, "minimum frequency of the default list, as for the terms command")
 	return cmd
 }
-
