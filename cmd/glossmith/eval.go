@@ -11,7 +11,6 @@ import (
 
 	"glossmith/extract/terms"
 	"glossmith/pattern"
-	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
 	"glossmith/tagger/hmm"
 )
@@ -43,24 +42,9 @@ and the most frequent confusions.`,
 			if err != nil {
 				return err
 			}
-			var gold []*conllu.Sentence
-			bad := 0
-			for _, p := range args {
-				f, err := os.Open(p)
-				if err != nil {
-					return err
-				}
-				s, err := conllu.ReadAll(f, p)
-				f.Close()
-				if list, ok := err.(conllu.ErrorList); ok {
-					for _, e := range list {
-						fmt.Fprintln(os.Stderr, "error:", e)
-					}
-					bad += len(list)
-				} else if err != nil {
-					return err
-				}
-				gold = append(gold, s...)
+			gold, bad, err := readConllu(args)
+			if err != nil {
+				return err
 			}
 			rep := hmm.Evaluate(m, gold)
 			switch to {

@@ -39,6 +39,6 @@ exit status is 1 when anything was skipped.`,
 	}
 	root.SetVersionTemplate("glossmith {{.Version}}\n")
 	root.CompletionOptions.HiddenDefaultCmd = true
-	root.AddCommand(newTagCmd(), newTermsCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd())
+	root.AddCommand(newTagCmd(), newTermsCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd())
 	return root
 }
