@@ -46,10 +46,8 @@ type group struct {
 	key      string
 	freq     int
 	perDoc   []docFreq
-	variants map[string]int
-	canon    map[string]int
-	words    map[string][]string
-	pos      map[string]string
+	variants []spelling  // few per group: slices beat maps (see docCand)
+	canon    []canonical // in order of first occurrence
 	contexts []Context
 	spare    []Context // further contexts, used when too few documents offer one
 }
@@ -80,21 +78,24 @@ func (c *Corpus) Add(dc *DocCounts) {
 		x := dc.cands[k]
 		g := c.groups[k]
 		if g == nil {
-			g = &group{key: k, variants: map[string]int{}, canon: map[string]int{}, words: map[string][]string{}, pos: map[string]string{}}
+			g = &group{key: k}
 			c.groups[k] = g
 			c.order = append(c.order, k)
 		}
 		g.freq += x.freq
 		g.perDoc = append(g.perDoc, docFreq{di, x.freq})
-		for v, n := range x.variants {
-			g.variants[v] += n
+		for _, v := range x.variants {
+			g.variants = addSpelling(g.variants, v)
 		}
-		for v, n := range x.canon {
-			g.canon[v] += n
-			if _, ok := g.words[v]; !ok {
-				g.words[v] = x.words[v]
-				g.pos[v] = x.pos[v]
+	canon:
+		for _, v := range x.canon {
+			for i := range g.canon {
+				if g.canon[i].text == v.text {
+					g.canon[i].n += v.n
+					continue canon
+				}
 			}
+			g.canon = append(g.canon, v)
 		}
 		// Contexts: at most one per document until every candidate has
 		// its quota, so examples show the term in different documents.
@@ -152,15 +153,17 @@ type Term struct {
 	Contexts []Context `json:"contexts,omitempty"`
 	key      string
 	words    []string
+	keys     []string
 }
 
 // canonical picks a group's display form: the most frequent canonical
 // spelling, preferring a lower-case one when the candidate also occurs in
 // lower case (so a capitalized heading does not decide). Ties go to the
 // byte-wise smallest spelling.
-func (g *group) canonical() (string, []string) {
-	best, bestN, bestLower := "", -1, false
-	for s, n := range g.canon {
+func (g *group) canonical() *canonical {
+	best, bestN, bestLower, bi := "", -1, false, 0
+	for i, c := range g.canon {
+		s, n := c.text, c.n
 		lower := s == strings.ToLower(s)
 		better := false
 		switch {
@@ -172,10 +175,24 @@ func (g *group) canonical() (string, []string) {
 			better = s < best
 		}
 		if bestN < 0 || better {
-			best, bestN, bestLower = s, n, lower
+			best, bestN, bestLower, bi = s, n, lower, i
 		}
 	}
-	return best, g.words[best]
+	if bestN < 0 {
+		return &canonical{}
+	}
+	return &g.canon[bi]
+}
+
+// addSpelling adds v's count to the same spelling in ss, or appends it.
+func addSpelling(ss []spelling, v spelling) []spelling {
+	for i := range ss {
+		if ss[i].text == v.text {
+			ss[i].n += v.n
+			return ss
+		}
+	}
+	return append(ss, v)
 }
 
 // Terms computes the statistics of every candidate against the reference
@@ -192,10 +209,11 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 	cands := make([]termstat.Candidate, 0, len(c.order))
 	for _, k := range c.order {
 		g := c.groups[k]
-		name, words := g.canonical()
-		t := &Term{Term: name, Words: len(words), POS: g.pos[name], Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
-		for v, n := range g.variants {
-			t.Variants = append(t.Variants, Variant{v, n})
+		cn := g.canonical()
+		words := cn.words
+		t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
+		for _, v := range g.variants {
+			t.Variants = append(t.Variants, Variant{v.text, v.n})
 		}
 		sort.Slice(t.Variants, func(i, j int) bool {
 			a, b := t.Variants[i], t.Variants[j]
@@ -218,7 +236,8 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 			}
 			t.Contexts = append(t.Contexts, cx)
 		}
-		t.Keyness, t.Weirdness = c.specificity(words, ref)
+		t.Keyness, t.Weirdness = c.specificity(cn.keys, ref, Alpha)
+		t.keys = cn.keys
 		out = append(out, t)
 		lw := make([]string, len(words))
 		for i, w := range words {
@@ -260,26 +279,21 @@ const Alpha = 0.1
 
 // specificity returns the domain specificity of a candidate against the
 // reference: the signed log-likelihood keyness and the smoothed weirdness
-// of its least specific word. A hyphenated word counts as its parts. A
-// term is taken to be as domain-specific as its most general word, so
-// "wind turbine design" is held back by "design"; on the evaluation lists
-// the minimum ranked better than the mean (see README).
-func (c *Corpus) specificity(words []string, ref Reference) (ll, weird float64) {
+// of its least specific content word (keys are lemma keys). A term is taken
+// to be as domain-specific as its most general word, so "wind turbine
+// design" is held back by "design"; on the evaluation lists the minimum
+// ranked better than the mean (see README).
+func (c *Corpus) specificity(keys []string, ref Reference, alpha float64) (ll, weird float64) {
 	if ref == nil || ref.Size() == 0 || c.words.Total == 0 {
 		return 0, 0
 	}
-	first := true
-	for _, w := range words {
-		for _, part := range strings.FieldsFunc(strings.ToLower(w), func(r rune) bool { return r == '-' || r == '‐' || r == '‑' }) {
-			k := termstat.Contrast{Study: float64(c.words.Words[part]), Reference: float64(ref.Freq(part)),
-				StudySize: float64(c.words.Total), ReferenceSize: float64(ref.Size())}
-			k.Study = min(k.Study, k.StudySize)
-			k.Reference = min(k.Reference, k.ReferenceSize)
-			wr := k.SmoothedWeirdness(Alpha)
-			if first || wr < weird {
-				weird, ll = wr, k.LL()
-				first = false
-			}
+	for i, key := range keys {
+		k := termstat.Contrast{Study: float64(c.words.Words[key]), Reference: float64(ref.Freq(key)),
+			StudySize: float64(c.words.Total), ReferenceSize: float64(ref.Size())}
+		k.Study = min(k.Study, k.StudySize)
+		k.Reference = min(k.Reference, k.ReferenceSize)
+		if wr := k.SmoothedWeirdness(alpha); i == 0 || wr < weird {
+			weird, ll = wr, k.LL()
 		}
 	}
 	return ll, weird
