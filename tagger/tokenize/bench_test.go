@@ -3,6 +3,7 @@ package tokenize
 import (
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"glossmith/internal/testenv"
@@ -34,5 +35,28 @@ func BenchmarkSentences(b *testing.B) {
 		for _, t := range texts {
 			Sentences(t)
 		}
+	}
+}
+
+// BenchmarkAdversarial runs inputs built to make a careless scanner
+// quadratic: long runs of separators inside one chunk. Throughput should
+// stay in the range of ordinary text.
+func BenchmarkAdversarial(b *testing.B) {
+	inputs := map[string]string{
+		"digit-hyphens": strings.Repeat("1-", 1<<17),
+		"prefix-digits": strings.Repeat("1", 1<<17) + "." + strings.Repeat("1-", 1<<16),
+		"date-slashes":  strings.Repeat("12/", 1<<17),
+		"url-brackets":  "http://example.com/" + strings.Repeat("(", 1<<16) + strings.Repeat(")", 1<<17),
+		"dots":          strings.Repeat("a.", 1<<17) + ".",
+		"apostrophes":   strings.Repeat("a'", 1<<17),
+		"one-line":      strings.Repeat("Valve ", 1<<16) + "\n" + strings.Repeat("Pump ", 1<<16),
+	}
+	for name, in := range inputs {
+		b.Run(name, func(b *testing.B) {
+			b.SetBytes(int64(len(in)))
+			for b.Loop() {
+				Sentences(in)
+			}
+		})
 	}
 }

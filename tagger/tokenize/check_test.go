@@ -13,8 +13,9 @@ import (
 // from text and returns a description of the first violation, or "".
 // Tokens lie inside the text, in order and without overlap; Form is
 // Text[Start:End]; only white space lies between tokens, so the tokens and
-// the gaps give the text back exactly; SpaceAfter says whether a gap
-// follows; FusedNext tokens touch their successor; Line is right.
+// the gaps give the text back exactly, and no token holds white space;
+// SpaceAfter says whether a gap follows; FusedNext tokens touch their
+// successor; Line is right; the first sentence starts a paragraph.
 func checkRoundTrip(text string, sents []doc.Sentence) string {
 	var b strings.Builder
 	pos, line, linePos := 0, 1, 0
@@ -27,6 +28,9 @@ func checkRoundTrip(text string, sents []doc.Sentence) string {
 		if len(s.Tokens) == 0 {
 			return fmt.Sprintf("sentence %d is empty", si)
 		}
+		if si == 0 && !s.NewPar {
+			return "the first sentence does not start a paragraph"
+		}
 		for ti := range s.Tokens {
 			tk := &s.Tokens[ti]
 			if tk.Start < pos || tk.End <= tk.Start || tk.End > len(text) {
@@ -35,6 +39,9 @@ func checkRoundTrip(text string, sents []doc.Sentence) string {
 			}
 			if tk.Form != text[tk.Start:tk.End] {
 				return fmt.Sprintf("token %q at [%d,%d) but the text there is %q", tk.Form, tk.Start, tk.End, text[tk.Start:tk.End])
+			}
+			if strings.IndexFunc(tk.Form, unicode.IsSpace) >= 0 {
+				return fmt.Sprintf("token %q at %d contains white space", tk.Form, tk.Start)
 			}
 			gap := text[pos:tk.Start]
 			if !allSpace(gap) {

@@ -11,9 +11,11 @@
 // exactly one token, and Form is always Text[Start:End].
 //
 // Sentences end at full stops, question and exclamation marks (and the
-// quotes and brackets right after them), at blank lines, and after lines
-// that look like headings. Abbreviations that do not end sentences are
-// learned from the EWT training data (abbrev.txt).
+// quotes and brackets right after them), at blank lines, and at line breaks
+// that were not made by hard wrapping: after a heading, before a bullet,
+// after a line that stops short of the text's wrap width. Abbreviations and
+// whether they may end a sentence are learned from the EWT training data
+// (abbrev.txt, made by internal/mkabbrev).
 package tokenize
 
 import (
@@ -60,6 +62,14 @@ type tokenizer struct {
 	lineLens []int
 	// wrapWidth is computed from lineLens when first needed.
 	wrapWidth int
+	// digits remembers the last decision of keepDigits: for the word
+	// starting at start-1 (0: none yet), with separator sep, valid for
+	// separators before end.
+	digits struct {
+		start, end int
+		sep        byte
+		keep       bool
+	}
 }
 
 // scan cuts the text into tokens.
@@ -86,6 +96,16 @@ func (t *tokenizer) scan() {
 				continue
 			}
 		} else if r, n := utf8.DecodeRuneInString(text[i:]); unicode.IsSpace(r) {
+			// U+2029 PARAGRAPH SEPARATOR and U+2028 LINE SEPARATOR mark
+			// breaks without a new line in the source; the Markdown reader
+			// uses the first to end blocks (list items, table cells) while
+			// keeping every token on its source line.
+			switch r {
+			case '\u2029':
+				newlines = max(newlines, 2)
+			case '\u2028':
+				newlines = max(newlines, 1)
+			}
 			i += n
 			continue
 		}

@@ -87,6 +87,9 @@ var tokenTests = []struct {
 	{"quotes after the full stop",
 		`He said "stop." Then the valve closed.`,
 		`He said " stop . " | Then the valve closed .`},
+	{"lower case after a closing quote",
+		`"Stop!" he said.`,
+		`" Stop ! " he said .`},
 	{"brackets after the full stop",
 		"(Close the lid.) Then start.",
 		"( Close the lid . ) | Then start ."},
@@ -213,5 +216,15 @@ func TestAbbrevList(t *testing.T) {
 	}
 	if !strings.Contains(abbrevText, "Universal Dependencies") || !strings.Contains(abbrevText, "CC BY-SA 4.0") {
 		t.Error("abbrev.txt header must name its source and licence")
+	}
+}
+
+// The Markdown reader ends blocks with U+2029 PARAGRAPH SEPARATOR so that
+// line numbers stay those of the source: it must end a sentence and open a
+// paragraph like a blank line.
+func TestParagraphSeparator(t *testing.T) {
+	sents := Sentences("Flush the filter\u2029Check the valve")
+	if len(sents) != 2 || !sents[1].NewPar || sents[1].Tokens[0].Form != "Check" || sents[1].Tokens[0].Line != 1 {
+		t.Fatalf("got %d sentences: %+v", len(sents), sents)
 	}
 }

@@ -29,7 +29,7 @@ func (t *tokenizer) word(i, e, cs int) int {
 		if j+n >= e || j == i {
 			break
 		}
-		if r == '.' && strings.HasPrefix(text[j:e], "...@") {
+		if r == '.' && strings.HasPrefix(text[j:e], "...@") && j+4 < e && startsWord(text, j+4) {
 			// An address shortened by a mail archive: "name...@example.com".
 			j += 3
 			continue
@@ -100,7 +100,7 @@ func (t *tokenizer) joins(r, pr, nr rune, i, j, e int, email bool) bool {
 	case ',', ':':
 		return isDigit(pr) && isDigit(nr)
 	case '/':
-		return isDigit(pr) && isDigit(nr) && keepSlash(text, i, j, e)
+		return isDigit(pr) && isDigit(nr) && t.keepDigits(i, j, e, '/')
 	case '-', '‐':
 		switch {
 		case email:
@@ -108,7 +108,7 @@ func (t *tokenizer) joins(r, pr, nr rune, i, j, e int, email bool) bool {
 		case isLetter(nr) && hyphenPrefix(text[i:j]):
 			return true
 		case isDigit(pr) && isDigit(nr):
-			return keepNumberHyphen(text, i, j, e)
+			return t.keepDigits(i, j, e, '-')
 		}
 		return false
 	case '\'', '’', '`':
@@ -175,22 +175,53 @@ func digitGroups(text string, i, j, e int, sep byte) (n, first, second int, ok b
 	return n, first, second, k >= j
 }
 
-// keepNumberHyphen decides whether the hyphen at j joins digits as in a
-// phone number or code ("713-853-3989", "345-9945") rather than a range
-// ("1969 - 1970", "3 - 4"), as EWT 2.15 writes them.
-func keepNumberHyphen(text string, i, j, e int) bool {
-	n, a, b, ok := digitGroups(text, i, j, e, '-')
-	if !ok {
-		return false
+// keepDigits decides whether the separator sep at j joins the digit groups
+// of the word starting at i: keepNumberHyphen for '-', keepSlash for '/'.
+// The answer is the same for every separator of a word, so it is kept for
+// the next one; this keeps a long run like "1-2-3-…" linear.
+func (t *tokenizer) keepDigits(i, j, e int, sep byte) bool {
+	if t.digits.start == i+1 && t.digits.sep == sep && j < t.digits.end {
+		return t.digits.keep
 	}
+	n, a, b, ok := digitGroups(t.text, i, j, e, sep)
+	keep := false
+	if ok {
+		if sep == '-' {
+			keep = keepNumberHyphen(n, a, b)
+		} else {
+			keep = keepSlash(n, b)
+		}
+	}
+	t.digits.start, t.digits.sep, t.digits.keep = i+1, sep, keep
+	t.digits.end = e // not digit groups up to j: nor up to any later j
+	if ok {
+		t.digits.end = groupsEnd(t.text, i, e, sep)
+	}
+	return keep
+}
+
+// groupsEnd returns the end of the digit groups separated by sep from i.
+func groupsEnd(text string, i, e int, sep byte) int {
+	k := i
+	for k < e && (isDigitByte(text[k]) || text[k] == sep && k+1 < e && isDigitByte(text[k+1])) {
+		k++
+	}
+	return k
+}
+
+// keepNumberHyphen decides whether hyphens join n digit groups (the first
+// two of lengths a and b) as in a phone number or code ("713-853-3989",
+// "345-9945") rather than a range ("1969 - 1970", "3 - 4"), as EWT 2.15
+// writes them.
+func keepNumberHyphen(n, a, b int) bool {
 	return n >= 3 || n == 2 && b >= 3 && !(a == 4 && b == 4)
 }
 
-// keepSlash decides whether slashes join digits as in a date ("11/28/2000",
-// "9/11") rather than a fraction or ratio ("1 / 2"), as in EWT 2.15.
-func keepSlash(text string, i, j, e int) bool {
-	n, _, b, ok := digitGroups(text, i, j, e, '/')
-	return ok && (n >= 3 || n == 2 && b >= 2)
+// keepSlash decides whether slashes join n digit groups (the second of
+// length b) as in a date ("11/28/2000", "9/11") rather than a fraction or
+// ratio ("1 / 2"), as in EWT 2.15.
+func keepSlash(n, b int) bool {
+	return n >= 3 || n == 2 && b >= 2
 }
 
 // numberEnd returns the end of the number at the start of text[i:j]:
@@ -383,20 +414,24 @@ func urlLen(s string) int {
 // punctuation, quotes, and closing brackets that have no opening one
 // inside the URL.
 func trimURL(text string, s, e int) int {
+	var open, closed [3]int // (), [], {}
+	for k := s; k < e; k++ {
+		if b := strings.IndexByte("([{", text[k]); b >= 0 {
+			open[b]++
+		} else if b := strings.IndexByte(")]}", text[k]); b >= 0 {
+			closed[b]++
+		}
+	}
 	for e > s+1 {
 		r, n := decodeLast(text, e)
 		switch r {
 		case '.', ',', ';', ':', '!', '?', '\'', '"', '>', '”', '’', '»':
 		case ')', ']', '}':
-			open := byte('(')
-			if r == ']' {
-				open = '['
-			} else if r == '}' {
-				open = '{'
-			}
-			if strings.Count(text[s:e], string(open)) >= strings.Count(text[s:e], string(r)) {
+			b := strings.IndexRune(")]}", r)
+			if open[b] >= closed[b] {
 				return e
 			}
+			closed[b]--
 		default:
 			return e
 		}
