@@ -35,6 +35,9 @@ func (c *Counts) Add(dc *DocCounts) {
 		c.Words = map[string]int{}
 	}
 	for w, n := range dc.Words {
+		if _, ok := c.Words[w]; !ok {
+			w = strings.Clone(w) // detach from the document's text (see detach)
+		}
 		c.Words[w] += n
 	}
 	c.Total += dc.Tokens
@@ -60,6 +63,7 @@ type Corpus struct {
 	groups   map[string]*group
 	order    []string
 	contexts int
+	budget   budget // see budget.go
 }
 
 // NewCorpus returns an empty corpus keeping up to contexts example
@@ -85,7 +89,10 @@ func (c *Corpus) Add(dc *DocCounts) {
 		g.freq += x.freq
 		g.perDoc = append(g.perDoc, docFreq{di, x.freq})
 		for _, v := range x.variants {
-			g.variants = addSpelling(g.variants, v)
+			n := len(g.variants)
+			if g.variants = addSpelling(g.variants, v); len(g.variants) > n {
+				g.variants[n].text = strings.Clone(v.text)
+			}
 		}
 	canon:
 		for _, v := range x.canon {
@@ -95,7 +102,7 @@ func (c *Corpus) Add(dc *DocCounts) {
 					continue canon
 				}
 			}
-			g.canon = append(g.canon, v)
+			g.canon = append(g.canon, v.detach())
 		}
 		// Contexts: at most one per document until every candidate has
 		// its quota, so examples show the term in different documents.
@@ -108,6 +115,21 @@ func (c *Corpus) Add(dc *DocCounts) {
 			}
 		}
 	}
+	c.checkBudget(dc)
+}
+
+// detach returns a copy of the canonical spelling that shares no memory
+// with the document it came from. Strings cut from a document's text (a
+// word form, a span) keep the whole text alive: kept in the corpus, they
+// would hold every document ever read in memory.
+func (v canonical) detach() canonical {
+	v.text = strings.Clone(v.text)
+	words := make([]string, len(v.words))
+	for i, w := range v.words {
+		words[i] = strings.Clone(w)
+	}
+	v.words = words
+	return v
 }
 
 // WordFreq returns how often a lower-cased lemma occurs in the corpus.
@@ -199,6 +221,7 @@ func addSpelling(ss []spelling, v spelling) []spelling {
 // and returns them in first-occurrence order, unranked (Score and Rank are
 // set by Rank).
 func (c *Corpus) Terms(ref Reference) []*Term {
+	c.foldCapitalPlurals()
 	out := make([]*Term, 0, len(c.order))
 	sizes := make([]float64, len(c.docSize))
 	for i, n := range c.docSize {
