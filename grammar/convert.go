@@ -127,7 +127,7 @@ func (f *File) convertRule(pr *pRule, errs *ErrorList) {
 func (f *File) docAbove(n int) string {
 	var lines []string
 	for l := n - 1; l >= 1; l-- {
-		s := strings.TrimSpace(f.lines.line(l))
+		s := strings.TrimSpace(strings.TrimPrefix(f.lines.line(l), "\ufeff"))
 		if !strings.HasPrefix(s, "#") {
 			break
 		}

@@ -37,7 +37,15 @@ type Error struct {
 	Source string
 }
 
-func (e *Error) Error() string { return e.Pos.String() + ": " + e.Msg }
+func (e *Error) Error() string {
+	switch {
+	case e.Pos.IsValid():
+		return e.Pos.String() + ": " + e.Msg
+	case e.Pos.File != "":
+		return e.Pos.File + ": " + e.Msg
+	}
+	return e.Msg
+}
 
 // Caret returns the offending source line followed by a line with a caret
 // under the column the error points at. Tabs in front of the column are

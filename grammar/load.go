@@ -77,12 +77,17 @@ func (rs *RuleSet) Examples() []*Example {
 }
 
 // Load reads the rule files at paths, resolves their `use` statements and
-// checks the whole set. The error, when not nil, is an ErrorList holding
-// every problem found (the RuleSet is then nil); a file that cannot be read
-// is one of its entries.
+// checks the whole set. A path of the form "stock:NAME" loads the built-in
+// set NAME instead of a file. The error, when not nil, is an ErrorList
+// holding every problem found (the RuleSet is then nil); a file that cannot
+// be read is one of its entries.
 func Load(paths ...string) (*RuleSet, error) {
 	l := newLoader()
 	for _, p := range paths {
+		if name, ok := strings.CutPrefix(p, "stock:"); ok {
+			l.loadStock(name, nil)
+			continue
+		}
 		l.loadDisk(p, nil)
 	}
 	return l.finish()
@@ -102,7 +107,7 @@ func LoadStock(names ...string) (*RuleSet, error) {
 func LoadFiles(files ...*File) (*RuleSet, error) {
 	l := newLoader()
 	for _, f := range files {
-		l.add(fileKey(f.Name), f, nil)
+		l.add(fileKey(f.Name), f)
 	}
 	return l.finish()
 }
@@ -167,7 +172,7 @@ func (l *loader) loadDiskUse(p string, from *File, u *Use) {
 	b, err := os.ReadFile(p)
 	if err != nil {
 		if from == nil {
-			l.errs = append(l.errs, &Error{Msg: fmt.Sprintf("cannot read rule file: %v", err)})
+			l.errs = append(l.errs, &Error{Pos: Pos{File: p}, Msg: fmt.Sprintf("cannot read rule file: %v", unwrapPathError(err))})
 		} else {
 			l.useError(from, u, "cannot read used file %s: %v", p, unwrapPathError(err))
 		}
@@ -209,11 +214,11 @@ func (l *loader) addParsed(key string, f *File, perr error) {
 	if el, ok := perr.(ErrorList); ok {
 		l.errs = append(l.errs, el...)
 	}
-	l.add(key, f, nil)
+	l.add(key, f)
 }
 
 // add resolves f's uses (depth first) and then takes its rules.
-func (l *loader) add(key string, f *File, _ *Use) {
+func (l *loader) add(key string, f *File) {
 	if l.done[key] {
 		return
 	}
@@ -504,7 +509,7 @@ func ParsePattern(src string, base *RuleSet) (*RuleSet, error) {
 	if l.rs.byName[PatternRule] != nil {
 		return nil, ErrorList{{Pos: Pos{File: "pattern", Line: 1, Col: 1}, Msg: "the rule set already has a rule called " + PatternRule, Source: src}}
 	}
-	l.add("pattern:", f, nil)
+	l.add("pattern:", f)
 	// The base set was checked when it was loaded; check only the pattern.
 	rs, err := l.finishOnly(f)
 	if err != nil {

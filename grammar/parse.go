@@ -199,6 +199,9 @@ func ParseString(name, src string) (*File, error) {
 	f := &File{Name: name, Src: src, lines: newLineTable(name, src)}
 	var errs ErrorList
 	from := 0
+	if strings.HasPrefix(src, "\ufeff") { // a byte order mark, as some editors write
+		from = len("\ufeff")
+	}
 	for {
 		pf, err := parser.ParseString(name, blankBefore(src, from))
 		if err == nil {

@@ -268,6 +268,9 @@ func TestUseErrors(t *testing.T) {
 	if _, err := Load(filepath.Join(dir, "nope.gsr")); err == nil || !strings.Contains(err.Error(), "nope.gsr") {
 		t.Errorf("missing top file: %v", err)
 	}
+	if rs, err := Load("stock:pairs", "stock:terms"); err != nil || rs.Rule("adj_noun") == nil || rs.Rule("term") == nil {
+		t.Errorf("Load(stock:…) = %v", err)
+	}
 }
 
 func TestStockSets(t *testing.T) {
@@ -332,5 +335,55 @@ func TestSuggest(t *testing.T) {
 		if got := suggest(c.in, append(UPOSTags, "modifier")); got != c.want {
 			t.Errorf("suggest(%q) = %q, want %q", c.in, got, c.want)
 		}
+	}
+}
+
+// The rule examples in LANGUAGE.md must parse: the guide may not teach
+// syntax the parser rejects.
+func TestLanguageGuideExamples(t *testing.T) {
+	b, err := os.ReadFile("LANGUAGE.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	blocks := strings.Split(string(b), "```")
+	n := 0
+	for i := 1; i < len(blocks); i += 2 {
+		block := blocks[i]
+		if strings.Contains(strings.SplitN(block, "\n", 3)[1], ".gsr:") {
+			continue // a sample error report
+		}
+		n++
+		if _, err := ParseString("LANGUAGE.md block", block); err != nil {
+			t.Errorf("block %d does not parse: %v\n%s", n, err, block)
+		}
+	}
+	if n < 4 {
+		t.Errorf("found only %d rule blocks", n)
+	}
+	for _, want := range []string{"ADJ | VERB & tag:VBN", "`!ADJ & NOUN`", "leftmost", "@head term"} {
+		if !strings.Contains(string(b), want) {
+			t.Errorf("guide lacks %q", want)
+		}
+	}
+}
+
+func TestParseFileMissing(t *testing.T) {
+	if _, err := ParseFile(filepath.Join(t.TempDir(), "none.gsr")); err == nil {
+		t.Error("no error for a missing file")
+	}
+}
+
+func TestByteOrderMarkAndCRLF(t *testing.T) {
+	f, err := ParseString("bom.gsr", "\ufeff# doc line\r\nterm = ADJ* NOUN ;\r\nbad = NUON ;\r\n")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(f.Rules) != 2 || f.Rules[0].Doc != "doc line" || f.Rules[1].Pos.Line != 3 {
+		t.Errorf("rules %+v", f.Rules[0])
+	}
+	_, err = LoadFiles(f)
+	wantErrors(t, err, "3:7: unknown tag NUON")
+	if c := err.(ErrorList)[0].Caret(); c != "bad = NUON ;\n      ^" {
+		t.Errorf("caret %q", c)
 	}
 }

@@ -26,7 +26,7 @@ var fakeTags = map[string]string{
 	"fully": "ADV RB", "gravel": "NOUN NN", "heavily": "ADV RB", "humid": "ADJ JJ", "humidity": "NOUN NN",
 	"hydrants": "NOUN NNS", "i": "PRON PRP", "in": "ADP IN", "inspect": "VERB VB", "is": "AUX VBZ",
 	"it": "PRON PRP", "layer": "NOUN NN", "left": "VERB VBD", "let": "VERB VBD", "line": "NOUN NN",
-	"list": "NOUN NN", "loss": "NOUN NN", "main": "ADJ JJ", "most": "ADJ JJS", "mount": "VERB VB",
+	"list": "NOUN NN", "low": "ADJ JJ", "loss": "NOUN NN", "main": "ADJ JJ", "most": "ADJ JJS", "mount": "VERB VB",
 	"never": "ADV RB", "new": "ADJ JJ", "north": "ADJ JJ", "of": "ADP IN", "off": "ADP RP", "old": "ADJ JJ",
 	"on": "ADP IN", "open": "VERB VB", "operating": "VERB VBG", "outage": "NOUN NN", "outside": "ADV RB",
 	"overnight": "ADV RB", "plcs": "PROPN NNPS", "please": "INTJ UH", "pot": "NOUN NN", "pots": "NOUN NNS",
@@ -42,7 +42,7 @@ var fakeTags = map[string]string{
 	"vents": "NOUN NNS", "very": "ADV RB", "warm": "ADJ JJ", "was": "AUX VBD", "watch": "VERB VB",
 	"way": "NOUN NN", "we": "PRON PRP", "weekly": "ADV RB", "went": "VERB VBD", "will": "AUX MD",
 	"worked": "VERB VBD",
-	".": "PUNCT .", ",": "PUNCT ,", "-": "PUNCT HYPH",
+	".":      "PUNCT .", ",": "PUNCT ,", "-": "PUNCT HYPH",
 }
 
 // fakeAnalyze splits text into one sentence of tokens, cutting at spaces

@@ -140,3 +140,31 @@ func BenchmarkPathologicalLong(b *testing.B) {
 	}
 	b.ReportMetric(float64(len(s))*float64(b.N)/b.Elapsed().Seconds(), "tokens/s")
 }
+
+// BenchmarkPairsSet measures the default mode of the stock pairs set, as
+// the collocations command runs it; every match carries @head and @dep.
+func BenchmarkPairsSet(b *testing.B) {
+	rs, err := grammar.LoadStock("pairs")
+	if err != nil {
+		b.Fatal(err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		b.Fatal(err)
+	}
+	benchMatcher(b, m, findAll)
+}
+
+// BenchmarkPairsSetNested measures the every-span mode of the stock pairs
+// set, whose matches all carry @head and @dep slots.
+func BenchmarkPairsSetNested(b *testing.B) {
+	rs, err := grammar.LoadStock("pairs")
+	if err != nil {
+		b.Fatal(err)
+	}
+	m, err := Compile(rs)
+	if err != nil {
+		b.Fatal(err)
+	}
+	benchMatcher(b, m, findNested)
+}

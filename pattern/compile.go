@@ -18,7 +18,7 @@ const MaxAtoms = 64
 
 // maxInsts bounds the size of one compiled rule (after inlining and
 // expanding counted repetition).
-const maxInsts = 200000
+const maxInsts = 20000
 
 // opcodes of the compiled program.
 const (
@@ -59,6 +59,10 @@ type prog struct {
 	endAccept  []bool // opEnd bit b: at the sentence end, out reaches match
 	startMid   []uint64
 	startBegin []uint64
+	// group, off: the rule's group and the word offset of its set within
+	// the group's sets; bit: the rule's bit in the group's masks.
+	group, off, bit int
+
 	// required lists predicates that every match reads a token for: a
 	// sentence without any token satisfying one of them cannot match, and
 	// the rule is skipped without running its automata.
@@ -125,6 +129,11 @@ type Matcher struct {
 	direct    []*atom           // cheap word tests, evaluated on every token
 	directBit []uint64
 	formGate  *[256]bool // first bytes that can pass a cached word test; nil: any
+	wordGate  *[256]bool // first bytes that can pass any word test; nil: any
+
+	// groups splits the rules into runs of at most 64 that share one
+	// reverse automaton (see group).
+	groups []*group
 
 	pool sync.Pool
 }
@@ -206,9 +215,53 @@ func Compile(rs *grammar.RuleSet, names ...string) (*Matcher, error) {
 	}
 	if gated {
 		m.formGate = gate
+		// The word gate also covers the direct tests, where their first
+		// byte is known; a token whose first byte is outside it needs no
+		// word test at all.
+		words := *gate
+		for _, a := range m.direct {
+			switch {
+			case a.fold0 != 0:
+				words[a.fold0] = true
+				if 'a' <= a.fold0 && a.fold0 <= 'z' {
+					words[a.fold0-'a'+'A'] = true
+				}
+				for b := 0x80; b < 0x100; b++ { // non-ASCII letters may fold
+					words[b] = true
+				}
+			case a.kind == grammar.WordExact && a.value != "":
+				words[a.value[0]] = true
+			default:
+				gated = false
+			}
+		}
+		if gated {
+			m.wordGate = &words
+		}
+	}
+	for start := 0; start < len(m.progs); start += 64 {
+		g := &group{}
+		for k := start; k < min(start+64, len(m.progs)); k++ {
+			g.rules = append(g.rules, k)
+			g.off = append(g.off, g.nw)
+			g.nw += m.progs[k].nw
+			m.progs[k].group, m.progs[k].off, m.progs[k].bit = len(m.groups), g.off[len(g.off)-1], k-start
+		}
+		m.groups = append(m.groups, g)
 	}
 	m.pool.New = func() any { return newScratch(m) }
 	return m, nil
+}
+
+// group is a run of at most 64 rules whose reverse automata run as one:
+// a state of the group's reverse DFA is the concatenation of its rules'
+// state sets (rule k's set in words off[k]…), so one table look-up per
+// token advances all of them, and a 64-bit mask per state says which of
+// the rules can start a match there.
+type group struct {
+	rules []int // indexes into Matcher.progs, in order
+	off   []int // word offset of each rule's set within a group set
+	nw    int   // words per group set
 }
 
 // CompilePattern compiles a one-off pattern, such as the PATTERN argument
@@ -489,16 +542,17 @@ func (p *prog) prepare() {
 	p.predMask = make([]uint64, p.nw)
 	p.endMask = make([]uint64, p.nw)
 	p.endAccept = make([]bool, nb)
-	seen := make([]bool, len(p.insts))
+	seen := make([]uint32, len(p.insts)) // generation stamps: no clearing per closure
+	gen := uint32(0)
 	closure := func(dst []uint64, pc int32, begin, end bool) {
-		clear(seen)
+		gen++
 		var walk func(pc int32)
 		walk = func(pc int32) {
 			for {
-				if seen[pc] {
+				if seen[pc] == gen {
 					return
 				}
-				seen[pc] = true
+				seen[pc] = gen
 				in := &p.insts[pc]
 				switch in.op {
 				case opMatch, opPred:
@@ -555,6 +609,11 @@ func (p *prog) prepare() {
 // passable, which can only make the list shorter).
 func (p *prog) requiredPreds() []int32 {
 	var out []int32
+	// One search per predicate; skip the optimization for programs where
+	// that would cost more than it saves.
+	if len(p.imp)*len(p.insts) > 4_000_000 {
+		return nil
+	}
 	seenPred := map[int32]bool{}
 	for _, in := range p.insts {
 		if in.op != opPred || seenPred[in.arg] {

@@ -142,7 +142,10 @@ func (g *ruleGen) expr(depth int) (string, string) {
 }
 
 func randomSentence(r *rand.Rand) ([]doc.Token, string) {
-	n := r.Intn(25)
+	return randomSentenceN(r, r.Intn(25))
+}
+
+func randomSentenceN(r *rand.Rand, n int) ([]doc.Token, string) {
 	var toks []doc.Token
 	var b strings.Builder
 	for i := 0; i < n; i++ {
@@ -155,7 +158,10 @@ func randomSentence(r *rand.Rand) ([]doc.Token, string) {
 
 func TestDifferentialAgainstGoRegexp(t *testing.T) {
 	r := rand.New(rand.NewSource(20261201))
-	const rules, sentences = 3000, 8
+	rules, sentences := 3000, 8
+	if raceEnabled {
+		rules = 300
+	}
 	checked, withMatches := 0, 0
 	for c := 0; c < rules; c++ {
 		g := &ruleGen{r: r, anchors: c%3 == 0}
@@ -213,5 +219,48 @@ func TestDifferentialAgainstGoRegexp(t *testing.T) {
 	t.Logf("%d rule/sentence pairs checked, %d with matches", checked, withMatches)
 	if withMatches < checked/5 {
 		t.Fatalf("too few cases with matches (%d of %d): the test would prove little", withMatches, checked)
+	}
+}
+
+// TestDifferentialSeveralRules compiles several random rules into one
+// Matcher (shared atoms, classes and caches, merged results) and checks each
+// rule's matches against its own regexp.
+func TestDifferentialSeveralRules(t *testing.T) {
+	r := rand.New(rand.NewSource(42))
+	for c := 0; c < 300; c++ {
+		var src strings.Builder
+		var res []*regexp.Regexp
+		for k := 0; k < 4; k++ {
+			g := &ruleGen{r: r, anchors: k == 3}
+			ours, theirs := g.expr(0)
+			fmt.Fprintf(&src, "r%d = %s ;\n", k, ours)
+			re := regexp.MustCompile(theirs)
+			re.Longest()
+			res = append(res, re)
+		}
+		m := mustCompile(t, src.String())
+		for s := 0; s < 10; s++ {
+			toks, text := randomSentence(r)
+			if s == 0 { // long enough for many matches (the sort path for big results)
+				toks, text = randomSentenceN(r, 150)
+			}
+			var want []Match
+			for k, re := range res {
+				for _, loc := range re.FindAllStringIndex(text, -1) {
+					if loc[1] > loc[0] {
+						want = append(want, Match{Rule: fmt.Sprintf("r%d", k), Start: loc[0], End: loc[1]})
+					}
+				}
+			}
+			// Expected order: by start, then rule order (stable).
+			for i := 1; i < len(want); i++ {
+				for j := i; j > 0 && want[j].Start < want[j-1].Start; j-- {
+					want[j], want[j-1] = want[j-1], want[j]
+				}
+			}
+			if got := render(m.FindAll(toks)); got != render(want) {
+				t.Fatalf("rules\n%son %q:\n got %s\nwant %s", src.String(), text, got, render(want))
+			}
+		}
 	}
 }

@@ -46,16 +46,3 @@ func mustCompile(t testing.TB, src string, names ...string) *Matcher {
 	}
 	return m
 }
-
-// spans renders matches as "rule[start,end)" items.
-func spans(ms []Match) []string {
-	var out []string
-	for _, m := range ms {
-		out = append(out, m.Rule+"["+itoa(m.Start)+","+itoa(m.End)+")")
-	}
-	return out
-}
-
-func itoa(i int) string {
-	return strings.TrimSpace(strings.Repeat(" ", 0) + string(rune('0'+i/10%10)) + string(rune('0'+i%10)))
-}

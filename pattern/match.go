@@ -1,6 +1,9 @@
 package pattern
 
 import (
+	"math/bits"
+	"slices"
+
 	"glossmith/tagger/doc"
 )
 
@@ -23,9 +26,9 @@ func (m *Matcher) FindAll(tokens []doc.Token) []Match {
 
 // FindNested returns, for every rule, every span [Start,End) of the
 // sentence that the rule matches, each once: for every start position,
-// every end position at which a non-empty match ends (longest first is not
-// implied; the order is Start, then End, then rule order). This is what
-// term extraction needs to see "steel valve" inside "steel valve body".
+// every end position at which a non-empty match from there ends. The result
+// is sorted by Start, then End, then rule order. This is what term
+// extraction needs to see "steel valve" inside "steel valve body".
 func (m *Matcher) FindNested(tokens []doc.Token) []Match {
 	return m.find(tokens, true)
 }
@@ -37,65 +40,67 @@ func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 	sc := m.pool.Get().(*scratch)
 	defer m.pool.Put(sc)
 	sc.prepareSentence(tokens)
-	buf := sc.out[:0]
+	// Matches are written straight into the free part of the result slab;
+	// if a sentence has more than fit, append moves them to an array of
+	// their own.
+	if len(sc.slab) < slabSize/8 {
+		sc.slab = make([]Match, slabSize)
+	}
+	buf := sc.slab[:0]
 	present := sc.present()
-	active := sc.active[:0]
-progs:
-	for i, p := range m.progs {
-		for _, q := range p.required {
-			if !hasBit(present, int(q)) {
-				continue progs
+	for gi, g := range m.groups {
+		var possible uint64
+	rules:
+		for idx, k := range g.rules {
+			for _, q := range m.progs[k].required {
+				if !hasBit(present, int(q)) {
+					continue rules
+				}
 			}
+			possible |= 1 << uint(idx)
 		}
-		active = append(active, i)
+		sc.possible[gi] = possible
+		if possible != 0 {
+			sc.sweep(g, sc.groups[gi], len(tokens))
+		}
 	}
-	sc.active = active
-	sc.reversePasses(active, len(tokens))
-	for _, i := range active {
-		buf = sc.matchRule(m.progs[i], sc.rules[i], sc.revs[i], tokens, nested, buf)
-	}
-	sc.out = buf[:0]
+	buf = sc.matchAll(tokens, nested, buf)
 	if len(buf) == 0 {
 		return nil
 	}
-	out := sc.alloc(len(buf))
-	copy(out, buf)
-	clear(buf) // drop references to slot maps
-	// Each rule's matches are in order; an insertion sort by position (stable,
-	// so rule order stays among matches at the same place) merges them.
-	if len(m.progs) > 1 {
-		for i := 1; i < len(out); i++ {
-			for j := i; j > 0 && matchBefore(&out[j], &out[j-1], nested); j-- {
-				out[j], out[j-1] = out[j-1], out[j]
+	out := buf[:len(buf):len(buf)] // capped: a caller's append cannot reach the next result
+	if &buf[0] == &sc.slab[0] {
+		sc.slab = sc.slab[len(buf):]
+	} else {
+		clear(sc.slab[:min(len(buf), len(sc.slab))]) // drop what append copied away
+	}
+	// FindAll's matches come out sorted. FindNested's come out by start and
+	// rule; a stable sort by start and end puts them in order.
+	if nested && len(m.progs) > 1 {
+		if len(out) > 32 {
+			slices.SortStableFunc(out, func(x, y Match) int {
+				if x.Start != y.Start {
+					return x.Start - y.Start
+				}
+				return x.End - y.End
+			})
+		} else {
+			for i := 1; i < len(out); i++ {
+				for j := i; j > 0 && nestedBefore(&out[j], &out[j-1]); j-- {
+					out[j], out[j-1] = out[j-1], out[j]
+				}
 			}
 		}
 	}
 	return out
 }
 
-// slabSize is the number of matches allocated at once for results.
-const slabSize = 256
+// slabSize is the number of matches allocated at once for results: the
+// results of many sentences share one allocation.
+const slabSize = 512
 
-// alloc returns a fresh slice of n matches for a result. Results are cut
-// from a shared slab, capped so that a caller's append cannot reach into
-// the next result; this saves one allocation per sentence.
-func (sc *scratch) alloc(n int) []Match {
-	if n > slabSize/4 {
-		return make([]Match, n)
-	}
-	if len(sc.slab) < n {
-		sc.slab = make([]Match, slabSize)
-	}
-	out := sc.slab[:n:n]
-	sc.slab = sc.slab[n:]
-	return out
-}
-
-func matchBefore(x, y *Match, nested bool) bool {
-	if x.Start != y.Start {
-		return x.Start < y.Start
-	}
-	return nested && x.End < y.End
+func nestedBefore(x, y *Match) bool {
+	return x.Start < y.Start || x.Start == y.Start && x.End < y.End
 }
 
 // present returns the predicates that some token of the sentence
@@ -119,107 +124,122 @@ func (sc *scratch) present() []uint64 {
 	return p
 }
 
-// matchRule runs one rule over the sentence. A reverse pass first records,
-// for every position j, the reverse state R[j]: which instructions can
-// still reach a match reading tokens j, j+1, …. Then forward scans start
-// only where a non-empty match starts and stop as soon as the forward
-// state has nothing left in common with R[j], that is right after the
-// longest match. Every token is read at most once by the reverse pass and
-// once by a forward scan per match it is part of (FindAll) — linear time,
-// whatever the rule.
-// reversePasses runs the reverse automata of the active rules over the
-// sentence, all in one sweep so that their independent table look-ups
-// overlap in the processor, and records the state of rule k at each
-// position j in sc.revs[k][j].
-func (sc *scratch) reversePasses(active []int, n int) {
-	r := sc.revState[:0]
-	for _, k := range active {
-		if cap(sc.revs[k]) < n+1 {
-			sc.revs[k] = make([]int32, n+1, 2*n+1)
-		}
-		sc.revs[k] = sc.revs[k][:n+1]
-		r = append(r, sc.rules[k].revEnd)
-		sc.revs[k][n] = sc.rules[k].revEnd
+// sweep runs the reverse automaton of group g over the sentence, right to
+// left, and records its state at every position 0..n in gs.states. One
+// table look-up per token serves every rule of the group.
+func (sc *scratch) sweep(g *group, gs *groupState, n int) {
+	if cap(gs.states) < n+1 {
+		gs.states = make([]int32, n+1, 2*n+1)
 	}
-	sc.revState = r
+	states := gs.states[:n+1]
+	gs.states = states
+	r := gs.end
+	states[n] = r
+	d := gs.rev
 	cls := sc.cls[:n]
 	for j := n - 1; j >= 0; j-- {
 		c := int(cls[j])
-		for a, k := range active {
-			rd := sc.rules[k].rev
-			if c < rd.stride {
-				if t := rd.trans[int(r[a])*rd.stride+c]; t != 0 {
-					r[a] = t - 1
-					sc.revs[k][j] = t - 1
-					continue
-				}
-			}
-			r[a] = sc.revStep(sc.m.progs[k], sc.rules[k], r[a], int32(c))
-			sc.revs[k][j] = r[a]
+		if x := int(r)*d.stride + c; c < d.stride && d.trans[x] != 0 {
+			r = d.trans[x] - 1
+		} else {
+			r = sc.revStep(g, gs, r, int32(c))
 		}
+		states[j] = r
 	}
 }
 
-func (sc *scratch) matchRule(p *prog, rs *ruleState, rev []int32, tokens []doc.Token, nested bool, out []Match) []Match {
+// scan runs the forward automaton of rule k from i, where a match starts,
+// and returns the end of the longest match; in nested mode it also appends
+// every match from i to out. It stops as soon as the forward state has
+// nothing in common with the reverse state at its position: no match can
+// be completed from there.
+func (sc *scratch) scan(k int, tokens []doc.Token, i int, nested bool, out []Match) (int, []Match) {
+	p, rs := sc.m.progs[k], sc.rules[k]
+	g, gs := sc.m.groups[p.group], sc.groups[p.group]
 	n := len(tokens)
 	cls := sc.cls[:n]
-	for i := 0; i < n; {
-		startFlag := uint8(fStartMid)
-		start := rs.startMid
-		if i == 0 {
-			startFlag, start = fStartBegin, rs.startBegin
+	states := gs.states
+	revSets, gnw, off := gs.rev.sets, g.nw, p.off
+	s := rs.startMid
+	if i == 0 {
+		s = rs.startBegin
+	}
+	best := -1
+	for j := i; j < n; {
+		fd := rs.fwd
+		if c := int(cls[j]); c < fd.stride && fd.trans[int(s)*fd.stride+c] != 0 {
+			s = fd.trans[int(s)*fd.stride+c] - 1
+		} else {
+			s = sc.fwdStep(p, rs, s, int32(c))
 		}
-		if rs.rev.flags[rev[i]]&startFlag == 0 {
-			i++
-			continue
+		j++
+		if s == 0 {
+			break
 		}
-		s := start
-		best := -1
-		for j := i; j < n; {
-			fd := rs.fwd
-			if c := int(cls[j]); c < fd.stride && fd.trans[int(s)*fd.stride+c] != 0 {
-				s = fd.trans[int(s)*fd.stride+c] - 1
-			} else {
-				s = sc.fwdStep(p, rs, s, int32(c))
-			}
-			j++
-			if s == 0 {
-				break
-			}
-			fl := rs.fwd.flags[s]
-			if j == n {
-				if fl&fAcceptEnd != 0 {
-					best = j
-					if nested {
-						out = append(out, sc.newMatch(p, tokens, i, j))
-					}
-				}
-				break
-			}
-			if fl&fMatch != 0 {
+		fl := rs.fwd.flags[s]
+		if j == n {
+			if fl&fAcceptEnd != 0 {
 				best = j
 				if nested {
 					out = append(out, sc.newMatch(p, tokens, i, j))
 				}
 			}
-			if p.nw == 1 {
-				if rs.fwd.w0[s]&rs.rev.w0[rev[j]]&p.predMask[0] == 0 {
-					break
-				}
-			} else if !intersects3(rs.fwd.set(s), rs.rev.set(rev[j]), p.predMask) {
-				break
+			break
+		}
+		if fl&fMatch != 0 {
+			best = j
+			if nested {
+				out = append(out, sc.newMatch(p, tokens, i, j))
 			}
 		}
-		if best <= i { // cannot happen: the reverse pass promised a match
-			i++
-			continue
+		rev := revSets[int(states[j])*gnw+off:]
+		if p.nw == 1 {
+			if rs.fwd.w0[s]&rev[0]&p.predMask[0] == 0 {
+				break
+			}
+		} else if !intersects3(rs.fwd.set(s), rev[:p.nw], p.predMask) {
+			break
 		}
-		if nested {
-			i++
-			continue
+	}
+	return best, out
+}
+
+// matchAll finds the matches of every rule from the start masks of the
+// reverse states: position by position, rule by rule, so FindAll's result
+// comes out sorted by start and then rule order, and one rule's matches
+// never overlap.
+func (sc *scratch) matchAll(tokens []doc.Token, nested bool, out []Match) []Match {
+	next := sc.nextFree
+	clear(next)
+	for i := range tokens {
+		for gi, g := range sc.m.groups {
+			possible := sc.possible[gi]
+			if possible == 0 {
+				continue
+			}
+			gs := sc.groups[gi]
+			mask := gs.startMid[gs.states[i]]
+			if i == 0 {
+				mask = gs.startBegin[gs.states[0]]
+			}
+			for mask &= possible; mask != 0; mask &= mask - 1 {
+				k := g.rules[bits.TrailingZeros64(mask)]
+				if i < next[k] {
+					continue
+				}
+				var best int
+				best, out = sc.scan(k, tokens, i, nested, out)
+				if best <= i || nested { // best <= i cannot happen: the reverse sweep promised a match
+					continue
+				}
+				p := sc.m.progs[k]
+				out = append(out, Match{Rule: p.name, Start: i, End: best})
+				if len(p.labels) > 0 {
+					out[len(out)-1].Slots = sc.slots(p, len(tokens), i, best)
+				}
+				next[k] = best
+			}
 		}
-		out = append(out, sc.newMatch(p, tokens, i, best))
-		i = best
 	}
 	return out
 }

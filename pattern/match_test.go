@@ -8,7 +8,6 @@ import (
 	"testing"
 
 	"glossmith/grammar"
-	"glossmith/tagger/doc"
 )
 
 func render(ms []Match) string {
@@ -347,5 +346,3 @@ func TestPairsLabels(t *testing.T) {
 		t.Errorf("got  %s\nwant %s", got, want)
 	}
 }
-
-var _ = doc.Token{}

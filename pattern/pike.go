@@ -10,32 +10,40 @@ package pattern
 // can would find first among the parses of exactly that span.
 func (sc *scratch) slots(p *prog, n, start, end int) map[string][2]int {
 	nslot := 2 * len(p.labels)
-	type thread struct {
-		pc   int32
-		caps []int
+	// Capture arrays are cut from one arena per call: threads live only
+	// while this call runs, so nothing here needs its own allocation.
+	arena := sc.pikeArena[:0]
+	newCaps := func(from []int) []int {
+		k := len(arena)
+		arena = append(arena, from...)
+		return arena[k : k+nslot : k+nslot]
 	}
-	var clist, nlist []thread
-	onList := make([]int, len(p.insts)) // generation stamp per pc
-	gen := 0
-	var add func(list []thread, pc int32, caps []int, pos int) []thread
-	add = func(list []thread, pc int32, caps []int, pos int) []thread {
+	defer func() { sc.pikeArena = arena[:0] }()
+	clist, nlist := sc.pikeList[0][:0], sc.pikeList[1][:0]
+	defer func() { sc.pikeList[0], sc.pikeList[1] = clist[:0], nlist[:0] }()
+	if len(sc.pikeSeen) < len(p.insts) {
+		sc.pikeSeen = make([]uint32, len(p.insts))
+		sc.pikeGen = 0
+	}
+	onList := sc.pikeSeen // generation stamp per pc
+	var add func(list []pikeThread, pc int32, caps []int, pos int) []pikeThread
+	add = func(list []pikeThread, pc int32, caps []int, pos int) []pikeThread {
 		for {
-			if onList[pc] == gen {
+			if onList[pc] == sc.pikeGen {
 				return list
 			}
-			onList[pc] = gen
+			onList[pc] = sc.pikeGen
 			in := &p.insts[pc]
 			switch in.op {
 			case opMatch, opPred:
-				return append(list, thread{pc, caps})
+				return append(list, pikeThread{pc, caps})
 			case opSplit:
 				list = add(list, in.out, caps, pos)
 				pc = in.out1
 			case opNop:
 				pc = in.out
 			case opSave:
-				c := make([]int, nslot)
-				copy(c, caps)
+				c := newCaps(caps)
 				c[in.arg] = pos
 				caps = c
 				pc = in.out
@@ -54,12 +62,12 @@ func (sc *scratch) slots(p *prog, n, start, end int) map[string][2]int {
 			}
 		}
 	}
-	init := make([]int, nslot)
-	for i := range init {
-		init[i] = -1
+	none := newCaps(make([]int, nslot))
+	for i := range none {
+		none[i] = -1
 	}
-	gen++
-	clist = add(clist, p.start, init, start)
+	sc.nextPikeGen()
+	clist = add(clist, p.start, none, start)
 	for pos := start; ; pos++ {
 		if pos == end {
 			for _, t := range clist {
@@ -69,7 +77,7 @@ func (sc *scratch) slots(p *prog, n, start, end int) map[string][2]int {
 			}
 			return map[string][2]int{}
 		}
-		gen++
+		sc.nextPikeGen()
 		nlist = nlist[:0]
 		preds := sc.classes[sc.cls[pos]].preds
 		for _, t := range clist {
@@ -82,6 +90,20 @@ func (sc *scratch) slots(p *prog, n, start, end int) map[string][2]int {
 		if len(clist) == 0 {
 			return map[string][2]int{}
 		}
+	}
+}
+
+type pikeThread struct {
+	pc   int32
+	caps []int
+}
+
+// nextPikeGen starts a new step: stamps from earlier steps no longer count.
+func (sc *scratch) nextPikeGen() {
+	sc.pikeGen++
+	if sc.pikeGen == 0 { // wrapped: old stamps could collide
+		clear(sc.pikeSeen)
+		sc.pikeGen = 1
 	}
 }
 

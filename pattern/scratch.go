@@ -15,6 +15,7 @@ import (
 var (
 	maxClasses   = 1 << 14
 	maxDFAStates = 1 << 13
+	maxTrans     = 1 << 22 // transition table entries per automaton (16 MiB)
 )
 
 const dmBits = 10 // direct-mapped caches hold 1<<dmBits entries
@@ -111,8 +112,8 @@ func (c *shortCache) get(m *Matcher, field int, s string) uint64 {
 // tagCache maps a token's (UPOS, XPOS) pair to atom bits with one look-up
 // in a small direct-mapped table (tags are few and short). The slot comes
 // from the lengths and three bytes of each tag, read without loops so that
-// the processor predicts every branch; the entry keeps copies of both tags
-// and a hit is confirmed by comparing them.
+// the processor predicts every branch; a hit is confirmed by comparing the
+// tags.
 type tagCache struct {
 	e [1 << tagBits]tagEntry
 }
@@ -120,6 +121,7 @@ type tagCache struct {
 type tagEntry struct {
 	upos, xpos string
 	v          uint64
+	cls        int32 // class+1 of a token with these tags and no word test passed; 0: not yet known
 	used       bool
 }
 
@@ -130,19 +132,40 @@ func tagHash(s string) uint64 {
 	if n == 0 {
 		return 0x51
 	}
-	return uint64(n) | uint64(s[0])<<8 | uint64(s[n>>1])<<16 | uint64(s[n-1])<<24
+	// Length, first and last byte tell the UPOS tags and nearly all Penn
+	// tags apart; a collision only costs misses, never a wrong answer.
+	return uint64(n) | uint64(s[0])<<8 | uint64(s[n-1])<<16
 }
 
-func (sc *scratch) tagBits(upos, xpos string) uint64 {
+func (sc *scratch) tagEntry(upos, xpos string) *tagEntry {
 	h := (tagHash(upos)*0x9E3779B97F4A7C15 ^ tagHash(xpos)*0xC2B2AE3D27D4EB4F) >> (64 - tagBits)
 	e := &sc.tags.e[h]
-	if e.used && e.upos == upos && e.xpos == xpos {
-		return e.v
+	if e.used && sameString(e.upos, upos) && sameString(e.xpos, xpos) {
+		return e
 	}
 	m := sc.m
-	e.upos, e.xpos, e.used = strings.Clone(upos), strings.Clone(xpos), true
-	e.v = m.evalField(fieldUPOS, upos) | m.evalField(fieldXPOS, xpos)
-	return e.v
+	// The entry keeps the strings themselves (not copies): taggers hand
+	// out the same few tag strings again and again, and comparing a string
+	// with itself stops at the pointer. Tags are short, so an entry pins
+	// little memory (at most the text a reader sliced them from, until the
+	// entry is replaced or the pool drops the scratch).
+	e.upos, e.xpos, e.used, e.cls = upos, xpos, true, 0
+	e.v = 0
+	if len(upos) > 7 || len(xpos) > 7 {
+		e.v = sc.fields[fieldUPOS].get(m, fieldUPOS, upos) | sc.fields[fieldXPOS].get(m, fieldXPOS, xpos)
+	} else {
+		e.v = m.evalField(fieldUPOS, upos) | m.evalField(fieldXPOS, xpos)
+	}
+	return e
+}
+
+// sameString is s == t with the common case — the very same string, as
+// taggers hand out — decided without a call.
+func sameString(s, t string) bool {
+	if len(s) != len(t) {
+		return false
+	}
+	return unsafe.StringData(s) == unsafe.StringData(t) || s == t
 }
 
 func lowerASCII(c byte) byte {
@@ -172,12 +195,10 @@ type dfa struct {
 	index  map[string]int32
 }
 
-// State flags.
+// Forward state flags.
 const (
-	fMatch      = 1 << iota // holds the match instruction
-	fAcceptEnd              // accepts when the sentence ends here
-	fStartMid               // reverse: a non-empty match starts here (not at 0)
-	fStartBegin             // reverse: a non-empty match starts here (at 0)
+	fMatch     = 1 << iota // holds the match instruction
+	fAcceptEnd             // accepts when the sentence ends here
 )
 
 func newDFA(nw int) *dfa {
@@ -223,12 +244,23 @@ func (d *dfa) store(s, c, t int32) {
 	d.trans[int(s)*d.stride+int(c)] = t + 1
 }
 
-// ruleState is one rule's automata inside a scratch.
+// ruleState is one rule's forward automaton inside a scratch.
 type ruleState struct {
-	fwd, rev   *dfa
+	fwd        *dfa
 	startMid   int32 // forward start states
 	startBegin int32
-	revEnd     int32 // reverse state at the sentence end
+}
+
+// groupState is a group's reverse automaton inside a scratch, with, for
+// each state, the rules (bits as in prog.bit) for which a non-empty match
+// starts at a position in that state — elsewhere than at the sentence
+// start (mid) and at it (begin).
+type groupState struct {
+	rev        *dfa
+	startMid   []uint64
+	startBegin []uint64
+	end        int32   // state at the sentence end
+	states     []int32 // state at each position of the current sentence
 }
 
 // scratch is the working memory of one matching call; a Matcher keeps a
@@ -242,19 +274,24 @@ type scratch struct {
 	classOf map[uint64]int32
 	classes []class
 	rules   []*ruleState
+	groups  []*groupState
 
-	cls      []int32   // class of each token of the sentence
-	revs     [][]int32 // per rule: reverse state at each position 0..n
-	revState []int32   // current reverse state of each active rule
-	active   []int     // rules that can match the sentence
-	out      []Match   // matches found so far in this call
-	slab     []Match   // unused part of the current result slab
+	cls      []int32  // class of each token of the sentence
+	possible []uint64 // per group: rules whose required tests some token passes
+	nextFree []int    // per rule: first position its next match may use
+	slab     []Match  // unused part of the current result slab
 
 	presentBuf []uint64 // predicates some token of the sentence satisfies
+
+	pikeSeen  []uint32 // Pike VM: generation stamp per instruction
+	pikeGen   uint32
+	pikeArena []int
+	pikeList  [2][]pikeThread
 }
 
 func newScratch(m *Matcher) *scratch {
-	sc := &scratch{m: m, presentBuf: make([]uint64, max(1, (len(m.preds)+63)/64))}
+	sc := &scratch{m: m, presentBuf: make([]uint64, max(1, (len(m.preds)+63)/64)),
+		possible: make([]uint64, len(m.groups)), nextFree: make([]int, len(m.progs))}
 	sc.reset()
 	return sc
 }
@@ -268,21 +305,52 @@ func (sc *scratch) reset() {
 	sc.fields = [numFields]shortCache{}
 	sc.dmVals = [1 << dmBits]int32{}
 	sc.rules = make([]*ruleState, len(sc.m.progs))
-	sc.revs = make([][]int32, len(sc.m.progs))
 	for i, p := range sc.m.progs {
-		rs := &ruleState{fwd: newDFA(p.nw), rev: newDFA(p.nw)}
+		rs := &ruleState{fwd: newDFA(p.nw)}
 		rs.startMid = rs.fwd.add(p.startMid, fwdFlags(p, p.startMid))
 		rs.startBegin = rs.fwd.add(p.startBegin, fwdFlags(p, p.startBegin))
-		end := make([]uint64, p.nw)
-		setBit(end, p.matchBit)
-		for b := range p.imp {
-			if hasBit(p.endMask, b) && p.endAccept[b] {
-				setBit(end, b)
-			}
-		}
-		rs.revEnd = rs.rev.add(end, revFlags(p, end))
 		sc.rules[i] = rs
 	}
+	sc.groups = make([]*groupState, len(sc.m.groups))
+	for gi, g := range sc.m.groups {
+		// State 0, the empty set, starts nothing.
+		gs := &groupState{rev: newDFA(g.nw), startMid: []uint64{0}, startBegin: []uint64{0}}
+		sc.groups[gi] = gs
+		end := make([]uint64, g.nw)
+		for idx, k := range g.rules {
+			p := sc.m.progs[k]
+			sub := end[g.off[idx] : g.off[idx]+p.nw]
+			setBit(sub, p.matchBit)
+			for b := range p.imp {
+				if hasBit(p.endMask, b) && p.endAccept[b] {
+					setBit(sub, b)
+				}
+			}
+		}
+		gs.end = sc.addRev(g, gs, end)
+	}
+}
+
+// addRev interns a reverse state of group g and computes its start masks.
+func (sc *scratch) addRev(g *group, gs *groupState, set []uint64) int32 {
+	t := gs.rev.add(set, 0)
+	if int(t) < len(gs.startMid) {
+		return t
+	}
+	var mid, begin uint64
+	for idx, k := range g.rules {
+		p := sc.m.progs[k]
+		sub := set[g.off[idx] : g.off[idx]+p.nw]
+		if intersects3(p.startMid, sub, p.predMask) {
+			mid |= 1 << uint(idx)
+		}
+		if intersects3(p.startBegin, sub, p.predMask) {
+			begin |= 1 << uint(idx)
+		}
+	}
+	gs.startMid = append(gs.startMid, mid)
+	gs.startBegin = append(gs.startBegin, begin)
+	return t
 }
 
 // prepareSentence computes the class of every token and drops the caches
@@ -290,7 +358,12 @@ func (sc *scratch) reset() {
 func (sc *scratch) prepareSentence(tokens []doc.Token) {
 	grown := len(sc.classes) > maxClasses
 	for _, rs := range sc.rules {
-		if len(rs.fwd.flags) > maxDFAStates || len(rs.rev.flags) > maxDFAStates {
+		if len(rs.fwd.flags) > maxDFAStates || len(rs.fwd.trans) > maxTrans {
+			grown = true
+		}
+	}
+	for _, gs := range sc.groups {
+		if len(gs.rev.flags) > maxDFAStates || len(gs.rev.trans) > maxTrans {
 			grown = true
 		}
 	}
@@ -304,15 +377,20 @@ func (sc *scratch) prepareSentence(tokens []doc.Token) {
 	sc.cls = sc.cls[:n]
 	m := sc.m
 	tagged := m.fieldMask[fieldUPOS]|m.fieldMask[fieldXPOS] != 0
+	untagged := tagEntry{cls: 0}
 	for i := range tokens {
 		t := &tokens[i]
-		b := m.anyBits
+		e := &untagged
 		if tagged {
-			b |= sc.tagBits(t.UPOS, t.XPOS)
+			e = sc.tagEntry(t.UPOS, t.XPOS)
 		}
+		var w uint64 // word and lemma tests that hold
 		form := t.Form
+		if m.wordGate != nil && (form == "" || !m.wordGate[form[0]]) {
+			goto lemma // no word test can hold
+		}
 		if m.fieldMask[fieldForm] != 0 && (m.formGate == nil || form != "" && m.formGate[form[0]]) {
-			b |= sc.fields[fieldForm].get(m, fieldForm, form)
+			w |= sc.fields[fieldForm].get(m, fieldForm, form)
 		}
 		for k, a := range m.direct {
 			// Most words differ from a test word in their first letter:
@@ -321,13 +399,21 @@ func (sc *scratch) prepareSentence(tokens []doc.Token) {
 				continue
 			}
 			if a.test(form) {
-				b |= m.directBit[k]
+				w |= m.directBit[k]
 			}
 		}
+	lemma:
 		if m.fieldMask[fieldLemma] != 0 {
-			b |= sc.fields[fieldLemma].get(m, fieldLemma, t.Lemma)
+			w |= sc.fields[fieldLemma].get(m, fieldLemma, t.Lemma)
 		}
-		sc.cls[i] = sc.classFor(b)
+		if w == 0 { // the common case: the tags alone decide the class
+			if e.cls == 0 {
+				e.cls = sc.classFor(m.anyBits|e.v) + 1
+			}
+			sc.cls[i] = e.cls - 1
+			continue
+		}
+		sc.cls[i] = sc.classFor(m.anyBits | e.v | w)
 	}
 }
 
@@ -369,20 +455,6 @@ func fwdFlags(p *prog, set []uint64) uint8 {
 	return f
 }
 
-func revFlags(p *prog, set []uint64) uint8 {
-	var f uint8
-	if hasBit(set, p.matchBit) {
-		f |= fMatch
-	}
-	if intersects3(p.startMid, set, p.predMask) {
-		f |= fStartMid
-	}
-	if intersects3(p.startBegin, set, p.predMask) {
-		f |= fStartBegin
-	}
-	return f
-}
-
 func intersects3(a, b, c []uint64) bool {
 	for i := range a {
 		if a[i]&b[i]&c[i] != 0 {
@@ -420,36 +492,42 @@ func (sc *scratch) fwdStep(p *prog, rs *ruleState, s, c int32) int32 {
 	return t
 }
 
-// revStep returns the reverse state before a token of class c, given the
-// reverse state r after it: the match instruction and every predicate
-// instruction whose test holds for c and whose successors meet r.
-func (sc *scratch) revStep(p *prog, rs *ruleState, r, c int32) int32 {
-	d := rs.rev
+// revStep returns the reverse state of group g before a token of class c,
+// given the state r after it: for each rule, its match instruction and
+// every predicate instruction whose test holds for c and whose successors
+// meet the rule's part of r.
+func (sc *scratch) revStep(g *group, gs *groupState, r, c int32) int32 {
+	d := gs.rev
 	if int(c) < d.stride {
 		if t := d.trans[int(r)*d.stride+int(c)]; t != 0 {
 			return t - 1
 		}
 	}
-	after := rs.rev.set(r)
+	after := d.set(r)
 	preds := sc.classes[c].preds
-	next := make([]uint64, p.nw)
-	setBit(next, p.matchBit)
-	for i, w := range p.predMask {
-		for w != 0 {
-			b := i*64 + bits.TrailingZeros64(w)
-			w &= w - 1
-			if !hasBit(preds, int(p.predOf[b])) {
-				continue
-			}
-			for k, x := range p.succ[b*p.nw : (b+1)*p.nw] {
-				if x&after[k] != 0 {
-					setBit(next, b)
-					break
+	next := make([]uint64, g.nw)
+	for idx, k := range g.rules {
+		p := sc.m.progs[k]
+		o := g.off[idx]
+		aft, sub := after[o:o+p.nw], next[o:o+p.nw]
+		setBit(sub, p.matchBit)
+		for i, w := range p.predMask {
+			for w != 0 {
+				b := i*64 + bits.TrailingZeros64(w)
+				w &= w - 1
+				if !hasBit(preds, int(p.predOf[b])) {
+					continue
+				}
+				for k, x := range p.succ[b*p.nw : (b+1)*p.nw] {
+					if x&aft[k] != 0 {
+						setBit(sub, b)
+						break
+					}
 				}
 			}
 		}
 	}
-	t := rs.rev.add(next, revFlags(p, next))
-	rs.rev.store(r, c, t)
+	t := sc.addRev(g, gs, next)
+	d.store(r, c, t)
 	return t
 }

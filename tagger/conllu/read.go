@@ -81,12 +81,12 @@ const MaxLine = 1 << 20
 
 // Reader reads sentences one at a time from a CoNLL-U stream.
 type Reader struct {
-	r      *bufio.Reader
-	name   string
-	line   int
-	errs   ErrorList
-	eof    bool
-	inBad  bool // the current sentence already has an error
+	r     *bufio.Reader
+	name  string
+	line  int
+	errs  ErrorList
+	eof   bool
+	inBad bool // the current sentence already has an error
 }
 
 // NewReader returns a reader; name is used in error messages.

@@ -42,7 +42,15 @@ const (
 	fPrevShape   // shape at i-1
 	fNextShape   // shape at i+1
 	fNextPrefix1 // first byte of the next word, lower-cased
+	fTagWord     // the lower-cased word with the previous tag (pair feature)
 )
+
+// pairKey is the key of the feature "word w after tag prev", which scores
+// a (previous tag, tag) state rather than a tag: it lets the word choose
+// its tag by what came before ("that" after a verb, after a noun).
+func pairKey(lower uint64, prev uint8) uint64 {
+	return key2(fTagWord, lower, uint64(prev)+1)
+}
 
 const (
 	fnvOffset = 14695981039346656037
@@ -103,7 +111,7 @@ var (
 // extractFeatures writes the feature keys of every token into l.feats,
 // those of token i at l.feats[l.foff[i]:l.foff[i+1]]; the keys from
 // l.fmid[i] on depend on the token's neighbours or position, those before
-// on the word alone. It allocates nothing
+// on the word alone. Tokens marked false in l.need (when set) get none. It allocates nothing
 // once the lattice's buffers have grown.
 func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) []tokenInfo {
 	n := len(toks)
@@ -140,10 +148,15 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 		return hEnd
 	}
 	for i := range toks {
+		if len(l.need) > 0 && !l.need[i] {
+			l.fmid = append(l.fmid, int32(len(f)))
+			l.foff = append(l.foff, int32(len(f)))
+			continue
+		}
 		form := toks[i].Form
 		ti := &info[i]
 		buf = lowerInto(buf[:0], form)
-		f = append(f, key(fBias, 0), key(fLower, ti.lower), key(fShape, ti.shape))
+		f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
 		for k := 1; k <= 5 && k < len(buf); k++ {
 			f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
 		}
@@ -256,4 +269,3 @@ func shapeInto(buf []byte, s string) []byte {
 	}
 	return buf
 }
-

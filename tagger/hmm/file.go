@@ -283,6 +283,13 @@ func decodePayload(b []byte) (*Model, error) {
 		m.tags = append(m.tags, d.str())
 	}
 	m.splitTags()
+	if d.err == nil && m.tagset == TagsetJoint {
+		for _, u := range m.tagU {
+			if u == "" {
+				return nil, errors.New("joint tag without UPOS")
+			}
+		}
+	}
 	nw := d.count(2)
 	m.lex = make(map[string]int32, nw)
 	for i := 0; i < nw && d.err == nil; i++ {
@@ -462,20 +469,27 @@ func (p *perceptron) encode(e *enc) {
 			e.int(int64(math.Round(float64(p.rowW[j]) / weightStep)))
 		}
 	}
-	for _, tab := range [][]float32{p.tri, p.bi} {
-		nz := 0
-		for _, v := range tab {
-			if v != 0 {
-				nz++
-			}
+	e.uint(uint64(len(p.layers)))
+	for _, y := range p.layers {
+		e.uint(uint64(y.n1))
+		for _, c := range y.proj {
+			e.uint(uint64(c))
 		}
-		e.uint(uint64(nz))
-		last := -1
-		for i, v := range tab {
-			if v != 0 {
-				e.uint(uint64(i - last))
-				e.int(int64(math.Round(float64(v) / weightStep)))
-				last = i
+		for _, tab := range [][]float32{y.tri, y.bi} {
+			nz := 0
+			for _, v := range tab {
+				if v != 0 {
+					nz++
+				}
+			}
+			e.uint(uint64(nz))
+			last := -1
+			for i, v := range tab {
+				if v != 0 {
+					e.uint(uint64(i - last))
+					e.int(int64(math.Round(float64(v) / weightStep)))
+					last = i
+				}
 			}
 		}
 	}
@@ -506,23 +520,37 @@ func decodePerceptron(d *dec, m *Model) *perceptron {
 		}
 		p.rowStart = append(p.rowStart, int32(len(p.rowW)))
 	}
-	tabs := [2][]float32{make([]float32, t1*t1*t1), make([]float32, t1*t1)}
-	for _, tab := range tabs {
-		nz := d.count(2)
-		pos := -1
-		for i := 0; i < nz && d.err == nil; i++ {
-			pos += int(d.uint())
-			if pos < 0 || pos >= len(tab) {
-				d.fail("transition index out of range")
-				break
-			}
-			tab[pos] = float32(float64(d.int()) * weightStep)
+	nl := d.count(1)
+	if d.err == nil && (nl == 0 || nl > 3) {
+		d.fail("bad number of transition layers")
+	}
+	for l := 0; l < nl && d.err == nil; l++ {
+		n1 := int(d.uint())
+		if n1 < 2 || n1 > t1 {
+			d.fail("bad transition layer size")
+			break
 		}
+		y := transLayer{n1: n1, proj: make([]uint8, t1), tri: make([]float32, n1*n1*n1), bi: make([]float32, n1*n1)}
+		for i := range y.proj {
+			y.proj[i] = d.tag(n1)
+		}
+		for _, tab := range [][]float32{y.tri, y.bi} {
+			nz := d.count(2)
+			pos := -1
+			for i := 0; i < nz && d.err == nil; i++ {
+				pos += int(d.uint())
+				if pos < 0 || pos >= len(tab) {
+					d.fail("transition index out of range")
+					break
+				}
+				tab[pos] = float32(float64(d.int()) * weightStep)
+			}
+		}
+		p.layers = append(p.layers, y)
 	}
 	if d.err != nil {
 		return nil
 	}
-	p.tri, p.bi = tabs[0], tabs[1]
 	p.prepare(m)
 	return p
 }

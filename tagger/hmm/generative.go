@@ -23,6 +23,7 @@ type generative struct {
 	suf  [2]*suffixTable // [0] lower-case initial, [1] upper-case initial
 	lam  [3]float64      // λ1 (unigram), λ2 (bigram), λ3 (trigram)
 	logP []float32       // log P(t), for Bayes inversion of the suffix model
+	emit []float32       // log P(word|tag) per lexicon entry (Model.wtags)
 	tot  float64         // N: events counted in uni
 }
 
@@ -190,6 +191,10 @@ func (g *generative) finish(m *Model) {
 		}
 	}
 	m.trans = transitions{t1: t1, tri: tri}
+	g.emit = make([]float32, len(m.wtags))
+	for j, t := range m.wtags {
+		g.emit[j] = float32(math.Log(float64(m.wcount[j]) / float64(g.uni[t])))
+	}
 	g.logP = make([]float32, nt)
 	for t := 0; t < nt; t++ {
 		g.logP[t] = float32(math.Log(float64(g.uni[t]) / g.tot))
@@ -232,8 +237,7 @@ func (g *generative) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		}
 		if ok {
 			for j := e.first; j < e.first+e.ntags; j++ {
-				t := m.wtags[j]
-				l.add(t, float32(math.Log(float64(m.wcount[j])))-float32(math.Log(float64(g.uni[t]))))
+				l.add(m.wtags[j], g.emit[j])
 			}
 			l.closePos()
 			continue

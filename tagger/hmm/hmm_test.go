@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"strings"
 	"sync"
 	"testing"
@@ -129,10 +130,11 @@ func TestDefaultModelAccuracy(t *testing.T) {
 		t.Errorf("lemma accuracy %.2f%% < 98.0%% (case-insensitive)", r.Lemma.Accuracy)
 	}
 	// Common practice: a most-frequent-tag baseline is far below an HMM
-	// tagger (about 90% against 94–97% on edited news text). On EWT it
-	// measures 86.2% UPOS; the default model must beat it by 5 points.
-	if base < 80 || base > 90 {
-		t.Errorf("most-frequent-tag baseline %.2f%%, expected about 86.2%%", base)
+	// tagger (about 90% against 94–97% on edited news text). On EWT test it
+	// measures 86.2% UPOS (../shared/README.md); the default model must
+	// beat it by 5 points.
+	if base < 85.7 || base > 86.7 {
+		t.Errorf("most-frequent-tag baseline %.2f%%, expected 86.2%%", base)
 	}
 	if r.UPOS.Accuracy < base+5 {
 		t.Errorf("UPOS %.2f%% does not beat the baseline %.2f%% by 5 points", r.UPOS.Accuracy, base)
@@ -290,7 +292,7 @@ func TestTagFillsTokensAndKeepsPretagged(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	words := strings.Fields("The controller opens the irrigation valves every morning .")
+	words := strings.Fields("Check the pressure sensors and clean the filter housing .")
 	s := &doc.Sentence{}
 	for _, w := range words {
 		s.Tokens = append(s.Tokens, doc.Token{Form: w})
@@ -302,11 +304,13 @@ func TestTagFillsTokensAndKeepsPretagged(t *testing.T) {
 		}
 	}
 	// Checked by hand against the Penn and UD guidelines.
-	if got := s.Tokens[5].XPOS + "/" + s.Tokens[5].Lemma; got != "NNS/valve" {
-		t.Errorf("valves: got %s, want NNS/valve", got)
-	}
-	if s.Tokens[2].UPOS != "VERB" || s.Tokens[2].Lemma != "open" {
-		t.Errorf("opens: got %s/%s, want VERB/open", s.Tokens[2].UPOS, s.Tokens[2].Lemma)
+	want := []string{"VB/VERB/check", "DT/DET/the", "NN/NOUN/pressure", "NNS/NOUN/sensor", "CC/CCONJ/and",
+		"VB/VERB/clean", "DT/DET/the", "NN/NOUN/filter", "NN/NOUN/housing", "./PUNCT/."}
+	for i, w := range want {
+		tok := s.Tokens[i]
+		if got := tok.XPOS + "/" + tok.UPOS + "/" + tok.Lemma; got != w {
+			t.Errorf("%s: got %s, want %s", tok.Form, got, w)
+		}
 	}
 	// A fully tagged sentence is left alone.
 	pre := &doc.Sentence{Tokens: []doc.Token{{Form: "Valves", UPOS: "X", XPOS: "Y", Lemma: "z"}}}
@@ -400,6 +404,47 @@ func BenchmarkTrainPerceptron(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		if _, err := Train(train, TrainOptions{Method: MethodPerceptron}); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// payloadOf returns the payload of a saved model (the bytes the checksum
+// covers after the header).
+func payloadOf(t testing.TB, m *Model) []byte {
+	var b bytes.Buffer
+	if err := m.Save(&b); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes()[headerSize : b.Len()-4]
+}
+
+// A payload damaged behind the checksum's back (as a bug or a hand-made
+// file with a recomputed checksum could) gives an error, never a panic.
+func TestDecodeDamagedPayload(t *testing.T) {
+	for _, method := range []string{MethodHMM, MethodPerceptron} {
+		m, err := Train(small(t)[:200], TrainOptions{Method: method, Epochs: 1})
+		if err != nil {
+			t.Fatal(err)
+		}
+		p := payloadOf(t, m)
+		rng := uint64(1)
+		for i := 0; i < 300; i++ {
+			q := bytes.Clone(p)
+			for j := 0; j < 1+i%4; j++ {
+				rng = rng*6364136223846793005 + 1442695040888963407
+				q[int(rng>>33)%len(q)] ^= byte(rng >> 17)
+			}
+			if i%50 == 0 {
+				q = q[:len(q)*(i%300)/300]
+			}
+			func() {
+				defer func() {
+					if r := recover(); r != nil {
+						t.Fatalf("%s: damaged payload %d panicked: %v\n%s", method, i, r, debug.Stack())
+					}
+				}()
+				decodePayload(q)
+			}()
 		}
 	}
 }

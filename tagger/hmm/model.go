@@ -199,9 +199,33 @@ func (m *Model) Tag(s *doc.Sentence) {
 			}
 		}
 		if t.Lemma == "" {
-			t.Lemma = m.lem.Lemma(t.Form, t.UPOS, t.XPOS)
+			t.Lemma = m.unknownLemma(t.Form, t.UPOS, t.XPOS)
 		}
 	}
+}
+
+// unknownLemma lemmatizes a word unseen in training. The suffix rules learn
+// from the treebank's frequent irregulars ("wolves" → "wolf"), which leads
+// them astray on regular plurals of rarer words ("valves" → "valf"). For a
+// plural noun or a third-person verb the plain readings — less "s", less
+// "es" — are weighed against the rule's: the one seen most often as a
+// lemma in training wins, and the rule's reading stands when none was seen.
+func (m *Model) unknownLemma(form, upos, xpos string) string {
+	lem := m.lem.Lemma(form, upos, xpos)
+	if xpos != "NNS" && xpos != "VBZ" {
+		return lem
+	}
+	best, bestN := lem, m.refLemma[strings.ToLower(lem)]
+	for _, cut := range []int{1, 2} {
+		if len(lem) == 0 || len(form) <= cut+2 || !strings.HasSuffix(strings.ToLower(form), "es"[2-cut:]) {
+			continue
+		}
+		cand := strings.ToLower(form[:len(form)-cut])
+		if n := m.refLemma[cand]; n > bestN {
+			best, bestN = cand, n
+		}
+	}
+	return best
 }
 
 // prepareLexicon precomputes the lemma of every (word, tag) of the

@@ -25,9 +25,9 @@ type perceptron struct {
 	slots []slot // open-addressing table of keys
 	mask  uint64
 
-	// tri and bi are the transition weights as trained (and stored);
+	// layers are the transition weights as trained (and stored);
 	// Model.trans holds them folded into one table.
-	tri, bi []float32
+	layers []transLayer
 
 	// wscore[j] is the summed weight of the word-alone features of the
 	// lexicon entry m.wtags[j] for that tag, for tag-dictionary words: it
@@ -38,7 +38,7 @@ type perceptron struct {
 // prepare builds what decoding needs beyond the stored weights.
 func (p *perceptron) prepare(m *Model) {
 	p.index()
-	m.trans = (&transitions{t1: len(m.tags) + 1, tri: p.tri, bi: p.bi}).fold()
+	m.trans = (&transitions{t1: len(m.tags) + 1, layers: p.layers}).fold()
 	p.wscore = make([]float32, len(m.wtags))
 	l := &lattice{}
 	tok := make([]doc.Token, 1)
@@ -115,13 +115,24 @@ func (p *perceptron) row(k uint64) int32 {
 // the tag dictionary's tags for frequent words (one tag needs no scoring
 // at all), the best maxCands tags for the others.
 func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
-	l.info = extractFeatures(m, l, toks, l.info)
 	l.reset(len(toks))
+	// Look the words up first: a dictionary word with one tag needs no
+	// features at all.
+	l.need = l.need[:0]
+	for i := range toks {
+		e, ok := m.lookup(l, toks[i].Form)
+		l.need = append(l.need, !ok || e.count < p.dictMin || e.ntags > 1)
+	}
+	l.info = extractFeatures(m, l, toks, l.info)
+	l.need = l.need[:0]
 	nt := len(m.tags)
 	score := l.score[:nt]
 	for i := range toks {
-		e, ok := m.lookup(l, toks[i].Form)
-		dict := ok && e.count >= p.dictMin
+		var e *wordEntry
+		if w := l.wid[i]; w >= 0 {
+			e = &m.words[w]
+		}
+		dict := e != nil && e.count >= p.dictMin
 		if dict && e.ntags == 1 {
 			l.add(m.wtags[e.first], 0)
 			l.closePos()
@@ -153,6 +164,29 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 			continue
 		}
 		selectCands(l, score, p.maxCands)
+	}
+	p.fillPairs(l, uint8(nt))
+}
+
+// fillPairs scores the tag-word pair features of every state.
+func (p *perceptron) fillPairs(l *lattice, bound uint8) {
+	size := l.layout()
+	l.pair = growF32(l.pair, size)
+	for i := 0; i < l.n; i++ {
+		prev := l.bound[:]
+		l.bound[0] = bound
+		if i > 0 {
+			prev = l.cands[l.off[i-1]:l.off[i]]
+		}
+		cur := l.cands[l.off[i]:l.off[i+1]]
+		out := l.pair[l.doff[i]:]
+		lower := l.info[i].lower
+		for j, b := range prev {
+			r := p.row(pairKey(lower, b))
+			for k, c := range cur {
+				out[j*len(cur)+k] = p.weight(r, c)
+			}
+		}
 	}
 }
 
@@ -186,12 +220,12 @@ func selectCands(l *lattice, score []float32, maxCands int) {
 // Collins (2002) while touching only the weights an update changes — the
 // same saving as the lazy time-stamp update, with no time stamps.
 type trainer struct {
-	nt, t1   int
-	w        []float32 // features × tags
-	u        []float64
-	tri, bi  []float32 // transition weights
-	utri, ub []float64
-	c        float64
+	nt, t1 int
+	w      []float32 // features × tags
+	u      []float64
+	layers []transLayer // transition weights
+	ulay   [][2][]float64
+	c      float64
 }
 
 func (tr *trainer) updFeat(id int32, t uint8, d float32) {
@@ -201,20 +235,61 @@ func (tr *trainer) updFeat(id int32, t uint8, d float32) {
 }
 
 func (tr *trainer) updTrans(a, b, c uint8, d float32) {
-	i := (int(a)*tr.t1+int(b))*tr.t1 + int(c)
-	tr.tri[i] += d
-	tr.utri[i] += tr.c * float64(d)
-	j := int(b)*tr.t1 + int(c)
-	tr.bi[j] += d
-	tr.ub[j] += tr.c * float64(d)
+	for k := range tr.layers {
+		y := &tr.layers[k]
+		pa, pb, pc := int(y.proj[a]), int(y.proj[b]), int(y.proj[c])
+		i := (pa*y.n1+pb)*y.n1 + pc
+		y.tri[i] += d
+		tr.ulay[k][0][i] += tr.c * float64(d)
+		j := pb*y.n1 + pc
+		y.bi[j] += d
+		tr.ulay[k][1][j] += tr.c * float64(d)
+	}
+}
+
+// transLayers returns empty transition layers: the joint states, and for
+// a joint tag set their XPOS and their UPOS as well unless flat is set.
+func (m *Model) transLayers(flat bool) []transLayer {
+	nt := len(m.tags)
+	ident := make([]uint8, nt+1)
+	for i := range ident {
+		ident[i] = uint8(i)
+	}
+	layers := []transLayer{{proj: ident, n1: nt + 1}}
+	if !flat && m.tagset == TagsetJoint {
+		for _, names := range [][]string{m.tagX, m.tagU} {
+			set := map[string]bool{}
+			for _, n := range names {
+				set[n] = true
+			}
+			classes := sortedKeys(set)
+			idx := map[string]uint8{}
+			for i, c := range classes {
+				idx[c] = uint8(i)
+			}
+			proj := make([]uint8, nt+1)
+			for i, n := range names {
+				proj[i] = idx[n]
+			}
+			proj[nt] = uint8(len(classes))
+			layers = append(layers, transLayer{proj: proj, n1: len(classes) + 1})
+		}
+	}
+	for i := range layers {
+		n1 := layers[i].n1
+		layers[i].tri = make([]float32, n1*n1*n1)
+		layers[i].bi = make([]float32, n1*n1)
+	}
+	return layers
 }
 
 // trainSent is one training sentence with its feature rows per token.
 type trainSent struct {
-	toks []doc.Token
-	gold []uint8
-	ids  []int32 // feature rows, token i's at ids[off[i]:off[i+1]]
-	off  []int32
+	toks  []doc.Token
+	gold  []uint8
+	ids   []int32 // feature rows, token i's at ids[off[i]:off[i+1]]
+	off   []int32
+	lower []uint64 // hash of each lower-cased word, for pair features
 }
 
 func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
@@ -226,37 +301,55 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 	// its own identity feature, which decoding would not have anyway.
 	l := &lattice{score: make([]float32, nt)}
 	freq := map[uint64]int32{}
-	for _, s := range sents {
+	bound := uint8(nt)
+	prevOf := func(seq []uint8, i int) uint8 {
+		if i < 0 || i >= len(seq) {
+			return bound
+		}
+		return seq[i]
+	}
+	for si, s := range sents {
 		l.info = extractFeatures(m, l, s.Tokens, l.info)
 		for _, k := range l.feats {
 			freq[k]++
+		}
+		for i := range s.Tokens {
+			freq[pairKey(l.info[i].lower, prevOf(gold[si], i-1))]++
 		}
 	}
 	// Feature rows in order of first appearance, which is deterministic.
 	rows := map[uint64]int32{}
 	var keys []uint64
 	var counts []int32
+	rowOf := func(k uint64) (int32, bool) {
+		if int(freq[k]) < opt.MinFeatureCount {
+			return 0, false
+		}
+		r, ok := rows[k]
+		if !ok {
+			r = int32(len(keys))
+			rows[k] = r
+			keys = append(keys, k)
+			counts = append(counts, 0)
+		}
+		counts[r]++
+		return r, true
+	}
 	data := make([]trainSent, len(sents))
 	for si, s := range sents {
 		l.info = extractFeatures(m, l, s.Tokens, l.info)
-		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1)}
+		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1),
+			lower: make([]uint64, len(s.Tokens))}
 		ts.ids = make([]int32, 0, len(l.feats))
 		for i := range s.Tokens {
 			for _, k := range l.feats[l.foff[i]:l.foff[i+1]] {
-				if int(freq[k]) < opt.MinFeatureCount {
-					continue
+				if r, ok := rowOf(k); ok {
+					ts.ids = append(ts.ids, r)
 				}
-				r, ok := rows[k]
-				if !ok {
-					r = int32(len(keys))
-					rows[k] = r
-					keys = append(keys, k)
-					counts = append(counts, 0)
-				}
-				counts[r]++
-				ts.ids = append(ts.ids, r)
 			}
 			ts.off[i+1] = int32(len(ts.ids))
+			ts.lower[i] = l.info[i].lower
+			rowOf(pairKey(ts.lower[i], prevOf(gold[si], i-1)))
 		}
 		data[si] = ts
 	}
@@ -264,16 +357,20 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 	nf := len(keys)
 	tr := &trainer{nt: nt, t1: t1,
 		w: make([]float32, nf*nt), u: make([]float64, nf*nt),
-		tri: make([]float32, t1*t1*t1), utri: make([]float64, t1*t1*t1),
-		bi: make([]float32, t1*t1), ub: make([]float64, t1*t1)}
+		layers: m.transLayers(!opt.FactoredTransitions)}
+	for _, y := range tr.layers {
+		tr.ulay = append(tr.ulay, [2][]float64{make([]float64, len(y.tri)), make([]float64, len(y.bi))})
+	}
 	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}
-	trans := transitions{t1: t1, tri: tr.tri, bi: tr.bi}
+	trans := transitions{t1: t1, layers: tr.layers}
+	if len(tr.layers) == 1 { // the joint states alone: the fast path
+		trans = transitions{t1: t1, tri: tr.layers[0].tri, bi: tr.layers[0].bi}
+	}
 	order := make([]int, len(data))
 	for i := range order {
 		order[i] = i
 	}
 	rng := rand.New(rand.NewPCG(opt.Seed, 0x676c6f73736d6974))
-	bound := uint8(nt)
 	trainDict := int32(math.MaxInt32) // no tag dictionary while training
 	if opt.TrainDictMin > 0 {
 		trainDict = int32(opt.TrainDictMin)
@@ -302,6 +399,28 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 					selectCands(l, score, m.perc.maxCands)
 				}
 			}
+			// Tag-word pair scores from the current weights.
+			size := l.layout()
+			l.pair = growF32(l.pair, size)
+			for i := range ts.toks {
+				prev := l.bound[:]
+				l.bound[0] = bound
+				if i > 0 {
+					prev = l.cands[l.off[i-1]:l.off[i]]
+				}
+				cur := l.cands[l.off[i]:l.off[i+1]]
+				out := l.pair[l.doff[i]:]
+				for j, b := range prev {
+					r, ok := rows[pairKey(ts.lower[i], b)]
+					for k, c := range cur {
+						var v float32
+						if ok {
+							v = tr.w[int(r)*nt+int(c)]
+						}
+						out[j*len(cur)+k] = v
+					}
+				}
+			}
 			l.decode(&trans, -1) // no pruning while learning
 			pred := l.tags
 			at := func(seq []uint8, i int) uint8 {
@@ -317,6 +436,14 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 					for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
 						tr.updFeat(id, g0, 1)
 						tr.updFeat(id, p0, -1)
+					}
+				}
+				if (g1 != p1 || g0 != p0) && i < len(ts.gold) {
+					if r, ok := rows[pairKey(ts.lower[i], g1)]; ok {
+						tr.updFeat(r, g0, 1)
+					}
+					if r, ok := rows[pairKey(ts.lower[i], p1)]; ok {
+						tr.updFeat(r, p0, -1)
 					}
 				}
 				if g2 != p2 || g1 != p1 || g0 != p0 {
@@ -362,7 +489,7 @@ func quantize(w float64) float32 {
 // finishPerceptron turns the averaged weights into the decoding form,
 // dropping rare features and small weights.
 func finishPerceptron(m *Model, tr *trainer, keys []uint64, counts []int32, opt *TrainOptions) {
-	nt, t1 := tr.nt, tr.t1
+	nt := tr.nt
 	c := tr.c
 	avg := func(w float32, u float64) float64 { return float64(w) - u/c }
 	type rowRef struct {
@@ -399,15 +526,16 @@ func finishPerceptron(m *Model, tr *trainer, keys []uint64, counts []int32, opt 
 		p.keys = append(p.keys, r.key)
 		p.rowStart = append(p.rowStart, int32(len(p.rowW)))
 	}
-	tri := make([]float32, t1*t1*t1)
-	bi := make([]float32, t1*t1)
-	for i := range tri {
-		tri[i] = quantize(avg(tr.tri[i], tr.utri[i]))
+	for k, y := range tr.layers {
+		out := transLayer{proj: y.proj, n1: y.n1, tri: make([]float32, len(y.tri)), bi: make([]float32, len(y.bi))}
+		for i := range y.tri {
+			out.tri[i] = quantize(avg(y.tri[i], tr.ulay[k][0][i]))
+		}
+		for i := range y.bi {
+			out.bi[i] = quantize(avg(y.bi[i], tr.ulay[k][1][i]))
+		}
+		p.layers = append(p.layers, out)
 	}
-	for i := range bi {
-		bi[i] = quantize(avg(tr.bi[i], tr.ub[i]))
-	}
-	p.tri, p.bi = tri, bi
 	m.perc = p
 	m.beam = float32(opt.Beam)
 	p.prepare(m)

@@ -27,6 +27,11 @@ type lattice struct {
 	fmid  []int32
 	bound [1]uint8
 	wid   []int32 // lexicon index of each token, -1 if unknown
+	need  []bool  // tokens that need features (nil or empty: all)
+	// pair holds, in the layout of delta, a score for each (previous tag,
+	// tag) state that depends on the word: the perceptron's tag-word
+	// features. Unused when its length differs from delta's.
+	pair []float32
 }
 
 func (l *lattice) reset(n int) {
@@ -35,6 +40,7 @@ func (l *lattice) reset(n int) {
 	l.emit = l.emit[:0]
 	l.off = append(l.off[:0], 0)
 	l.wid = l.wid[:0]
+	l.pair = l.pair[:0]
 }
 
 // add appends a candidate tag with its emission score to the position
@@ -51,11 +57,43 @@ var negInf = float32(math.Inf(-1))
 // transitions gives the score of tag c after tags a, b. tri is indexed
 // ((a*t1)+b)*t1+c with t1 = number of tags + 1; the extra index stands for
 // the sentence boundary (start as context, stop as prediction). bi, when
-// not nil, adds a bigram score bi[b*t1+c].
+// not nil, adds a bigram score bi[b*t1+c]. When layers is set (perceptron
+// training, where weights change after every sentence), the score is
+// instead summed over the layers; decoding a trained model folds them into
+// tri once.
 type transitions struct {
-	t1  int
-	tri []float32
-	bi  []float32
+	t1     int
+	tri    []float32
+	bi     []float32
+	layers []transLayer
+}
+
+// transLayer holds transition weights over a projection of the states:
+// the states themselves, their XPOS or their UPOS. Weights shared by
+// all states with the same UPOS, say, are learned from more examples than
+// those of each joint state.
+type transLayer struct {
+	proj    []uint8 // state → class; index len(states) is the boundary
+	n1      int     // number of classes, boundary included
+	tri, bi []float32
+}
+
+func (tr *transitions) t3(a, b, c uint8) float32 {
+	var s float32
+	for i := range tr.layers {
+		y := &tr.layers[i]
+		s += y.tri[(int(y.proj[a])*y.n1+int(y.proj[b]))*y.n1+int(y.proj[c])]
+	}
+	return s
+}
+
+func (tr *transitions) t2(b, c uint8) float32 {
+	var s float32
+	for i := range tr.layers {
+		y := &tr.layers[i]
+		s += y.bi[int(y.proj[b])*y.n1+int(y.proj[c])]
+	}
+	return s
 }
 
 // decode finds the best tag sequence; beam < 0 disables state pruning.
@@ -74,18 +112,9 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 		}
 		return l.cands[l.off[i]:l.off[i+1]]
 	}
-	// Layout: position i has P(i-1) × P(i) states, P(-1) = 1 (boundary).
-	l.doff = growI32(l.doff, n+1)
-	size := 0
-	prevP := 1
-	for i := 0; i < n; i++ {
-		l.doff[i] = int32(size)
-		p := int(l.off[i+1] - l.off[i])
-		size += prevP * p
-		prevP = p
-	}
-	l.doff[n] = int32(size)
+	size := l.layout()
 	l.delta = growF32(l.delta, size)
+	pairs := len(l.pair) == size
 	l.back = growI16(l.back, size)
 	for i := 0; i < n; i++ {
 		prev2, prev, cur := candAt(i-2), candAt(i-1), candAt(i)
@@ -113,6 +142,15 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 						continue
 					}
 				}
+				if tr.layers != nil {
+					for k, c := range cur {
+						if s := d + tr.t3(a, b, c); s > row[k] {
+							row[k] = s
+							brow[k] = int16(h)
+						}
+					}
+					continue
+				}
 				tri := tr.tri[(int(a)*t1+int(b))*t1:]
 				for k, c := range cur {
 					if s := d + tri[c]; s > row[k] {
@@ -126,7 +164,12 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 					continue
 				}
 				row[k] += emit[k]
-				if tr.bi != nil {
+				if pairs {
+					row[k] += l.pair[base+j*p0+k]
+				}
+				if tr.layers != nil {
+					row[k] += tr.t2(b, c)
+				} else if tr.bi != nil {
 					row[k] += tr.bi[int(b)*t1+int(c)]
 				}
 			}
@@ -157,9 +200,14 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 			if d == negInf {
 				continue
 			}
-			s := d + tr.tri[(int(b)*t1+int(c))*t1+bound]
-			if tr.bi != nil {
-				s += tr.bi[int(c)*t1+bound]
+			var s float32
+			if tr.layers != nil {
+				s = d + tr.t3(b, c, uint8(bound)) + tr.t2(c, uint8(bound))
+			} else {
+				s = d + tr.tri[(int(b)*t1+int(c))*t1+bound]
+				if tr.bi != nil {
+					s += tr.bi[int(c)*t1+bound]
+				}
 			}
 			if s > best {
 				best, bj, bk = s, j, k
@@ -179,16 +227,40 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	}
 }
 
-// fold adds the bigram scores into the trigram table, so that decoding
-// reads one table.
+// layout fills l.doff: position i has P(i-1) × P(i) states (P(-1) = 1,
+// the boundary), stored from l.doff[i] on. It returns the total.
+func (l *lattice) layout() int {
+	n := l.n
+	l.doff = growI32(l.doff, n+1)
+	size := 0
+	prevP := 1
+	for i := 0; i < n; i++ {
+		l.doff[i] = int32(size)
+		p := int(l.off[i+1] - l.off[i])
+		size += prevP * p
+		prevP = p
+	}
+	l.doff[n] = int32(size)
+	return size
+}
+
+// fold sums the layers (or the bigram table) into one trigram table, so
+// that decoding reads one number per transition.
 func (tr *transitions) fold() transitions {
 	t1 := tr.t1
-	tri := make([]float32, len(tr.tri))
-	copy(tri, tr.tri)
-	if tr.bi != nil {
-		for a := 0; a < t1; a++ {
-			for bc := 0; bc < t1*t1; bc++ {
-				tri[a*t1*t1+bc] += tr.bi[bc]
+	tri := make([]float32, t1*t1*t1)
+	if tr.layers == nil {
+		copy(tri, tr.tri)
+	}
+	for a := 0; a < t1; a++ {
+		for b := 0; b < t1; b++ {
+			for c := 0; c < t1; c++ {
+				i := (a*t1+b)*t1 + c
+				if tr.layers != nil {
+					tri[i] = tr.t3(uint8(a), uint8(b), uint8(c)) + tr.t2(uint8(b), uint8(c))
+				} else if tr.bi != nil {
+					tri[i] += tr.bi[b*t1+c]
+				}
 			}
 		}
 	}

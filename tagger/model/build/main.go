@@ -57,7 +57,7 @@ func main() {
 	start := time.Now()
 	m, err := hmm.Train(train, hmm.TrainOptions{
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
-		Source: "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
+		Source:  "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
 		DictMin: *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
 		Dev: dev,
 		Progress: func(ep int, u, x float64) {

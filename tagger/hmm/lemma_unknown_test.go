@@ -1,0 +1,24 @@
+package hmm
+
+import (
+	"testing"
+
+	"glossmith/tagger/doc"
+)
+
+// Regular plurals of words the treebank barely knows must not follow the
+// suffix rules learned from frequent irregulars ("wolves" → "wolf"): the
+// plain reading wins when the treebank attests it as a lemma.
+func TestUnknownPluralLemma(t *testing.T) {
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for form, want := range map[string]string{"valves": "valve", "boxes": "box", "emitters": "emitter"} {
+		s := doc.Sentence{Tokens: []doc.Token{{Form: "The"}, {Form: form}, {Form: "failed"}, {Form: "."}}}
+		m.Tag(&s)
+		if got := s.Tokens[1].Lemma; got != want {
+			t.Errorf("%s: lemma %q (tag %s), want %q", form, got, s.Tokens[1].XPOS, want)
+		}
+	}
+}
