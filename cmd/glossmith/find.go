@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"os"
-	"strings"
 
 	"github.com/mattn/go-isatty"
 	"github.com/spf13/cobra"
@@ -51,17 +50,7 @@ lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
 				err error
 			)
 			if len(rules.files) > 0 {
-				var files []string
-				var stock []string
-				for _, f := range rules.files {
-					if n, ok := strings.CutPrefix(f, "stock:"); ok {
-						stock = append(stock, n)
-					} else {
-						files = append(files, f)
-					}
-				}
-				rs, err = loadRuleSets(files, stock)
-				if err != nil {
+				if rs, err = grammar.Load(rules.files...); err != nil {
 					printGrammarErrors(os.Stderr, err)
 					return exitError{2, "the rules did not load"}
 				}
@@ -165,24 +154,4 @@ lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
 	fl.IntVar(&limit, "limit", 0, "print at most this many lines")
 	fl.StringVar(&color, "color", "auto", "highlight matches: auto (on a terminal), always, never")
 	return cmd
-}
-
-// loadRuleSets loads rule files and built-in sets together.
-func loadRuleSets(files, stock []string) (*grammar.RuleSet, error) {
-	var parsed []*grammar.File
-	for _, n := range stock {
-		f, err := grammar.Stock(n)
-		if err != nil {
-			return nil, err
-		}
-		parsed = append(parsed, f)
-	}
-	for _, p := range files {
-		f, err := grammar.ParseFile(p)
-		if err != nil {
-			return nil, err
-		}
-		parsed = append(parsed, f)
-	}
-	return grammar.LoadFiles(parsed...)
 }

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -20,6 +22,7 @@ type inputFlags struct {
 	workers int
 	quiet   bool
 	noTag   bool
+	memory  memorySize
 }
 
 func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
@@ -27,6 +30,8 @@ func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
 	fl.StringVar(&f.from, "from", "", "input format, overriding detection: "+strings.Join(read.Formats(), ", "))
 	fl.IntVar(&f.workers, "workers", 0, "documents processed at once (default: one per core)")
 	fl.BoolVarP(&f.quiet, "quiet", "q", false, "print no notes or progress on standard error (warnings and errors still)")
+	f.memory = defaultMemory
+	fl.Var(&f.memory, "memory", "memory to stay within, e.g. 512MiB or 2GiB: count tables get half and drop their rarest entries when full")
 	if tagging {
 		fl.StringVar(&f.model, "model", "", "tagging model file (default: the embedded English model)")
 	}
@@ -64,6 +69,7 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 		Workers: f.workers,
 		Report:  pp.report,
 	}
+	debug.SetMemoryLimit(int64(f.memory))
 	prog := newProgress(f.quiet)
 	opt.Progress = prog.update
 	st := pipeline.Run(args, opt, mapFn, reduceFn)
@@ -75,4 +81,58 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 		return st, exitError{code: 1, msg: fmt.Sprintf("%d problem(s) with the inputs; the rest was processed", pp.errors)}
 	}
 	return st, nil
+}
+
+// memorySize is a byte count given as a number with an optional unit.
+type memorySize int64
+
+// defaultMemory keeps a run on a large corpus within an ordinary laptop's
+// spare memory.
+const defaultMemory = memorySize(1 << 30)
+
+func (m *memorySize) String() string { return byteSize(int64(*m)) }
+
+func (m *memorySize) Type() string { return "size" }
+
+// Set reads sizes such as 800MB, 1.5GiB or 2g: the units K, M and G (with
+// or without "i" and "B") are powers of 1024; a bare number is bytes.
+func (m *memorySize) Set(s string) error {
+	t := strings.ToUpper(strings.TrimSpace(s))
+	t = strings.TrimSuffix(t, "B")
+	t = strings.TrimSuffix(t, "I")
+	mult := 1.0
+	if n := len(t); n > 0 {
+		switch t[n-1] {
+		case 'K':
+			mult = 1 << 10
+		case 'M':
+			mult = 1 << 20
+		case 'G':
+			mult = 1 << 30
+		}
+		if mult > 1 {
+			t = t[:n-1]
+		}
+	}
+	v, err := strconv.ParseFloat(strings.TrimSpace(t), 64)
+	if err != nil || v*mult < 16<<20 {
+		return fmt.Errorf("want a size of at least 16MiB, such as 512MiB or 2GiB")
+	}
+	*m = memorySize(v * mult)
+	return nil
+}
+
+// tableBudget is the share of --memory given to a command's count tables:
+// the rest is for the model, the documents in flight and the garbage
+// collector's headroom.
+func (f *inputFlags) tableBudget() int64 { return int64(f.memory) / 2 }
+
+// notePruned tells the user, unless --quiet, that the memory budget made a
+// count table drop its rarest entries.
+func (f *inputFlags) notePruned(what string, n int, maxFreq int64) {
+	if n == 0 || f.quiet {
+		return
+	}
+	fmt.Fprintf(os.Stderr, "note: memory budget: dropped %d %s seen at most %d times; counts of %s seen again later may be low by up to %d (--memory %s; raise it to keep them)\n",
+		n, what, maxFreq, what, maxFreq, f.memory.String())
 }

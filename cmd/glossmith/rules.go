@@ -111,12 +111,7 @@ func newRulesListCmd() *cobra.Command {
 }
 
 // loadRuleArg loads a rule file, or a built-in set written "stock:NAME".
-func loadRuleArg(arg string) (*grammar.RuleSet, error) {
-	if name, ok := strings.CutPrefix(arg, "stock:"); ok {
-		return grammar.LoadStock(name)
-	}
-	return grammar.Load(arg)
-}
+func loadRuleArg(arg string) (*grammar.RuleSet, error) { return grammar.Load(arg) }
 
 // analyzer tokenizes and tags example texts for the rule checker.
 func analyzer(m *hmm.Model) pattern.Analyzer {
