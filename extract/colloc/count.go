@@ -24,6 +24,7 @@ package colloc
 
 import (
 	"sort"
+	"strings"
 )
 
 // Pair is one observed pair occurrence.
@@ -51,6 +52,10 @@ type Counter struct {
 	words []string
 	ids   map[string]uint32
 	rels  map[string]*relCounts
+	// size estimates the bytes of the tables; limit is the budget (0: none).
+	size, limit int64
+	trigger     int64 // prune when size passes this (≥ limit)
+	pruned      Pruned
 }
 
 // NewCounter returns an empty counter.
@@ -63,8 +68,12 @@ func (c *Counter) id(w string) uint32 {
 		return id
 	}
 	id := uint32(len(c.words))
+	// A copy: w is often a slice of a document's text (a lower-case word
+	// form), and keeping it would keep the whole text alive.
+	w = strings.Clone(w)
 	c.words = append(c.words, w)
 	c.ids[w] = id
+	c.size += wordEntryBytes + int64(len(w))
 	return id
 }
 
@@ -85,11 +94,21 @@ func (c *Counter) addN(rel, w1, w2 string, headIsW2 bool, n int64) {
 	k := key{c.id(w1), c.id(w2)}
 	if _, seen := r.pairs[k]; !seen {
 		r.heads[k] = headIsW2
+		c.size += pairEntryBytes
 	}
 	r.pairs[k] += n
+	if _, seen := r.first[k.w1]; !seen {
+		c.size += marginalEntryBytes
+	}
 	r.first[k.w1] += n
+	if _, seen := r.second[k.w2]; !seen {
+		c.size += marginalEntryBytes
+	}
 	r.second[k.w2] += n
 	r.n += n
+	if c.limit > 0 && c.size > c.trigger {
+		c.prune(c.limit * 3 / 4)
+	}
 }
 
 // Merge adds the counts of o into c.
@@ -138,4 +157,111 @@ func (c *Counter) Distinct() int {
 		n += len(r.pairs)
 	}
 	return n
+}
+
+// A memory budget for the pair tables.
+//
+// Most distinct pairs of a large corpus are seen once, and they fill the
+// tables. With a budget set (SetBudget), the counter keeps an estimate of
+// its size and, when it passes the budget, drops the rarest pairs — seen
+// once, then at most twice, … — until the tables are back to three
+// quarters of it. The marginals f(x), f(y) and N stay exact, so every
+// measure of a kept pair reads the true contingency table. A pair dropped
+// and seen again later restarts its count, so f(x,y) may be low by at most
+// Pruned.MaxFreq; with the default minimum frequency of the ranking such
+// pairs were rarely listed anyway. The decisions depend only on the counts
+// and their order, so a fixed merge order keeps the output deterministic.
+
+// Pruned reports what a budget made a counter drop.
+type Pruned struct {
+	Pairs   int   // distinct pairs dropped (a pair dropped twice counts twice)
+	MaxFreq int64 // the highest count a dropped pair had
+	Times   int   // how often the tables were pruned
+}
+
+// Estimated bytes per table entry on a 64-bit machine: the payload of a
+// map entry about doubled for the map's slack and control bytes.
+const (
+	pairEntryBytes     = 2*16 + 2*9 // pairs and heads entries
+	marginalEntryBytes = 2 * 12
+	wordEntryBytes     = 16 + 2*(16+4)
+)
+
+// SetBudget limits the estimated size of the counter's tables to about
+// limit bytes; 0 or less means no limit.
+func (c *Counter) SetBudget(limit int64) {
+	c.limit = max(limit, 0)
+	c.trigger = c.limit
+	if c.limit > 0 && c.size > c.trigger {
+		c.prune(c.limit * 3 / 4)
+	}
+}
+
+// Pruned reports what the budget made the counter drop; the zero value
+// means nothing was dropped.
+func (c *Counter) Pruned() Pruned { return c.pruned }
+
+// Size returns the estimated bytes of the counter's tables.
+func (c *Counter) Size() int64 { return c.size }
+
+// prune drops all pairs seen at most k times, for the smallest k that
+// brings the estimate down to target.
+func (c *Counter) prune(target int64) {
+	hist := map[int64]int{} // pairs by count
+	for _, r := range c.rels {
+		for _, f := range r.pairs {
+			hist[f]++
+		}
+	}
+	counts := make([]int64, 0, len(hist))
+	for f := range hist {
+		counts = append(counts, f)
+	}
+	sort.Slice(counts, func(i, j int) bool { return counts[i] < counts[j] })
+	over := c.size - target
+	var k int64
+	for _, f := range counts {
+		if over <= 0 {
+			break
+		}
+		over -= int64(hist[f]) * pairEntryBytes
+		k = f
+	}
+	defer func() {
+		// Words and marginals are never dropped; when they alone fill the
+		// budget, wait for a quarter of it more before pruning again
+		// rather than pruning after every pair.
+		c.trigger = max(c.limit, c.size+c.limit/4)
+	}()
+	if k == 0 {
+		return
+	}
+	dropped := 0
+	for _, r := range c.rels {
+		for p, f := range r.pairs {
+			if f <= k {
+				delete(r.pairs, p)
+				delete(r.heads, p)
+				dropped++
+			}
+		}
+		// Go maps do not shrink: copy the survivors so the memory of the
+		// dropped entries is freed.
+		r.pairs = compact(r.pairs)
+		r.heads = compact(r.heads)
+	}
+	c.size -= int64(dropped) * pairEntryBytes
+	c.pruned.Pairs += dropped
+	c.pruned.MaxFreq = max(c.pruned.MaxFreq, k)
+	c.pruned.Times++
+}
+
+// compact copies a map into one sized for its entries: a map keeps the
+// room of deleted entries (maps.Clone keeps it too).
+func compact[V any](m map[key]V) map[key]V {
+	out := make(map[key]V, len(m))
+	for k, v := range m {
+		out[k] = v
+	}
+	return out
 }

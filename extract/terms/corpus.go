@@ -122,14 +122,21 @@ func (c *Corpus) Add(dc *DocCounts) {
 // with the document it came from. Strings cut from a document's text (a
 // word form, a span) keep the whole text alive: kept in the corpus, they
 // would hold every document ever read in memory.
+//
+// Every string field of canonical must be copied here.
 func (v canonical) detach() canonical {
 	v.text = strings.Clone(v.text)
-	words := make([]string, len(v.words))
-	for i, w := range v.words {
-		words[i] = strings.Clone(w)
-	}
-	v.words = words
+	v.words = cloneAll(v.words)
+	v.keys = cloneAll(v.keys)
 	return v
+}
+
+func cloneAll(ss []string) []string {
+	out := make([]string, len(ss))
+	for i, s := range ss {
+		out[i] = strings.Clone(s)
+	}
+	return out
 }
 
 // WordFreq returns how often a lower-cased lemma occurs in the corpus.

@@ -10,6 +10,7 @@
 package pipeline
 
 import (
+	"os"
 	"runtime"
 	"sync"
 	"sync/atomic"
@@ -44,6 +45,11 @@ type Stats struct {
 	Bytes     int64 // bytes of plain text
 	Tokens    int64
 	Skipped   int // inputs that could not be read (an Error problem)
+	// InputBytes is the size on disk of all inputs (standard input counts
+	// 0), DoneBytes that of the inputs finished so far, read or skipped.
+	// Documents vary in size, so time left is better estimated from bytes
+	// than from the number of documents.
+	InputBytes, DoneBytes int64
 }
 
 // Run expands args into inputs and processes them. mapFn is called on a
@@ -62,6 +68,15 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 			opt.Report(p)
 		}
 	}
+	sizes := make([]int64, len(inputs))
+	for i, in := range inputs {
+		if in.Path != "-" {
+			if fi, err := os.Stat(in.Path); err == nil {
+				sizes[i] = fi.Size()
+				st.InputBytes += fi.Size()
+			}
+		}
+	}
 	workers := opt.Workers
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
@@ -75,10 +90,15 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 		probs []read.Problem
 		val   R
 	}
-	// window bounds the documents in flight: each slot is handed out by the
-	// reducer, so at most `window` documents are held in memory at once.
+	// window bounds the documents in flight: a worker takes a token before
+	// it takes the next input and the reducer gives the token back when it
+	// receives a document, so at most `window` documents are being
+	// annotated or waiting, plus the one being reduced. The inputs taken
+	// and not yet received are always fewer than `window` past the next
+	// one to reduce, so input i can use slot i % window: its previous user,
+	// input i − window, has been received.
 	window := 2 * workers
-	slots := make([]chan result, len(inputs))
+	slots := make([]chan result, window)
 	for i := range slots {
 		slots[i] = make(chan result, 1)
 	}
@@ -104,14 +124,14 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 				if res.doc != nil && mapFn != nil {
 					res.val = mapFn(res.doc)
 				}
-				slots[i] <- res
+				slots[i%window] <- res
 			}
 		}()
 	}
 	for i := range inputs {
-		res := <-slots[i]
-		slots[i] = nil
+		res := <-slots[i%window]
 		tokens <- struct{}{}
+		st.DoneBytes += sizes[i]
 		for _, p := range res.probs {
 			if p.Severity == read.Error && res.doc == nil {
 				st.Skipped++
@@ -121,6 +141,9 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 			}
 		}
 		if res.doc == nil {
+			if opt.Progress != nil {
+				opt.Progress(st)
+			}
 			continue
 		}
 		st.Documents++

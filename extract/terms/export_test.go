@@ -1,0 +1,4 @@
+package terms
+
+// TableBytes exposes the full size estimate to the tests.
+func TableBytes(c *Corpus) int64 { return c.tableBytes() }
