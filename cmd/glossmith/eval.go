@@ -10,7 +10,6 @@ import (
 	"github.com/spf13/cobra"
 
 	"glossmith/extract/terms"
-	"glossmith/pattern"
 	"glossmith/tagger/doc"
 	"glossmith/tagger/hmm"
 )
@@ -121,11 +120,7 @@ all cut-offs of the full ranking with the rank where it is reached.`,
 			if err != nil {
 				return err
 			}
-			rs, err := rules.load("terms")
-			if err != nil {
-				return err
-			}
-			m, err := pattern.Compile(rs, rules.names...)
+			_, m, err := rules.matcher("terms")
 			if err != nil {
 				return err
 			}

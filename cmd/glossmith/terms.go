@@ -34,6 +34,17 @@ func (r *ruleFlags) load(stock string) (*grammar.RuleSet, error) {
 	return grammar.LoadStock(stock)
 }
 
+// matcher loads the rules (the user's files or the stock set) and compiles
+// the selected rules, or all of them.
+func (r *ruleFlags) matcher(stock string) (*grammar.RuleSet, *pattern.Matcher, error) {
+	rs, err := r.load(stock)
+	if err != nil {
+		return nil, nil, err
+	}
+	m, err := pattern.Compile(rs, r.names...)
+	return rs, m, err
+}
+
 // modelReference adapts the model's treebank counts as a reference corpus.
 type modelReference struct{ m *hmm.Model }
 
@@ -84,11 +95,7 @@ validated terminology.`,
   glossmith terms --to tbx -o glossary.tbx manuals/*.docx
   glossmith terms --reference general-texts/ --sort keyness specs/`,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			rs, err := rules.load("terms")
-			if err != nil {
-				return err
-			}
-			m, err := pattern.Compile(rs, rules.names...)
+			rs, m, err := rules.matcher("terms")
 			if err != nil {
 				return err
 			}
