@@ -92,7 +92,11 @@ Measures (every one is a column; --measure sorts):
 				return c
 			}
 			total := colloc.NewCounter()
+			total.SetBudget(in.tableBudget())
 			_, runErr := runDocs(&in, args, model, count, func(_ *doc.Document, c *colloc.Counter) { total.Merge(c) })
+			if p := total.Pruned(); p.Pairs > 0 {
+				in.notePruned("pairs", p.Pairs, p.MaxFreq)
+			}
 			rows := total.Rank(colloc.RankOptions{Measure: ms, MinFreq: minFreq, Head: head, Limit: limit})
 			out, err := openOutput(outPath)
 			if err != nil {

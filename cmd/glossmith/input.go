@@ -69,7 +69,9 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 		Workers: f.workers,
 		Report:  pp.report,
 	}
-	debug.SetMemoryLimit(int64(f.memory))
+	// The runtime's limit covers its own memory only, not the program text
+	// or the allocator's slack that the system counts too: aim a tenth low.
+	debug.SetMemoryLimit(int64(f.memory) / 10 * 9)
 	prog := newProgress(f.quiet)
 	opt.Progress = prog.update
 	st := pipeline.Run(args, opt, mapFn, reduceFn)
@@ -133,6 +135,10 @@ func (f *inputFlags) notePruned(what string, n int, maxFreq int64) {
 	if n == 0 || f.quiet {
 		return
 	}
-	fmt.Fprintf(os.Stderr, "note: memory budget: dropped %d %s seen at most %d times; counts of %s seen again later may be low by up to %d (--memory %s; raise it to keep them)\n",
-		n, what, maxFreq, what, maxFreq, f.memory.String())
+	seen := fmt.Sprintf("at most %d times", maxFreq)
+	if maxFreq == 1 {
+		seen = "once"
+	}
+	fmt.Fprintf(os.Stderr, "note: memory budget: dropped %d %s seen %s; counts of %s met again later may be low by up to %d (--memory %s; raise it to keep them)\n",
+		n, what, seen, what, maxFreq, f.memory.String())
 }

@@ -124,7 +124,11 @@ validated terminology.`,
 			keep := max(contexts, 3)
 			col := terms.NewCollector(m, opt)
 			corpus := terms.NewCorpus(keep)
+			corpus.SetBudget(in.tableBudget())
 			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+			if p := corpus.Pruned(); p.Candidates > 0 {
+				in.notePruned("candidates", p.Candidates, int64(p.MaxFreq))
+			}
 			if corpus.Documents() == 0 {
 				return runErr
 			}

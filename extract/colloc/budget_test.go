@@ -97,3 +97,26 @@ func TestBudgetDeterministic(t *testing.T) {
 		t.Fatal("budget too large for the test to say anything")
 	}
 }
+
+func TestBudgetNeverDropsEveryPair(t *testing.T) {
+	c := NewCounter()
+	c.SetBudget(64 << 10) // less than the words and marginals alone take
+	for i := range 5000 {
+		c.Add(Pair{Relation: "adj_noun", W1: fmt.Sprintf("a%d", i), W2: fmt.Sprintf("n%d", i)}) // new words each time
+		c.Add(Pair{Relation: "adj_noun", W1: "hydraulic", W2: "valve"})
+	}
+	if c.Pruned().Pairs == 0 {
+		t.Fatal("nothing pruned; the test says nothing")
+	}
+	rows := c.Rank(RankOptions{})
+	if len(rows) == 0 {
+		t.Fatal("every pair dropped")
+	}
+	// Only the pairs seen once need to go; the frequent pair is never hit.
+	if p := c.Pruned(); p.MaxFreq != 1 {
+		t.Errorf("pruned pairs seen up to %d times, want only pairs seen once (%+v)", p.MaxFreq, p)
+	}
+	if rows[0].W1 != "hydraulic" || rows[0].F12 != 5000 {
+		t.Errorf("frequent pair lost or undercounted: %+v (pruned %+v)", rows[0], c.Pruned())
+	}
+}

@@ -218,7 +218,15 @@ func (c *Counter) prune(target int64) {
 		counts = append(counts, f)
 	}
 	sort.Slice(counts, func(i, j int) bool { return counts[i] < counts[j] })
-	over := c.size - target
+	// Words and marginals stay; if they alone fill the target, the pairs
+	// still keep half of it rather than all being dropped.
+	pairs := int64(0)
+	for _, n := range hist {
+		pairs += int64(n)
+	}
+	pairBytes := pairs * pairEntryBytes
+	keep := max(target-(c.size-pairBytes), target/2)
+	over := pairBytes - keep
 	var k int64
 	for _, f := range counts {
 		if over <= 0 {

@@ -57,7 +57,7 @@ const (
 	groupBytes     = 8 + 2*(16+8) + 16 + 144
 	spellingBytes  = 24
 	canonicalBytes = 64
-	docFreqBytes   = 16
+	docFreqBytes   = 8
 	contextBytes   = 40
 	wordBytes      = 2 * (16 + 8)
 )
@@ -137,6 +137,13 @@ func (c *Corpus) tableBytes() int64 {
 	for _, l := range texts {
 		n += int64(l)
 	}
+	return n + c.fixedBytes()
+}
+
+// fixedBytes counts what pruning never drops: the word counts and the
+// document list.
+func (c *Corpus) fixedBytes() int64 {
+	var n int64
 	for w := range c.words.Words {
 		n += wordBytes + int64(len(w))
 	}
@@ -160,7 +167,11 @@ func (c *Corpus) prune(target int64) {
 		freqs = append(freqs, f)
 	}
 	slices.Sort(freqs)
-	over := b.est - target
+	// Word counts stay; if they alone fill the target, the candidates
+	// still keep half of it rather than all being dropped.
+	fixed := c.fixedBytes()
+	keep := max(target-fixed, target/2)
+	over := b.est - fixed - keep
 	k := 0
 	for _, f := range freqs {
 		if over <= 0 {

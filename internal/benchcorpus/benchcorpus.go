@@ -37,10 +37,10 @@ type Options struct {
 // report.
 const DefaultDocSize = 32 << 10
 
-// DefaultRare is the default share of invented words. With it a 100 MB
-// corpus has several hundred thousand distinct word types, about what
-// real corpora of that size show (common practice: Heaps' law with
-// K≈10–100, β≈0.5 gives 3–30×10^5 types for 2×10^7 tokens).
+// DefaultRare is the default share of invented words. With it the 100 MB
+// corpus of seed 1 has about 90,000 distinct words (letters only, case
+// folded) against 8,900 in the source texts; real corpora of that size
+// usually have more, so the memory it takes is a low estimate for them.
 const DefaultRare = 0.01
 
 // LoadParagraphs reads every *.txt file under the given directories (not
