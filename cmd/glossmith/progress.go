@@ -61,14 +61,14 @@ func (p *progress) update(st pipeline.Stats) {
 		return
 	}
 	now := time.Now()
-	done := st.Documents+st.Skipped >= st.Inputs
+	done := st.Done >= st.Inputs
 	if now.Sub(p.last) < 100*time.Millisecond && !done {
 		return
 	}
 	p.last = now
 	// The bar runs over input bytes when their sizes are known, else over
 	// documents (standard input).
-	total, cur := int64(st.Inputs), int64(st.Documents+st.Skipped)
+	total, cur := int64(st.Inputs), int64(st.Done)
 	if st.InputBytes > 0 {
 		total, cur = st.InputBytes, st.DoneBytes
 	}
@@ -82,7 +82,7 @@ func (p *progress) update(st pipeline.Stats) {
 
 // status is the text after the bar, cut to fit the terminal.
 func (p *progress) status(st pipeline.Stats, elapsed time.Duration) string {
-	parts := []string{fmt.Sprintf("%d/%d docs", st.Documents+st.Skipped, st.Inputs)}
+	parts := []string{fmt.Sprintf("%d/%d docs", st.Done, st.Inputs)}
 	if st.InputBytes > 0 {
 		parts = append(parts, byteRatio(st.DoneBytes, st.InputBytes))
 	}
@@ -111,8 +111,8 @@ func timeLeft(st pipeline.Stats, elapsed time.Duration) (string, bool) {
 	switch {
 	case st.InputBytes > 0 && st.DoneBytes > 0:
 		frac = float64(st.DoneBytes) / float64(st.InputBytes)
-	case st.Inputs > 0 && st.Documents > 0:
-		frac = float64(st.Documents+st.Skipped) / float64(st.Inputs)
+	case st.Inputs > 0 && st.Done > 0:
+		frac = float64(st.Done) / float64(st.Inputs)
 	default:
 		return "", false
 	}

@@ -257,7 +257,7 @@ func canonicalWords(toks []doc.Token) (words, lower []string, pos string) {
 		last  *doc.Token
 		upper bool
 	}
-	var ws []word
+	ws := make([]word, 0, len(toks)) // sized once: called for every nested span
 	for k := 0; k < len(toks); k++ {
 		t := &toks[k]
 		if len(ws) > 0 && k > 0 && glued(toks[k-1], *t) && (isHyphen(t.Form) || isHyphen(toks[k-1].Form)) {
@@ -278,6 +278,10 @@ func canonicalWords(toks []doc.Token) (words, lower []string, pos string) {
 			break
 		}
 	}
+	words = make([]string, 0, len(ws))
+	lower = make([]string, 0, len(ws))
+	var tags strings.Builder
+	tags.Grow(5 * len(ws))
 	for n, w := range ws {
 		text := w.text
 		// Proper nouns keep their case here; the corpus folds a group's case
@@ -297,11 +301,11 @@ func canonicalWords(toks []doc.Token) (words, lower []string, pos string) {
 		words = append(words, text)
 		lower = append(lower, strings.ToLower(text))
 		if n > 0 {
-			pos += " "
+			tags.WriteByte(' ')
 		}
-		pos += w.last.UPOS
+		tags.WriteString(w.last.UPOS)
 	}
-	return words, lower, pos
+	return words, lower, tags.String()
 }
 
 // headLemma returns the canonical head word. Words that keep their case

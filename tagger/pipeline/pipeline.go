@@ -45,6 +45,7 @@ type Stats struct {
 	Bytes     int64 // bytes of plain text
 	Tokens    int64
 	Skipped   int // inputs that could not be read (an Error problem)
+	Done      int // inputs finished: read, skipped, or passed over with a note
 	// InputBytes is the size on disk of all inputs (standard input counts
 	// 0), DoneBytes that of the inputs finished so far, read or skipped.
 	// Documents vary in size, so time left is better estimated from bytes
@@ -131,14 +132,17 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 	for i := range inputs {
 		res := <-slots[i%window]
 		tokens <- struct{}{}
+		st.Done++
 		st.DoneBytes += sizes[i]
+		failed := false
 		for _, p := range res.probs {
-			if p.Severity == read.Error && res.doc == nil {
-				st.Skipped++
-			}
+			failed = failed || p.Severity == read.Error
 			if opt.Report != nil {
 				opt.Report(p)
 			}
+		}
+		if failed && res.doc == nil {
+			st.Skipped++
 		}
 		if res.doc == nil {
 			if opt.Progress != nil {

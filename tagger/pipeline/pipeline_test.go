@@ -101,8 +101,11 @@ func annotated(t *testing.T, args []string, workers int) string {
 		}
 		b.WriteString(s)
 	})
-	fmt.Fprintf(&b, "stats %d inputs, %d docs, %d bytes, %d tokens, %d skipped, %d/%d input bytes\n",
-		st.Inputs, st.Documents, st.Bytes, st.Tokens, st.Skipped, st.DoneBytes, st.InputBytes)
+	fmt.Fprintf(&b, "stats %d inputs, %d done, %d docs, %d bytes, %d tokens, %d skipped, %d/%d input bytes\n",
+		st.Inputs, st.Done, st.Documents, st.Bytes, st.Tokens, st.Skipped, st.DoneBytes, st.InputBytes)
+	if st.Done != st.Inputs || st.DoneBytes != st.InputBytes || st.InputBytes == 0 {
+		t.Errorf("run ended with %d of %d inputs and %d of %d bytes done", st.Done, st.Inputs, st.DoneBytes, st.InputBytes)
+	}
 	return b.String()
 }
 
@@ -182,6 +185,9 @@ func TestRunReportsProblemsAndGoesOn(t *testing.T) {
 			nil, func(*doc.Document, struct{}) { docs++ })
 		if docs != 1 || st.Documents != 1 {
 			t.Errorf("%d workers: %d documents processed, want 1 (the readable one)", w, docs)
+		}
+		if st.Done != 2 || st.Inputs != 2 {
+			t.Errorf("%d workers: %d of %d inputs done, want 2 of 2 (the missing file is no input)", w, st.Done, st.Inputs)
 		}
 		if st.Skipped != 2 {
 			t.Errorf("%d workers: Skipped = %d, want 2; problems: %q", w, st.Skipped, probs)
