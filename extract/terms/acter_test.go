@@ -18,9 +18,9 @@ type modelRef struct{ m *hmm.Model }
 func (r modelRef) Freq(w string) int { return r.m.RefLemmaFreq(w) }
 func (r modelRef) Size() int         { return r.m.RefSize() }
 
-// extractDomain runs the default extraction (stock terms rules, embedded
-// model, treebank reference) over one ACTER domain's texts.
-func extractDomain(t *testing.T, dir string) (full, def []*Term) {
+// defaultSetup returns the embedded model and a collector with the stock
+// terms rules: the default extraction.
+func defaultSetup(t *testing.T) (*hmm.Model, *Collector) {
 	t.Helper()
 	m, err := hmm.Default()
 	if err != nil {
@@ -34,7 +34,15 @@ func extractDomain(t *testing.T, dir string) (full, def []*Term) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	col := NewCollector(mt, Options{})
+	return m, NewCollector(mt, Options{})
+}
+
+// extractDomain runs the default extraction (stock terms rules, embedded
+// model, treebank reference) over one ACTER domain's texts.
+func extractDomain(t *testing.T, dir string) (full, def []*Term) {
+	t.Helper()
+	m, col := defaultSetup(t)
+	var err error
 	corpus := NewCorpus(0)
 	st := pipeline.Run([]string{filepath.Join(dir, "texts")}, pipeline.Options{Tagger: m}, col.Collect,
 		func(_ *doc.Document, dc *DocCounts) { corpus.Add(dc) })

@@ -6,10 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"glossmith/grammar"
-	"glossmith/pattern"
 	"glossmith/tagger/doc"
-	"glossmith/tagger/hmm"
 	"glossmith/tagger/tokenize"
 )
 
@@ -17,19 +14,7 @@ import (
 // each, with the real tokenizer and tagger.
 func extractTexts(t *testing.T, texts ...string) []*Term {
 	t.Helper()
-	m, err := hmm.Default()
-	if err != nil {
-		t.Fatal(err)
-	}
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	mt, err := pattern.Compile(rs)
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := NewCollector(mt, Options{})
+	m, col := defaultSetup(t)
 	c := NewCorpus(3)
 	for i, text := range texts {
 		d := &doc.Document{Name: string(rune('a' + i)), Text: text}
