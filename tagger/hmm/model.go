@@ -205,24 +205,30 @@ func (m *Model) Tag(s *doc.Sentence) {
 }
 
 // unknownLemma lemmatizes a word unseen in training. The suffix rules learn
-// from the treebank's frequent irregulars ("wolves" → "wolf"), which leads
-// them astray on regular plurals of rarer words ("valves" → "valf"). For a
-// plural noun or a third-person verb the plain readings — less "s", less
-// "es" — are weighed against the rule's: the one seen most often as a
-// lemma in training wins, and the rule's reading stands when none was seen.
+// from the treebank's frequent irregulars ("wolves" → "wolf", "freed" →
+// "free"), which leads them astray on rarer regular words ("valves" →
+// "valf", "bleed" → "blee"). So the rule's reading is weighed against the
+// plain ones — the word itself, and for a plural noun or a third-person
+// verb the word less "s" or "es" — and the reading seen most often as a
+// lemma in training wins; the rule's reading stands on a tie.
 func (m *Model) unknownLemma(form, upos, xpos string) string {
 	lem := m.lem.Lemma(form, upos, xpos)
-	if xpos != "NNS" && xpos != "VBZ" {
+	if upos == "PROPN" || lem == "" {
 		return lem
 	}
 	best, bestN := lem, m.refLemma[strings.ToLower(lem)]
-	for _, cut := range []int{1, 2} {
-		if len(lem) == 0 || len(form) <= cut+2 || !strings.HasSuffix(strings.ToLower(form), "es"[2-cut:]) {
-			continue
-		}
-		cand := strings.ToLower(form[:len(form)-cut])
+	low := strings.ToLower(form)
+	try := func(cand string) {
 		if n := m.refLemma[cand]; n > bestN {
 			best, bestN = cand, n
+		}
+	}
+	try(low)
+	if xpos == "NNS" || xpos == "VBZ" {
+		for _, cut := range []int{1, 2} {
+			if len(low) > cut+2 && strings.HasSuffix(low, "es"[2-cut:]) {
+				try(low[:len(low)-cut])
+			}
 		}
 	}
 	return best
