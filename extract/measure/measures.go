@@ -28,15 +28,17 @@ func G2(t Table) float64 {
 func g2(t Table, d float64) float64 {
 	o11, o12, o21, o22 := t.Observed()
 	e11, e12, e21, e22 := t.Expected()
-	s := devianceTerm(o11, e11, d) + devianceTerm(o12, e12, -d) +
-		devianceTerm(o21, e21, -d) + devianceTerm(o22, e22, d)
-	return finite(2 * s)
+	s := DevianceTerm(o11, e11, d) + DevianceTerm(o12, e12, -d) +
+		DevianceTerm(o21, e21, -d) + DevianceTerm(o22, e22, d)
+	return Finite(2 * s)
 }
 
-// devianceTerm returns o·ln(o/e) − (o − e) ≥ 0 for a cell with observed
+// DevianceTerm returns o·ln(o/e) − (o − e) ≥ 0 for a cell with observed
 // count o, expected count e and o − e = d (d passed in because it is known
-// more accurately than o − e would be computed here).
-func devianceTerm(o, e, d float64) float64 {
+// more accurately than o − e would be computed here). Summing these terms
+// over cells whose observed and expected totals agree gives G²/2 without
+// cancellation; package termstat uses it for keyness too.
+func DevianceTerm(o, e, d float64) float64 {
 	if o <= 0 {
 		return e // 0·ln 0 = 0
 	}
@@ -86,7 +88,7 @@ func G2Entropy(t Table) float64 {
 	if g < 0 { // rounding below the true minimum 0
 		g = 0
 	}
-	return finite(g)
+	return Finite(g)
 }
 
 func xlnx(x float64) float64 {
@@ -190,7 +192,7 @@ func tscore(t Table, d float64) float64 {
 	if t.F12 == 0 {
 		return 0
 	}
-	return finite(d / math.Sqrt(t.F12))
+	return Finite(d / math.Sqrt(t.F12))
 }
 
 // ChiSquare returns Pearson's χ² statistic for the 2×2 table, without
@@ -218,7 +220,7 @@ func chiSquare(t Table, d float64) float64 {
 	}
 	// O11·O22 − O12·O21 = n·d; divide step by step so nothing overflows.
 	x := t.N * d
-	return finite(t.N * (x / r1) * (x / r2) / c1 / c2)
+	return Finite(t.N * (x / r1) * (x / r2) / c1 / c2)
 }
 
 // Dice returns the Dice coefficient of the pair, 2·f12 / (f1 + f2), from

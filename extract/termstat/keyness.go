@@ -79,16 +79,16 @@ func (k Contrast) LL() float64 {
 	e2 := d * ((a + b) / n)
 	// a − E1 = (a·d − b·c)/n = −(b − E2); with Σ(O−E) = 0 over the row,
 	// LL = 2·Σ (O ln(O/E) − (O−E)), summed without cancellation.
-	diff := det2(a, d, b, c)
+	diff := measure.Det2(a, d, b, c)
 	d1 := diff / n
 	if math.IsInf(d1, 0) || math.IsNaN(d1) {
 		d1 = a - e1 // products beyond float64 range
 	}
-	ll := 2 * (deviance(a, e1, d1) + deviance(b, e2, -d1))
+	ll := 2 * (measure.DevianceTerm(a, e1, d1) + measure.DevianceTerm(b, e2, -d1))
 	if diff < 0 {
 		ll = -ll
 	}
-	return finite(ll)
+	return measure.Finite(ll)
 }
 
 // Table returns the word's 2×2 contingency table in the form of
@@ -130,21 +130,7 @@ func (k Contrast) Weirdness() float64 {
 	if !k.Valid() || k.StudySize == 0 {
 		return 0
 	}
-	return finite((k.Study / k.StudySize) * ((k.ReferenceSize + 1) / (k.Reference + 1)))
-}
-
-// finite saturates ±Inf at ±MaxFloat64 and maps NaN to 0; only counts near
-// the float64 limit can reach it.
-func finite(x float64) float64 {
-	switch {
-	case x > math.MaxFloat64:
-		return math.MaxFloat64
-	case x < -math.MaxFloat64:
-		return -math.MaxFloat64
-	case x != x:
-		return 0
-	}
-	return x
+	return measure.Finite((k.Study / k.StudySize) * ((k.ReferenceSize + 1) / (k.Reference + 1)))
 }
 
 // SmoothedWeirdness is the weirdness ratio with additive smoothing of both
@@ -163,5 +149,5 @@ func (k Contrast) SmoothedWeirdness(alpha float64) float64 {
 	if !k.Valid() || k.StudySize == 0 || k.ReferenceSize == 0 || !(alpha > 0) {
 		return 0
 	}
-	return finite(((k.Study + alpha) / k.StudySize) / ((k.Reference + alpha) / k.ReferenceSize))
+	return measure.Finite(((k.Study + alpha) / k.StudySize) / ((k.Reference + alpha) / k.ReferenceSize))
 }

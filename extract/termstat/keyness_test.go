@@ -1,6 +1,8 @@
 package termstat
 
 import (
+	"glossmith/extract/measure"
+
 	"math"
 	"math/rand/v2"
 	"strings"
@@ -66,7 +68,7 @@ func TestLLAgainstG2(t *testing.T) {
 		e1, e2 := c*(a+b)/n, d*(a+b)/n
 		// The other-words row in deviance form (Σ(O−E) = 0 there too):
 		// O21 − E21 = (c−a) − (c−E1) = E1 − a.
-		extra := 2 * (deviance(c-a, c-e1, e1-a) + deviance(d-b, d-e2, a-e1))
+		extra := 2 * (measure.DevianceTerm(c-a, c-e1, e1-a) + measure.DevianceTerm(d-b, d-e2, a-e1))
 		if diff := math.Abs(g) - math.Abs(ll); math.Abs(diff-extra) > 1e-9*math.Abs(g)+1e-9 {
 			t.Fatalf("%+v: |G²| − |LL| = %.17g, other-words row = %.17g", k, diff, extra)
 		}
