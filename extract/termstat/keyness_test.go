@@ -1,12 +1,12 @@
 package termstat
 
 import (
-	"glossmith/extract/measure"
-
 	"math"
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"glossmith/extract/measure"
 )
 
 func TestLLHandWorked(t *testing.T) {
