@@ -15,7 +15,7 @@ import (
 // and "tonight" are NOUN/NN). It stands in for the real tagger in unit
 // tests; `glossmith rules check` runs the examples through the real one.
 var fakeTags = map[string]string{
-	"a": "DET DT", "after": "ADP IN", "air": "NOUN NN", "always": "ADV RB", "and": "CCONJ CC",
+	"a": "DET DT", "vent": "VERB VB", "install": "VERB VB", "noon": "NOUN NN", "climate": "NOUN NN", "after": "ADP IN", "air": "NOUN NN", "always": "ADV RB", "and": "CCONJ CC",
 	"at": "ADP IN", "automatic": "ADJ JJ", "before": "ADP IN", "bench": "NOUN NN", "body": "NOUN NN",
 	"both": "DET DT", "calibrate": "VERB VB", "checked": "VERB VBD", "close": "VERB VB",
 	"compensating": "VERB VBG", "controller": "NOUN NN", "controllers": "NOUN NNS", "cracks": "NOUN NNS",
