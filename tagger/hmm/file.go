@@ -2,6 +2,7 @@ package hmm
 
 import (
 	"bytes"
+	"compress/flate"
 	"encoding/binary"
 	"errors"
 	"fmt"
@@ -14,21 +15,30 @@ import (
 	"glossmith/tagger/lemma"
 )
 
-// The model file format, version 1:
+// The model file format, version 2:
 //
 //	magic    "GLSMTAG\x00" (8 bytes)
 //	version  uint16, little endian
 //	length   uint64, little endian: bytes of the payload
-//	payload  the model, in varints and length-prefixed strings
+//	payload  the model, in varints and length-prefixed strings, compressed
+//	         with DEFLATE (RFC 1951) at the best compression level
 //	crc      uint32, little endian: CRC-32 (IEEE) of everything before it
+//
+// Version 1 is the same with the payload stored uncompressed; it is still
+// read. Compression halves the embedded model and keeps the treebank's
+// vocabulary, which the model carries for reference counts, out of plain
+// sight in the binary.
 //
 // Every map is written in sorted order, so a model always encodes to the
 // same bytes. Perceptron weights are stored as integer multiples of
 // weightStep; the model in memory holds the same rounded values.
 const (
 	fileMagic   = "GLSMTAG\x00"
-	fileVersion = 1
+	fileVersion = 2
 	headerSize  = len(fileMagic) + 2 + 8
+	// maxPayload bounds the inflated payload, so that a crafted file cannot
+	// make Decode allocate without limit.
+	maxPayload = 1 << 30
 )
 
 // FormatError describes a model file that cannot be used.
@@ -89,7 +99,19 @@ func Decode(data []byte) (*Model, error) {
 	if crc32.ChecksumIEEE(body) != sum {
 		return fail("checksum mismatch: the file is corrupt")
 	}
-	m, err := decodePayload(body[headerSize:])
+	payload := body[headerSize:]
+	if version >= 2 {
+		r := flate.NewReader(bytes.NewReader(payload))
+		raw, err := io.ReadAll(io.LimitReader(r, maxPayload+1))
+		if err != nil {
+			return fail("malformed compressed payload: %v", err)
+		}
+		if len(raw) > maxPayload {
+			return fail("payload inflates beyond %d bytes", maxPayload)
+		}
+		payload = raw
+	}
+	m, err := decodePayload(payload)
 	if err != nil {
 		return fail("malformed payload: %v", err)
 	}
@@ -100,13 +122,24 @@ func Decode(data []byte) (*Model, error) {
 func (m *Model) Save(w io.Writer) error {
 	var e enc
 	m.encodePayload(&e)
+	var z bytes.Buffer
+	fw, err := flate.NewWriter(&z, flate.BestCompression)
+	if err != nil {
+		return err
+	}
+	if _, err := fw.Write(e.b); err != nil {
+		return err
+	}
+	if err := fw.Close(); err != nil {
+		return err
+	}
 	var out bytes.Buffer
 	out.WriteString(fileMagic)
 	out.Write(binary.LittleEndian.AppendUint16(nil, fileVersion))
-	out.Write(binary.LittleEndian.AppendUint64(nil, uint64(len(e.b))))
-	out.Write(e.b)
+	out.Write(binary.LittleEndian.AppendUint64(nil, uint64(z.Len())))
+	out.Write(z.Bytes())
 	out.Write(binary.LittleEndian.AppendUint32(nil, crc32.ChecksumIEEE(out.Bytes())))
-	_, err := w.Write(out.Bytes())
+	_, err = w.Write(out.Bytes())
 	return err
 }
 

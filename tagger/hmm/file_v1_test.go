@@ -1,0 +1,39 @@
+package hmm
+
+import (
+	"bytes"
+	"encoding/binary"
+	"hash/crc32"
+	"testing"
+)
+
+// Files of format version 1 stored the payload uncompressed; they are still
+// read, and decode to the same model as the version 2 file.
+func TestReadVersion1(t *testing.T) {
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var e enc
+	m.encodePayload(&e)
+	var v1 bytes.Buffer
+	v1.WriteString(fileMagic)
+	v1.Write(binary.LittleEndian.AppendUint16(nil, 1))
+	v1.Write(binary.LittleEndian.AppendUint64(nil, uint64(len(e.b))))
+	v1.Write(e.b)
+	v1.Write(binary.LittleEndian.AppendUint32(nil, crc32.ChecksumIEEE(v1.Bytes())))
+	old, err := Decode(v1.Bytes())
+	if err != nil {
+		t.Fatalf("version 1 file refused: %v", err)
+	}
+	var a, b bytes.Buffer
+	if err := m.Save(&a); err != nil {
+		t.Fatal(err)
+	}
+	if err := old.Save(&b); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(a.Bytes(), b.Bytes()) {
+		t.Fatal("the version 1 file decodes to a different model")
+	}
+}
