@@ -127,8 +127,13 @@ func startsWord(text string, i int) bool {
 }
 
 // hyphenPrefix reports whether w is a prefix that keeps its hyphen.
-func hyphenPrefix(w string) bool {
-	if len(w) > 7 {
+func hyphenPrefix(w string) bool { return lowerIn(w, 7, hyphenPrefixes) }
+
+// lowerIn reports whether w, an ASCII word of at most maxLen (≤ 8) letters,
+// is in set once lower-cased. It lower-cases into a stack buffer, so the
+// tokenizer's hot path does not allocate.
+func lowerIn(w string, maxLen int, set map[string]bool) bool {
+	if len(w) > maxLen {
 		return false
 	}
 	var buf [8]byte
@@ -143,7 +148,7 @@ func hyphenPrefix(w string) bool {
 		}
 		buf[k] = c
 	}
-	return hyphenPrefixes[string(buf[:len(w)])]
+	return set[string(buf[:len(w)])]
 }
 
 // digitGroups reads groups of digits separated by sep from i on and returns
@@ -241,24 +246,7 @@ func numberEnd(text string, i, j int) int {
 
 // splitsUnit reports whether the letters after a number are a unit to
 // split off ("kg", "am", "M") rather than a suffix ("th", "s").
-func splitsUnit(suf string) bool {
-	if len(suf) > 8 {
-		return false
-	}
-	var buf [8]byte
-	for k := 0; k < len(suf); k++ {
-		c := suf[k]
-		switch {
-		case 'a' <= c && c <= 'z':
-		case 'A' <= c && c <= 'Z':
-			c += 'a' - 'A'
-		default:
-			return false
-		}
-		buf[k] = c
-	}
-	return units[string(buf[:len(suf)])]
-}
+func splitsUnit(suf string) bool { return lowerIn(suf, 8, units) }
 
 // cliticSplit returns where the word text[i:j] splits into host and
 // clitic, or i when it does not.
