@@ -121,13 +121,7 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 	info = info[:n]
 	buf := l.buf[:0]
 	for i := range toks {
-		buf = lowerInto(buf[:0], toks[i].Form)
-		ti := &info[i]
-		ti.lower = hashBytes(buf)
-		ti.suf3 = hashBytes(buf[max(0, len(buf)-3):])
-		ti.pre1 = hashBytes(buf[:min(1, len(buf))])
-		buf = shapeInto(buf[:0], toks[i].Form)
-		ti.shape = hashBytes(buf)
+		buf = info[i].fill(buf, toks[i].Form)
 	}
 	f := l.feats[:0]
 	l.foff = append(l.foff[:0], 0)
@@ -153,47 +147,9 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 			l.foff = append(l.foff, int32(len(f)))
 			continue
 		}
-		form := toks[i].Form
 		ti := &info[i]
-		buf = lowerInto(buf[:0], form)
-		f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
-		for k := 1; k <= 5 && k < len(buf); k++ {
-			f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
-		}
-		for k := 1; k <= 4 && k < len(buf); k++ {
-			f = append(f, key(fPre1+k-1, hashBytes(buf[:k])))
-		}
-		var upperFirst, hasLetter, hasLower, digit, hyphen bool
-		letters := 0
-		for j, r := range form {
-			switch {
-			case unicode.IsUpper(r):
-				hasLetter = true
-				letters++
-				if j == 0 {
-					upperFirst = true
-				}
-			case unicode.IsLetter(r):
-				hasLetter, hasLower = true, true
-				letters++
-			case r >= '0' && r <= '9':
-				digit = true
-			case r == '-':
-				hyphen = true
-			}
-		}
-		if hasLetter && !hasLower && letters > 1 {
-			f = append(f, key(fAllUpper, 0))
-		}
-		if digit {
-			f = append(f, key(fDigit, 0))
-		}
-		if hyphen {
-			f = append(f, key(fHyphen, 0))
-		}
-		if !hasLetter {
-			f = append(f, key(fNoLetter, 0))
-		}
+		var upperFirst bool
+		f, buf, upperFirst = appendAloneKeys(f, buf, toks[i].Form, ti)
 		// Above: features of the word alone; below: of its context.
 		l.fmid = append(l.fmid, int32(len(f)))
 		if upperFirst {
@@ -218,6 +174,66 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 	l.feats = f
 	l.buf = buf
 	return info
+}
+
+// fill computes the hashes of a word form; buf is scratch space, returned
+// for reuse.
+func (ti *tokenInfo) fill(buf []byte, form string) []byte {
+	buf = lowerInto(buf[:0], form)
+	ti.lower = hashBytes(buf)
+	ti.suf3 = hashBytes(buf[max(0, len(buf)-3):])
+	ti.pre1 = hashBytes(buf[:min(1, len(buf))])
+	buf = shapeInto(buf[:0], form)
+	ti.shape = hashBytes(buf)
+	return buf
+}
+
+// appendAloneKeys appends the keys of the features of the word by itself
+// (identity, affixes, shape, character classes) in their fixed order, and
+// reports whether the word begins with an upper-case letter, which the
+// context features need. ti holds the word's hashes (see fill); buf is
+// scratch space, returned for reuse.
+func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo) ([]uint64, []byte, bool) {
+	buf = lowerInto(buf[:0], form)
+	f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
+	for k := 1; k <= 5 && k < len(buf); k++ {
+		f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
+	}
+	for k := 1; k <= 4 && k < len(buf); k++ {
+		f = append(f, key(fPre1+k-1, hashBytes(buf[:k])))
+	}
+	var upperFirst, hasLetter, hasLower, digit, hyphen bool
+	letters := 0
+	for j, r := range form {
+		switch {
+		case unicode.IsUpper(r):
+			hasLetter = true
+			letters++
+			if j == 0 {
+				upperFirst = true
+			}
+		case unicode.IsLetter(r):
+			hasLetter, hasLower = true, true
+			letters++
+		case r >= '0' && r <= '9':
+			digit = true
+		case r == '-':
+			hyphen = true
+		}
+	}
+	if hasLetter && !hasLower && letters > 1 {
+		f = append(f, key(fAllUpper, 0))
+	}
+	if digit {
+		f = append(f, key(fDigit, 0))
+	}
+	if hyphen {
+		f = append(f, key(fHyphen, 0))
+	}
+	if !hasLetter {
+		f = append(f, key(fNoLetter, 0))
+	}
+	return f, buf, upperFirst
 }
 
 // lowerInto appends the lower-cased form to buf without allocating.

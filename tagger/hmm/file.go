@@ -497,9 +497,9 @@ func (p *perceptron) encode(e *enc) {
 		prev = k
 		a, b := p.rowStart[i], p.rowStart[i+1]
 		e.uint(uint64(b - a))
-		for j := a; j < b; j++ {
-			e.uint(uint64(p.rowTag[j]))
-			e.int(int64(math.Round(float64(p.rowW[j]) / weightStep)))
+		for _, c := range p.cells[a:b] {
+			e.uint(uint64(c.t))
+			e.int(int64(math.Round(float64(c.w) / weightStep)))
 		}
 	}
 	e.uint(uint64(len(p.layers)))
@@ -548,10 +548,10 @@ func decodePerceptron(d *dec, m *Model) *perceptron {
 		p.keys = append(p.keys, prev)
 		k := d.count(2)
 		for j := 0; j < k && d.err == nil; j++ {
-			p.rowTag = append(p.rowTag, d.tag(nt))
-			p.rowW = append(p.rowW, float32(float64(d.int())*weightStep))
+			t := d.tag(nt)
+			p.cells = append(p.cells, cell{w: float32(float64(d.int()) * weightStep), t: t})
 		}
-		p.rowStart = append(p.rowStart, int32(len(p.rowW)))
+		p.rowStart = append(p.rowStart, int32(len(p.cells)))
 	}
 	nl := d.count(1)
 	if d.err == nil && (nl == 0 || nl > 3) {

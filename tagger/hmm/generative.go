@@ -174,7 +174,7 @@ func (g *generative) finish(m *Model) {
 		lam[i] /= sum
 	}
 	g.lam = lam
-	tri := make([]float32, t1*t1*t1)
+	tri := padTri(t1)
 	for a := 0; a < t1; a++ {
 		for b := 0; b < t1; b++ {
 			ab := a*t1 + b

@@ -133,7 +133,7 @@ func (m *Model) Info() Info {
 		UPOSTags: len(uu), XPOSTags: len(ux), Words: len(m.words), Epochs: m.epochs, TrainingToken: m.refSize}
 	if m.perc != nil {
 		in.Features = len(m.perc.keys)
-		in.Weights = len(m.perc.rowW)
+		in.Weights = len(m.perc.cells)
 	}
 	in.LemmaExcepts, in.LemmaRules = m.lem.Size()
 	return in
@@ -251,7 +251,7 @@ func (m *Model) getLattice() *lattice {
 	if l, ok := m.pool.Get().(*lattice); ok {
 		return l
 	}
-	return &lattice{score: make([]float32, len(m.tags))}
+	return newLattice()
 }
 
 // decode builds the lattice of a sentence with the model's scores and runs

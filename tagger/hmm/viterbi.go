@@ -32,7 +32,22 @@ type lattice struct {
 	// tag) state that depends on the word: the perceptron's tag-word
 	// features. Unused when its length differs from delta's.
 	pair []float32
+	// views[i] is the view of token i (perceptron): a shared lexicon view
+	// or one from cache, the lattice's own views of words outside the
+	// lexicon, whose word-alone scores live in cacheAlone; rows is scratch.
+	views      []*wordView
+	cache      []cachedView
+	cacheAlone []float32
+	rows       []int32
+	perc       *perceptron // the model whose views these are
+	gen        uint64      // counts the sentences decoded, for the cache
+	aside      []wordView  // views of words whose cache slot was taken
+	asideAlone []float32
 }
+
+// newLattice returns an empty lattice; its score scratch has room for
+// every possible tag (maxTags), so scoring may index it by a byte.
+func newLattice() *lattice { return &lattice{score: make([]float32, maxTags+1)} }
 
 func (l *lattice) reset(n int) {
 	l.n = n
@@ -115,6 +130,7 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	size := l.layout()
 	l.delta = growF32(l.delta, size)
 	pairs := len(l.pair) == size
+	padded := cap(tr.tri) >= len(tr.tri)+256 // see fold
 	l.back = growI16(l.back, size)
 	for i := 0; i < n; i++ {
 		prev2, prev, cur := candAt(i-2), candAt(i-1), candAt(i)
@@ -132,8 +148,8 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 			pdelta = l.delta[pb : pb+len(prev2)*p1]
 		}
 		for j, b := range prev {
-			row := delta[j*p0 : j*p0+p0]
-			brow := back[j*p0 : j*p0+p0]
+			row := delta[j*p0 : j*p0+p0][:len(cur)]
+			brow := back[j*p0 : j*p0+p0][:len(cur)]
 			for h, a := range prev2 {
 				var d float32
 				if i > 0 {
@@ -151,7 +167,19 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 					}
 					continue
 				}
-				tri := tr.tri[(int(a)*t1+int(b))*t1:]
+				off := (int(a)*t1 + int(b)) * t1
+				if padded {
+					// A tag is a byte, so an array of 256 needs no bounds checks.
+					tri := (*[256]float32)(tr.tri[off : off+256])
+					for k, c := range cur {
+						if s := d + tri[c]; s > row[k] {
+							row[k] = s
+							brow[k] = int16(h)
+						}
+					}
+					continue
+				}
+				tri := tr.tri[off:]
 				for k, c := range cur {
 					if s := d + tri[c]; s > row[k] {
 						row[k] = s
@@ -248,7 +276,7 @@ func (l *lattice) layout() int {
 // that decoding reads one number per transition.
 func (tr *transitions) fold() transitions {
 	t1 := tr.t1
-	tri := make([]float32, t1*t1*t1)
+	tri := padTri(t1)
 	if tr.layers == nil {
 		copy(tri, tr.tri)
 	}
@@ -266,6 +294,11 @@ func (tr *transitions) fold() transitions {
 	}
 	return transitions{t1: t1, tri: tri}
 }
+
+// padTri allocates a trigram table with room for 256 more numbers past
+// its end, so that decode may view any row as an array of 256 (indexed by
+// a byte, without bounds checks).
+func padTri(t1 int) []float32 { return make([]float32, t1*t1*t1, t1*t1*t1+256) }
 
 func grow(s []uint8, n int) []uint8 {
 	if cap(s) < n {

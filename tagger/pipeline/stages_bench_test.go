@@ -61,7 +61,7 @@ func newStageFixture(b *testing.B) *stageFixture {
 func reportTokens(b *testing.B, tokens int, cpu0 time.Duration) {
 	n := float64(tokens) * float64(b.N)
 	b.ReportMetric(n/b.Elapsed().Seconds(), "tokens/s")
-	if cpu := cpuTime() - cpu0; cpu > 0 {
+	if cpu := benchcorpus.CPUTime() - cpu0; cpu > 0 {
 		b.ReportMetric(n/cpu.Seconds(), "tokens/cpu-s")
 	}
 	b.ReportMetric(0, "ns/op") // per-iteration time of a 2 MiB slice says little
@@ -81,7 +81,7 @@ func reportTokens(b *testing.B, tokens int, cpu0 time.Duration) {
 func BenchmarkStages(b *testing.B) {
 	f := newStageFixture(b)
 	b.Run("tokenize", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			for _, t := range f.texts {
 				d := &doc.Document{Text: t}
@@ -96,7 +96,7 @@ func BenchmarkStages(b *testing.B) {
 			fresh[i] = &doc.Document{Text: t}
 			tokenize.Document(fresh[i])
 		}
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			b.StopTimer()
 			for _, d := range fresh {
@@ -110,7 +110,7 @@ func BenchmarkStages(b *testing.B) {
 		reportTokens(b, f.tokens, cpu0)
 	})
 	b.Run("match", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			for _, d := range f.tagged {
 				for si := range d.Sentences {
@@ -122,7 +122,7 @@ func BenchmarkStages(b *testing.B) {
 	})
 	col := terms.NewCollector(f.m, terms.Options{Contexts: 3})
 	b.Run("collect", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			for _, d := range f.tagged {
 				col.Collect(d)
@@ -135,7 +135,7 @@ func BenchmarkStages(b *testing.B) {
 		counts[i] = col.Collect(d)
 	}
 	b.Run("merge", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			c := terms.NewCorpus(3)
 			for _, dc := range counts {
@@ -153,7 +153,7 @@ func BenchmarkStages(b *testing.B) {
 		for _, dc := range counts {
 			ref.Add(dc)
 		}
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			if _, err := terms.Rank(c.Terms(ref), terms.RankOptions{}); err != nil {
 				b.Fatal(err)
@@ -190,7 +190,7 @@ func BenchmarkPairStages(b *testing.B) {
 		return c
 	}
 	b.Run("pairs", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			for _, d := range f.tagged {
 				count(d)
@@ -203,7 +203,7 @@ func BenchmarkPairStages(b *testing.B) {
 		counters[i] = count(d)
 	}
 	b.Run("merge", func(b *testing.B) {
-		cpu0 := cpuTime()
+		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			total := colloc.NewCounter()
 			for _, c := range counters {
@@ -239,7 +239,7 @@ func BenchmarkTermsPipeline(b *testing.B) {
 		b.Run(fmt.Sprintf("workers=%d", workers), func(b *testing.B) {
 			col := terms.NewCollector(f.m, terms.Options{Contexts: 3})
 			var tokens int64
-			cpu0 := cpuTime()
+			cpu0 := benchcorpus.CPUTime()
 			for b.Loop() {
 				corpus := terms.NewCorpus(3)
 				st := pipeline.Run([]string{dir}, pipeline.Options{Tagger: f.model, Workers: workers},

@@ -1,0 +1,323 @@
+package hmm
+
+import (
+	"strings"
+	"sync/atomic"
+
+	"glossmith/tagger/doc"
+)
+
+// Scoring a token from its feature keys costs some twenty-five hash-table
+// look-ups, each a likely cache miss, and it dominated the time of a
+// whole `terms` run. Most of that work depends on a word form alone, not
+// on its sentence, and words recur: so the perceptron keeps a wordView per
+// word form — the summed weights of its word-alone features, the rows its
+// neighbours' context features will read and the rows of its "word after
+// tag" features. Views of lexicon words are built on first use and shared
+// by all goroutines (a view is a pure function of the form, so which
+// goroutine builds it does not matter); views of other words are kept in
+// a small cache per lattice. Scoring then reads one dense vector and about
+// a dozen rows per token, two of them found by hashing (the word bigrams).
+//
+// Every score is summed in exactly the order of the feature list of
+// extractFeatures, so the lattice is bit for bit the one the plain
+// look-up of every feature builds (TestViewsMatchPlainScoring).
+
+// Context templates whose value is a property of one neighbouring word,
+// indexes of wordView.ctx.
+const (
+	cPrev1 = iota
+	cNext1
+	cPrev2
+	cNext2
+	cPrevSuf3
+	cNextSuf3
+	cPrevShape
+	cNextShape
+	cNextPrefix1
+	nCtx
+)
+
+// wordView is what scoring needs to know of a word form before it sees the
+// sentence.
+type wordView struct {
+	lower uint64 // hash of the lower-cased form, for the bigram and pair keys
+	// alone is the summed weight per tag of the word-alone features, in
+	// feature order; nil for words the tag dictionary settles on its own.
+	alone []float32
+	// ctx[c] is the row (or -1) of context feature c when this word is the
+	// neighbour it describes: ctx[cPrev1] is read by the word after it.
+	ctx        [nCtx]int32
+	upperFirst bool
+	// pairs, when set, lists every previous tag that has a "word after
+	// tag" feature with this word, with the feature's row; without it the
+	// rows are looked up by key.
+	pairs    bool
+	pairPrev []uint8
+	pairRow  []int32
+}
+
+// viewBoundary holds the rows of the context features that see past the
+// sentence's edge, and of the capitalization features.
+type viewBoundary struct {
+	prev1, prev2, next1, next2 int32 // neighbour is the start/end marker
+	capFirst, capInside        int32
+}
+
+// fillView computes the view of a form. alone, when not nil, receives the
+// word-alone scores (len = number of tags); keys and buf are scratch
+// space, returned for reuse.
+func (p *perceptron) fillView(v *wordView, form string, alone []float32, keys []uint64, buf []byte) ([]uint64, []byte) {
+	var ti tokenInfo
+	buf = ti.fill(buf, form)
+	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti)
+	v.lower = ti.lower
+	v.ctx = [nCtx]int32{
+		cPrev1: p.row(key(fPrev1, ti.lower)), cNext1: p.row(key(fNext1, ti.lower)),
+		cPrev2: p.row(key(fPrev2, ti.lower)), cNext2: p.row(key(fNext2, ti.lower)),
+		cPrevSuf3: p.row(key(fPrevSuf3, ti.suf3)), cNextSuf3: p.row(key(fNextSuf3, ti.suf3)),
+		cPrevShape: p.row(key(fPrevShape, ti.shape)), cNextShape: p.row(key(fNextShape, ti.shape)),
+		cNextPrefix1: p.row(key(fNextPrefix1, ti.pre1)),
+	}
+	v.alone = alone
+	if alone != nil {
+		var acc [256]float32
+		for _, k := range keys {
+			p.addRow(&acc, p.row(k))
+		}
+		copy(alone, acc[:])
+	}
+	return keys, buf
+}
+
+// denseMin is the length from which a row is also kept as a dense vector
+// over all tags. Such rows (the features of frequent neighbours, of
+// common suffixes) are few but make most of the weights a token reads, and
+// a dense row answers "weight of tag t" in one step.
+const denseMin = 16
+
+// prepareDense builds the dense copies of the long rows.
+func (p *perceptron) prepareDense() {
+	p.dense = make([]int32, len(p.rowStart)-1)
+	var store []float32
+	for r := range p.dense {
+		a, b := p.rowStart[r], p.rowStart[r+1]
+		if b-a < denseMin {
+			p.dense[r] = -1
+			continue
+		}
+		off := len(store)
+		p.dense[r] = int32(off)
+		store = append(store, make([]float32, p.nt)...)
+		for _, c := range p.cells[a:b] {
+			store[off+int(c.t)] = c.w
+		}
+	}
+	p.denseW = append(store, make([]float32, 256)...) // room to view the last row as [256]
+}
+
+// weightOf is weight for rows that may be dense.
+func (p *perceptron) weightOf(r int32, t uint8) float32 {
+	if r < 0 {
+		return 0
+	}
+	if d := p.dense[r]; d >= 0 {
+		return p.denseW[int(d)+int(t)]
+	}
+	return p.weight(r, t)
+}
+
+// rowAt sets out[k] to the weight of row r for tag tags[k].
+func (p *perceptron) rowAt(out []float32, r int32, tags []uint8) {
+	out = out[:len(tags)]
+	switch {
+	case r < 0:
+		clear(out)
+	case p.dense[r] >= 0:
+		d := (*[256]float32)(p.denseW[p.dense[r]:][:256])
+		for k, t := range tags {
+			out[k] = d[t]
+		}
+	default:
+		for k, t := range tags {
+			out[k] = p.weight(r, t)
+		}
+	}
+}
+
+// addRow adds the weights of row r (none when r < 0) to score.
+func (p *perceptron) addRow(score *[256]float32, r int32) {
+	if r < 0 {
+		return
+	}
+	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
+		score[c.t] += c.w
+	}
+}
+
+// prepareViews readies the lazily built lexicon views and the boundary
+// rows.
+func (p *perceptron) prepareViews(m *Model) {
+	p.nt = len(m.tags)
+	p.prepareDense()
+	p.views = make([]atomic.Pointer[wordView], len(m.words))
+	p.edge = viewBoundary{
+		prev1: p.row(key(fPrev1, hStart)), prev2: p.row(key(fPrev2, hStart)),
+		next1: p.row(key(fNext1, hEnd)), next2: p.row(key(fNext2, hEnd)),
+		capFirst: p.row(key(fCapFirst, 0)), capInside: p.row(key(fCapInside, 0)),
+	}
+}
+
+// lexView returns the view of lexicon word w (of form form), building it
+// on first use. Words the tag dictionary settles on its own get no
+// word-alone scores; every lexicon word gets its pair list, as lexicon
+// words are the ones that recur.
+func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordView {
+	if v := p.views[w].Load(); v != nil {
+		return v
+	}
+	v := &wordView{}
+	var alone []float32
+	if m.words[w].count < p.dictMin || p.dict[w].n > 1 {
+		alone = make([]float32, p.nt)
+	}
+	l.feats, l.buf = p.fillView(v, form, alone, l.feats, l.buf)
+	for b := 0; b <= p.nt; b++ {
+		if r := p.row(pairKey(v.lower, uint8(b))); r >= 0 {
+			v.pairPrev = append(v.pairPrev, uint8(b))
+			v.pairRow = append(v.pairRow, r)
+		}
+	}
+	v.pairs = true
+	if !p.views[w].CompareAndSwap(nil, v) {
+		v = p.views[w].Load()
+	}
+	return v
+}
+
+// unknownCacheSize is the number of views of words outside the lexicon a
+// lattice keeps (direct-mapped by hash: a newcomer replaces whatever sat
+// in its slot). Domain words recur within a document and a corpus, so
+// even a small cache spares most of their feature look-ups.
+const unknownCacheSize = 2048
+
+// cachedView is one slot of a lattice's cache of unknown-word views.
+type cachedView struct {
+	form string // "" for an empty slot
+	gen  uint64 // the sentence (lattice generation) that last used it
+	view wordView
+}
+
+// unknownView returns the view of a word outside the lexicon from the
+// lattice's cache, building it when absent.
+func (p *perceptron) unknownView(l *lattice, form string) *wordView {
+	if l.cache == nil {
+		l.cache = make([]cachedView, unknownCacheSize)
+		l.cacheAlone = make([]float32, unknownCacheSize*p.nt)
+	}
+	slot := hashString(form) & (unknownCacheSize - 1)
+	c := &l.cache[slot]
+	if c.form == form && form != "" {
+		c.gen = l.gen
+		return &c.view
+	}
+	if c.gen == l.gen && c.form != "" {
+		// Another word of this sentence holds the slot: build this one
+		// aside rather than pull the view from under that word.
+		// (l.aside has room for every token, so it never moves.)
+		k := len(l.aside)
+		l.aside = append(l.aside, wordView{})
+		alone := l.asideAlone[k*p.nt : (k+1)*p.nt : (k+1)*p.nt]
+		l.feats, l.buf = p.fillView(&l.aside[k], form, alone, l.feats, l.buf)
+		return &l.aside[k]
+	}
+	c.gen = l.gen
+	alone := l.cacheAlone[int(slot)*p.nt : int(slot+1)*p.nt : int(slot+1)*p.nt]
+	// A clone, so that the cache does not keep a whole document's text alive.
+	c.form = strings.Clone(form)
+	l.feats, l.buf = p.fillView(&c.view, form, alone, l.feats, l.buf)
+	return &c.view
+}
+
+// viewsOf points l.views at the view of every token and records the
+// lexicon index of each token in l.wid.
+func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
+	l.perc = p
+	n := len(toks)
+	if cap(l.views) < n {
+		l.views = make([]*wordView, n, 2*n)
+		l.aside = make([]wordView, 0, 2*n)
+		l.asideAlone = make([]float32, 2*n*p.nt)
+	}
+	l.views = l.views[:n]
+	l.wid = l.wid[:0]
+	l.gen++
+	l.aside = l.aside[:0]
+	for i := range toks {
+		form := toks[i].Form
+		if w, ok := m.lex[form]; ok {
+			l.wid = append(l.wid, w)
+			l.views[i] = p.lexView(m, l, w, form)
+			continue
+		}
+		l.wid = append(l.wid, -1)
+		l.views[i] = p.unknownView(l, form)
+	}
+}
+
+// pairRowOf is fillPairs' row function for the lattice's views; the
+// lattice keeps it as a method value so that no closure is made per
+// sentence.
+func (l *lattice) pairRowOf(i int, b uint8) int32 { return l.perc.pairRow(l.views[i], b) }
+
+// pairRow returns the row of the feature "word of v after tag b", or -1.
+func (p *perceptron) pairRow(v *wordView, b uint8) int32 {
+	if !v.pairs {
+		return p.row(pairKey(v.lower, b))
+	}
+	for j, x := range v.pairPrev {
+		if x == b {
+			return v.pairRow[j]
+		}
+	}
+	return -1
+}
+
+// contextRows appends the rows of the context features of token i, in
+// the order of extractFeatures.
+func (p *perceptron) contextRows(rows []int32, vs []*wordView, i int) []int32 {
+	n := len(vs)
+	v := vs[i]
+	if v.upperFirst {
+		if i == 0 {
+			rows = append(rows, p.edge.capFirst)
+		} else {
+			rows = append(rows, p.edge.capInside)
+		}
+	}
+	p1, n1 := hStart, hEnd
+	prev1, next1, prev2, next2 := p.edge.prev1, p.edge.next1, p.edge.prev2, p.edge.next2
+	if i > 0 {
+		p1, prev1 = vs[i-1].lower, vs[i-1].ctx[cPrev1]
+	}
+	if i+1 < n {
+		n1, next1 = vs[i+1].lower, vs[i+1].ctx[cNext1]
+	}
+	if i > 1 {
+		prev2 = vs[i-2].ctx[cPrev2]
+	}
+	if i+2 < n {
+		next2 = vs[i+2].ctx[cNext2]
+	}
+	rows = append(rows, prev1, next1, prev2, next2,
+		p.row(key2(fPrevWord, p1, v.lower)), p.row(key2(fWordNext, v.lower, n1)))
+	if i > 0 {
+		w := vs[i-1]
+		rows = append(rows, w.ctx[cPrevSuf3], w.ctx[cPrevShape])
+	}
+	if i+1 < n {
+		w := vs[i+1]
+		rows = append(rows, w.ctx[cNextSuf3], w.ctx[cNextShape], w.ctx[cNextPrefix1])
+	}
+	return rows
+}

@@ -1,0 +1,185 @@
+package hmm
+
+import (
+	"math/rand/v2"
+	"sync"
+	"testing"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/model"
+)
+
+// buildLatticeRef is the straightforward scoring of every token from its
+// feature keys, as the decoder did before the per-word views: the test
+// below holds the fast path to exactly the same lattice.
+//
+// It scores the tags of every token and keeps the candidates:
+// the tag dictionary's tags for frequent words (one tag needs no scoring
+// at all), the best maxCands tags for the others.
+func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
+	l.reset(len(toks))
+	// Look the words up first: a dictionary word with one tag needs no
+	// features at all.
+	l.need = l.need[:0]
+	for i := range toks {
+		e, ok := m.lookup(l, toks[i].Form)
+		l.need = append(l.need, !ok || e.count < p.dictMin || p.dict[l.wid[i]].n > 1)
+	}
+	l.info = extractFeatures(m, l, toks, l.info)
+	l.need = l.need[:0]
+	nt := len(m.tags)
+	score := l.score[:nt]
+	for i := range toks {
+		var e *wordEntry
+		if w := l.wid[i]; w >= 0 {
+			e = &m.words[w]
+		}
+		dict := e != nil && e.count >= p.dictMin
+		if dict && p.dict[l.wid[i]].n == 1 {
+			l.add(p.dictTags(l.wid[i])[0], 0)
+			l.closePos()
+			continue
+		}
+		clear(score)
+		from := l.foff[i]
+		if dict {
+			from = l.fmid[i] // the word-alone part is in wscore
+		}
+		for _, k := range l.feats[from:l.foff[i+1]] {
+			r := p.row(k)
+			if r < 0 {
+				continue
+			}
+			for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
+				score[c.t] += c.w
+			}
+		}
+		if dict {
+			for _, t := range p.dictTags(l.wid[i]) {
+				var alone float32 // what the old load-time table held
+				for _, k := range l.feats[l.foff[i]:l.fmid[i]] {
+					alone += p.weight(p.row(k), t)
+				}
+				l.add(t, score[t]+alone)
+			}
+			l.closePos()
+			continue
+		}
+		selectCands(l, score, p.maxCands)
+	}
+	// "Word after tag" rows by key, from the hashes of every token.
+	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) })
+}
+
+// TestViewsMatchPlainScoring holds the decoder's fast scoring (views.go) to
+// the plain one above: on every sentence of UD English EWT dev the two
+// lattices — candidates, emission and pair scores — must be identical, bit
+// for bit, and so must the tags.
+func TestViewsMatchPlainScoring(t *testing.T) {
+	_, dev, _ := ewt(t)
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := m.perc
+	fast, plain := newLattice(), newLattice()
+	toks := 0
+	for _, s := range dev {
+		p.buildLattice(m, fast, s.Tokens)
+		p.buildLatticeRef(m, plain, s.Tokens)
+		toks += len(s.Tokens)
+		if !equalSlices(fast.cands, plain.cands) || !equalSlices(fast.off, plain.off) ||
+			!equalSlices(fast.emit, plain.emit) || !equalSlices(fast.pair, plain.pair) {
+			t.Fatalf("sentence %s: lattices differ\nfast  %v %v\nplain %v %v", s.ID, fast.cands, fast.emit, plain.cands, plain.emit)
+		}
+		fast.decode(&m.trans, m.beam)
+		plain.decode(&m.trans, m.beam)
+		if !equalSlices(fast.tags, plain.tags) {
+			t.Fatalf("sentence %s: tags differ", s.ID)
+		}
+	}
+	if toks < 20000 {
+		t.Fatalf("only %d tokens compared", toks)
+	}
+}
+
+func equalSlices[E comparable](a, b []E) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
+}
+
+// TestSelectCandsAgrees holds the stack-based selection to the plain
+// insertion it replaced, on random scores with many ties.
+func TestSelectCandsAgrees(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	a, b := newLattice(), newLattice()
+	score := make([]float32, 102)
+	for round := 0; round < 2000; round++ {
+		for i := range score {
+			score[i] = float32(rng.IntN(20) - 10) // small range: ties are common
+		}
+		k := 1 + rng.IntN(maxFastCands)
+		a.reset(1)
+		b.reset(1)
+		selectCands(a, score, k)
+		selectCandsLong(b, score, k)
+		if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
+			t.Fatalf("k=%d: %v %v, want %v %v", k, a.cands, a.emit, b.cands, b.emit)
+		}
+	}
+}
+
+// TestConcurrentTaggingBuildsViewsSafely tags the same sentences from
+// several goroutines on a freshly decoded model, whose lexicon views are
+// all still unbuilt, and requires every goroutine to agree with a plain
+// sequential run. Run it with -race: the views are built lazily and shared.
+func TestConcurrentTaggingBuildsViewsSafely(t *testing.T) {
+	_, dev, _ := ewt(t)
+	dev = dev[:min(len(dev), 600)]
+	fresh := func() *Model {
+		m, err := Decode(model.EnglishEWT)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return m
+	}
+	tagAll := func(m *Model) []string {
+		var out []string
+		for _, g := range dev {
+			var s doc.Sentence
+			for _, tok := range g.Tokens {
+				s.Tokens = append(s.Tokens, doc.Token{Form: tok.Form})
+			}
+			m.Tag(&s)
+			for _, tok := range s.Tokens {
+				out = append(out, tok.XPOS+"/"+tok.UPOS+"/"+tok.Lemma)
+			}
+		}
+		return out
+	}
+	want := tagAll(fresh())
+	m := fresh()
+	const workers = 4
+	got := make([][]string, workers)
+	var wg sync.WaitGroup
+	for w := range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			got[w] = tagAll(m)
+		}()
+	}
+	wg.Wait()
+	for w := range workers {
+		if !equalSlices(got[w], want) {
+			t.Fatalf("goroutine %d tagged differently from a sequential run", w)
+		}
+	}
+}
