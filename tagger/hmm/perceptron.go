@@ -86,7 +86,12 @@ func (p *perceptron) prepareDict(m *Model) {
 func (p *perceptron) prepare(m *Model) {
 	p.index()
 	p.prepareDict(m)
-	m.trans = (&transitions{t1: len(m.tags) + 1, layers: p.layers}).fold()
+	freq := make([]int64, len(m.tags)+1)
+	freq[len(m.tags)] = math.MaxInt64 // the boundary
+	for j, t := range m.wtags {
+		freq[t] += int64(m.wcount[j])
+	}
+	m.trans = (&transitions{t1: len(m.tags) + 1, layers: p.layers}).fold(frequencyRank(freq))
 	p.prepareViews(m)
 }
 

@@ -1,6 +1,7 @@
 package hmm
 
 import (
+	"math/bits"
 	"strings"
 	"sync/atomic"
 
@@ -49,12 +50,12 @@ type wordView struct {
 	// neighbour it describes: ctx[cPrev1] is read by the word after it.
 	ctx        [nCtx]int32
 	upperFirst bool
-	// pairs, when set, lists every previous tag that has a "word after
-	// tag" feature with this word, with the feature's row; without it the
-	// rows are looked up by key.
-	pairs    bool
-	pairPrev []uint8
-	pairRow  []int32
+	// pairs, when set, marks in pairSet every previous tag that has a
+	// "word after tag" feature with this word; pairRow holds their rows in
+	// the order of the tags. Without it the rows are looked up by key.
+	pairs   bool
+	pairSet [4]uint64
+	pairRow []int32
 }
 
 // viewBoundary holds the rows of the context features that see past the
@@ -184,7 +185,7 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 	l.feats, l.buf = p.fillView(v, form, alone, l.feats, l.buf)
 	for b := 0; b <= p.nt; b++ {
 		if r := p.row(pairKey(v.lower, uint8(b))); r >= 0 {
-			v.pairPrev = append(v.pairPrev, uint8(b))
+			v.pairSet[b>>6] |= 1 << (b & 63)
 			v.pairRow = append(v.pairRow, r)
 		}
 	}
@@ -275,12 +276,16 @@ func (p *perceptron) pairRow(v *wordView, b uint8) int32 {
 	if !v.pairs {
 		return p.row(pairKey(v.lower, b))
 	}
-	for j, x := range v.pairPrev {
-		if x == b {
-			return v.pairRow[j]
-		}
+	w, bit := b>>6, uint64(1)<<(b&63)
+	if v.pairSet[w]&bit == 0 {
+		return -1
 	}
-	return -1
+	// The row's index is the number of marked tags below b.
+	k := bits.OnesCount64(v.pairSet[w] & (bit - 1))
+	for x := range w {
+		k += bits.OnesCount64(v.pairSet[x])
+	}
+	return v.pairRow[k]
 }
 
 // contextRows appends the rows of the context features of token i, in

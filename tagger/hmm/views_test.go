@@ -183,3 +183,28 @@ func TestConcurrentTaggingBuildsViewsSafely(t *testing.T) {
 		}
 	}
 }
+
+// TestRankedTransitionsDecodeAlike holds the trigram table indexed by tag
+// frequency rank to the one indexed by tag: on EWT dev both must give the
+// same best path for every sentence.
+func TestRankedTransitionsDecodeAlike(t *testing.T) {
+	_, dev, _ := ewt(t)
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if m.trans.rank == nil {
+		t.Fatal("the default model's transitions are not ranked")
+	}
+	plain := (&transitions{t1: m.trans.t1, layers: m.perc.layers}).fold(nil)
+	l := newLattice()
+	for _, s := range dev {
+		m.perc.buildLattice(m, l, s.Tokens)
+		l.decode(&m.trans, m.beam)
+		ranked := append([]uint8(nil), l.tags...)
+		l.decode(&plain, m.beam)
+		if !equalSlices(ranked, l.tags) {
+			t.Fatalf("sentence %s: %v with ranks, %v without", s.ID, ranked, l.tags)
+		}
+	}
+}

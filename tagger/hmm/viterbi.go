@@ -1,6 +1,9 @@
 package hmm
 
-import "math"
+import (
+	"math"
+	"sort"
+)
 
 // lattice holds one sentence's decoding problem and the scratch space of
 // the second-order Viterbi search. Both the generative and the perceptron
@@ -40,6 +43,7 @@ type lattice struct {
 	cacheAlone []float32
 	rows       []int32
 	perc       *perceptron // the model whose views these are
+	rcand      []uint8     // rank of each candidate (see fold)
 	gen        uint64      // counts the sentences decoded, for the cache
 	aside      []wordView  // views of words whose cache slot was taken
 	asideAlone []float32
@@ -79,6 +83,7 @@ var negInf = float32(math.Inf(-1))
 type transitions struct {
 	t1     int
 	tri    []float32
+	rank   *[256]uint8 // nil, or the index of each tag in tri (see fold)
 	bi     []float32
 	layers []transLayer
 }
@@ -131,11 +136,20 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	l.delta = growF32(l.delta, size)
 	pairs := len(l.pair) == size
 	padded := cap(tr.tri) >= len(tr.tri)+256 // see fold
+	rank := tr.rank
+	if rank == nil {
+		rank = &identityRank
+	}
+	l.rcand = grow(l.rcand, len(l.cands))
+	for i, c := range l.cands {
+		l.rcand[i] = rank[c]
+	}
 	l.back = growI16(l.back, size)
 	for i := 0; i < n; i++ {
 		prev2, prev, cur := candAt(i-2), candAt(i-1), candAt(i)
 		p1, p0 := len(prev), len(cur)
 		emit := l.emit[l.off[i]:l.off[i+1]]
+		rcur := l.rcand[l.off[i]:l.off[i+1]]
 		base := int(l.doff[i])
 		delta := l.delta[base : base+p1*p0]
 		back := l.back[base : base+p1*p0]
@@ -167,11 +181,11 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 					}
 					continue
 				}
-				off := (int(a)*t1 + int(b)) * t1
 				if padded {
 					// A tag is a byte, so an array of 256 needs no bounds checks.
+					off := (int(rank[a])*t1 + int(rank[b])) * t1
 					tri := (*[256]float32)(tr.tri[off : off+256])
-					for k, c := range cur {
+					for k, c := range rcur {
 						if s := d + tri[c]; s > row[k] {
 							row[k] = s
 							brow[k] = int16(h)
@@ -179,7 +193,7 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 					}
 					continue
 				}
-				tri := tr.tri[off:]
+				tri := tr.tri[(int(a)*t1+int(b))*t1:]
 				for k, c := range cur {
 					if s := d + tri[c]; s > row[k] {
 						row[k] = s
@@ -232,7 +246,7 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 			if tr.layers != nil {
 				s = d + tr.t3(b, c, uint8(bound)) + tr.t2(c, uint8(bound))
 			} else {
-				s = d + tr.tri[(int(b)*t1+int(c))*t1+bound]
+				s = d + tr.tri[(int(rank[b])*t1+int(rank[c]))*t1+int(rank[bound])]
 				if tr.bi != nil {
 					s += tr.bi[int(c)*t1+bound]
 				}
@@ -273,26 +287,60 @@ func (l *lattice) layout() int {
 }
 
 // fold sums the layers (or the bigram table) into one trigram table, so
-// that decoding reads one number per transition.
-func (tr *transitions) fold() transitions {
+// that decoding reads one number per transition. When rank is not nil
+// the table is indexed by the ranks of the tags rather than the tags
+// (see frequencyRank).
+func (tr *transitions) fold(rank *[256]uint8) transitions {
 	t1 := tr.t1
 	tri := padTri(t1)
-	if tr.layers == nil {
-		copy(tri, tr.tri)
+	r := rank
+	if r == nil {
+		r = &identityRank
 	}
 	for a := 0; a < t1; a++ {
 		for b := 0; b < t1; b++ {
 			for c := 0; c < t1; c++ {
 				i := (a*t1+b)*t1 + c
+				var v float32
 				if tr.layers != nil {
-					tri[i] = tr.t3(uint8(a), uint8(b), uint8(c)) + tr.t2(uint8(b), uint8(c))
-				} else if tr.bi != nil {
-					tri[i] += tr.bi[b*t1+c]
+					v = tr.t3(uint8(a), uint8(b), uint8(c)) + tr.t2(uint8(b), uint8(c))
+				} else {
+					v = tr.tri[i]
+					if tr.bi != nil {
+						v += tr.bi[b*t1+c]
+					}
 				}
+				tri[(int(r[a])*t1+int(r[b]))*t1+int(r[c])] = v
 			}
 		}
 	}
-	return transitions{t1: t1, tri: tri}
+	return transitions{t1: t1, tri: tri, rank: rank}
+}
+
+// identityRank maps every tag to itself.
+var identityRank = func() (r [256]uint8) {
+	for i := range r {
+		r[i] = uint8(i)
+	}
+	return r
+}()
+
+// frequencyRank numbers the tags (and the boundary, index t1-1, which is
+// in every sentence) from the most frequent down. A trigram table indexed
+// by ranks keeps the transitions among frequent tags — nearly all that
+// decoding reads — in a small corner of the table, which stays in cache;
+// indexed by tag it spreads them over all of its 4 MB.
+func frequencyRank(freq []int64) *[256]uint8 {
+	order := make([]int, len(freq))
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(x, y int) bool { return freq[order[x]] > freq[order[y]] })
+	rank := identityRank
+	for r, t := range order {
+		rank[t] = uint8(r)
+	}
+	return &rank
 }
 
 // padTri allocates a trigram table with room for 256 more numbers past
