@@ -33,20 +33,47 @@ func (m *Matcher) FindNested(tokens []doc.Token) []Match {
 	return m.find(tokens, true)
 }
 
+// AppendNested appends the matches FindNested returns to dst and returns
+// the extended slice. A caller that passes the same slice back, emptied,
+// for every sentence allocates nothing for results.
+func (m *Matcher) AppendNested(dst []Match, tokens []doc.Token) []Match {
+	if len(tokens) == 0 {
+		return dst
+	}
+	sc := m.pool.Get().(*scratch)
+	defer m.pool.Put(sc)
+	return m.match(sc, tokens, true, dst)
+}
+
 func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 	if len(tokens) == 0 {
 		return nil
 	}
 	sc := m.pool.Get().(*scratch)
 	defer m.pool.Put(sc)
-	sc.prepareSentence(tokens)
 	// Matches are written straight into the free part of the result slab;
 	// if a sentence has more than fit, append moves them to an array of
 	// their own.
 	if len(sc.slab) < slabSize/8 {
 		sc.slab = make([]Match, slabSize)
 	}
-	buf := sc.slab[:0]
+	buf := m.match(sc, tokens, nested, sc.slab[:0])
+	if len(buf) == 0 {
+		return nil
+	}
+	out := buf[:len(buf):len(buf)] // capped: a caller's append cannot reach the next result
+	if &buf[0] == &sc.slab[0] {
+		sc.slab = sc.slab[len(buf):]
+	} else {
+		clear(sc.slab[:min(len(buf), len(sc.slab))]) // drop what append copied away
+	}
+	return out
+}
+
+// match appends the matches of one sentence to buf, in the order find
+// promises.
+func (m *Matcher) match(sc *scratch, tokens []doc.Token, nested bool, buf []Match) []Match {
+	sc.prepareSentence(tokens)
 	present := sc.present()
 	for gi, g := range m.groups {
 		var possible uint64
@@ -64,19 +91,11 @@ func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 			sc.sweep(g, sc.groups[gi], len(tokens))
 		}
 	}
+	start := len(buf)
 	buf = sc.matchAll(tokens, nested, buf)
-	if len(buf) == 0 {
-		return nil
-	}
-	out := buf[:len(buf):len(buf)] // capped: a caller's append cannot reach the next result
-	if &buf[0] == &sc.slab[0] {
-		sc.slab = sc.slab[len(buf):]
-	} else {
-		clear(sc.slab[:min(len(buf), len(sc.slab))]) // drop what append copied away
-	}
 	// FindAll's matches come out sorted. FindNested's come out by start and
 	// rule; a stable sort by start and end puts them in order.
-	if nested && len(m.progs) > 1 {
+	if out := buf[start:]; nested && len(m.progs) > 1 {
 		if len(out) > 32 {
 			slices.SortStableFunc(out, func(x, y Match) int {
 				if x.Start != y.Start {
@@ -92,7 +111,7 @@ func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 			}
 		}
 	}
-	return out
+	return buf
 }
 
 // slabSize is the number of matches allocated at once for results: the

@@ -37,7 +37,7 @@ type budget struct {
 	over   int64 // bytes the estimate may pass limit by before pruning again
 	est    int64 // estimated bytes of the tables
 	seen   int   // len(Corpus.order) when est was last brought up to date
-	words  int   // len(Corpus.words.Words) likewise
+	words  int   // len(Corpus.words.index) likewise
 	pruned Pruned
 }
 
@@ -77,9 +77,9 @@ func (c *Corpus) checkBudget(dc *DocCounts) {
 		b.est += c.groups[k].bytes(nil)
 	}
 	b.seen = len(c.order)
-	b.est += int64(len(dc.order)) * docFreqBytes
-	b.est += int64(len(c.words.Words)-b.words) * (wordBytes + newWordBytes)
-	b.words = len(c.words.Words)
+	b.est += int64(len(dc.cands)) * docFreqBytes
+	b.est += int64(len(c.words.index)-b.words) * (wordBytes + newWordBytes)
+	b.words = len(c.words.index)
 	if b.est <= b.limit+b.over {
 		return
 	}
@@ -109,19 +109,17 @@ func (g *group) bytes(texts map[uintptr]int) int64 {
 	}
 	for _, v := range g.canon {
 		n += canonicalBytes + int64(len(v.text))
-		for _, w := range v.words {
+		for _, w := range v.words() {
 			n += 16 + int64(len(w))
 		}
 	}
-	for _, cxs := range [2][]Context{g.contexts, g.spare} {
-		for _, cx := range cxs {
-			n += contextBytes
-			switch {
-			case texts == nil:
-				n += int64(len(cx.Text))
-			case len(cx.Text) > 0:
-				texts[uintptr(unsafe.Pointer(unsafe.StringData(cx.Text)))] = len(cx.Text)
-			}
+	for _, cx := range g.contexts {
+		n += contextBytes
+		switch {
+		case texts == nil:
+			n += int64(len(cx.text))
+		case len(cx.text) > 0:
+			texts[uintptr(unsafe.Pointer(unsafe.StringData(cx.text)))] = len(cx.text)
 		}
 	}
 	return n
@@ -144,7 +142,7 @@ func (c *Corpus) tableBytes() int64 {
 // document list.
 func (c *Corpus) fixedBytes() int64 {
 	var n int64
-	for w := range c.words.Words {
+	for w := range c.words.index {
 		n += wordBytes + int64(len(w))
 	}
 	return n + int64(len(c.docs))*(16+8)

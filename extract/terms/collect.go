@@ -8,9 +8,9 @@
 package terms
 
 import (
-	"strings"
-	"unicode"
-	"unicode/utf8"
+	"slices"
+	"sync"
+	"unsafe"
 
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -45,43 +45,72 @@ type Context struct {
 	Text string `json:"text"`
 }
 
-// occurrence counts of one candidate group in one document.
-//
-// A candidate rarely has more than one or two spellings within a document,
-// so they are kept in short slices searched linearly: four maps per
-// candidate and document made counting the slowest step of the pipeline.
-type docCand struct {
-	freq     int
-	variants []spelling  // surface forms as written, with counts
-	canon    []canonical // canonical spellings, with counts
-	contexts []Context
-	lastSent int // sentence index of the last context taken
-}
-
-// spelling is a string with its count.
-type spelling struct {
-	text string
-	n    int
-}
-
-// canonical is a canonical spelling with its count, words and UPOS tags.
-type canonical struct {
-	spelling
-	words []string
-	pos   string
-	keys  []string // content words' lemma keys, for domain specificity
-}
-
-// DocCounts are what one document contributes.
+// DocCounts are what one document contributes: its word counts and its
+// candidates' counts, kept compact for Corpus.Add. Their strings are slices
+// of the document's text or of one arena (see arena), not copies each of
+// its own: the corpus copies the few it keeps.
 type DocCounts struct {
 	Name   string
 	Tokens int
-	// Words counts every word token by its lower-cased lemma, for domain
-	// specificity against a reference corpus.
-	Words map[string]int
-	cands map[string]*docCand
-	order []string // group keys in order of first occurrence
+	words  []wordCount    // by key (see WordKey), in order of first occurrence
+	cands  []docCand      // candidate groups in order of first occurrence
+	spells []docSpelling  // the groups' spellings, chained per group
+	canons []docCanonical // the groups' canonical forms, chained per group
+	ends   []int32        // ends of canonical words and keys (see docCanonical)
+	// contexts are the sentences offered as contexts, each once (doc unset).
+	contexts []ctxRef
+	arena    arena // text made up here (keys, lower-cased words, folded spans)
 }
+
+// wordCount is how often a word key occurs in a document.
+type wordCount struct {
+	word string
+	n    int
+}
+
+// docCand counts one candidate group in one document.
+//
+// A candidate rarely has more than one or two spellings or canonical forms
+// within a document, so they are chains through DocCounts.spells and
+// DocCounts.canons searched linearly, with the chains of every group in
+// one slice: a map or a slice of their own per candidate and document made
+// counting the slowest step of the pipeline.
+type docCand struct {
+	key      string // group key: lower-cased, hyphens and spaces removed
+	freq     int32
+	spells   int32 // first spelling in DocCounts.spells, -1 for none
+	canons   int32 // first canonical form in DocCounts.canons, -1 for none
+	nctx     int32
+	ctx      [maxDocContexts]int32 // contexts offered, in DocCounts.contexts
+	lastSent int32                 // Sentence.Index of the last context taken
+}
+
+// docSpelling is a surface form as written, white space folded.
+type docSpelling struct {
+	text string
+	n    int32
+	next int32 // next in the group's chain, -1 at its end
+}
+
+// docCanonical is a canonical spelling (head lemmatized, case folded) with
+// what the corpus needs of it when it is new there, worked out at its
+// first occurrence in the document.
+type docCanonical struct {
+	// all holds the spelling, its first textLen bytes, and then the lemma
+	// keys of its words (see WordKey), for domain specificity. DocCounts.ends
+	// from ends on has the end in all of each of its nw words and nk keys.
+	all           string
+	pos           string // UPOS tags of the words, space-separated
+	n             int32
+	next          int32 // next in the group's chain, -1 at its end
+	textLen, ends int32
+	nw, nk        int32
+}
+
+func (v *docCanonical) text() string { return v.all[:v.textLen] }
+
+// maxDocContexts bounds the contexts one document offers a candidate.
+const maxDocContexts = 3
 
 // Collector finds candidates with a matcher (normally the stock "terms"
 // rules run in nested mode, so that sub-phrases are candidates too).
@@ -98,327 +127,354 @@ func NewCollector(m *pattern.Matcher, opt Options) *Collector {
 	return &Collector{m: m, opt: opt}
 }
 
+// scratch is the working memory of one Collect call, reused from call to
+// call so that counting a document allocates little beyond its result.
+type scratch struct {
+	wordIndex  map[string]int32 // word key → index in DocCounts.words
+	groupIndex map[string]int32 // group key → index in DocCounts.cands
+	doc        *doc.Document    // the document being counted
+	toks       []doc.Token      // the sentence being counted
+	recent     wordCache        // words of the document by string address
+	isWord     []bool           // per token of the current sentence
+	wordAt     []int32          // per word token of the sentence: its index in DocCounts.words
+	context    []int32          // per sentence: 1 + its index in DocCounts.contexts, 0 if none
+	matches    []pattern.Match  // the nested matches of the sentence
+	cw         canonWriter
+	buf        []byte   // a lower-cased word key, a folded span
+	keyBuf     []byte   // a canonical spelling and its keys
+	tagBuf     []byte   // the tags of a canonical spelling
+	tags       tagCache // tag strings made
+
+	// The tables of DocCounts grow here and are copied out at their final
+	// size: one allocation each per document.
+	words    []wordCount
+	cands    []docCand
+	spells   []docSpelling
+	canons   []docCanonical
+	ends     []int32
+	contexts []ctxRef
+}
+
+var scratchPool = sync.Pool{New: func() any {
+	return &scratch{wordIndex: map[string]int32{}, groupIndex: map[string]int32{}}
+}}
+
+// newCounts returns the counts of d to fill, growing in sc's tables.
+func (sc *scratch) newCounts(d *doc.Document) *DocCounts {
+	return &DocCounts{Name: d.Name, words: sc.words[:0], cands: sc.cands[:0], spells: sc.spells[:0],
+		canons: sc.canons[:0], ends: sc.ends[:0], contexts: sc.contexts[:0]}
+}
+
+// settle gives dc tables of its own, at their final size, and keeps the
+// grown ones for the next document.
+func (sc *scratch) settle(dc *DocCounts) {
+	sc.words, dc.words = settle(dc.words)
+	sc.cands, dc.cands = settle(dc.cands)
+	sc.spells, dc.spells = settle(dc.spells)
+	sc.canons, dc.canons = settle(dc.canons)
+	sc.ends, dc.ends = settle(dc.ends)
+	sc.contexts, dc.contexts = settle(dc.contexts)
+}
+
+// settle returns s emptied for reuse and a copy of s.
+func settle[T any](s []T) (reuse, own []T) {
+	if len(s) > 0 {
+		own = slices.Clone(s)
+		clear(s) // drop the strings: they point into the document
+	}
+	return s[:0], own
+}
+
+// maxScratchMap is the size beyond which a scratch map is dropped rather
+// than cleared: clearing costs in proportion to the largest document seen.
+const maxScratchMap = 1 << 15
+
+// release forgets the document (the maps' keys point into it) and returns
+// sc to the pool.
+func (sc *scratch) release() {
+	for _, m := range []*map[string]int32{&sc.wordIndex, &sc.groupIndex} {
+		if len(*m) > maxScratchMap {
+			*m = map[string]int32{}
+		} else {
+			clear(*m)
+		}
+	}
+	sc.doc, sc.toks = nil, nil
+	clear(sc.recent[:])
+	clear(sc.matches[:cap(sc.matches)]) // slots are maps, rule names the matcher's
+	scratchPool.Put(sc)
+}
+
 // CountWords counts a document's word tokens by lower-cased lemma, without
 // looking for candidates: the counts of a reference corpus.
 func CountWords(d *doc.Document) *DocCounts {
-	dc := &DocCounts{Name: d.Name, Words: map[string]int{}, cands: map[string]*docCand{}}
+	sc := scratchPool.Get().(*scratch)
+	defer sc.release()
+	dc := sc.newCounts(d)
 	for si := range d.Sentences {
-		dc.countWords(d.Sentences[si].Tokens)
+		sc.countWords(dc, d.Sentences[si].Tokens)
 	}
+	sc.settle(dc)
 	return dc
 }
 
-func (dc *DocCounts) countWords(toks []doc.Token) {
-	for i := range toks {
-		if isWord(toks[i].Form) {
-			dc.Tokens++
-			dc.Words[WordKey(&toks[i])]++
-		}
+// countWords counts a sentence's word tokens under their keys (see
+// WordKey) and notes which tokens are words.
+func (sc *scratch) countWords(dc *DocCounts, toks []doc.Token) {
+	if cap(sc.isWord) < len(toks) {
+		sc.isWord = make([]bool, len(toks), 2*len(toks))
+		sc.wordAt = make([]int32, len(toks), 2*len(toks))
 	}
+	sc.isWord, sc.wordAt = sc.isWord[:len(toks)], sc.wordAt[:len(toks)]
+	for i := range toks {
+		t := &toks[i]
+		sc.isWord[i] = isWord(t.Form)
+		if !sc.isWord[i] {
+			continue
+		}
+		dc.Tokens++
+		w := wordOf(t)
+		e := sc.recent.entry(w)
+		if e.p == unsafe.StringData(w) && e.n == len(w) {
+			dc.words[e.index].n++
+			sc.wordAt[i] = e.index
+			continue
+		}
+		e.p, e.n = unsafe.StringData(w), len(w)
+		var ok bool
+		if needsLower(w) {
+			sc.buf = appendLower(sc.buf[:0], w)
+			if e.index, ok = sc.wordIndex[string(sc.buf)]; !ok {
+				w = dc.arena.str(view(sc.buf))
+			}
+		} else {
+			e.index, ok = sc.wordIndex[w]
+		}
+		if !ok {
+			e.index = int32(len(dc.words))
+			sc.wordIndex[w] = e.index
+			dc.words = append(dc.words, wordCount{w, 0})
+		}
+		dc.words[e.index].n++
+		sc.wordAt[i] = e.index
+	}
+}
+
+// wordCache finds the counts of words met recently in a document by the
+// address of their string, without hashing their text: the tagger gives
+// known words the lemma strings of its lexicon, so most words come back as
+// the very same string. Two strings of the same address and length are
+// equal; a miss costs a map look-up.
+type wordCache [1 << wordCacheBits]recentWord
+
+const wordCacheBits = 10
+
+// recentWord is a word string seen in the document, by address and
+// length, and the index of its count in DocCounts.words.
+type recentWord struct {
+	p     *byte
+	n     int
+	index int32
+}
+
+// entry returns the cache entry for w: the one w is in if it is there.
+func (c *wordCache) entry(w string) *recentWord {
+	h := (uint64(uintptr(unsafe.Pointer(unsafe.StringData(w)))) ^ uint64(len(w))) * 0x9e3779b97f4a7c15
+	return &c[h>>(64-wordCacheBits)]
 }
 
 // Collect counts the candidates of one annotated document.
 func (c *Collector) Collect(d *doc.Document) *DocCounts {
-	dc := &DocCounts{Name: d.Name, Words: map[string]int{}, cands: map[string]*docCand{}}
+	sc := scratchPool.Get().(*scratch)
+	defer sc.release()
+	dc := sc.newCounts(d)
+	sc.doc = d
+	if cap(sc.context) < len(d.Sentences) {
+		sc.context = make([]int32, len(d.Sentences))
+	}
+	sc.context = sc.context[:len(d.Sentences)]
+	clear(sc.context)
 	for si := range d.Sentences {
-		s := &d.Sentences[si]
-		toks := s.Tokens
-		dc.countWords(toks)
-		seen := map[[2]int]bool{}
-		ctx := sentenceContext{d: d, s: s}
-		for _, m := range c.m.FindNested(toks) {
-			span := [2]int{m.Start, m.End}
-			if seen[span] {
-				continue // the same span found by several rules counts once
-			}
-			seen[span] = true
-			cand, ok := c.candidate(d, toks, m.Start, m.End)
-			if !ok {
+		toks := d.Sentences[si].Tokens
+		sc.toks = toks
+		sc.countWords(dc, toks)
+		sc.matches = c.m.AppendNested(sc.matches[:0], toks)
+		ms := sc.matches
+		for k := range ms {
+			// Nested matches come sorted by span, so the same span found
+			// by several rules comes in a row; it counts once.
+			if k > 0 && ms[k].Start == ms[k-1].Start && ms[k].End == ms[k-1].End {
 				continue
 			}
-			dc.add(cand, &ctx)
+			c.count(dc, sc, si, ms[k].Start, ms[k].End)
 		}
 	}
+	sc.settle(dc)
 	return dc
 }
 
-// cand is one candidate occurrence.
-type cand struct {
-	key     string   // group key: lower-cased, hyphens and spaces removed
-	canon   string   // canonical spelling: head lemmatized, case folded
-	words   []string // canonical words
-	pos     string   // UPOS tags of the words, space-separated
-	keys    []string // lemma keys of the content words (see contentKeys)
-	surface string   // as written, white space folded
-}
-
-// candidate checks and normalizes the span [i, j) of a sentence.
-func (c *Collector) candidate(d *doc.Document, toks []doc.Token, i, j int) (cand, bool) {
-	if j <= i || !isWord(toks[i].Form) || !isWord(toks[j-1].Form) {
-		return cand{}, false
+// count checks and normalizes the span [i, j) of sentence si and, when it
+// is a candidate, counts it.
+func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
+	s := &sc.doc.Sentences[si]
+	toks := s.Tokens
+	if j <= i || !sc.isWord[i] || !sc.isWord[j-1] {
+		return
 	}
 	// A span must not cut a hyphenated compound: "compensating drip emitter"
 	// inside "pressure-compensating drip emitter" is no candidate.
 	if i > 0 && glued(toks[i-1], toks[i]) && isHyphen(toks[i-1].Form) {
-		return cand{}, false
+		return
 	}
 	if j < len(toks) && glued(toks[j-1], toks[j]) && isHyphen(toks[j].Form) {
-		return cand{}, false
+		return
 	}
-	words, lowerWords, pos := canonicalWords(toks[i:j])
-	if len(words) == 0 || len(words) > c.opt.MaxWords {
-		return cand{}, false
+	cw := &sc.cw
+	if n := cw.split(toks[i:j]); n == 0 || n > c.opt.MaxWords {
+		return
 	}
-	if c.opt.Stop != nil {
-		if c.opt.Stop[lowerWords[0]] || c.opt.Stop[lowerWords[len(lowerWords)-1]] || c.opt.Stop[strings.Join(lowerWords, " ")] {
-			return cand{}, false
-		}
+	cw.write(toks[i:j])
+	if c.opt.Stop != nil && cw.stopped(c.opt.Stop) {
+		return
 	}
 	if c.opt.Keep != nil && !c.opt.Keep(toks[i:j]) {
-		return cand{}, false
+		return
 	}
-	var key strings.Builder
-	for _, w := range lowerWords {
-		for _, r := range w {
-			if r != '-' && r != '‐' && r != '‑' {
-				key.WriteRune(r)
-			}
-		}
+	gi, ok := sc.groupIndex[string(cw.key)]
+	if !ok {
+		gi = int32(len(dc.cands))
+		key := dc.arena.str(view(cw.key))
+		sc.groupIndex[key] = gi
+		dc.cands = append(dc.cands, docCand{key: key, spells: -1, canons: -1})
 	}
-	return cand{
-		key:     key.String(),
-		canon:   strings.Join(words, " "),
-		words:   words,
-		pos:     pos,
-		keys:    contentKeys(toks[i:j]),
-		surface: surfaceOf(d, toks[i:j]),
-	}, true
-}
-
-func (dc *DocCounts) add(cd cand, ctx *sentenceContext) {
-	g := dc.cands[cd.key]
-	if g == nil {
-		g = &docCand{}
-		dc.cands[cd.key] = g
-		dc.order = append(dc.order, cd.key)
-	}
+	g := &dc.cands[gi]
 	g.freq++
-	g.variants = addSpelling(g.variants, spelling{cd.surface, 1})
-	found := false
-	for i := range g.canon {
-		if g.canon[i].text == cd.canon {
-			g.canon[i].n++
-			found = true
-			break
-		}
-	}
-	if !found {
-		g.canon = append(g.canon, canonical{spelling{cd.canon, 1}, cd.words, cd.pos, cd.keys})
-	}
+	var surface string
+	var inBuf bool
+	surface, sc.buf, inBuf = appendSurface(sc.buf[:0], sc.doc, toks[i:j])
+	dc.addSpelling(g, surface, inBuf)
+	dc.addCanonical(sc, g, i, j)
 	// One context per sentence; the corpus keeps the first few overall.
-	if len(g.contexts) < maxDocContexts {
-		if len(g.contexts) == 0 || g.lastSent != ctx.s.Index {
-			g.lastSent = ctx.s.Index
-			g.contexts = append(g.contexts, ctx.context())
-		}
+	if g.nctx < maxDocContexts && (g.nctx == 0 || g.lastSent != int32(s.Index)) {
+		g.lastSent = int32(s.Index)
+		g.ctx[g.nctx] = sc.contextOf(dc, si)
+		g.nctx++
 	}
 }
 
-// sentenceContext makes the context of a sentence once, on first use:
-// the many nested candidates of a sentence share one string.
-type sentenceContext struct {
-	d    *doc.Document
-	s    *doc.Sentence
-	cx   Context
-	done bool
+// contextOf returns the index in dc.contexts of sentence si, adding it on
+// first use: the many nested candidates of a sentence share its text.
+func (sc *scratch) contextOf(dc *DocCounts, si int) int32 {
+	if k := sc.context[si]; k > 0 {
+		return k - 1
+	}
+	s := &sc.doc.Sentences[si]
+	text, buf, inBuf := appendSurface(sc.buf[:0], sc.doc, s.Tokens)
+	if sc.buf = buf; inBuf {
+		text = dc.arena.str(text)
+	}
+	dc.contexts = append(dc.contexts, ctxRef{text: text, line: int32(s.Line())})
+	sc.context[si] = int32(len(dc.contexts))
+	return int32(len(dc.contexts) - 1)
 }
 
-func (c *sentenceContext) context() Context {
-	if !c.done {
-		// A copy: the text may be a slice of the document's, which the
-		// corpus must not keep alive for one sentence.
-		c.cx = Context{Doc: c.d.Name, Line: c.s.Line(), Text: strings.Clone(sentenceText(c.d, c.s))}
-		c.done = true
+// addSpelling counts a surface form of group g. A form made up in a
+// scratch buffer (inBuf) is copied when it is new; others are slices of
+// the document's text.
+func (dc *DocCounts) addSpelling(g *docCand, text string, inBuf bool) {
+	last := int32(-1)
+	for k := g.spells; k >= 0; k = dc.spells[k].next {
+		if dc.spells[k].text == text {
+			dc.spells[k].n++
+			return
+		}
+		last = k
 	}
-	return c.cx
+	if inBuf {
+		text = dc.arena.str(text)
+	}
+	dc.spells = append(dc.spells, docSpelling{text: text, n: 1, next: -1})
+	if last < 0 {
+		g.spells = int32(len(dc.spells) - 1)
+	} else {
+		dc.spells[last].next = int32(len(dc.spells) - 1)
+	}
 }
 
-// maxDocContexts bounds the contexts one document offers a candidate.
-const maxDocContexts = 3
-
-// canonicalWords joins hyphenated parts back into orthographic words and
-// normalizes them: every word lower-cased except acronyms and proper nouns,
-// the head replaced by its lemma. It returns the canonical
-// words, their lower-cased forms and their UPOS tags (a hyphenated word
-// takes the tag of its last part).
-func canonicalWords(toks []doc.Token) (words, lower []string, pos string) {
-	type word struct {
-		text  string
-		last  *doc.Token
-		upper bool
+// addCanonical counts the canonical spelling of span toks that sc.cw
+// has written, in group g.
+func (dc *DocCounts) addCanonical(sc *scratch, g *docCand, i, j int) {
+	last := int32(-1)
+	for k := g.canons; k >= 0; k = dc.canons[k].next {
+		if dc.canons[k].text() == string(sc.cw.text) {
+			dc.canons[k].n++
+			return
+		}
+		last = k
 	}
-	ws := make([]word, 0, len(toks)) // sized once: called for every nested span
-	for k := 0; k < len(toks); k++ {
-		t := &toks[k]
-		if len(ws) > 0 && k > 0 && glued(toks[k-1], *t) && (isHyphen(t.Form) || isHyphen(toks[k-1].Form)) {
-			w := &ws[len(ws)-1]
-			w.text += t.Form
-			w.last = t
-			continue
-		}
-		ws = append(ws, word{text: t.Form, last: t})
+	dc.canons = append(dc.canons, sc.newCanonical(dc, i, j))
+	if last < 0 {
+		g.canons = int32(len(dc.canons) - 1)
+	} else {
+		dc.canons[last].next = int32(len(dc.canons) - 1)
 	}
-	// The head is the last word of the first noun phrase: the word before
-	// the first preposition ("angles of attack" → "angle of attack"), or
-	// else the last word.
-	head := len(ws) - 1
-	for n := 1; n < len(ws)-1; n++ {
-		if ws[n].last.UPOS == "ADP" {
-			head = n - 1
-			break
-		}
-	}
-	words = make([]string, 0, len(ws))
-	lower = make([]string, 0, len(ws))
-	var tags strings.Builder
-	tags.Grow(5 * len(ws))
-	for n, w := range ws {
-		text := w.text
-		// Proper nouns keep their case here; the corpus folds a group's case
-		// when a lower-case spelling of it occurs too.
-		keepCase := isAcronym(text) || w.last.UPOS == "PROPN"
-		if n == head && w.last.Lemma != "" && !strings.ContainsAny(text, "-") {
-			text = headLemma(text, w.last.Lemma, keepCase)
-		} else if n == head && w.last.Lemma != "" {
-			// hyphenated head: lemmatize its last part ("set-points" -> "set-point")
-			if cut := strings.LastIndexAny(text, "-"); cut >= 0 && strings.EqualFold(text[cut+1:], w.last.Form) {
-				text = text[:cut+1] + w.last.Lemma
-			}
-		}
-		if !keepCase {
-			text = strings.ToLower(text)
-		}
-		words = append(words, text)
-		lower = append(lower, strings.ToLower(text))
-		if n > 0 {
-			tags.WriteByte(' ')
-		}
-		tags.WriteString(w.last.UPOS)
-	}
-	return words, lower, tags.String()
 }
 
-// headLemma returns the canonical head word. Words that keep their case
-// (acronyms, names) keep their spelling when the lemma only changes case or
-// drops a plural s ("PLCs" → "PLC", "VPD" stays "VPD").
-func headLemma(form, lemma string, keepCase bool) string {
-	if !keepCase {
-		return lemma
+// newCanonical records the canonical spelling sc.cw has written for the
+// span [i, j) of the current sentence, with its words, keys and tags.
+func (sc *scratch) newCanonical(dc *DocCounts, i, j int) docCanonical {
+	cw := &sc.cw
+	v := docCanonical{n: 1, next: -1, textLen: int32(len(cw.text)), ends: int32(len(dc.ends)), nw: int32(len(cw.ends))}
+	for _, end := range cw.ends {
+		dc.ends = append(dc.ends, int32(end))
 	}
-	switch {
-	case strings.EqualFold(form, lemma):
-		return form
-	case strings.HasSuffix(form, "s") && strings.EqualFold(form[:len(form)-1], lemma):
-		return form[:len(form)-1]
-	}
-	return lemma
-}
-
-// contentKeys returns the lemma keys (see WordKey) of a candidate's words,
-// punctuation and hyphens left out. Function words stay: as the most
-// general words of a candidate they hold back prepositional phrases ("loss
-// of the signal"), which are rarely terms; leaving them out lowered F1 on
-// all three evaluation domains (README).
-func contentKeys(toks []doc.Token) []string {
-	var keys []string
-	for i := range toks {
-		switch toks[i].UPOS {
+	// The keys are the lemma keys of the candidate's words, punctuation
+	// and hyphens left out. Function words stay: as the most general
+	// words of a candidate they hold back prepositional phrases ("loss of
+	// the signal"), which are rarely terms; leaving them out lowered F1 on
+	// all three evaluation domains (README).
+	b := append(sc.keyBuf[:0], cw.text...)
+	for k := i; k < j; k++ {
+		switch sc.toks[k].UPOS {
 		case "PUNCT", "SYM":
 			continue
 		}
-		if isWord(toks[i].Form) {
-			keys = append(keys, WordKey(&toks[i]))
+		if sc.isWord[k] {
+			b = append(b, dc.words[sc.wordAt[k]].word...) // counted under its key
+			dc.ends = append(dc.ends, int32(len(b)))
 		}
 	}
-	return keys
+	sc.keyBuf = b
+	v.nk = int32(len(dc.ends)) - v.ends - v.nw
+	v.all = dc.arena.str(view(b))
+	v.pos = sc.tagsOf(sc.toks[i:j])
+	return v
 }
 
-// WordKey is the key a word token is counted under for domain specificity:
-// its lemma (or form) lower-cased.
-func WordKey(t *doc.Token) string {
-	w := t.Lemma
-	if w == "" {
-		w = t.Form
+// tagsOf returns the UPOS tags of the words of span toks as a string. The
+// tagger gives tokens the tag strings of its tag set, so a sequence of
+// tags comes back as the same strings: the string made for it last time
+// is found by their addresses, without hashing or allocating.
+func (sc *scratch) tagsOf(toks []doc.Token) string {
+	cw := &sc.cw
+	h := uint64(len(cw.words))
+	for _, w := range cw.words {
+		u := toks[w.to-1].UPOS
+		h = (h ^ uint64(uintptr(unsafe.Pointer(unsafe.StringData(u)))) ^ uint64(len(u))<<48) * 0x9e3779b97f4a7c15
 	}
-	return strings.ToLower(w)
+	e := &sc.tags[h>>(64-tagCacheBits)]
+	if e.h == h && cw.hasTags(e.pos, toks) {
+		return e.pos
+	}
+	sc.tagBuf = cw.appendTags(sc.tagBuf[:0], toks)
+	e.h, e.pos = h, string(sc.tagBuf) // not in the arena: corpora keep it as it is
+	return e.pos
 }
 
-func glued(a, b doc.Token) bool { return !a.SpaceAfter && a.End == b.Start }
-
-func isHyphen(s string) bool { return s == "-" || s == "‐" || s == "‑" }
-
-// isWord reports whether a token contains a letter or a digit.
-func isWord(s string) bool {
-	for _, r := range s {
-		if unicode.IsLetter(r) || unicode.IsDigit(r) {
-			return true
-		}
-	}
-	return false
+// tagCache holds tag strings made, by a hash of the addresses of the tags.
+type tagCache [1 << tagCacheBits]struct {
+	h   uint64
+	pos string
 }
 
-func isAcronym(s string) bool {
-	upper := 0
-	for _, r := range s {
-		if unicode.IsLower(r) {
-			return false
-		}
-		if unicode.IsUpper(r) {
-			upper++
-		}
-	}
-	return upper >= 2
-}
-
-// surfaceOf returns the span as written in the document, white space folded.
-func surfaceOf(d *doc.Document, toks []doc.Token) string {
-	a, b := toks[0].Start, toks[len(toks)-1].End
-	if a >= 0 && b <= len(d.Text) && a < b && d.Text[a:b] != "" && utf8.ValidString(d.Text[a:b]) {
-		if span := d.Text[a:b]; singleSpaced(span) {
-			return span // most spans: no copy
-		}
-		return strings.Join(strings.Fields(d.Text[a:b]), " ")
-	}
-	var sb strings.Builder
-	for k, t := range toks {
-		sb.WriteString(t.Form)
-		if k < len(toks)-1 && t.SpaceAfter {
-			sb.WriteByte(' ')
-		}
-	}
-	return sb.String()
-}
-
-// singleSpaced reports whether s is ASCII with single spaces between
-// words only, so that folding its white space would not change it.
-func singleSpaced(s string) bool {
-	if s[0] == ' ' || s[len(s)-1] == ' ' {
-		return false
-	}
-	for i := 0; i < len(s); i++ {
-		switch c := s[i]; {
-		case c >= utf8.RuneSelf, c == '\t', c == '\n', c == '\v', c == '\f', c == '\r':
-			return false
-		case c == ' ' && s[i+1] == ' ':
-			return false
-		}
-	}
-	return true
-}
-
-func sentenceText(d *doc.Document, s *doc.Sentence) string {
-	if len(s.Tokens) == 0 {
-		return ""
-	}
-	return surfaceOf(d, s.Tokens)
-}
+const tagCacheBits = 10

@@ -1,6 +1,7 @@
 package terms
 
 import (
+	"slices"
 	"sort"
 	"strings"
 
@@ -34,13 +35,41 @@ func (c *Counts) Add(dc *DocCounts) {
 	if c.Words == nil {
 		c.Words = map[string]int{}
 	}
-	for w, n := range dc.Words {
-		// A copy, for every word and not only new ones: w may be a slice of
-		// the document's text (see detach), and assigning to a string key
+	for _, w := range dc.words {
+		// A copy, for every word and not only new ones: the word may be a
+		// slice of the document's text, and assigning to a string key
 		// stores the key given even when the key is there already.
-		c.Words[strings.Clone(w)] += n
+		c.Words[strings.Clone(w.word)] += w.n
 	}
 	c.Total += dc.Tokens
+}
+
+// wordTable counts the words of a corpus. The counts live in a slice the
+// map indexes, so that adding to a word met before takes one look-up and
+// leaves the stored key alone (see Counts.Add): only new words are copied.
+type wordTable struct {
+	index map[string]int32
+	freq  []int
+	total int
+}
+
+func (t *wordTable) add(w string, n int) {
+	if i, ok := t.index[w]; ok {
+		t.freq[i] += n
+		return
+	}
+	if t.index == nil {
+		t.index = map[string]int32{}
+	}
+	t.index[strings.Clone(w)] = int32(len(t.freq))
+	t.freq = append(t.freq, n)
+}
+
+func (t *wordTable) get(w string) int {
+	if i, ok := t.index[w]; ok {
+		return t.freq[i]
+	}
+	return 0
 }
 
 // docFreq is a candidate's count in one document. 32-bit fields: the
@@ -54,19 +83,66 @@ type group struct {
 	perDoc   []docFreq
 	variants []spelling  // few per group: slices beat maps (see docCand)
 	canon    []canonical // in order of first occurrence
-	contexts []Context
-	spare    []Context // further contexts, used when too few documents offer one
+	// contexts are the example sentences: first the main ones, at most
+	// one per document, then spare ones, used when too few documents
+	// offer one.
+	contexts []ctxRef
+	main     int // contexts[:main] are the main ones
+
+	// first holds the first element of each slice above: most groups are
+	// rare candidates that never get a second one, and one allocation
+	// for all of them leaves the collector less to do.
+	first struct {
+		perDoc   [1]docFreq
+		variants [1]spelling
+		canon    [1]canonical
+		contexts [1]ctxRef
+	}
+}
+
+// ctxRef is a Context kept compact: its document by index.
+type ctxRef struct {
+	text      string
+	doc, line int32
+}
+
+// spelling is a string with its count.
+type spelling struct {
+	text string
+	n    int
+}
+
+// canonical is a canonical spelling with its count, words and UPOS tags.
+type canonical struct {
+	spelling
+	// parts are its words, then the lemma keys of its words (for domain
+	// specificity): one slice rather than two keeps a group small.
+	parts []string
+	nw    int // number of words
+	pos   string
+}
+
+func (c *canonical) words() []string { return c.parts[:c.nw:c.nw] }
+
+func (c *canonical) keys() []string {
+	if len(c.parts) == c.nw {
+		return nil
+	}
+	return c.parts[c.nw:]
 }
 
 // Corpus merges the documents' counts in input order.
 type Corpus struct {
 	docs     []string
 	docSize  []int
-	words    Counts
+	words    wordTable
 	groups   map[string]*group
 	order    []string
 	contexts int
 	budget   budget // see budget.go
+
+	// working memory of Add
+	texts []string // copies of the document's context texts, made on first use
 }
 
 // NewCorpus returns an empty corpus keeping up to contexts example
@@ -76,80 +152,167 @@ func NewCorpus(contexts int) *Corpus {
 }
 
 // Add merges one document's counts. Call it in input order.
+//
+// Every string the corpus keeps is its own copy: strings cut from a
+// document's text (a word form, a span) or from the arena of its counts
+// would keep all of them alive, and on a large corpus nearly every
+// document would stay in memory.
 func (c *Corpus) Add(dc *DocCounts) {
 	di := len(c.docs)
 	c.docs = append(c.docs, dc.Name)
 	c.docSize = append(c.docSize, dc.Tokens)
-	c.words.Add(dc)
-	for _, k := range dc.order {
-		x := dc.cands[k]
-		g := c.groups[k]
+	for _, w := range dc.words {
+		c.words.add(w.word, w.n)
+	}
+	c.words.total += dc.Tokens
+	for xi := range dc.cands {
+		x := &dc.cands[xi]
+		g := c.groups[x.key]
 		if g == nil {
-			g = &group{key: k}
-			c.groups[k] = g
-			c.order = append(c.order, k)
-		}
-		g.freq += x.freq
-		g.perDoc = append(g.perDoc, docFreq{int32(di), int32(x.freq)})
-		for _, v := range x.variants {
-			n := len(g.variants)
-			if g.variants = addSpelling(g.variants, v); len(g.variants) > n {
-				g.variants[n].text = strings.Clone(v.text)
-			}
-		}
-	canon:
-		for _, v := range x.canon {
-			for i := range g.canon {
-				if g.canon[i].text == v.text {
-					g.canon[i].n += v.n
-					continue canon
-				}
-			}
-			g.canon = append(g.canon, v.detach())
+			g = c.newGroup(dc, x, di)
+		} else {
+			c.merge(g, dc, x, di)
 		}
 		// Contexts: at most one per document until every candidate has
 		// its quota, so examples show the term in different documents.
-		for i, cx := range x.contexts {
+		for i, k := range x.ctx[:x.nctx] {
 			switch {
-			case i == 0 && len(g.contexts) < c.contexts:
-				g.contexts = append(g.contexts, cx)
-			case len(g.spare) < c.contexts:
-				g.spare = append(g.spare, cx)
+			case i == 0 && g.main < c.contexts:
+				c.roomForContext(g)
+				g.contexts = slices.Insert(g.contexts, g.main, c.context(dc, di, k))
+				g.main++
+			case len(g.contexts)-g.main < c.contexts:
+				c.roomForContext(g)
+				g.contexts = append(g.contexts, c.context(dc, di, k))
 			}
 		}
 	}
+	clear(c.texts[:min(len(c.texts), len(dc.contexts))])
 	c.checkBudget(dc)
 }
 
-// detach returns a copy of the canonical spelling that shares no memory
-// with the document it came from. Strings cut from a document's text (a
-// word form, a span) keep the whole text alive: kept in the corpus, they
-// would hold every document ever read in memory.
-//
-// Every string field of canonical must be copied here.
-func (v canonical) detach() canonical {
-	v.text = strings.Clone(v.text)
-	v.words = cloneAll(v.words)
-	v.keys = cloneAll(v.keys)
-	return v
+// newGroup adds the group of a candidate new to the corpus, with its
+// counts in document di. Its key, spellings and canonical forms are
+// copied into one string: they live as long as the group.
+func (c *Corpus) newGroup(dc *DocCounts, x *docCand, di int) *group {
+	n := len(x.key)
+	for k := x.spells; k >= 0; k = dc.spells[k].next {
+		n += len(dc.spells[k].text)
+	}
+	for k := x.canons; k >= 0; k = dc.canons[k].next {
+		n += len(dc.canons[k].all)
+	}
+	var b strings.Builder
+	b.Grow(n)
+	b.WriteString(x.key)
+	for k := x.spells; k >= 0; k = dc.spells[k].next {
+		b.WriteString(dc.spells[k].text)
+	}
+	for k := x.canons; k >= 0; k = dc.canons[k].next {
+		b.WriteString(dc.canons[k].all)
+	}
+	all := b.String()
+	next := func(n int) (s string) {
+		s, all = all[:n], all[n:]
+		return s
+	}
+	g := &group{key: next(len(x.key)), freq: int(x.freq)}
+	g.perDoc = append(g.first.perDoc[:0], docFreq{int32(di), x.freq})
+	g.variants = g.first.variants[:0]
+	for k := x.spells; k >= 0; k = dc.spells[k].next {
+		v := &dc.spells[k]
+		g.variants = append(g.variants, spelling{next(len(v.text)), int(v.n)})
+	}
+	g.canon = g.first.canon[:0]
+	for k := x.canons; k >= 0; k = dc.canons[k].next {
+		v := &dc.canons[k]
+		g.canon = append(g.canon, newCanonical(dc, v, next(len(v.all))))
+	}
+	c.groups[g.key] = g
+	if len(c.order) == cap(c.order) {
+		c.order = slices.Grow(c.order, len(c.order)) // doubling: append grows a long slice by a quarter
+	}
+	c.order = append(c.order, g.key)
+	return g
 }
 
-func cloneAll(ss []string) []string {
-	out := make([]string, len(ss))
-	for i, s := range ss {
-		out[i] = strings.Clone(s)
+// merge adds the counts in document di of a candidate to its group.
+func (c *Corpus) merge(g *group, dc *DocCounts, x *docCand, di int) {
+	g.freq += int(x.freq)
+	g.perDoc = append(g.perDoc, docFreq{int32(di), x.freq})
+	for k := x.spells; k >= 0; k = dc.spells[k].next {
+		v := &dc.spells[k]
+		n := len(g.variants)
+		if g.variants = addSpelling(g.variants, spelling{v.text, int(v.n)}); len(g.variants) > n {
+			g.variants[n].text = strings.Clone(v.text)
+		}
 	}
-	return out
+canon:
+	for k := x.canons; k >= 0; k = dc.canons[k].next {
+		v := &dc.canons[k]
+		for i := range g.canon {
+			if g.canon[i].text == v.text() {
+				g.canon[i].n += int(v.n)
+				continue canon
+			}
+		}
+		g.canon = append(g.canon, newCanonical(dc, v, strings.Clone(v.all)))
+	}
+}
+
+// newCanonical makes the canonical spelling v of a document's counts one
+// of the corpus, from all, a copy of v.all. Its words and keys are slices
+// of that copy, their headers of one slice: few allocations per candidate,
+// and nothing that points into the document or its counts. The tags are
+// not copied: they are a string of their own, shared by the canonical
+// forms of the same tags.
+func newCanonical(dc *DocCounts, v *docCanonical, all string) canonical {
+	ends := dc.ends[v.ends : v.ends+v.nw+v.nk]
+	parts := make([]string, len(ends))
+	start := int32(0)
+	for i, end := range ends {
+		parts[i] = all[start:end]
+		if start = end; int32(i) < v.nw-1 {
+			start++ // the space between two words
+		}
+	}
+	return canonical{spelling{all[:v.textLen], int(v.n)}, parts, int(v.nw), v.pos}
+}
+
+// roomForContext makes room for one more context in g: the first goes in
+// the group itself, and when it has more, room for as many as it may get,
+// quota and spare ones, in one allocation.
+func (c *Corpus) roomForContext(g *group) {
+	switch {
+	case g.contexts == nil:
+		g.contexts = g.first.contexts[:0]
+	case len(g.contexts) == cap(g.contexts):
+		g.contexts = slices.Grow(g.contexts, max(1, 2*c.contexts-len(g.contexts)))
+	}
+}
+
+// context returns context k of the document, its text copied once for
+// all the candidates that take it.
+func (c *Corpus) context(dc *DocCounts, di int, k int32) ctxRef {
+	if len(c.texts) < len(dc.contexts) {
+		c.texts = make([]string, len(dc.contexts))
+	}
+	cx := dc.contexts[k]
+	if c.texts[k] == "" {
+		c.texts[k] = strings.Clone(cx.text)
+	}
+	cx.text, cx.doc = c.texts[k], int32(di)
+	return cx
 }
 
 // WordFreq returns how often a lower-cased lemma occurs in the corpus.
-func (c *Corpus) WordFreq(w string) int { return c.words.Words[w] }
+func (c *Corpus) WordFreq(w string) int { return c.words.get(w) }
 
 // Documents returns the number of documents merged.
 func (c *Corpus) Documents() int { return len(c.docs) }
 
 // Tokens returns the number of word tokens merged.
-func (c *Corpus) Tokens() int { return c.words.Total }
+func (c *Corpus) Tokens() int { return c.words.total }
 
 // Variant is one surface form of a candidate with its count.
 type Variant struct {
@@ -240,10 +403,11 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 	parts, partsErr := termstat.NewParts(sizes)
 	freqs := make([]float64, len(c.docSize))
 	cands := make([]termstat.Candidate, 0, len(c.order))
+	var ctxs []Context
 	for _, k := range c.order {
 		g := c.groups[k]
 		cn := g.canonical()
-		words := cn.words
+		words := cn.words()
 		t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
 		for _, v := range g.variants {
 			t.Variants = append(t.Variants, Variant{v.text, v.n})
@@ -262,15 +426,9 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 			}
 			t.DP, _ = parts.DP(freqs)
 		}
-		t.Contexts = g.contexts
-		for _, cx := range g.spare {
-			if len(t.Contexts) >= c.contexts {
-				break
-			}
-			t.Contexts = append(t.Contexts, cx)
-		}
-		t.Keyness, t.Weirdness = c.specificity(cn.keys, ref, Alpha)
-		t.keys = cn.keys
+		t.Contexts, ctxs = c.exampleContexts(g, ctxs)
+		t.Keyness, t.Weirdness = c.specificity(cn.keys(), ref, Alpha)
+		t.keys = cn.keys()
 		out = append(out, t)
 		lw := make([]string, len(words))
 		for i, w := range words {
@@ -284,6 +442,27 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 		}
 	}
 	return out
+}
+
+// exampleContexts returns a group's main contexts, then spare ones while
+// there are fewer than the quota, cut from the front of buf (the contexts
+// of every term share a few allocations); it returns the rest of buf.
+func (c *Corpus) exampleContexts(g *group, buf []Context) (out, rest []Context) {
+	n := len(g.contexts)
+	if g.main < n {
+		n = max(g.main, min(n, c.contexts))
+	}
+	if n == 0 {
+		return nil, buf
+	}
+	if len(buf) < n {
+		buf = make([]Context, max(n, 1024))
+	}
+	out, rest = buf[:n:n], buf[n:]
+	for i, cx := range g.contexts[:n] {
+		out[i] = Context{Doc: c.docs[cx.doc], Line: int(cx.line), Text: cx.text}
+	}
+	return out, rest
 }
 
 // dedupe makes word sequences unique for C-value: two groups can share
@@ -317,12 +496,12 @@ const Alpha = 0.1
 // design" is held back by "design"; on the evaluation lists the minimum
 // ranked better than the mean (see README).
 func (c *Corpus) specificity(keys []string, ref Reference, alpha float64) (ll, weird float64) {
-	if ref == nil || ref.Size() == 0 || c.words.Total == 0 {
+	if ref == nil || ref.Size() == 0 || c.words.total == 0 {
 		return 0, 0
 	}
 	for i, key := range keys {
-		k := termstat.Contrast{Study: float64(c.words.Words[key]), Reference: float64(ref.Freq(key)),
-			StudySize: float64(c.words.Total), ReferenceSize: float64(ref.Size())}
+		k := termstat.Contrast{Study: float64(c.words.get(key)), Reference: float64(ref.Freq(key)),
+			StudySize: float64(c.words.total), ReferenceSize: float64(ref.Size())}
 		k.Study = min(k.Study, k.StudySize)
 		k.Reference = min(k.Reference, k.ReferenceSize)
 		if wr := k.SmoothedWeirdness(alpha); i == 0 || wr < weird {

@@ -31,10 +31,11 @@ func (c *Corpus) foldCapitalPlurals() {
 // capitalHead reports whether a canonical form's last word is a capitalized
 // proper-noun plural.
 func capitalHead(cn *canonical) bool {
-	if len(cn.words) == 0 || !strings.HasSuffix(cn.pos, "PROPN") {
+	words := cn.words()
+	if len(words) == 0 || !strings.HasSuffix(cn.pos, "PROPN") {
 		return false
 	}
-	w := cn.words[len(cn.words)-1]
+	w := words[len(words)-1]
 	r := []rune(w)
 	return len(r) > 2 && unicode.IsUpper(r[0]) && strings.HasSuffix(w, "s") && !isAcronym(w)
 }
@@ -64,8 +65,5 @@ func (g *group) absorb(o *group) {
 	}
 	// The capitalized plural's canonical spelling is not kept: the group's
 	// canonical form is its singular.
-	for _, cx := range o.contexts {
-		g.spare = append(g.spare, cx)
-	}
-	g.spare = append(g.spare, o.spare...)
+	g.contexts = append(g.contexts, o.contexts...) // as spare ones
 }
