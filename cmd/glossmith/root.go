@@ -1,7 +1,10 @@
 package main
 
 import (
+	"fmt"
+	"os"
 	"runtime/debug"
+	"runtime/pprof"
 
 	"github.com/spf13/cobra"
 )
@@ -38,6 +41,33 @@ exit status is 1 when anything was skipped.`,
 		SilenceErrors: true,
 	}
 	root.SetVersionTemplate("glossmith {{.Version}}\n")
+	// --cpuprofile is for developers measuring a whole run (DEVELOPERS.md);
+	// it is hidden from the help.
+	var profile string
+	var profFile *os.File
+	root.PersistentFlags().StringVar(&profile, "cpuprofile", "", "write a CPU profile of the run to `FILE`")
+	_ = root.PersistentFlags().MarkHidden("cpuprofile")
+	root.PersistentPreRunE = func(*cobra.Command, []string) error {
+		if profile == "" {
+			return nil
+		}
+		f, err := os.Create(profile)
+		if err != nil {
+			return err
+		}
+		if err := pprof.StartCPUProfile(f); err != nil {
+			f.Close()
+			return fmt.Errorf("cpu profile: %w", err)
+		}
+		profFile = f
+		return nil
+	}
+	root.PersistentPostRun = func(*cobra.Command, []string) {
+		if profFile != nil {
+			pprof.StopCPUProfile()
+			profFile.Close()
+		}
+	}
 	root.CompletionOptions.HiddenDefaultCmd = true
 	root.AddCommand(newTagCmd(), newTermsCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd())
 	return root
