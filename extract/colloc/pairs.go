@@ -4,6 +4,7 @@ import (
 	"strings"
 	"unicode"
 
+	"glossmith/extract/wordshape"
 	"glossmith/tagger/doc"
 )
 
@@ -24,23 +25,10 @@ func (b By) Key(t *doc.Token) string {
 	if b == ByLemma && t.Lemma != "" {
 		w = t.Lemma
 	}
-	if t.UPOS == "PROPN" || isAcronym(t.Form) {
+	if t.UPOS == "PROPN" || wordshape.IsAcronym(t.Form) {
 		return w
 	}
 	return strings.ToLower(w)
-}
-
-func isAcronym(s string) bool {
-	upper := 0
-	for _, r := range s {
-		if unicode.IsLower(r) {
-			return false
-		}
-		if unicode.IsUpper(r) {
-			upper++
-		}
-	}
-	return upper >= 2
 }
 
 // SlotPair makes the pair of a relation match from its "head" and "dep"

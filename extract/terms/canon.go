@@ -2,9 +2,9 @@ package terms
 
 import (
 	"strings"
-	"unicode"
 	"unicode/utf8"
 
+	"glossmith/extract/wordshape"
 	"glossmith/tagger/doc"
 )
 
@@ -68,7 +68,7 @@ func (cw *canonWriter) write(toks []doc.Token) {
 		}
 		// Proper nouns keep their case here; the corpus folds a group's case
 		// when a lower-case spelling of it occurs too.
-		keepCase := isAcronym(text) || last.UPOS == "PROPN"
+		keepCase := wordshape.IsAcronym(text) || last.UPOS == "PROPN"
 		if n == head && last.Lemma != "" && !strings.ContainsAny(text, "-") {
 			text = headLemma(text, last.Lemma, keepCase)
 		} else if n == head && last.Lemma != "" {
@@ -217,38 +217,3 @@ func wordOf(t *doc.Token) string {
 func glued(a, b doc.Token) bool { return !a.SpaceAfter && a.End == b.Start }
 
 func isHyphen(s string) bool { return s == "-" || s == "‐" || s == "‑" }
-
-// isWord reports whether a token contains a letter or a digit.
-func isWord(s string) bool {
-	for i := 0; i < len(s); i++ { // most tokens: a decision on the first byte
-		switch c := s[i]; {
-		case 'a' <= c && c <= 'z', 'A' <= c && c <= 'Z', '0' <= c && c <= '9':
-			return true
-		case c >= utf8.RuneSelf:
-			return isWordRunes(s[i:])
-		}
-	}
-	return false
-}
-
-func isWordRunes(s string) bool {
-	for _, r := range s {
-		if unicode.IsLetter(r) || unicode.IsDigit(r) {
-			return true
-		}
-	}
-	return false
-}
-
-func isAcronym(s string) bool {
-	upper := 0
-	for _, r := range s {
-		if unicode.IsLower(r) {
-			return false
-		}
-		if unicode.IsUpper(r) {
-			upper++
-		}
-	}
-	return upper >= 2
-}

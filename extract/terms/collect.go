@@ -12,6 +12,7 @@ import (
 	"sync"
 	"unsafe"
 
+	"glossmith/extract/wordshape"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
 )
@@ -228,7 +229,7 @@ func (sc *scratch) countWords(dc *DocCounts, toks []doc.Token) {
 	sc.isWord, sc.wordAt = sc.isWord[:len(toks)], sc.wordAt[:len(toks)]
 	for i := range toks {
 		t := &toks[i]
-		sc.isWord[i] = isWord(t.Form)
+		sc.isWord[i] = wordshape.IsWord(t.Form)
 		if !sc.isWord[i] {
 			continue
 		}

@@ -1,6 +1,7 @@
 package terms
 
 import (
+	"glossmith/extract/wordshape"
 	"strings"
 	"unicode"
 )
@@ -37,7 +38,7 @@ func capitalHead(cn *canonical) bool {
 	}
 	w := words[len(words)-1]
 	r := []rune(w)
-	return len(r) > 2 && unicode.IsUpper(r[0]) && strings.HasSuffix(w, "s") && !isAcronym(w)
+	return len(r) > 2 && unicode.IsUpper(r[0]) && strings.HasSuffix(w, "s") && !wordshape.IsAcronym(w)
 }
 
 // absorb adds the counts of group o to g.

@@ -1,0 +1,48 @@
+// Package wordshape answers questions about the written shape of a word
+// that the term and collocation counters both ask: does the token carry a
+// letter or a digit (a word rather than punctuation), and is it an
+// acronym, whose case must survive lower-casing ("PLC", "EC-3")?
+package wordshape
+
+import (
+	"unicode"
+	"unicode/utf8"
+)
+
+// IsWord reports whether s contains a letter or a digit.
+func IsWord(s string) bool {
+	for i := 0; i < len(s); i++ { // most tokens: a decision on the first byte
+		switch c := s[i]; {
+		case 'a' <= c && c <= 'z', 'A' <= c && c <= 'Z', '0' <= c && c <= '9':
+			return true
+		case c >= utf8.RuneSelf:
+			return isWordRunes(s[i:])
+		}
+	}
+	return false
+}
+
+func isWordRunes(s string) bool {
+	for _, r := range s {
+		if unicode.IsLetter(r) || unicode.IsDigit(r) {
+			return true
+		}
+	}
+	return false
+}
+
+// IsAcronym reports whether s has at least two upper-case letters and no
+// lower-case one ("PLC", "EC-3", "NTC"): a form whose case carries meaning
+// and is kept when other words are lower-cased.
+func IsAcronym(s string) bool {
+	upper := 0
+	for _, r := range s {
+		if unicode.IsLower(r) {
+			return false
+		}
+		if unicode.IsUpper(r) {
+			upper++
+		}
+	}
+	return upper >= 2
+}

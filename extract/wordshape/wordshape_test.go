@@ -1,0 +1,25 @@
+package wordshape
+
+import "testing"
+
+func TestIsWord(t *testing.T) {
+	for s, want := range map[string]bool{
+		"valve": true, "3": true, "Ventil": true, "été": true, "Ω": true, "٣": true,
+		"": false, ",": false, "--": false, "(": false, "…": false, "·": false,
+	} {
+		if got := IsWord(s); got != want {
+			t.Errorf("IsWord(%q) = %v, want %v", s, got, want)
+		}
+	}
+}
+
+func TestIsAcronym(t *testing.T) {
+	for s, want := range map[string]bool{
+		"PLC": true, "EC-3": true, "NTC": true, "ÉDF": true,
+		"A": false, "Valve": false, "pH": false, "3": false, "": false, "PLCs": false,
+	} {
+		if got := IsAcronym(s); got != want {
+			t.Errorf("IsAcronym(%q) = %v, want %v", s, got, want)
+		}
+	}
+}
