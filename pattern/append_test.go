@@ -5,7 +5,6 @@ import (
 	"reflect"
 	"testing"
 
-	"glossmith/grammar"
 	"glossmith/internal/testenv"
 )
 
@@ -17,11 +16,7 @@ func TestAppendNestedIsFindNested(t *testing.T) {
 	dir := testenv.SharedDir(t, "data/ud-en-ewt")
 	sents := readTreebank(t, filepath.Join(dir, "en_ewt-ud-dev.conllu"))
 	for _, set := range []string{"terms", "pairs"} {
-		rs, err := grammar.LoadStock(set)
-		if err != nil {
-			t.Fatal(err)
-		}
-		m, err := Compile(rs)
+		m, err := CompileStock(set)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -4,7 +4,6 @@ import (
 	"math/rand"
 	"testing"
 
-	"glossmith/grammar"
 	"glossmith/tagger/doc"
 )
 
@@ -91,11 +90,7 @@ func findNested(m *Matcher, s []doc.Token) []Match { return m.FindNested(s) }
 // BenchmarkTermsSet measures FindAll throughput of the stock terms set on
 // pre-tagged tokens (the goal is at least 20 million tokens/s per core).
 func BenchmarkTermsSet(b *testing.B) {
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("terms")
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -104,11 +99,7 @@ func BenchmarkTermsSet(b *testing.B) {
 
 // BenchmarkTermsSetNested is the same in the every-span mode.
 func BenchmarkTermsSetNested(b *testing.B) {
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("terms")
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -144,11 +135,7 @@ func BenchmarkPathologicalLong(b *testing.B) {
 // BenchmarkPairsSet measures the default mode of the stock pairs set, as
 // the collocations command runs it; every match carries @head and @dep.
 func BenchmarkPairsSet(b *testing.B) {
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("pairs")
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -158,11 +145,7 @@ func BenchmarkPairsSet(b *testing.B) {
 // BenchmarkPairsSetNested measures the every-span mode of the stock pairs
 // set, whose matches all carry @head and @dep slots.
 func BenchmarkPairsSetNested(b *testing.B) {
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("pairs")
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -264,6 +264,17 @@ type group struct {
 	nw    int   // words per group set
 }
 
+// CompileStock compiles the named stock rule sets embedded in package
+// grammar ("terms", "phrases", "pairs"; see grammar.StockNames), as
+// Compile compiles a loaded set.
+func CompileStock(names ...string) (*Matcher, error) {
+	rs, err := grammar.LoadStock(names...)
+	if err != nil {
+		return nil, err
+	}
+	return Compile(rs)
+}
+
 // CompilePattern compiles a one-off pattern, such as the PATTERN argument
 // of `glossmith find`; it may name rules of rs (which may be nil). The
 // pattern's matches carry the rule name grammar.PatternRule.

@@ -267,11 +267,7 @@ func TestCompileErrors(t *testing.T) {
 }
 
 func TestConcurrentUse(t *testing.T) {
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("terms")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -303,11 +299,7 @@ func TestConcurrentUse(t *testing.T) {
 }
 
 func TestCacheResetKeepsResults(t *testing.T) {
-	rs, err := grammar.LoadStock("terms", "pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("terms", "pairs")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -318,7 +310,7 @@ func TestCacheResetKeepsResults(t *testing.T) {
 	}
 	defer func(c, s int) { maxClasses, maxDFAStates = c, s }(maxClasses, maxDFAStates)
 	maxClasses, maxDFAStates = 2, 2 // drop the caches before almost every sentence
-	m2, _ := Compile(rs)
+	m2, _ := CompileStock("terms", "pairs")
 	for i, s := range corpus {
 		if got := render(m2.FindAll(s)); got != want[i] {
 			t.Fatalf("sentence %d: %s != %s", i, got, want[i])
@@ -327,11 +319,7 @@ func TestCacheResetKeepsResults(t *testing.T) {
 }
 
 func TestPairsLabels(t *testing.T) {
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("pairs")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -344,5 +332,11 @@ func TestPairsLabels(t *testing.T) {
 	want := "verb_obj[0,3){dep=2:3,head=0:1} verb_obj[0,4){dep=3:4,head=0:1} noun_noun[2,4){dep=2:3,head=3:4}"
 	if got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
+	}
+}
+
+func TestCompileStockRefusesUnknownSet(t *testing.T) {
+	if _, err := CompileStock("no-such-set"); err == nil {
+		t.Fatal("CompileStock accepted a set that does not exist")
 	}
 }

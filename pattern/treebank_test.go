@@ -78,11 +78,7 @@ func readTreebank(t *testing.T, path string) []goldSentence {
 func TestPairsAgainstTreebank(t *testing.T) {
 	dir := testenv.SharedDir(t, "data/ud-en-ewt")
 	sents := readTreebank(t, filepath.Join(dir, "en_ewt-ud-dev.conllu"))
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := Compile(rs)
+	m, err := CompileStock("pairs")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -5,7 +5,6 @@ import (
 	"sync"
 	"testing"
 
-	"glossmith/grammar"
 	"glossmith/internal/testenv"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -43,11 +42,7 @@ func benchCorpus(b *testing.B) [][]doc.Token {
 // texts: matching plus counting, reported as tokens per second.
 func BenchmarkCountRelations(b *testing.B) {
 	sents := benchCorpus(b)
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("pairs")
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -5,7 +5,6 @@ import (
 	"path/filepath"
 	"testing"
 
-	"glossmith/grammar"
 	"glossmith/internal/testenv"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -26,11 +25,7 @@ func defaultSetup(t *testing.T) (*hmm.Model, *Collector) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	mt, err := pattern.Compile(rs)
+	mt, err := pattern.CompileStock("terms")
 	if err != nil {
 		t.Fatal(err)
 	}

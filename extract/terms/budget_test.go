@@ -5,7 +5,6 @@ import (
 	"testing"
 
 	"glossmith/extract/terms"
-	"glossmith/grammar"
 	"glossmith/internal/testenv"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -20,11 +19,7 @@ func demoCounts(t *testing.T) []*terms.DocCounts {
 	if err != nil {
 		t.Fatal(err)
 	}
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("terms")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -6,7 +6,6 @@ import (
 	"testing"
 	"unsafe"
 
-	"glossmith/grammar"
 	"glossmith/internal/testenv"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -25,11 +24,7 @@ func TestCorpusKeepsNoDocumentText(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("terms")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -13,7 +13,6 @@ import (
 	"glossmith/extract/colloc"
 	"glossmith/extract/measure"
 	"glossmith/extract/terms"
-	"glossmith/grammar"
 	"glossmith/internal/benchcorpus"
 	"glossmith/internal/testenv"
 	"glossmith/pattern"
@@ -209,11 +208,7 @@ func TestRunWithoutInputs(t *testing.T) {
 // command does, and returns the JSON Lines output of every candidate.
 func termList(t *testing.T, args []string, workers int) string {
 	t.Helper()
-	rs, err := grammar.LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("terms")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -236,11 +231,7 @@ func termList(t *testing.T, args []string, workers int) string {
 // collocations command does, and returns the TSV output of every pair.
 func pairList(t *testing.T, args []string, workers int) string {
 	t.Helper()
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("pairs")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -9,7 +9,6 @@ import (
 
 	"glossmith/extract/colloc"
 	"glossmith/extract/terms"
-	"glossmith/grammar"
 	"glossmith/internal/benchcorpus"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -38,11 +37,8 @@ func newStageFixture(b *testing.B) *stageFixture {
 	if f.model, err = hmm.Default(); err != nil {
 		b.Fatal(err)
 	}
-	rs, err := grammar.LoadStock("terms")
+	f.m, err = pattern.CompileStock("terms")
 	if err != nil {
-		b.Fatal(err)
-	}
-	if f.m, err = pattern.Compile(rs); err != nil {
 		b.Fatal(err)
 	}
 	for i, t := range f.texts {
@@ -169,11 +165,7 @@ func BenchmarkStages(b *testing.B) {
 // in input order (merge).
 func BenchmarkPairStages(b *testing.B) {
 	f := newStageFixture(b)
-	rs, err := grammar.LoadStock("pairs")
-	if err != nil {
-		b.Fatal(err)
-	}
-	m, err := pattern.Compile(rs)
+	m, err := pattern.CompileStock("pairs")
 	if err != nil {
 		b.Fatal(err)
 	}
