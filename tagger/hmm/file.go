@@ -499,7 +499,7 @@ func (p *perceptron) encode(e *enc) {
 		e.uint(uint64(b - a))
 		for _, c := range p.cells[a:b] {
 			e.uint(uint64(c.t))
-			e.int(int64(math.Round(float64(c.w) / weightStep)))
+			e.int(int64(c.q))
 		}
 	}
 	e.uint(uint64(len(p.layers)))
@@ -549,7 +549,11 @@ func decodePerceptron(d *dec, m *Model) *perceptron {
 		k := d.count(2)
 		for j := 0; j < k && d.err == nil; j++ {
 			t := d.tag(nt)
-			p.cells = append(p.cells, cell{w: float32(float64(d.int()) * weightStep), t: t})
+			q := d.int()
+			if q < math.MinInt16 || q > math.MaxInt16 {
+				d.fail("feature weight out of range")
+			}
+			p.cells = append(p.cells, cell{q: int16(q), t: t})
 		}
 		p.rowStart = append(p.rowStart, int32(len(p.cells)))
 	}

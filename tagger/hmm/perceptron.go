@@ -96,11 +96,16 @@ func (p *perceptron) prepare(m *Model) {
 }
 
 // cell is one weight of a feature row: the tag and its weight side by
-// side, so that reading a row touches one run of memory.
+// side, so that reading a row touches one run of memory. The weight is
+// kept as its count of weightSteps, which halves the rows' memory (and
+// the cache they take); q·weightStep is exact in float32.
 type cell struct {
-	w float32
+	q int16
 	t uint8
 }
+
+// w returns the cell's weight.
+func (c cell) w() float32 { return float32(c.q) * weightStep }
 
 // weight returns the weight of row r for tag t (0 when absent).
 func (p *perceptron) weight(r int32, t uint8) float32 {
@@ -109,7 +114,7 @@ func (p *perceptron) weight(r int32, t uint8) float32 {
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
 		if c.t == t {
-			return c.w
+			return c.w()
 		}
 	}
 	return 0
@@ -576,7 +581,7 @@ func finishPerceptron(m *Model, tr *trainer, keys []uint64, counts []int32, opt 
 			if q == 0 {
 				continue
 			}
-			p.cells = append(p.cells, cell{w: q, t: uint8(t)})
+			p.cells = append(p.cells, cell{q: int16(math.Round(float64(q) / weightStep)), t: uint8(t)})
 		}
 		if int(p.rowStart[len(p.rowStart)-1]) == len(p.cells) {
 			continue // nothing left of this feature

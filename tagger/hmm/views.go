@@ -111,7 +111,7 @@ func (p *perceptron) prepareDense() {
 		p.dense[r] = int32(off)
 		store = append(store, make([]float32, p.nt)...)
 		for _, c := range p.cells[a:b] {
-			store[off+int(c.t)] = c.w
+			store[off+int(c.t)] = c.w()
 		}
 	}
 	p.denseW = append(store, make([]float32, 256)...) // room to view the last row as [256]
@@ -152,7 +152,7 @@ func (p *perceptron) addRow(score *[256]float32, r int32) {
 		return
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
-		score[c.t] += c.w
+		score[c.t] += c.w()
 	}
 }
 

@@ -51,7 +51,7 @@ func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
 				continue
 			}
 			for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
-				score[c.t] += c.w
+				score[c.t] += c.w()
 			}
 		}
 		if dict {
