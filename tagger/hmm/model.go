@@ -199,9 +199,26 @@ func (m *Model) Tag(s *doc.Sentence) {
 			}
 		}
 		if t.Lemma == "" {
-			t.Lemma = m.unknownLemma(t.Form, t.UPOS, t.XPOS)
+			t.Lemma = m.memoLemma(l, i, st, t)
 		}
 	}
+}
+
+// memoLemma lemmatizes token i in state st when the lexicon has no lemma
+// for it. The view of a word outside the lexicon belongs to this lattice
+// alone, so it can keep the last lemma found for the word: an unknown
+// domain word mostly recurs with the same tag, and its lemma then costs
+// no look-ups.
+func (m *Model) memoLemma(l *lattice, i int, st uint8, t *doc.Token) string {
+	if m.perc == nil || i >= len(l.views) || l.wid[i] >= 0 {
+		// (A lexicon word's view is shared by all goroutines: no memo.)
+		return m.unknownLemma(t.Form, t.UPOS, t.XPOS)
+	}
+	v := l.views[i]
+	if !v.lemmaSet || v.lemmaState != st {
+		v.lemma, v.lemmaState, v.lemmaSet = m.unknownLemma(t.Form, t.UPOS, t.XPOS), st, true
+	}
+	return v.lemma
 }
 
 // unknownLemma lemmatizes a word unseen in training. The suffix rules learn

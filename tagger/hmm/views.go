@@ -56,6 +56,11 @@ type wordView struct {
 	pairs   bool
 	pairSet [4]uint64
 	pairRow []int32
+	// For words outside the lexicon only (whose views a lattice owns):
+	// the lemma last found for the word in state lemmaState.
+	lemma      string
+	lemmaState uint8
+	lemmaSet   bool
 }
 
 // viewBoundary holds the rows of the context features that see past the
@@ -69,6 +74,7 @@ type viewBoundary struct {
 // word-alone scores (len = number of tags); keys and buf are scratch
 // space, returned for reuse.
 func (p *perceptron) fillView(v *wordView, form string, alone []float32, keys []uint64, buf []byte) ([]uint64, []byte) {
+	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
 	buf = ti.fill(buf, form)
 	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti)

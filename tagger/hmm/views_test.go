@@ -208,3 +208,38 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 		}
 	}
 }
+
+// TestMemoLemmaFollowsState checks the lemma memo of unknown-word views:
+// the same word in another state, and another word in a reused cache
+// slot, must get their own lemmas.
+func TestMemoLemmaFollowsState(t *testing.T) {
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	l := newLattice()
+	toks := []doc.Token{{Form: "Glorbs"}, {Form: "flimbles"}}
+	m.perc.buildLattice(m, l, toks)
+	for _, st := range []string{"NNS\tNOUN", "JJ\tADJ", "NNS\tNOUN"} {
+		s, found := uint8(0), false
+		for i, name := range m.tags {
+			if name == st {
+				s, found = uint8(i), true
+			}
+		}
+		if !found {
+			t.Fatalf("no state %q", st)
+		}
+		tok := doc.Token{Form: "flimbles", XPOS: m.tagX[s], UPOS: m.tagU[s]}
+		got := m.memoLemma(l, 1, s, &tok)
+		if want := m.unknownLemma(tok.Form, tok.UPOS, tok.XPOS); got != want {
+			t.Errorf("%s: memo %q, want %q", st, got, want)
+		}
+	}
+	// Another word takes over the cache slot: no lemma of the old one.
+	v := l.views[1]
+	m.perc.fillView(v, "wumbles", v.alone, nil, nil)
+	if v.lemmaSet {
+		t.Error("a refilled view kept the lemma of the word before")
+	}
+}
