@@ -216,7 +216,10 @@ func (m *Model) memoLemma(l *lattice, i int, st uint8, t *doc.Token) string {
 	}
 	v := l.views[i]
 	if !v.lemmaSet || v.lemmaState != st {
-		v.lemma, v.lemmaState, v.lemmaSet = m.unknownLemma(t.Form, t.UPOS, t.XPOS), st, true
+		// A clone: the lemma may be the form itself, a slice of the
+		// document's text, which the cache would otherwise keep alive.
+		v.lemma = strings.Clone(m.unknownLemma(t.Form, t.UPOS, t.XPOS))
+		v.lemmaState, v.lemmaSet = st, true
 	}
 	return v.lemma
 }
