@@ -213,9 +213,11 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 		}
 		cur := l.cands[l.off[i]:l.off[i+1]]
 		out := l.pair[l.doff[i]:]
+		l.markTags(cur)
 		for j, b := range prev {
-			p.rowAt(out[j*len(cur):(j+1)*len(cur)], rowOf(i, b), cur)
+			p.rowAt(out[j*len(cur):(j+1)*len(cur)], rowOf(i, b), cur, &l.slot)
 		}
+		l.unmarkTags(cur)
 	}
 }
 

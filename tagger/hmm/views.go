@@ -134,21 +134,40 @@ func (p *perceptron) weightOf(r int32, t uint8) float32 {
 	return p.weight(r, t)
 }
 
-// rowAt sets out[k] to the weight of row r for tag tags[k].
-func (p *perceptron) rowAt(out []float32, r int32, tags []uint8) {
+// rowAt sets out[k] to the weight of row r for tag tags[k]; slot maps
+// each of tags to its index and every other tag to -1 (see markTags), so
+// that a short row is read once, whatever the number of tags.
+func (p *perceptron) rowAt(out []float32, r int32, tags []uint8, slot *[256]int16) {
 	out = out[:len(tags)]
-	switch {
-	case r < 0:
-		clear(out)
-	case p.dense[r] >= 0:
-		d := (*[256]float32)(p.denseW[p.dense[r]:][:256])
+	clear(out)
+	if r < 0 {
+		return
+	}
+	if d := p.dense[r]; d >= 0 {
+		dw := (*[256]float32)(p.denseW[d:][:256])
 		for k, t := range tags {
-			out[k] = d[t]
+			out[k] = dw[t]
 		}
-	default:
-		for k, t := range tags {
-			out[k] = p.weight(r, t)
+		return
+	}
+	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
+		if k := slot[c.t]; k >= 0 {
+			out[k] = c.w()
 		}
+	}
+}
+
+// markTags points l.slot at the index of each of tags; unmarkTags undoes
+// it, leaving every entry -1 again.
+func (l *lattice) markTags(tags []uint8) {
+	for k, t := range tags {
+		l.slot[t] = int16(k)
+	}
+}
+
+func (l *lattice) unmarkTags(tags []uint8) {
+	for _, t := range tags {
+		l.slot[t] = -1
 	}
 }
 

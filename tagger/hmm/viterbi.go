@@ -44,6 +44,7 @@ type lattice struct {
 	rows       []int32
 	perc       *perceptron // the model whose views these are
 	rcand      []uint8     // rank of each candidate (see fold)
+	slot       [256]int16  // the tags of one position → their index, else -1 (markTags)
 	gen        uint64      // counts the sentences decoded, for the cache
 	aside      []wordView  // views of words whose cache slot was taken
 	asideAlone []float32
@@ -51,7 +52,13 @@ type lattice struct {
 
 // newLattice returns an empty lattice; its score scratch has room for
 // every possible tag (maxTags), so scoring may index it by a byte.
-func newLattice() *lattice { return &lattice{score: make([]float32, maxTags+1)} }
+func newLattice() *lattice {
+	l := &lattice{score: make([]float32, maxTags+1)}
+	for i := range l.slot {
+		l.slot[i] = -1
+	}
+	return l
+}
 
 func (l *lattice) reset(n int) {
 	l.n = n
