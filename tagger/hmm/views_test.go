@@ -2,6 +2,7 @@ package hmm
 
 import (
 	"math/rand/v2"
+	"strings"
 	"sync"
 	"testing"
 	"unsafe"
@@ -291,4 +292,32 @@ func TestCacheKeepsNoDocumentText(t *testing.T) {
 	if checked == 0 {
 		t.Fatal("no cache entries to check")
 	}
+}
+
+// FuzzViewsMatchPlainScoring feeds arbitrary token sequences (any bytes,
+// split at spaces) to the fast and the plain scoring and requires the same
+// lattice, over several sentences on one lattice so that the cache of
+// unknown-word views is reused, collides and is refilled.
+func FuzzViewsMatchPlainScoring(f *testing.F) {
+	for _, s := range []string{"The valve opens .", "PLC-3 ÉTÉ 12,5 mm ; „x“", "a a a a a", "\xff\xfe A\x00b"} {
+		f.Add(s)
+	}
+	m, err := Default()
+	if err != nil {
+		f.Fatal(err)
+	}
+	fast, plain := newLattice(), newLattice()
+	f.Fuzz(func(t *testing.T, text string) {
+		var toks []doc.Token
+		for _, w := range strings.Fields(text) {
+			toks = append(toks, doc.Token{Form: w})
+		}
+		for round := 0; round < 2; round++ {
+			m.perc.buildLattice(m, fast, toks)
+			m.perc.buildLatticeRef(m, plain, toks)
+			if !equalSlices(fast.cands, plain.cands) || !equalSlices(fast.emit, plain.emit) || !equalSlices(fast.pair, plain.pair) {
+				t.Fatalf("%q: lattices differ", text)
+			}
+		}
+	})
 }
