@@ -307,24 +307,11 @@ func selectSuffixCands(l *lattice, p []float32, logP []float32) {
 	for _, v := range p {
 		best = max(best, v)
 	}
-	cut := best / 1000
 	start := len(l.cands)
-	for t, v := range p {
-		if v <= 0 || v < cut {
-			continue
-		}
-		n := len(l.cands) - start
-		if n < unknownCap {
-			l.add(uint8(t), v)
-		} else if v > l.emit[len(l.emit)-1] {
-			l.cands[len(l.cands)-1], l.emit[len(l.emit)-1] = uint8(t), v
-		} else {
-			continue
-		}
-		for j := len(l.cands) - 1; j > start && l.emit[j] > l.emit[j-1]; j-- {
-			l.cands[j], l.cands[j-1] = l.cands[j-1], l.cands[j]
-			l.emit[j], l.emit[j-1] = l.emit[j-1], l.emit[j]
-		}
+	if best > 0 {
+		// Tags below a thousandth of the best (and so every tag of
+		// probability 0) are not candidates.
+		insertTop(l, p, unknownCap, best/1000)
 	}
 	if len(l.cands) == start { // cannot happen with a non-empty table
 		l.add(0, 1)

@@ -259,10 +259,21 @@ const maxFastCands = 16
 
 // selectCandsLong is selectCands for more than maxFastCands candidates.
 func selectCandsLong(l *lattice, score []float32, maxCands int) {
+	insertTop(l, score, maxCands, negInf)
+	l.closePos()
+}
+
+// insertTop appends to the position being built the k tags of highest
+// score, best first (of equal scores, the lower tag first), leaving out
+// tags that score below floor; it sorts by insertion into the lattice.
+func insertTop(l *lattice, score []float32, k int, floor float32) {
 	start := len(l.cands)
 	for t, s := range score {
+		if s < floor {
+			continue
+		}
 		n := len(l.cands) - start
-		if n < maxCands {
+		if n < k {
 			l.add(uint8(t), s)
 		} else if s > l.emit[len(l.emit)-1] {
 			l.cands[len(l.cands)-1], l.emit[len(l.emit)-1] = uint8(t), s
@@ -275,7 +286,6 @@ func selectCandsLong(l *lattice, score []float32, maxCands int) {
 			l.emit[j], l.emit[j-1] = l.emit[j-1], l.emit[j]
 		}
 	}
-	l.closePos()
 }
 
 // trainer holds the dense weights of perceptron training. Averaging uses
