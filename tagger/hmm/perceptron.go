@@ -107,10 +107,14 @@ type cell struct {
 // w returns the cell's weight.
 func (c cell) w() float32 { return float32(c.q) * weightStep }
 
-// weight returns the weight of row r for tag t (0 when absent).
+// weight returns the weight of row r for tag t (0 when absent), from the
+// dense copy of a long row (see denseMin) or by scanning a short one.
 func (p *perceptron) weight(r int32, t uint8) float32 {
 	if r < 0 {
 		return 0
+	}
+	if d := p.dense[r]; d >= 0 {
+		return p.denseW[int(d)+int(t)]
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
 		if c.t == t {
@@ -184,7 +188,7 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 			for _, t := range p.dictTags(w) {
 				var s float32
 				for _, r := range l.rows {
-					s += p.weightOf(r, t)
+					s += p.weight(r, t)
 				}
 				l.add(t, s+v.alone[t])
 			}

@@ -123,17 +123,6 @@ func (p *perceptron) prepareDense() {
 	p.denseW = append(store, make([]float32, 256)...) // room to view the last row as [256]
 }
 
-// weightOf is weight for rows that may be dense.
-func (p *perceptron) weightOf(r int32, t uint8) float32 {
-	if r < 0 {
-		return 0
-	}
-	if d := p.dense[r]; d >= 0 {
-		return p.denseW[int(d)+int(t)]
-	}
-	return p.weight(r, t)
-}
-
 // rowAt sets out[k] to the weight of row r for tag tags[k]; slot maps
 // each of tags to its index and every other tag to -1 (see markTags), so
 // that a short row is read once, whatever the number of tags.
