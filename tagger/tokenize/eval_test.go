@@ -1,7 +1,6 @@
 package tokenize
 
 import (
-	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -38,27 +37,29 @@ type goldText struct {
 // readGold rebuilds the raw text of a CoNLL-U file from its "# text"
 // lines: the sentences of a paragraph joined by a space, a blank line at
 // "# newpar" and "# newdoc".
-func readGold(t testing.TB, path string) goldText {
+// goldSentences reads a treebank file whole.
+func goldSentences(t testing.TB, path string) []*conllu.Sentence {
 	t.Helper()
 	f, err := os.Open(path)
 	if err != nil {
 		t.Fatal(err)
 	}
 	defer f.Close()
+	sents, err := conllu.ReadAll(f, filepath.Base(path))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return sents
+}
+
+func readGold(t testing.TB, path string) goldText {
+	t.Helper()
 	var (
 		g   goldText
 		b   strings.Builder
 		pos int // non-space characters so far
 	)
-	r := conllu.NewReader(f, filepath.Base(path))
-	for {
-		s, err := r.Next()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, s := range goldSentences(t, path) {
 		if b.Len() > 0 {
 			if s.NewPar || s.NewDoc {
 				b.WriteString("\n\n")
@@ -81,9 +82,6 @@ func readGold(t testing.TB, path string) goldText {
 			}
 		}
 		g.sents = append(g.sents, span{sentStart, pos})
-	}
-	if errs := r.Errors(); len(errs) > 0 {
-		t.Fatal(errs)
 	}
 	g.text = b.String()
 	g.nonSpace = pos
@@ -269,21 +267,8 @@ func TestEWTLineBreaks(t *testing.T) {
 // perLineText rebuilds a treebank file with one sentence per line and a
 // blank line between paragraphs.
 func perLineText(t *testing.T, path string) string {
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
 	var b strings.Builder
-	r := conllu.NewReader(f, filepath.Base(path))
-	for {
-		s, err := r.Next()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, s := range goldSentences(t, path) {
 		if b.Len() > 0 {
 			b.WriteString("\n")
 			if s.NewPar || s.NewDoc {
@@ -303,11 +288,6 @@ func perLineText(t *testing.T, path string) string {
 func TestEWTNaiveBaseline(t *testing.T) {
 	dir := testenv.SharedDir(t, "data/ud-en-ewt")
 	path := filepath.Join(dir, "en_ewt-ud-test.conllu")
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
 	type word struct {
 		form   string
 		newPar bool // first word of a paragraph
@@ -317,15 +297,7 @@ func TestEWTNaiveBaseline(t *testing.T) {
 		gold  []span
 		pos   int
 	)
-	r := conllu.NewReader(f, filepath.Base(path))
-	for {
-		s, err := r.Next()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, s := range goldSentences(t, path) {
 		start := pos
 		for i, w := range s.Tokens {
 			words = append(words, word{w.Form, i == 0 && (s.NewPar || s.NewDoc)})
