@@ -162,24 +162,16 @@ func (d *dec) fail(msg string) {
 	}
 }
 
-func (d *dec) uint() uint64 {
-	if d.err != nil {
-		return 0
-	}
-	v, n := binary.Uvarint(d.b)
-	if n <= 0 {
-		d.fail("bad varint")
-		return 0
-	}
-	d.b = d.b[n:]
-	return v
-}
+func (d *dec) uint() uint64 { return varint(d, binary.Uvarint) }
 
-func (d *dec) int() int64 {
+func (d *dec) int() int64 { return varint(d, binary.Varint) }
+
+// varint reads one varint with read (binary.Uvarint or binary.Varint).
+func varint[T uint64 | int64](d *dec, read func([]byte) (T, int)) T {
 	if d.err != nil {
 		return 0
 	}
-	v, n := binary.Varint(d.b)
+	v, n := read(d.b)
 	if n <= 0 {
 		d.fail("bad varint")
 		return 0
