@@ -105,22 +105,10 @@ func (g *ruleGen) expr(depth int) (string, string) {
 	case k < 4:
 		s, set := g.tokenSet(0)
 		return s, classOf(set)
-	case k < 6:
-		n := 2 + g.r.Intn(2)
-		var ours, theirs []string
-		for i := 0; i < n; i++ {
-			o, t := g.expr(depth + 1)
-			ours, theirs = append(ours, o), append(theirs, t)
-		}
-		return "(" + strings.Join(ours, " ") + ")", "(?:" + strings.Join(theirs, "") + ")"
-	case k < 8:
-		n := 2 + g.r.Intn(2)
-		var ours, theirs []string
-		for i := 0; i < n; i++ {
-			o, t := g.expr(depth + 1)
-			ours, theirs = append(ours, o), append(theirs, t)
-		}
-		return "(" + strings.Join(ours, " | ") + ")", "(?:" + strings.Join(theirs, "|") + ")"
+	case k < 6: // sequence
+		return g.group(depth, " ", "")
+	case k < 8: // alternation
+		return g.group(depth, " | ", "|")
 	case k < 11:
 		o, t := g.expr(depth + 1)
 		if o == "^" || o == "$" { // anchors cannot repeat
@@ -263,4 +251,16 @@ func TestDifferentialSeveralRules(t *testing.T) {
 			}
 		}
 	}
+}
+
+// group builds 2 or 3 sub-expressions joined by sep in our syntax and by
+// theirSep in Go's.
+func (g *ruleGen) group(depth int, sep, theirSep string) (string, string) {
+	n := 2 + g.r.Intn(2)
+	var ours, theirs []string
+	for i := 0; i < n; i++ {
+		o, t := g.expr(depth + 1)
+		ours, theirs = append(ours, o), append(theirs, t)
+	}
+	return "(" + strings.Join(ours, sep) + ")", "(?:" + strings.Join(theirs, theirSep) + ")"
 }
