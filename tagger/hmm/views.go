@@ -259,7 +259,13 @@ func (p *perceptron) unknownView(l *lattice, form string) *wordView {
 // viewsOf points l.views at the view of every token and records the
 // lexicon index of each token in l.wid.
 func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
-	l.perc = p
+	if l.perc != p {
+		// The cache holds views (rows) of another model's weights: during
+		// training with progress reports a model's weights are replaced
+		// after every epoch, and its pooled lattices stay.
+		l.cache, l.cacheAlone = nil, nil
+		l.perc = p
+	}
 	n := len(toks)
 	if cap(l.views) < n {
 		l.views = make([]*wordView, n, 2*n)

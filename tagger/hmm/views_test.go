@@ -321,3 +321,33 @@ func FuzzViewsMatchPlainScoring(f *testing.F) {
 		}
 	})
 }
+
+// TestCacheFollowsWeights reuses a lattice whose cache of unknown-word
+// views was filled under other weights (as training does, which replaces a
+// model's weights after every epoch and keeps its pooled lattices): the
+// lattice must score as a fresh one does.
+func TestCacheFollowsWeights(t *testing.T) {
+	m1, err := Decode(model.EnglishEWT)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m2, err := Decode(model.EnglishEWT)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range m2.perc.cells {
+		m2.perc.cells[i].q = -m2.perc.cells[i].q // other weights, same rows
+	}
+	m2.perc.prepareDense()
+	var toks []doc.Token
+	for _, w := range strings.Fields("The glorbished flanges of the zentrifuge were unpackaged .") {
+		toks = append(toks, doc.Token{Form: w})
+	}
+	reused, fresh := newLattice(), newLattice()
+	m1.perc.buildLattice(m1, reused, toks)
+	m2.perc.buildLattice(m2, reused, toks)
+	m2.perc.buildLattice(m2, fresh, toks)
+	if !equalSlices(reused.cands, fresh.cands) || !equalSlices(reused.emit, fresh.emit) {
+		t.Fatalf("reused lattice scores %v %v, fresh one %v %v", reused.cands, reused.emit, fresh.cands, fresh.emit)
+	}
+}
