@@ -180,28 +180,40 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 			continue
 		}
 		v := l.views[i]
-		l.rows = p.contextRows(l.rows[:0], l.views, i)
+		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, i)
 		if dict {
-			// Only the dictionary's tags: the context's weights for each,
-			// then the word's own part, the order in which the dictionary
-			// scores were always summed.
+			// Only the dictionary's tags.
 			for _, t := range p.dictTags(w) {
-				var s float32
+				s := v.alone[t]
+				for _, vec := range l.vecs {
+					s += vec[t]
+				}
 				for _, r := range l.rows {
 					s += p.weight(r, t)
 				}
-				l.add(t, s+v.alone[t])
+				l.add(t, s)
 			}
 			l.closePos()
 			continue
 		}
 		copy(score[:], v.alone)
+		for _, vec := range l.vecs {
+			addDense(score, vec)
+		}
 		for _, r := range l.rows {
 			p.addRow(score, r)
 		}
 		selectCands(l, score[:nt], p.maxCands)
 	}
 	p.fillPairs(l, uint8(nt), l.pairRowOf)
+}
+
+// addDense adds vec, indexed by tag, to score.
+func addDense(score *[256]float32, vec []float32) {
+	vec = vec[:min(len(vec), 256)]
+	for t, w := range vec {
+		score[t] += w
+	}
 }
 
 // fillPairs scores the tag-word pair features of every state; rowOf gives

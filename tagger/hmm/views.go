@@ -48,8 +48,16 @@ type wordView struct {
 	alone []float32
 	// ctx[c] is the row (or -1) of context feature c when this word is the
 	// neighbour it describes: ctx[cPrev1] is read by the word after it.
-	ctx        [nCtx]int32
-	upperFirst bool
+	ctx [nCtx]int32
+	// asPrev and asNext, for lexicon words, are the summed weights per
+	// tag of the context features this word sets as the word before
+	// another (prev1, prevSuf3, prevShape) and as the word after another
+	// (next1, nextSuf3, nextShape, nextPrefix1). The words around a
+	// token scored in full are mostly frequent lexicon words, and two
+	// dense vectors read in order cost less than seven rows scattered
+	// over the weights. nil for other words, which use their rows.
+	asPrev, asNext []float32
+	upperFirst     bool
 	// pairs, when set, marks in pairSet every previous tag that has a
 	// "word after tag" feature with this word; pairRow holds their rows in
 	// the order of the tags. Without it the rows are looked up by key.
@@ -204,6 +212,7 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		}
 	}
 	v.pairs = true
+	p.sideVectors(v)
 	if !p.views[w].CompareAndSwap(nil, v) {
 		v = p.views[w].Load()
 	}
@@ -310,9 +319,11 @@ func (p *perceptron) pairRow(v *wordView, b uint8) int32 {
 	return v.pairRow[k]
 }
 
-// contextRows appends the rows of the context features of token i, in
-// the order of extractFeatures.
-func (p *perceptron) contextRows(rows []int32, vs []*wordView, i int) []int32 {
+// contextParts gathers the context features of token i: the dense
+// vectors of its neighbours that have them (see wordView.asPrev), and the
+// rows of all other features. The sums are exact (weights are multiples of
+// weightStep and small), so the order of the parts does not matter.
+func (p *perceptron) contextParts(rows []int32, vecs [][]float32, vs []*wordView, i int) ([]int32, [][]float32) {
 	n := len(vs)
 	v := vs[i]
 	if v.upperFirst {
@@ -323,12 +334,28 @@ func (p *perceptron) contextRows(rows []int32, vs []*wordView, i int) []int32 {
 		}
 	}
 	p1, n1 := hStart, hEnd
-	prev1, next1, prev2, next2 := p.edge.prev1, p.edge.next1, p.edge.prev2, p.edge.next2
+	prev2, next2 := p.edge.prev2, p.edge.next2
 	if i > 0 {
-		p1, prev1 = vs[i-1].lower, vs[i-1].ctx[cPrev1]
+		w := vs[i-1]
+		p1 = w.lower
+		if w.asPrev != nil {
+			vecs = append(vecs, w.asPrev)
+		} else {
+			rows = append(rows, w.ctx[cPrev1], w.ctx[cPrevSuf3], w.ctx[cPrevShape])
+		}
+	} else {
+		rows = append(rows, p.edge.prev1)
 	}
 	if i+1 < n {
-		n1, next1 = vs[i+1].lower, vs[i+1].ctx[cNext1]
+		w := vs[i+1]
+		n1 = w.lower
+		if w.asNext != nil {
+			vecs = append(vecs, w.asNext)
+		} else {
+			rows = append(rows, w.ctx[cNext1], w.ctx[cNextSuf3], w.ctx[cNextShape], w.ctx[cNextPrefix1])
+		}
+	} else {
+		rows = append(rows, p.edge.next1)
 	}
 	if i > 1 {
 		prev2 = vs[i-2].ctx[cPrev2]
@@ -336,15 +363,30 @@ func (p *perceptron) contextRows(rows []int32, vs []*wordView, i int) []int32 {
 	if i+2 < n {
 		next2 = vs[i+2].ctx[cNext2]
 	}
-	rows = append(rows, prev1, next1, prev2, next2,
+	rows = append(rows, prev2, next2,
 		p.row(key2(fPrevWord, p1, v.lower)), p.row(key2(fWordNext, v.lower, n1)))
-	if i > 0 {
-		w := vs[i-1]
-		rows = append(rows, w.ctx[cPrevSuf3], w.ctx[cPrevShape])
+	return rows, vecs
+}
+
+// sideVectors fills v.asPrev and v.asNext from the rows in v.ctx.
+func (p *perceptron) sideVectors(v *wordView) {
+	both := make([]float32, 2*p.nt)
+	v.asPrev, v.asNext = both[:p.nt:p.nt], both[p.nt:]
+	for _, c := range [...]int{cPrev1, cPrevSuf3, cPrevShape} {
+		p.addRowTo(v.asPrev, v.ctx[c])
 	}
-	if i+1 < n {
-		w := vs[i+1]
-		rows = append(rows, w.ctx[cNextSuf3], w.ctx[cNextShape], w.ctx[cNextPrefix1])
+	for _, c := range [...]int{cNext1, cNextSuf3, cNextShape, cNextPrefix1} {
+		p.addRowTo(v.asNext, v.ctx[c])
 	}
-	return rows
+}
+
+// addRowTo adds the weights of row r (none when r < 0) to vec, indexed by
+// tag.
+func (p *perceptron) addRowTo(vec []float32, r int32) {
+	if r < 0 {
+		return
+	}
+	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
+		vec[c.t] += c.w()
+	}
 }

@@ -42,6 +42,7 @@ type lattice struct {
 	cache      []cachedView
 	cacheAlone []float32
 	rows       []int32
+	vecs       [][]float32
 	perc       *perceptron // the model whose views these are
 	rcand      []uint8     // rank of each candidate (see fold)
 	slot       [256]int16  // the tags of one position → their index, else -1 (markTags)
