@@ -42,7 +42,7 @@ type perceptron struct {
 	// dense[r] is the offset in denseW of row r as a dense vector over
 	// the tags, or -1 for a short row (see denseMin).
 	dense  []int32
-	denseW []float32
+	denseW []int16 // weights in steps, as in cells
 }
 
 // dictShare is the smallest share of a frequent word's occurrences with
@@ -107,18 +107,24 @@ type cell struct {
 // w returns the cell's weight.
 func (c cell) w() float32 { return float32(c.q) * weightStep }
 
-// weight returns the weight of row r for tag t (0 when absent), from the
-// dense copy of a long row (see denseMin) or by scanning a short one.
+// weight returns the weight of row r for tag t (0 when absent).
 func (p *perceptron) weight(r int32, t uint8) float32 {
+	return float32(p.steps(r, t)) * weightStep
+}
+
+// steps returns the weight of row r for tag t in steps (0 when absent),
+// from the dense copy of a long row (see denseMin) or by scanning a short
+// one.
+func (p *perceptron) steps(r int32, t uint8) int32 {
 	if r < 0 {
 		return 0
 	}
 	if d := p.dense[r]; d >= 0 {
-		return p.denseW[int(d)+int(t)]
+		return int32(p.denseW[int(d)+int(t)])
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
 		if c.t == t {
-			return c.w()
+			return int32(c.q)
 		}
 	}
 	return 0
@@ -170,7 +176,7 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 	l.reset(len(toks))
 	p.viewsOf(m, l, toks)
 	nt := len(m.tags)
-	score := (*[256]float32)(l.score)
+	score := &l.steps
 	for i := range toks {
 		w := l.wid[i]
 		dict := w >= 0 && m.words[w].count >= p.dictMin
@@ -186,12 +192,12 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 			for _, t := range p.dictTags(w) {
 				s := v.alone[t]
 				for _, vec := range l.vecs {
-					s += vec[t]
+					s += int32(vec[t])
 				}
 				for _, r := range l.rows {
-					s += p.weight(r, t)
+					s += p.steps(r, t)
 				}
-				l.add(t, s)
+				l.add(t, float32(s)*weightStep)
 			}
 			l.closePos()
 			continue
@@ -203,16 +209,16 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		for _, r := range l.rows {
 			p.addRow(score, r)
 		}
-		selectCands(l, score[:nt], p.maxCands)
+		selectCands(l, score[:nt], p.maxCands, weightStep)
 	}
 	p.fillPairs(l, uint8(nt), l.pairRowOf)
 }
 
-// addDense adds vec, indexed by tag, to score.
-func addDense(score *[256]float32, vec []float32) {
+// addDense adds vec, indexed by tag, to score (in steps).
+func addDense(score *[256]int32, vec []int16) {
 	vec = vec[:min(len(vec), 256)]
 	for t, w := range vec {
-		score[t] += w
+		score[t] += int32(w)
 	}
 }
 
@@ -240,15 +246,21 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 // selectCands adds the maxCands best-scoring tags of a token to the
 // lattice, best first (of equal scores, the lower tag first), by partial
 // insertion sort on the stack: after the first few tags the running
-// threshold turns almost every other tag away with one comparison.
-func selectCands(l *lattice, score []float32, maxCands int) {
+// threshold turns almost every other tag away with one comparison. The
+// scores are weights (float32) or whole weight steps (int32, scale
+// weightStep); the lattice gets score·scale.
+func selectCands[S int32 | float32](l *lattice, score []S, maxCands int, scale float32) {
 	k := min(maxCands, len(score))
 	if k > maxFastCands {
-		selectCandsLong(l, score, maxCands)
+		f := l.score[:len(score)] // may be score itself (training), scale 1
+		for t, s := range score {
+			f[t] = float32(s) * scale
+		}
+		selectCandsLong(l, f, maxCands)
 		return
 	}
 	var tags [maxFastCands]uint8
-	var vals [maxFastCands]float32
+	var vals [maxFastCands]S
 	n := 0
 	for t, s := range score {
 		if n == k {
@@ -266,7 +278,9 @@ func selectCands(l *lattice, score []float32, maxCands int) {
 		n++
 	}
 	l.cands = append(l.cands, tags[:n]...)
-	l.emit = append(l.emit, vals[:n]...)
+	for _, v := range vals[:n] {
+		l.emit = append(l.emit, float32(v)*scale)
+	}
 	l.closePos()
 }
 
@@ -488,7 +502,7 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 					}
 					l.closePos()
 				} else {
-					selectCands(l, score, m.perc.maxCands)
+					selectCands(l, score, m.perc.maxCands, 1)
 				}
 			}
 			// Tag-word pair scores from the current weights.

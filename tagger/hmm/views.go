@@ -45,7 +45,7 @@ type wordView struct {
 	lower uint64 // hash of the lower-cased form, for the bigram and pair keys
 	// alone is the summed weight per tag of the word-alone features, in
 	// feature order; nil for words the tag dictionary settles on its own.
-	alone []float32
+	alone []int32 // in weight steps
 	// ctx[c] is the row (or -1) of context feature c when this word is the
 	// neighbour it describes: ctx[cPrev1] is read by the word after it.
 	ctx [nCtx]int32
@@ -56,7 +56,7 @@ type wordView struct {
 	// token scored in full are mostly frequent lexicon words, and two
 	// dense vectors read in order cost less than seven rows scattered
 	// over the weights. nil for other words, which use their rows.
-	asPrev, asNext []float32
+	asPrev, asNext []int16 // in weight steps
 	upperFirst     bool
 	// pairs, when set, marks in pairSet every previous tag that has a
 	// "word after tag" feature with this word; pairRow holds their rows in
@@ -81,7 +81,7 @@ type viewBoundary struct {
 // fillView computes the view of a form. alone, when not nil, receives the
 // word-alone scores (len = number of tags); keys and buf are scratch
 // space, returned for reuse.
-func (p *perceptron) fillView(v *wordView, form string, alone []float32, keys []uint64, buf []byte) ([]uint64, []byte) {
+func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []uint64, buf []byte) ([]uint64, []byte) {
 	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
 	buf = ti.fill(buf, form)
@@ -96,7 +96,7 @@ func (p *perceptron) fillView(v *wordView, form string, alone []float32, keys []
 	}
 	v.alone = alone
 	if alone != nil {
-		var acc [256]float32
+		var acc [256]int32
 		for _, k := range keys {
 			p.addRow(&acc, p.row(k))
 		}
@@ -114,7 +114,7 @@ const denseMin = 16
 // prepareDense builds the dense copies of the long rows.
 func (p *perceptron) prepareDense() {
 	p.dense = make([]int32, len(p.rowStart)-1)
-	var store []float32
+	var store []int16
 	for r := range p.dense {
 		a, b := p.rowStart[r], p.rowStart[r+1]
 		if b-a < denseMin {
@@ -123,12 +123,12 @@ func (p *perceptron) prepareDense() {
 		}
 		off := len(store)
 		p.dense[r] = int32(off)
-		store = append(store, make([]float32, p.nt)...)
+		store = append(store, make([]int16, p.nt)...)
 		for _, c := range p.cells[a:b] {
-			store[off+int(c.t)] = c.w()
+			store[off+int(c.t)] = c.q
 		}
 	}
-	p.denseW = append(store, make([]float32, 256)...) // room to view the last row as [256]
+	p.denseW = append(store, make([]int16, 256)...) // room to view the last row as [256]
 }
 
 // rowAt sets out[k] to the weight of row r for tag tags[k]; slot maps
@@ -141,9 +141,9 @@ func (p *perceptron) rowAt(out []float32, r int32, tags []uint8, slot *[256]int1
 		return
 	}
 	if d := p.dense[r]; d >= 0 {
-		dw := (*[256]float32)(p.denseW[d:][:256])
+		dw := (*[256]int16)(p.denseW[d:][:256])
 		for k, t := range tags {
-			out[k] = dw[t]
+			out[k] = float32(dw[t]) * weightStep
 		}
 		return
 	}
@@ -168,13 +168,13 @@ func (l *lattice) unmarkTags(tags []uint8) {
 	}
 }
 
-// addRow adds the weights of row r (none when r < 0) to score.
-func (p *perceptron) addRow(score *[256]float32, r int32) {
+// addRow adds the weights of row r (none when r < 0) to score, in steps.
+func (p *perceptron) addRow(score *[256]int32, r int32) {
 	if r < 0 {
 		return
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
-		score[c.t] += c.w()
+		score[c.t] += int32(c.q)
 	}
 }
 
@@ -200,9 +200,9 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		return v
 	}
 	v := &wordView{}
-	var alone []float32
+	var alone []int32
 	if m.words[w].count < p.dictMin || p.dict[w].n > 1 {
-		alone = make([]float32, p.nt)
+		alone = make([]int32, p.nt)
 	}
 	l.feats, l.buf = p.fillView(v, form, alone, l.feats, l.buf)
 	for b := 0; b <= p.nt; b++ {
@@ -239,7 +239,7 @@ type cachedView struct {
 func (p *perceptron) unknownView(l *lattice, form string) *wordView {
 	if l.cache == nil {
 		l.cache = make([]cachedView, unknownCacheSize)
-		l.cacheAlone = make([]float32, unknownCacheSize*p.nt)
+		l.cacheAlone = make([]int32, unknownCacheSize*p.nt)
 	}
 	slot := hashString(form) & (unknownCacheSize - 1)
 	c := &l.cache[slot]
@@ -279,7 +279,7 @@ func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
 	if cap(l.views) < n {
 		l.views = make([]*wordView, n, 2*n)
 		l.aside = make([]wordView, 0, 2*n)
-		l.asideAlone = make([]float32, 2*n*p.nt)
+		l.asideAlone = make([]int32, 2*n*p.nt)
 	}
 	l.views = l.views[:n]
 	l.wid = l.wid[:0]
@@ -323,7 +323,7 @@ func (p *perceptron) pairRow(v *wordView, b uint8) int32 {
 // vectors of its neighbours that have them (see wordView.asPrev), and the
 // rows of all other features. The sums are exact (weights are multiples of
 // weightStep and small), so the order of the parts does not matter.
-func (p *perceptron) contextParts(rows []int32, vecs [][]float32, vs []*wordView, i int) ([]int32, [][]float32) {
+func (p *perceptron) contextParts(rows []int32, vecs [][]int16, vs []*wordView, i int) ([]int32, [][]int16) {
 	n := len(vs)
 	v := vs[i]
 	if v.upperFirst {
@@ -368,25 +368,24 @@ func (p *perceptron) contextParts(rows []int32, vecs [][]float32, vs []*wordView
 	return rows, vecs
 }
 
-// sideVectors fills v.asPrev and v.asNext from the rows in v.ctx.
+// sideVectors fills v.asPrev and v.asNext from the rows in v.ctx, or
+// leaves them nil when a sum does not fit 16 bits (none does in the
+// default model, whose largest is about 25,000 steps).
 func (p *perceptron) sideVectors(v *wordView) {
-	both := make([]float32, 2*p.nt)
-	v.asPrev, v.asNext = both[:p.nt:p.nt], both[p.nt:]
+	var prev, next [256]int32
 	for _, c := range [...]int{cPrev1, cPrevSuf3, cPrevShape} {
-		p.addRowTo(v.asPrev, v.ctx[c])
+		p.addRow(&prev, v.ctx[c])
 	}
 	for _, c := range [...]int{cNext1, cNextSuf3, cNextShape, cNextPrefix1} {
-		p.addRowTo(v.asNext, v.ctx[c])
+		p.addRow(&next, v.ctx[c])
 	}
-}
-
-// addRowTo adds the weights of row r (none when r < 0) to vec, indexed by
-// tag.
-func (p *perceptron) addRowTo(vec []float32, r int32) {
-	if r < 0 {
-		return
+	both := make([]int16, 2*p.nt)
+	for t := range p.nt {
+		a, b := prev[t], next[t]
+		if a != int32(int16(a)) || b != int32(int16(b)) {
+			return
+		}
+		both[t], both[p.nt+t] = int16(a), int16(b)
 	}
-	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
-		vec[c.t] += c.w()
-	}
+	v.asPrev, v.asNext = both[:p.nt:p.nt], both[p.nt:]
 }

@@ -67,7 +67,7 @@ func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
 			l.closePos()
 			continue
 		}
-		selectCands(l, score, p.maxCands)
+		selectCands(l, score, p.maxCands, 1)
 	}
 	// "Word after tag" rows by key, from the hashes of every token.
 	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) })
@@ -123,17 +123,27 @@ func TestSelectCandsAgrees(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
 	a, b := newLattice(), newLattice()
 	score := make([]float32, 102)
+	steps := make([]int32, 102)
 	for round := 0; round < 2000; round++ {
 		for i := range score {
 			score[i] = float32(rng.IntN(20) - 10) // small range: ties are common
 		}
-		k := 1 + rng.IntN(maxFastCands)
+		k := 1 + rng.IntN(maxFastCands+4) // beyond maxFastCands: the long way
 		a.reset(1)
 		b.reset(1)
-		selectCands(a, score, k)
+		selectCands(a, score, k, 1)
 		selectCandsLong(b, score, k)
 		if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
 			t.Fatalf("k=%d: %v %v, want %v %v", k, a.cands, a.emit, b.cands, b.emit)
+		}
+		// The same scores in whole steps.
+		for i := range score {
+			steps[i] = int32(score[i])
+		}
+		a.reset(1)
+		selectCands(a, steps, k, 1)
+		if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
+			t.Fatalf("k=%d, steps: %v %v, want %v %v", k, a.cands, a.emit, b.cands, b.emit)
 		}
 	}
 }

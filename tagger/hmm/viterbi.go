@@ -40,15 +40,16 @@ type lattice struct {
 	// lexicon, whose word-alone scores live in cacheAlone; rows is scratch.
 	views      []*wordView
 	cache      []cachedView
-	cacheAlone []float32
+	cacheAlone []int32
 	rows       []int32
-	vecs       [][]float32
+	vecs       [][]int16
+	steps      [256]int32  // scratch: one score per tag, in weight steps
 	perc       *perceptron // the model whose views these are
 	rcand      []uint8     // rank of each candidate (see fold)
 	slot       [256]int16  // the tags of one position → their index, else -1 (markTags)
 	gen        uint64      // counts the sentences decoded, for the cache
 	aside      []wordView  // views of words whose cache slot was taken
-	asideAlone []float32
+	asideAlone []int32
 }
 
 // newLattice returns an empty lattice; its score scratch has room for
