@@ -211,7 +211,7 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		}
 		selectCands(l, score[:nt], p.maxCands, weightStep)
 	}
-	p.fillPairs(l, uint8(nt), l.pairRowOf)
+	p.fillPairs(l, uint8(nt), l.pairRowOf, l.views)
 }
 
 // addDense adds vec, indexed by tag, to score (in steps).
@@ -223,8 +223,10 @@ func addDense(score *[256]int32, vec []int16) {
 }
 
 // fillPairs scores the tag-word pair features of every state; rowOf gives
-// the row of "word i after tag b".
-func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint8) int32) {
+// the row of "word i after tag b". views, when not nil, are the tokens'
+// views: the scores of words the tag dictionary settles are then copied
+// from their views (wordView.pairW) instead of read from rows.
+func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint8) int32, views []*wordView) {
 	size := l.layout()
 	l.pair = growF32(l.pair, size)
 	for i := 0; i < l.n; i++ {
@@ -235,9 +237,22 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 		}
 		cur := l.cands[l.off[i]:l.off[i+1]]
 		out := l.pair[l.doff[i]:]
+		nc := len(cur)
+		if views != nil && int(views[i].ndict) == nc { // cur is the word's dictionary tags
+			v := views[i]
+			for j, b := range prev {
+				o := out[j*nc : (j+1)*nc]
+				if x := v.pairIndex(b); x >= 0 {
+					copy(o, v.pairW[x*nc:(x+1)*nc])
+				} else {
+					clear(o)
+				}
+			}
+			continue
+		}
 		l.markTags(cur)
 		for j, b := range prev {
-			p.rowAt(out[j*len(cur):(j+1)*len(cur)], rowOf(i, b), cur, &l.slot)
+			p.rowAt(out[j*nc:(j+1)*nc], rowOf(i, b), cur, &l.slot)
 		}
 		l.unmarkTags(cur)
 	}

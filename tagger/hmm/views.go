@@ -64,6 +64,12 @@ type wordView struct {
 	pairs   bool
 	pairSet [4]uint64
 	pairRow []int32
+	// For a word the tag dictionary settles (ndict tags, its candidates
+	// in every sentence): pairW[x*ndict+k] is the weight of pair row
+	// pairRow[x] for the word's k-th tag, so that filling its pair scores
+	// reads no rows at all. ndict is 0 for other words.
+	ndict uint8
+	pairW []float32
 	// For words outside the lexicon only (whose views a lattice owns):
 	// the lemma last found for the word in state lemmaState.
 	lemma      string
@@ -212,6 +218,16 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		}
 	}
 	v.pairs = true
+	if m.words[w].count >= p.dictMin {
+		tags := p.dictTags(w)
+		v.ndict = uint8(len(tags))
+		v.pairW = make([]float32, 0, len(v.pairRow)*len(tags))
+		for _, r := range v.pairRow {
+			for _, t := range tags {
+				v.pairW = append(v.pairW, p.weight(r, t))
+			}
+		}
+	}
 	p.sideVectors(v)
 	if !p.views[w].CompareAndSwap(nil, v) {
 		v = p.views[w].Load()
@@ -297,6 +313,21 @@ func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
 	}
 }
 
+// pairIndex returns the index in v.pairRow of the row of the feature
+// "word of v after tag b", or -1; v.pairs must be set.
+func (v *wordView) pairIndex(b uint8) int {
+	w, bit := b>>6, uint64(1)<<(b&63)
+	if v.pairSet[w]&bit == 0 {
+		return -1
+	}
+	// The row's index is the number of marked tags below b.
+	k := bits.OnesCount64(v.pairSet[w] & (bit - 1))
+	for x := range w {
+		k += bits.OnesCount64(v.pairSet[x])
+	}
+	return k
+}
+
 // pairRowOf is fillPairs' row function for the lattice's views; the
 // lattice keeps it as a method value so that no closure is made per
 // sentence.
@@ -307,16 +338,10 @@ func (p *perceptron) pairRow(v *wordView, b uint8) int32 {
 	if !v.pairs {
 		return p.row(pairKey(v.lower, b))
 	}
-	w, bit := b>>6, uint64(1)<<(b&63)
-	if v.pairSet[w]&bit == 0 {
-		return -1
+	if k := v.pairIndex(b); k >= 0 {
+		return v.pairRow[k]
 	}
-	// The row's index is the number of marked tags below b.
-	k := bits.OnesCount64(v.pairSet[w] & (bit - 1))
-	for x := range w {
-		k += bits.OnesCount64(v.pairSet[x])
-	}
-	return v.pairRow[k]
+	return -1
 }
 
 // contextParts gathers the context features of token i: the dense

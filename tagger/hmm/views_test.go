@@ -70,7 +70,7 @@ func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
 		selectCands(l, score, p.maxCands, 1)
 	}
 	// "Word after tag" rows by key, from the hashes of every token.
-	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) })
+	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) }, nil)
 }
 
 // TestViewsMatchPlainScoring holds the decoder's fast scoring (views.go) to
