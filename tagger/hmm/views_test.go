@@ -361,3 +361,33 @@ func TestCacheFollowsWeights(t *testing.T) {
 		t.Fatalf("reused lattice scores %v %v, fresh one %v %v", reused.cands, reused.emit, fresh.cands, fresh.emit)
 	}
 }
+
+// TestRowFindsEveryKey: the Bloom filter in front of the feature table
+// may let absent keys through to the table, but must never turn away a
+// key that is there.
+func TestRowFindsEveryKey(t *testing.T) {
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := m.perc
+	for i, k := range p.keys {
+		if r := p.row(k); r != int32(i) {
+			t.Fatalf("key %d (%#x): row %d, want %d", i, k, r, i)
+		}
+	}
+	// And it does turn most absent keys away (hashes of numbers are as
+	// good as random keys; 2 bits of 2^20 per key, 84,000 keys: about 2.4%
+	// pass by chance).
+	through := 0
+	for i := range 100000 {
+		k := key(fPrevWord, uint64(i)*0x9E3779B97F4A7C15)
+		a, b := bloomBitsOf(k)
+		if p.bloom[a>>6]&(1<<(a&63)) != 0 && p.bloom[b>>6]&(1<<(b&63)) != 0 {
+			through++
+		}
+	}
+	if through > 5000 {
+		t.Errorf("%d of 100,000 random keys pass the filter", through)
+	}
+}
