@@ -268,9 +268,14 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 			for j, b := range prev {
 				o := out[j*nc : (j+1)*nc]
 				if x := v.pairIndex(b); x >= 0 {
-					copy(o, v.pairW[x*nc:(x+1)*nc])
+					pw := v.pairW[x*nc : (x+1)*nc]
+					for k := range o { // one to three numbers: no call to copy
+						o[k] = pw[k]
+					}
 				} else {
-					clear(o)
+					for k := range o {
+						o[k] = 0
+					}
 				}
 			}
 			continue
