@@ -129,22 +129,14 @@ func (tr *transitions) t2(b, c uint8) float32 {
 // The result is in l.tags.
 func (l *lattice) decode(tr *transitions, beam float32) {
 	n := l.n
-	t1 := tr.t1
 	l.tags = grow(l.tags, n)
 	if n == 0 {
 		return
 	}
-	l.bound[0] = uint8(t1 - 1)
-	candAt := func(i int) []uint8 {
-		if i < 0 {
-			return l.bound[:]
-		}
-		return l.cands[l.off[i]:l.off[i+1]]
-	}
+	l.bound[0] = uint8(tr.t1 - 1)
 	size := l.layout()
 	l.delta = growF32(l.delta, size)
-	pairs := len(l.pair) == size
-	padded := cap(tr.tri) >= len(tr.tri)+256 // see fold
+	l.back = growI16(l.back, size)
 	rank := tr.rank
 	if rank == nil {
 		rank = &identityRank
@@ -153,12 +145,106 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	for i, c := range l.cands {
 		l.rcand[i] = rank[c]
 	}
-	l.back = growI16(l.back, size)
-	for i := 0; i < n; i++ {
-		prev2, prev, cur := candAt(i-2), candAt(i-1), candAt(i)
+	if tr.layers == nil && tr.bi == nil && cap(tr.tri) >= len(tr.tri)+256 {
+		l.forwardFolded(tr, rank, beam)
+	} else {
+		l.forward(tr, beam)
+	}
+	l.finish(tr, rank)
+}
+
+// candAt returns the candidates of position i; before the sentence, the
+// boundary.
+func (l *lattice) candAt(i int) []uint8 {
+	if i < 0 {
+		return l.bound[:]
+	}
+	return l.cands[l.off[i]:l.off[i+1]]
+}
+
+// forwardFolded fills delta and back for a folded, padded trigram table
+// (see fold): the decoder of tagging, where it is about a fifth of all
+// the work, hence the specialized loops.
+func (l *lattice) forwardFolded(tr *transitions, rank *[256]uint8, beam float32) {
+	t1 := tr.t1
+	pairs := len(l.pair) == len(l.delta)
+	for i := 0; i < l.n; i++ {
+		prev2, prev, cur := l.candAt(i-2), l.candAt(i-1), l.candAt(i)
+		p1, p0 := len(prev), len(cur)
+		emit := l.emit[l.off[i]:l.off[i+1]][:p0]
+		rcur := l.rcand[l.off[i]:l.off[i+1]][:p0]
+		base := int(l.doff[i])
+		delta := l.delta[base : base+p1*p0]
+		back := l.back[base : base+p1*p0]
+		var pdelta []float32
+		if i > 0 {
+			pb := int(l.doff[i-1])
+			pdelta = l.delta[pb : pb+len(prev2)*p1]
+		}
+		best := negInf
+		for j, b := range prev {
+			row := delta[j*p0 : j*p0+p0][:p0]
+			brow := back[j*p0 : j*p0+p0][:p0]
+			for k := range row {
+				row[k] = negInf
+			}
+			rb := int(rank[b])
+			for h, a := range prev2 {
+				var d float32
+				if i > 0 {
+					d = pdelta[h*p1+j]
+					if d == negInf {
+						continue
+					}
+				}
+				// A tag is a byte, so an array of 256 needs no bounds checks.
+				off := (int(rank[a])*t1 + rb) * t1
+				tri := (*[256]float32)(tr.tri[off : off+256])
+				for k, c := range rcur {
+					if s := d + tri[c]; s > row[k] {
+						row[k] = s
+						brow[k] = int16(h)
+					}
+				}
+			}
+			var pair []float32
+			if pairs {
+				pair = l.pair[base+j*p0 : base+j*p0+p0][:p0]
+			}
+			for k, v := range row {
+				if v == negInf {
+					continue
+				}
+				v += emit[k]
+				if pairs {
+					v += pair[k]
+				}
+				row[k] = v
+				if v > best { // not max(): its NaN rules cost a third of the loop
+					best = v
+				}
+			}
+		}
+		if beam >= 0 {
+			cut := best - beam
+			for s, d := range delta {
+				if d < cut {
+					delta[s] = negInf
+				}
+			}
+		}
+	}
+}
+
+// forward fills delta and back in the general case: transition layers
+// (training) or a separate bigram table.
+func (l *lattice) forward(tr *transitions, beam float32) {
+	t1 := tr.t1
+	pairs := len(l.pair) == len(l.delta)
+	for i := 0; i < l.n; i++ {
+		prev2, prev, cur := l.candAt(i-2), l.candAt(i-1), l.candAt(i)
 		p1, p0 := len(prev), len(cur)
 		emit := l.emit[l.off[i]:l.off[i+1]]
-		rcur := l.rcand[l.off[i]:l.off[i+1]]
 		base := int(l.doff[i])
 		delta := l.delta[base : base+p1*p0]
 		back := l.back[base : base+p1*p0]
@@ -181,30 +267,14 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 						continue
 					}
 				}
-				if tr.layers != nil {
-					for k, c := range cur {
-						if s := d + tr.t3(a, b, c); s > row[k] {
-							row[k] = s
-							brow[k] = int16(h)
-						}
-					}
-					continue
-				}
-				if padded {
-					// A tag is a byte, so an array of 256 needs no bounds checks.
-					off := (int(rank[a])*t1 + int(rank[b])) * t1
-					tri := (*[256]float32)(tr.tri[off : off+256])
-					for k, c := range rcur {
-						if s := d + tri[c]; s > row[k] {
-							row[k] = s
-							brow[k] = int16(h)
-						}
-					}
-					continue
-				}
-				tri := tr.tri[(int(a)*t1+int(b))*t1:]
 				for k, c := range cur {
-					if s := d + tri[c]; s > row[k] {
+					var t float32
+					if tr.layers != nil {
+						t = tr.t3(a, b, c)
+					} else {
+						t = tr.tri[(int(a)*t1+int(b))*t1+int(c)]
+					}
+					if s := d + t; s > row[k] {
 						row[k] = s
 						brow[k] = int16(h)
 					}
@@ -228,7 +298,7 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 		if beam >= 0 {
 			best := negInf
 			for _, d := range delta {
-				if d > best { // not max(): its NaN rules cost a third of the loop
+				if d > best {
 					best = d
 				}
 			}
@@ -240,9 +310,14 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 			}
 		}
 	}
-	// Final state, with the transition to the sentence end.
+}
+
+// finish picks the best final state, with the transition to the sentence
+// end, and follows the back pointers into l.tags.
+func (l *lattice) finish(tr *transitions, rank *[256]uint8) {
+	n, t1 := l.n, tr.t1
 	bound := int(l.bound[0])
-	prev, cur := candAt(n-2), candAt(n-1)
+	prev, cur := l.candAt(n-2), l.candAt(n-1)
 	p0 := len(cur)
 	base := int(l.doff[n-1])
 	best := negInf
@@ -270,11 +345,12 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	// Back-track: state (j, k) at position i points at h at i-2.
 	j, k := bj, bk
 	for i := n - 1; i >= 0; i-- {
-		l.tags[i] = candAt(i)[k]
+		cur := l.candAt(i)
+		l.tags[i] = cur[k]
 		if i == 0 {
 			break
 		}
-		h := int(l.back[int(l.doff[i])+j*len(candAt(i))+k])
+		h := int(l.back[int(l.doff[i])+j*len(cur)+k])
 		k = j
 		j = h
 	}
