@@ -203,18 +203,16 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 	nt := len(m.tags)
 	score := &l.steps
 	for i := range toks {
-		w := l.wid[i]
-		dict := w >= 0 && m.words[w].count >= p.dictMin
-		if dict && p.dict[w].n == 1 {
-			l.add(p.dtags[p.dict[w].first], 0)
+		v := l.views[i]
+		if v.ndict == 1 {
+			l.add(v.dtags[0], 0)
 			l.closePos()
 			continue
 		}
-		v := l.views[i]
 		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, i)
-		if dict {
+		if v.ndict > 0 {
 			// Only the dictionary's tags.
-			for _, t := range p.dictTags(w) {
+			for _, t := range v.dtags {
 				s := v.alone[t]
 				for _, vec := range l.vecs {
 					s += int32(vec[t])

@@ -64,11 +64,13 @@ type wordView struct {
 	pairs   bool
 	pairSet [4]uint64
 	pairRow []int32
-	// For a word the tag dictionary settles (ndict tags, its candidates
-	// in every sentence): pairW[x*ndict+k] is the weight of pair row
-	// pairRow[x] for the word's k-th tag, so that filling its pair scores
-	// reads no rows at all. ndict is 0 for other words.
+	// For a word the tag dictionary settles: dtags are its tags (its
+	// candidates in every sentence), ndict their number (0 for other
+	// words), and pairW[x*ndict+k] is the weight of pair row pairRow[x]
+	// for tag dtags[k], so that filling its pair scores reads no rows.
+	// Kept here, the view is the one place scoring a token looks.
 	ndict uint8
+	dtags []uint8
 	pairW []float32
 	// For words outside the lexicon only (whose views a lattice owns):
 	// the lemma last found for the word in state lemmaState.
@@ -220,7 +222,7 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 	v.pairs = true
 	if m.words[w].count >= p.dictMin {
 		tags := p.dictTags(w)
-		v.ndict = uint8(len(tags))
+		v.ndict, v.dtags = uint8(len(tags)), tags
 		v.pairW = make([]float32, 0, len(v.pairRow)*len(tags))
 		for _, r := range v.pairRow {
 			for _, t := range tags {
