@@ -19,7 +19,7 @@ func (r modelRef) Size() int         { return r.m.RefSize() }
 
 // defaultSetup returns the embedded model and a collector with the stock
 // terms rules: the default extraction.
-func defaultSetup(t *testing.T) (*hmm.Model, *Collector) {
+func defaultSetup(t testing.TB) (*hmm.Model, *Collector) {
 	t.Helper()
 	m, err := hmm.Default()
 	if err != nil {

@@ -1,9 +1,11 @@
 package terms
 
 import (
+	"runtime"
 	"slices"
 	"sort"
 	"strings"
+	"sync"
 
 	"glossmith/extract/termstat"
 )
@@ -12,7 +14,8 @@ import (
 // the tagger's training treebank, carried in the model; or counts of the
 // user's own reference documents.
 type Reference interface {
-	// Freq returns the frequency of a lower-cased lemma.
+	// Freq returns the frequency of a lower-cased lemma. Corpus.Terms
+	// calls it (and Size) from several goroutines at once.
 	Freq(word string) int
 	// Size returns the number of word tokens counted.
 	Size() int
@@ -395,53 +398,82 @@ func addSpelling(ss []spelling, v spelling) []spelling {
 // set by Rank).
 func (c *Corpus) Terms(ref Reference) []*Term {
 	c.foldCapitalPlurals()
-	out := make([]*Term, 0, len(c.order))
-	sizes := make([]float64, len(c.docSize))
-	for i, n := range c.docSize {
-		sizes[i] = float64(n)
-	}
-	parts, partsErr := termstat.NewParts(sizes)
-	freqs := make([]float64, len(c.docSize))
-	cands := make([]termstat.Candidate, 0, len(c.order))
-	var ctxs []Context
-	for _, k := range c.order {
-		g := c.groups[k]
-		cn := g.canonical()
-		words := cn.words()
-		t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
-		for _, v := range g.variants {
-			t.Variants = append(t.Variants, Variant{v.text, v.n})
+	out := make([]*Term, len(c.order))
+	cands := make([]termstat.Candidate, len(c.order))
+	spread := newDocSpread(c.docSize)
+	// The candidates' measures are independent of each other. On a large
+	// corpus this loop is the serial tail of a run, after the workers are
+	// done, so it runs on every core, each on a range of the candidates.
+	inParallel(len(c.order), parallelTermsFrom, func(lo, hi int) {
+		var ctxs []Context
+		var memo []float64
+		if spread != nil {
+			memo = spread.newMemo()
 		}
-		sort.Slice(t.Variants, func(i, j int) bool {
-			a, b := t.Variants[i], t.Variants[j]
-			if a.Count != b.Count {
-				return a.Count > b.Count
-			}
-			return a.Form < b.Form
-		})
-		if partsErr == nil {
-			clear(freqs)
-			for _, df := range g.perDoc {
-				freqs[df.doc] += float64(df.n)
-			}
-			t.DP, _ = parts.DP(freqs)
+		for i := lo; i < hi; i++ {
+			out[i], cands[i], ctxs = c.term(c.order[i], spread, memo, ref, ctxs)
 		}
-		t.Contexts, ctxs = c.exampleContexts(g, ctxs)
-		t.Keyness, t.Weirdness = c.specificity(cn.keys(), ref, Alpha)
-		t.keys = cn.keys()
-		out = append(out, t)
-		lw := make([]string, len(words))
-		for i, w := range words {
-			lw[i] = strings.ToLower(w)
-		}
-		cands = append(cands, termstat.Candidate{Words: lw, Freq: float64(g.freq)})
-	}
+	})
 	if cv, err := termstat.CValue(dedupe(cands), termstat.CValueOptions{Weight: termstat.Log2LengthPlusOne}); err == nil {
 		for i := range out {
 			out[i].CValue = cv[i].Score
 		}
 	}
 	return out
+}
+
+// parallelTermsFrom is the number of candidates from which Terms spreads
+// its work over goroutines: a small corpus is done before they would
+// start. (A variable for the tests.)
+var parallelTermsFrom = 4096
+
+// inParallel calls f on consecutive ranges [lo, hi) covering [0, n), one
+// per core, concurrently when n is at least from, and returns when all
+// are done.
+func inParallel(n, from int, f func(lo, hi int)) {
+	parts := runtime.GOMAXPROCS(0)
+	if n < from || parts < 2 {
+		f(0, n)
+		return
+	}
+	var wg sync.WaitGroup
+	for p := range parts {
+		lo, hi := n*p/parts, n*(p+1)/parts
+		wg.Go(func() { f(lo, hi) })
+	}
+	wg.Wait()
+}
+
+// term computes the measures of the group of key k except C-value, with
+// its example contexts cut from ctxs (see exampleContexts), and returns
+// its words lower-cased for C-value and the rest of ctxs. memo is the
+// goroutine's for spread.dp.
+func (c *Corpus) term(k string, spread *docSpread, memo []float64, ref Reference, ctxs []Context) (*Term, termstat.Candidate, []Context) {
+	g := c.groups[k]
+	cn := g.canonical()
+	words := cn.words()
+	t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
+	for _, v := range g.variants {
+		t.Variants = append(t.Variants, Variant{v.text, v.n})
+	}
+	sort.Slice(t.Variants, func(i, j int) bool {
+		a, b := t.Variants[i], t.Variants[j]
+		if a.Count != b.Count {
+			return a.Count > b.Count
+		}
+		return a.Form < b.Form
+	})
+	if spread != nil {
+		t.DP = spread.dp(g.perDoc, memo)
+	}
+	t.Contexts, ctxs = c.exampleContexts(g, ctxs)
+	t.Keyness, t.Weirdness = c.specificity(cn.keys(), ref, Alpha)
+	t.keys = cn.keys()
+	lw := make([]string, len(words))
+	for i, w := range words {
+		lw[i] = strings.ToLower(w)
+	}
+	return t, termstat.Candidate{Words: lw, Freq: float64(g.freq)}, ctxs
 }
 
 // exampleContexts returns a group's main contexts, then spare ones while
