@@ -10,6 +10,8 @@ package terms
 import (
 	"slices"
 	"sync"
+	"unicode"
+	"unicode/utf8"
 	"unsafe"
 
 	"glossmith/extract/wordshape"
@@ -135,6 +137,8 @@ type scratch struct {
 	groupIndex map[string]int32 // group key → index in DocCounts.cands
 	doc        *doc.Document    // the document being counted
 	toks       []doc.Token      // the sentence being counted
+	spans      spanState        // whether unclean is known for the sentence
+	unclean    []int32          // see surface
 	recent     wordCache        // words of the document by string address
 	isWord     []bool           // per token of the current sentence
 	wordAt     []int32          // per word token of the sentence: its index in DocCounts.words
@@ -297,7 +301,7 @@ func (c *Collector) Collect(d *doc.Document) *DocCounts {
 	clear(sc.context)
 	for si := range d.Sentences {
 		toks := d.Sentences[si].Tokens
-		sc.toks = toks
+		sc.toks, sc.spans = toks, spansUnknown
 		sc.countWords(dc, toks)
 		sc.matches = c.m.AppendNested(sc.matches[:0], toks)
 		ms := sc.matches
@@ -350,9 +354,7 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 	}
 	g := &dc.cands[gi]
 	g.freq++
-	var surface string
-	var inBuf bool
-	surface, sc.buf, inBuf = appendSurface(sc.buf[:0], sc.doc, toks[i:j])
+	surface, inBuf := sc.surface(i, j)
 	dc.addSpelling(g, surface, inBuf)
 	dc.addCanonical(sc, g, i, j)
 	// One context per sentence; the corpus keeps the first few overall.
@@ -370,14 +372,102 @@ func (sc *scratch) contextOf(dc *DocCounts, si int) int32 {
 		return k - 1
 	}
 	s := &sc.doc.Sentences[si]
-	text, buf, inBuf := appendSurface(sc.buf[:0], sc.doc, s.Tokens)
-	if sc.buf = buf; inBuf {
+	text, inBuf := sc.surface(0, len(s.Tokens))
+	if inBuf {
 		text = dc.arena.str(text)
 	}
 	dc.contexts = append(dc.contexts, ctxRef{text: text, line: int32(s.Line())})
 	sc.context[si] = int32(len(dc.contexts))
 	return int32(len(dc.contexts) - 1)
 }
+
+// spanState tells whether the clean parts of the current sentence are
+// known (see surface).
+type spanState int8
+
+const (
+	spansUnknown spanState = iota
+	spansKnown             // sc.unclean holds them
+	spansOdd               // token offsets out of order or range: no fast path
+)
+
+// surface returns the span [i, j) of the current sentence as written,
+// white space folded, as appendSurface does; inBuf is true when it is in
+// sc.buf. The nested candidates of a sentence overlap, and checking the
+// bytes of each span again took a sixth of the time of counting them. So
+// the sentence's tokens and the gaps between them are checked once: a span
+// of tokens that are valid UTF-8 without white space, with nothing or a
+// single space between them, is its own folded form, a slice of the text.
+func (sc *scratch) surface(i, j int) (s string, inBuf bool) {
+	toks := sc.toks
+	if sc.spans == spansUnknown {
+		sc.spans = sc.markUnclean()
+	}
+	// Items 2k and 2k+1 are token k and the gap after it.
+	if sc.spans == spansKnown && sc.unclean[2*(j-1)+1] == sc.unclean[2*i] {
+		return sc.doc.Text[toks[i].Start:toks[j-1].End], false
+	}
+	s, sc.buf, inBuf = appendSurface(sc.buf[:0], sc.doc, toks[i:j])
+	return s, inBuf
+}
+
+// markUnclean fills sc.unclean for the current sentence: unclean[m] is the
+// number of unclean items among its first m tokens and gaps, taken in
+// text order (token 0, gap 0, token 1, …). A token is clean when it is
+// non-empty valid UTF-8 without white space, a gap when it is empty or one
+// ASCII space.
+func (sc *scratch) markUnclean() spanState {
+	toks, text := sc.toks, sc.doc.Text
+	u := append(sc.unclean[:0], 0)
+	n := int32(0)
+	for k := range toks {
+		t := &toks[k]
+		if t.Start < 0 || t.End < t.Start || t.End > len(text) || k > 0 && t.Start < toks[k-1].End {
+			return spansOdd
+		}
+		if !cleanToken(text[t.Start:t.End]) {
+			n++
+		}
+		u = append(u, n)
+		if k+1 < len(toks) {
+			if next := toks[k+1].Start; next < t.End || next > len(text) {
+				return spansOdd
+			} else if gap := text[t.End:next]; gap != "" && gap != " " {
+				n++
+			}
+		}
+		u = append(u, n)
+	}
+	sc.unclean = u
+	return spansKnown
+}
+
+// cleanToken reports whether s is non-empty valid UTF-8 without white
+// space (unicode.IsSpace), so that appendFields would leave it as it is.
+func cleanToken(s string) bool {
+	if s == "" {
+		return false
+	}
+	for i := 0; i < len(s); {
+		c := s[i]
+		if c < utf8.RuneSelf {
+			if c <= ' ' && asciiBlank[c] {
+				return false
+			}
+			i++
+			continue
+		}
+		r, size := utf8.DecodeRuneInString(s[i:])
+		if r == utf8.RuneError && size == 1 || unicode.IsSpace(r) {
+			return false
+		}
+		i += size
+	}
+	return true
+}
+
+// asciiBlank marks the ASCII white space of unicode.IsSpace.
+var asciiBlank = [' ' + 1]bool{'\t': true, '\n': true, '\v': true, '\f': true, '\r': true, ' ': true}
 
 // addSpelling counts a surface form of group g. A form made up in a
 // scratch buffer (inBuf) is copied when it is new; others are slices of
