@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"glossmith/internal/benchcorpus"
 	"glossmith/internal/testenv"
 )
 
@@ -58,5 +59,30 @@ func BenchmarkAdversarial(b *testing.B) {
 				Sentences(in)
 			}
 		})
+	}
+}
+
+// BenchmarkCorpusSlice tokenizes 2 MiB of benchmark-corpus documents
+// (internal/benchcorpus, drawn from the shared term-gold texts), documents
+// of the size a real run meets, and reports tokens per CPU second (all
+// threads, garbage collection included), the rate to compare on a shared
+// machine.
+func BenchmarkCorpusSlice(b *testing.B) {
+	texts := benchcorpus.Slice(b, 2<<20)
+	tokens := 0
+	for _, t := range texts {
+		for _, s := range Sentences(t) {
+			tokens += len(s.Tokens)
+		}
+	}
+	b.ReportAllocs()
+	cpu0 := benchcorpus.CPUTime()
+	for b.Loop() {
+		for _, t := range texts {
+			Sentences(t)
+		}
+	}
+	if cpu := benchcorpus.CPUTime() - cpu0; cpu > 0 {
+		b.ReportMetric(float64(tokens)*float64(b.N)/cpu.Seconds(), "tokens/cpu-s")
 	}
 }

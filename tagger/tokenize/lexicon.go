@@ -4,6 +4,7 @@ import (
 	_ "embed"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // abbrevText is the abbreviation list learned from UD EWT 2.15 training
@@ -28,6 +29,17 @@ var abbrevs = func() map[string]abbrevInfo {
 		}
 	}
 	return m
+}()
+
+// abbrevShapes holds the shapes of the abbreviations without their
+// period, in any case: isAbbrev tests it before looking a word up.
+var abbrevShapes = func() (f shapeFilter) {
+	for a := range abbrevs {
+		if a != "" {
+			f.add(a[:len(a)-1])
+		}
+	}
+	return f
 }()
 
 // extraAbbrevs supplement the learned list with abbreviations common in
@@ -93,28 +105,80 @@ var hyphenPrefixes = map[string]bool{
 	"quasi": true, "macro": true, "hyper": true, "infra": true, "trans": true,
 }
 
-// contraction returns the byte length of the first word of a clitic
-// spelling without an apostrophe that UD EWT splits into two syntactic
-// words ("dont" = "do" + "nt", "cannot" = "can" + "not", "gonna" = "gon" +
-// "na"), or 0. lower is the word in lower case. Ambiguous spellings ("its",
-// "lets", "hes", "ill") are left whole. (A switch, not a map: this runs for
-// every word.)
-func contraction(lower string) int {
-	switch lower {
-	case "im", "ive":
-		return 1
-	case "dont", "cant", "wont", "isnt", "aint":
-		return 2
-	case "didnt", "wasnt", "arent", "hasnt", "hadnt", "youre", "cannot", "gonna", "wanna", "gotta", "outta":
-		return 3
-	case "doesnt", "werent", "havent", "thats", "whats":
-		return 4
-	case "couldnt", "wouldnt", "theres":
-		return 5
-	case "shouldnt":
-		return 6
+// contractions maps clitic spellings without an apostrophe that UD EWT
+// splits into two syntactic words ("dont" = "do" + "nt", "cannot" = "can"
+// + "not", "gonna" = "gon" + "na"), in lower case, to the byte length of
+// their first word. Ambiguous spellings ("its", "lets", "hes", "ill") are
+// left whole.
+var contractions = map[string]int{
+	"im": 1, "ive": 1,
+	"dont": 2, "cant": 2, "wont": 2, "isnt": 2, "aint": 2,
+	"didnt": 3, "wasnt": 3, "arent": 3, "hasnt": 3, "hadnt": 3, "youre": 3,
+	"cannot": 3, "gonna": 3, "wanna": 3, "gotta": 3, "outta": 3,
+	"doesnt": 4, "werent": 4, "havent": 4, "thats": 4, "whats": 4,
+	"couldnt": 5, "wouldnt": 5, "theres": 5,
+	"shouldnt": 6,
+}
+
+// contractionShapes rules out, for nearly every word, that it is one of
+// the contractions (this runs for every word).
+var contractionShapes = func() (f shapeFilter) {
+	for w := range contractions {
+		f.add(w)
 	}
-	return 0
+	return f
+}()
+
+// contraction returns the byte length of the first word of w when w is
+// one of the contractions in any case, or 0.
+func contraction(w string) int {
+	if len(w) > 8 || !contractionShapes.has(w) {
+		return 0
+	}
+	var buf [8]byte
+	for k := 0; k < len(w); k++ {
+		c := w[k]
+		if c >= utf8.RuneSelf {
+			return 0
+		}
+		buf[k] = foldByte(c)
+	}
+	return contractions[string(buf[:len(w)])]
+}
+
+// shapeFilter is a set of word shapes — length, first and last byte, ASCII
+// letters in lower case — in a 4096-bit table. Testing it rules out most
+// words before a look-up in a set of words, so that the tokenizer's checks
+// made for every word (contractions) or every word before a period
+// (abbreviations) rarely lower-case and hash a string. Shapes collide, so
+// a hit must be confirmed by the look-up.
+type shapeFilter [4096 / 64]uint64
+
+func (f *shapeFilter) add(w string) {
+	h := shapeOf(w)
+	f[h/64] |= 1 << (h % 64)
+}
+
+func (f *shapeFilter) has(w string) bool {
+	h := shapeOf(w)
+	return f[h/64]&(1<<(h%64)) != 0
+}
+
+// shapeOf returns the bit of w's shape in a shapeFilter.
+func shapeOf(w string) uint32 {
+	if w == "" {
+		return 0
+	}
+	key := uint32(len(w))<<16 | uint32(foldByte(w[0]))<<8 | uint32(foldByte(w[len(w)-1]))
+	return key * 0x9e3779b1 >> 20 // Fibonacci hashing to 12 bits
+}
+
+// foldByte lower-cases an ASCII letter and leaves every other byte.
+func foldByte(c byte) byte {
+	if 'A' <= c && c <= 'Z' {
+		c += 'a' - 'A'
+	}
+	return c
 }
 
 // cliticSuffixes follow an apostrophe and are split off as words of their

@@ -99,9 +99,10 @@ func (t *tokenizer) split() []doc.Sentence {
 	if m := len(cuts); m > 0 {
 		toks = append(toks, make([]doc.Token, m)...)
 		ci, dst := m-1, n+m-1
-		for k := n - 1; k >= 0; k-- {
+		// Tokens before the first cut stay where they are.
+		for k := n - 1; ci >= 0; k-- {
 			tk := toks[k]
-			if ci >= 0 && cuts[ci] == k {
+			if cuts[ci] == k {
 				stop := tk
 				stop.Form = tk.Form[len(tk.Form)-1:]
 				stop.Start = tk.End - 1

@@ -16,6 +16,7 @@ func (t *tokenizer) word(i, e, cs int) int {
 		j += n
 	}
 	email := false
+	quoted := false // an apostrophe joins the word: it may end in a clitic
 	for j < e {
 		if c := text[j]; c < utf8.RuneSelf && asciiWord[c] { // fast path
 			j++
@@ -39,8 +40,11 @@ func (t *tokenizer) word(i, e, cs int) int {
 		if !t.joins(r, pr, nr, i, j, e, email) {
 			break
 		}
-		if r == '@' {
+		switch r {
+		case '@':
 			email = true
+		case '\'', '’', '`':
+			quoted = true
 		}
 		j += n
 	}
@@ -68,7 +72,7 @@ func (t *tokenizer) word(i, e, cs int) int {
 
 	// Clitics: "don't" = "do" + "n't", "it's" = "it" + "'s", "cannot" = "can" + "not".
 	if !email {
-		if p := cliticSplit(text, i, j); p > i {
+		if p := cliticSplit(text, i, j, quoted); p > i {
 			t.emit(i, p, true)
 			i = p
 		}
@@ -249,27 +253,13 @@ func numberEnd(text string, i, j int) int {
 func splitsUnit(suf string) bool { return lowerIn(suf, 8, units) }
 
 // cliticSplit returns where the word text[i:j] splits into host and
-// clitic, or i when it does not.
-func cliticSplit(text string, i, j int) int {
+// clitic, or i when it does not. quoted tells whether an apostrophe
+// joins the word after its first character; only then may it have a
+// clitic after one.
+func cliticSplit(text string, i, j int, quoted bool) int {
 	w := text[i:j]
-	if len(w) <= 8 {
-		var buf [8]byte
-		ascii := true
-		for k := 0; k < len(w); k++ {
-			c := w[k]
-			if 'A' <= c && c <= 'Z' {
-				c += 'a' - 'A'
-			} else if c >= utf8.RuneSelf {
-				ascii = false
-				break
-			}
-			buf[k] = c
-		}
-		if ascii {
-			if n := contraction(string(buf[:len(w)])); n > 0 {
-				return i + n
-			}
-		}
+	if n := contraction(w); n > 0 || !quoted {
+		return i + n
 	}
 	// The last apostrophe, if any, with the letters after it.
 	for k := len(w) - 1; k > 0; k-- {
@@ -330,14 +320,17 @@ func isDecade(w string) bool {
 // isAbbrev reports whether the word text[i:j], followed by a period at j,
 // is an abbreviation that keeps the period.
 func isAbbrev(text string, i, j int) bool {
-	if _, ok := abbrevs[text[i:j+1]]; ok {
-		return true
-	}
 	w := text[i:j]
+	listed := abbrevShapes.has(w) // else neither look-up below can succeed
+	if listed {
+		if _, ok := abbrevs[text[i:j+1]]; ok {
+			return true
+		}
+	}
 	if r, n := decode(text, i); n == len(w) && unicode.IsUpper(r) {
 		return true // an initial
 	}
-	if len(w) < 16 {
+	if listed && len(w) < 16 {
 		var buf [16]byte
 		for k := 0; k < len(w); k++ {
 			c := w[k]
@@ -382,8 +375,12 @@ func urlLen(s string) int {
 	if len(s) < 5 {
 		return 0
 	}
-	switch s[0] {
-	case 'h', 'H', 'f', 'F', 'w', 'W', 'm', 'M':
+	// This runs at every token: one test of the first four bytes, with
+	// the case bit set (which also lets through a few other bytes), rules
+	// out nearly every word before the exact comparisons.
+	switch uint32(s[0]) | uint32(s[1])<<8 | uint32(s[2])<<16 | uint32(s[3])<<24 | 0x20202020 {
+	case 'h' | 't'<<8 | 't'<<16 | 'p'<<24, 'f' | 't'<<8 | 'p'<<16 | ':'<<24,
+		'm' | 'a'<<8 | 'i'<<16 | 'l'<<24, 'w' | 'w'<<8 | 'w'<<16 | '.'<<24:
 	default:
 		return 0
 	}
