@@ -72,6 +72,14 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 	// The runtime's limit covers its own memory only, not the program text
 	// or the allocator's slack that the system counts too: aim a tenth low.
 	debug.SetMemoryLimit(int64(f.memory) / 10 * 9)
+	// With that limit in place the collector may let the heap grow to
+	// three times the live data between cycles rather than twice (unless
+	// the user set GOGC): on the 100 MB benchmark corpus, GOGC=200 against
+	// 100 took 2-3% off the CPU time (runs alternated) and raised peak
+	// memory from about 420 to 580 MiB.
+	if os.Getenv("GOGC") == "" {
+		debug.SetGCPercent(gcPercent)
+	}
 	prog := newProgress(f.quiet)
 	opt.Progress = prog.update
 	st := pipeline.Run(args, opt, mapFn, reduceFn)
@@ -84,6 +92,9 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 	}
 	return st, nil
 }
+
+// gcPercent is the collector's heap growth target (see runDocs).
+const gcPercent = 200
 
 // memorySize is a byte count given as a number with an optional unit.
 type memorySize int64
