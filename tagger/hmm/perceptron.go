@@ -245,21 +245,32 @@ func addDense(score *[256]int32, vec []int16) {
 	}
 }
 
+// startPairs sizes l.pair for the lattice's states, with bound the
+// boundary tag (the "previous tag" of the first position).
+func (l *lattice) startPairs(bound uint8) {
+	l.pair = growF32(l.pair, l.layout())
+	l.bound[0] = bound
+}
+
+// pairBlock returns the candidates of positions i-1 (the boundary for
+// i = 0) and i, and the pair scores of their states, from l.pair[doff[i]]
+// on: the score of (prev[j], cur[k]) is out[j*len(cur)+k].
+func (l *lattice) pairBlock(i int) (prev, cur []uint8, out []float32) {
+	prev = l.bound[:]
+	if i > 0 {
+		prev = l.cands[l.off[i-1]:l.off[i]]
+	}
+	return prev, l.cands[l.off[i]:l.off[i+1]], l.pair[l.doff[i]:]
+}
+
 // fillPairs scores the tag-word pair features of every state; rowOf gives
 // the row of "word i after tag b". views, when not nil, are the tokens'
 // views: the scores of words the tag dictionary settles are then copied
 // from their views (wordView.pairW) instead of read from rows.
 func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint8) int32, views []*wordView) {
-	size := l.layout()
-	l.pair = growF32(l.pair, size)
+	l.startPairs(bound)
 	for i := 0; i < l.n; i++ {
-		prev := l.bound[:]
-		l.bound[0] = bound
-		if i > 0 {
-			prev = l.cands[l.off[i-1]:l.off[i]]
-		}
-		cur := l.cands[l.off[i]:l.off[i+1]]
-		out := l.pair[l.doff[i]:]
+		prev, cur, out := l.pairBlock(i)
 		nc := len(cur)
 		if views != nil && int(views[i].ndict) == nc { // cur is the word's dictionary tags
 			v := views[i]
@@ -549,16 +560,9 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 				}
 			}
 			// Tag-word pair scores from the current weights.
-			size := l.layout()
-			l.pair = growF32(l.pair, size)
+			l.startPairs(bound)
 			for i := range ts.toks {
-				prev := l.bound[:]
-				l.bound[0] = bound
-				if i > 0 {
-					prev = l.cands[l.off[i-1]:l.off[i]]
-				}
-				cur := l.cands[l.off[i]:l.off[i+1]]
-				out := l.pair[l.doff[i]:]
+				prev, cur, out := l.pairBlock(i)
 				for j, b := range prev {
 					r, ok := rows[pairKey(ts.lower[i], b)]
 					for k, c := range cur {
