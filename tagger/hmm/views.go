@@ -17,12 +17,14 @@ import (
 // tag" features. Views of lexicon words are built on first use and shared
 // by all goroutines (a view is a pure function of the form, so which
 // goroutine builds it does not matter); views of other words are kept in
-// a small cache per lattice. Scoring then reads one dense vector and about
-// a dozen rows per token, two of them found by hashing (the word bigrams).
+// a small cache per lattice. Scoring then reads three dense vectors (the
+// word's own, its neighbours' side vectors) and a few rows per token, two
+// of them found by hashing (the word bigrams).
 //
-// Every score is summed in exactly the order of the feature list of
-// extractFeatures, so the lattice is bit for bit the one the plain
-// look-up of every feature builds (TestViewsMatchPlainScoring).
+// Every weight is a whole number of weightSteps, small enough that sums of
+// them are exact in any order: scoring adds whole steps as integers, and
+// the lattice is bit for bit the one the plain look-up of every feature,
+// summed in float32, builds (TestViewsMatchPlainScoring).
 
 // Context templates whose value is a property of one neighbouring word,
 // indexes of wordView.ctx.
@@ -44,8 +46,8 @@ const (
 type wordView struct {
 	lower uint64 // hash of the lower-cased form, for the bigram and pair keys
 	// alone is the summed weight per tag of the word-alone features, in
-	// feature order; nil for words the tag dictionary settles on its own.
-	alone []int32 // in weight steps
+	// weight steps; nil for words the tag dictionary settles on its own.
+	alone []int32
 	// ctx[c] is the row (or -1) of context feature c when this word is the
 	// neighbour it describes: ctx[cPrev1] is read by the word after it.
 	ctx [nCtx]int32
