@@ -205,14 +205,14 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 	for i := range toks {
 		v := l.views[i]
 		if v.ndict == 1 {
-			l.add(v.dtags[0], 0)
+			l.add(p.dtags[v.dfirst], 0)
 			l.closePos()
 			continue
 		}
 		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, i)
 		if v.ndict > 0 {
 			// Only the dictionary's tags.
-			for _, t := range v.dtags {
+			for _, t := range p.dtags[v.dfirst : v.dfirst+int32(v.ndict)] {
 				s := v.alone[t]
 				for _, vec := range l.vecs {
 					s += int32(vec[t])
@@ -266,7 +266,7 @@ func (l *lattice) pairBlock(i int) (prev, cur []uint8, out []float32) {
 // fillPairs scores the tag-word pair features of every state; rowOf gives
 // the row of "word i after tag b". views, when not nil, are the tokens'
 // views: the scores of words the tag dictionary settles are then copied
-// from their views (wordView.pairW) instead of read from rows.
+// from their views (wordView.pairData) instead of read from rows.
 func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint8) int32, views []*wordView) {
 	l.startPairs(bound)
 	for i := 0; i < l.n; i++ {
@@ -277,9 +277,10 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 			for j, b := range prev {
 				o := out[j*nc : (j+1)*nc]
 				if x := v.pairIndex(b); x >= 0 {
-					pw := v.pairW[x*nc : (x+1)*nc]
+					at := int(v.npair) + x*nc
+					pw := v.pairData[at : at+nc]
 					for k := range o { // one to three numbers: no call to copy
-						o[k] = pw[k]
+						o[k] = float32(pw[k]) * weightStep
 					}
 				} else {
 					for k := range o {
