@@ -109,11 +109,6 @@ type cell struct {
 // w returns the cell's weight.
 func (c cell) w() float32 { return float32(c.q) * weightStep }
 
-// weight returns the weight of row r for tag t (0 when absent).
-func (p *perceptron) weight(r int32, t uint8) float32 {
-	return float32(p.steps(r, t)) * weightStep
-}
-
 // steps returns the weight of row r for tag t in steps (0 when absent),
 // from the dense copy of a long row (see denseMin) or by scanning a short
 // one.

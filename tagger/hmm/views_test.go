@@ -73,6 +73,12 @@ func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
 	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) }, nil)
 }
 
+// weight returns the weight of row r for tag t (0 when absent), for the
+// plain scoring above.
+func (p *perceptron) weight(r int32, t uint8) float32 {
+	return float32(p.steps(r, t)) * weightStep
+}
+
 // TestViewsMatchPlainScoring holds the decoder's fast scoring (views.go) to
 // the plain one above: on every sentence of UD English EWT dev the two
 // lattices — candidates, emission and pair scores — must be identical, bit
