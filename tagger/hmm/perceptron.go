@@ -207,8 +207,8 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, i)
 		if v.ndict > 0 {
 			// Only the dictionary's tags.
-			for _, t := range p.dtags[v.dfirst : v.dfirst+int32(v.ndict)] {
-				s := v.alone[t]
+			for k, t := range p.dtags[v.dfirst : v.dfirst+int32(v.ndict)] {
+				s := v.alone[k]
 				for _, vec := range l.vecs {
 					s += int32(vec[t])
 				}

@@ -48,7 +48,8 @@ const (
 type wordView struct {
 	lower uint64 // hash of the lower-cased form, for the bigram and pair keys
 	// alone is the summed weight per tag of the word-alone features, in
-	// weight steps; nil for words the tag dictionary settles on its own.
+	// weight steps; for a word the tag dictionary settles, of its tags
+	// only, in their order (nil when it has one).
 	alone []int32
 	// ctx[c] is the row (or -1) of context feature c when this word is the
 	// neighbour it describes: ctx[cPrev1] is read by the word after it.
@@ -229,6 +230,15 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 	if m.words[w].count >= p.dictMin {
 		tags := p.dictTags(w)
 		v.ndict, v.dfirst = uint8(len(tags)), p.dict[w].first
+		if v.alone != nil {
+			// Only its tags are ever scored: keep their word-alone
+			// weights, side by side.
+			own := make([]int32, len(tags))
+			for k, t := range tags {
+				own[k] = v.alone[t]
+			}
+			v.alone = own
+		}
 		for _, r := range v.pairData[:v.npair] {
 			for _, t := range tags {
 				v.pairData = append(v.pairData, p.steps(r, t))
