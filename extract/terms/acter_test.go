@@ -21,6 +21,13 @@ func (r modelRef) Size() int         { return r.m.RefSize() }
 // terms rules: the default extraction.
 func defaultSetup(t testing.TB) (*hmm.Model, *Collector) {
 	t.Helper()
+	return stockSetup(t, Options{})
+}
+
+// stockSetup returns the embedded model and a collector with the stock
+// terms rules and the given options.
+func stockSetup(t testing.TB, opt Options) (*hmm.Model, *Collector) {
+	t.Helper()
 	m, err := hmm.Default()
 	if err != nil {
 		t.Fatal(err)
@@ -29,7 +36,7 @@ func defaultSetup(t testing.TB) (*hmm.Model, *Collector) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return m, NewCollector(mt, Options{})
+	return m, NewCollector(mt, opt)
 }
 
 // extractDomain runs the default extraction (stock terms rules, embedded

@@ -7,9 +7,7 @@ import (
 	"unsafe"
 
 	"glossmith/internal/testenv"
-	"glossmith/pattern"
 	"glossmith/tagger/doc"
-	"glossmith/tagger/hmm"
 	"glossmith/tagger/pipeline"
 )
 
@@ -20,19 +18,11 @@ import (
 // kept alive here so that their memory is not reused while the strings are
 // checked.
 func TestCorpusKeepsNoDocumentText(t *testing.T) {
-	model, err := hmm.Default()
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := pattern.CompileStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
+	model, col := stockSetup(t, Options{Contexts: 3})
 	var texts, made spanSet // documents' texts; strings of their counts
 	var docs []*doc.Document
 	var counts []*DocCounts
 	c := NewCorpus(3)
-	col := NewCollector(m, Options{Contexts: 3})
 	pipeline.Run([]string{testenv.Demo(t)}, pipeline.Options{Tagger: model}, col.Collect,
 		func(d *doc.Document, dc *DocCounts) {
 			texts.add(d.Text)
