@@ -70,6 +70,12 @@ type wordEntry struct {
 	ntags int32
 }
 
+// tagLemma is a tag of a lexicon word and the word's lemma with it.
+type tagLemma struct {
+	tag   uint8
+	lemma string
+}
+
 // Model is a trained tagger.
 type Model struct {
 	method string
@@ -85,7 +91,10 @@ type Model struct {
 	words  []wordEntry
 	wtags  []uint8
 	wcount []int32
-	wlemma []string // lemma of the word with tag wtags[j], precomputed
+	// wlex[j] is wtags[j] with the lemma of the word with that tag,
+	// precomputed: side by side, so that finding a token's lemma reads
+	// one place (the tagger knows the word's range from its view).
+	wlex []tagLemma
 
 	// UPOS for TagsetXPOS: by lower-cased word and XPOS state, then by XPOS.
 	uposByWord map[string][]uposChoice
@@ -190,10 +199,17 @@ func (m *Model) Tag(s *doc.Sentence) {
 		t.UPOS = m.uposOf(t.Form, st)
 		t.Lemma = ""
 		if w := l.wid[i]; w >= 0 {
-			e := &m.words[w]
-			for j := e.first; j < e.first+e.ntags; j++ {
-				if m.wtags[j] == st {
-					t.Lemma = m.wlemma[j]
+			var lex []tagLemma
+			if m.perc != nil && l.views[i].wn > 0 {
+				v := l.views[i]
+				lex = m.wlex[v.wfirst : v.wfirst+int32(v.wn)]
+			} else {
+				e := &m.words[w]
+				lex = m.wlex[e.first : e.first+e.ntags]
+			}
+			for k := range lex {
+				if lex[k].tag == st {
+					t.Lemma = lex[k].lemma
 					break
 				}
 			}
@@ -257,12 +273,12 @@ func (m *Model) unknownLemma(form, upos, xpos string) string {
 // prepareLexicon precomputes the lemma of every (word, tag) of the
 // lexicon, which spares the lemmatizer's look-ups for most tokens.
 func (m *Model) prepareLexicon() {
-	m.wlemma = make([]string, len(m.wtags))
+	m.wlex = make([]tagLemma, len(m.wtags))
 	for form, w := range m.lex {
 		e := m.words[w]
 		for j := e.first; j < e.first+e.ntags; j++ {
 			st := m.wtags[j]
-			m.wlemma[j] = m.lem.Lemma(form, m.uposOf(form, st), m.tagX[st])
+			m.wlex[j] = tagLemma{st, m.lem.Lemma(form, m.uposOf(form, st), m.tagX[st])}
 		}
 	}
 }

@@ -83,7 +83,13 @@ type wordView struct {
 	// the lemma last found for the word in state lemmaState.
 	lemmaState uint8
 	lemmaSet   bool
-	lemma      string
+	// For lexicon words: their tags and lemmas are
+	// Model.wlex[wfirst:wfirst+wn] (kept here, in what was padding, as
+	// the view is in cache when the lemma is looked up and the lexicon
+	// entry is not).
+	wn     uint8
+	wfirst int32
+	lemma  string
 }
 
 // viewBoundary holds the rows of the context features that see past the
@@ -227,6 +233,9 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		}
 	}
 	v.pairs, v.npair = true, uint16(len(v.pairData))
+	if e := m.words[w]; e.ntags <= 255 {
+		v.wfirst, v.wn = e.first, uint8(e.ntags)
+	}
 	if m.words[w].count >= p.dictMin {
 		tags := p.dictTags(w)
 		v.ndict, v.dfirst = uint8(len(tags)), p.dict[w].first
