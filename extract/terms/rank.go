@@ -1,9 +1,10 @@
 package terms
 
 import (
+	"cmp"
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 	"strings"
 	"unicode"
 )
@@ -37,39 +38,33 @@ func Rank(ts []*Term, opt RankOptions) ([]*Term, error) {
 	var out []*Term
 	for _, t := range ts {
 		t.Score = Score(t)
-		if t.Freq >= minFreq {
+		// The default list ends at the cut-off: what scores below it is
+		// left out before sorting (on a large corpus, most candidates).
+		if t.Freq >= minFreq && (opt.All || t.Score >= Cutoff) {
 			out = append(out, t)
 		}
 	}
-	byScore := func(a, b *Term) bool {
-		if a.Score != b.Score {
-			return a.Score > b.Score
+	byScore := func(a, b *Term) int {
+		switch {
+		case a.Score != b.Score:
+			return cmp.Compare(b.Score, a.Score)
+		case a.Freq != b.Freq:
+			return cmp.Compare(b.Freq, a.Freq)
 		}
-		if a.Freq != b.Freq {
-			return a.Freq > b.Freq
-		}
-		return a.Term < b.Term
+		return strings.Compare(a.Term, b.Term)
 	}
-	sort.SliceStable(out, func(i, j int) bool { return byScore(out[i], out[j]) })
-	if !opt.All {
-		n := 0
-		for n < len(out) && out[n].Score >= Cutoff {
-			n++
-		}
-		out = out[:n]
-	}
+	slices.SortStableFunc(out, byScore)
 	if key != "score" {
-		sort.SliceStable(out, func(i, j int) bool {
-			a, b := out[i], out[j]
+		slices.SortStableFunc(out, func(a, b *Term) int {
 			if key == "term" {
-				return a.Term < b.Term
+				return strings.Compare(a.Term, b.Term)
 			}
 			x, y := get(a), get(b)
 			if key == "dp" {
 				x, y = -x, -y // evenly spread first
 			}
 			if x != y {
-				return x > y
+				return cmp.Compare(y, x)
 			}
 			return byScore(a, b)
 		})
