@@ -314,7 +314,7 @@ func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
 		// The cache holds views (rows) of another model's weights: during
 		// training with progress reports a model's weights are replaced
 		// after every epoch, and its pooled lattices stay.
-		l.cache, l.cacheAlone = nil, nil
+		l.cache, l.cacheAlone, l.lexMemo = nil, nil, nil
 		l.perc = p
 	}
 	n := len(toks)

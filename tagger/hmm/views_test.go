@@ -2,6 +2,7 @@ package hmm
 
 import (
 	"math/rand/v2"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -260,6 +261,50 @@ func TestMemoLemmaFollowsState(t *testing.T) {
 	if v.lemmaSet {
 		t.Error("a refilled view kept the lemma of the word before")
 	}
+}
+
+// TestLexiconLemmaMemo: a lexicon word tagged with a state it was never
+// seen in gets its lemma from the lattice's memo (lexLemma); on EWT dev,
+// tagged twice so that the second pass reads the memo, every such lemma
+// must be the lemmatizer's own.
+func TestLexiconLemmaMemo(t *testing.T) {
+	_, dev, _ := ewt(t)
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	checked := 0
+	for pass := 0; pass < 2; pass++ {
+		for _, cs := range dev {
+			s := doc.Sentence{Tokens: slices.Clone(cs.Tokens)}
+			for i := range s.Tokens {
+				s.Tokens[i].UPOS, s.Tokens[i].XPOS, s.Tokens[i].Lemma = "", "", ""
+			}
+			m.Tag(&s)
+			for _, tok := range s.Tokens {
+				w, ok := m.lex[tok.Form]
+				if !ok {
+					continue
+				}
+				seen := false
+				e := m.words[w]
+				for _, x := range m.wlex[e.first : e.first+e.ntags] {
+					seen = seen || m.tagX[x.tag] == tok.XPOS && m.uposOf(tok.Form, x.tag) == tok.UPOS
+				}
+				if seen {
+					continue
+				}
+				checked++
+				if want := m.unknownLemma(tok.Form, tok.UPOS, tok.XPOS); tok.Lemma != want {
+					t.Fatalf("pass %d: %q as %s/%s: lemma %q, want %q", pass, tok.Form, tok.UPOS, tok.XPOS, tok.Lemma, want)
+				}
+			}
+		}
+	}
+	if checked == 0 {
+		t.Fatal("no lexicon word was tagged with a state it was not seen in")
+	}
+	t.Logf("%d tokens checked", checked)
 }
 
 // TestCacheKeepsNoDocumentText: the unknown-word cache outlives the

@@ -3,6 +3,7 @@ package hmm
 import (
 	"math"
 	"sort"
+	"strings"
 )
 
 // lattice holds one sentence's decoding problem and the scratch space of
@@ -43,17 +44,43 @@ type lattice struct {
 	cacheAlone []int32
 	rows       []int32
 	vecs       [][]int16
-	steps      [256]int32  // scratch: one score per tag, in weight steps
-	perc       *perceptron // the model whose views these are
-	rcand      []uint8     // rank of each candidate (see fold)
-	slot       [256]int16  // the tags of one position → their index, else -1 (markTags)
-	gen        uint64      // counts the sentences decoded, for the cache
-	aside      []wordView  // views of words whose cache slot was taken
+	steps      [256]int32     // scratch: one score per tag, in weight steps
+	perc       *perceptron    // the model whose views these are
+	rcand      []uint8        // rank of each candidate (see fold)
+	slot       [256]int16     // the tags of one position → their index, else -1 (markTags)
+	gen        uint64         // counts the sentences decoded, for the cache
+	lexMemo    []lexLemmaSlot // see lexLemma
+	aside      []wordView     // views of words whose cache slot was taken
 	asideAlone []int32
 }
 
 // newLattice returns an empty lattice; its score scratch has room for
 // every possible tag (maxTags), so scoring may index it by a byte.
+// lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a lattice's memo of lemmas of
+// lexicon words in states they were not seen in (direct-mapped).
+const lexLemmaBits = 12
+
+// lexLemmaSlot is one slot of that memo.
+type lexLemmaSlot struct {
+	key   uint32 // 1 + word<<8 + state; 0 for an empty slot
+	lemma string
+}
+
+// lexLemma returns the lemma of lexicon word w in state st from the
+// lattice's memo, or from find (whose result is kept) when absent.
+func (l *lattice) lexLemma(w int32, st uint8, find func() string) string {
+	if l.lexMemo == nil {
+		l.lexMemo = make([]lexLemmaSlot, 1<<lexLemmaBits)
+	}
+	key := 1 + uint32(w)<<8 + uint32(st)
+	e := &l.lexMemo[(key*0x9e3779b1)>>(32-lexLemmaBits)]
+	if e.key != key {
+		// A clone: the lemma may be a slice of the document's text.
+		e.key, e.lemma = key, strings.Clone(find())
+	}
+	return e.lemma
+}
+
 func newLattice() *lattice {
 	l := &lattice{score: make([]float32, maxTags+1)}
 	for i := range l.slot {
