@@ -54,8 +54,6 @@ type lattice struct {
 	asideAlone []int32
 }
 
-// newLattice returns an empty lattice; its score scratch has room for
-// every possible tag (maxTags), so scoring may index it by a byte.
 // lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a lattice's memo of lemmas of
 // lexicon words in states they were not seen in (direct-mapped).
 const lexLemmaBits = 12
@@ -81,6 +79,8 @@ func (l *lattice) lexLemma(w int32, st uint8, find func() string) string {
 	return e.lemma
 }
 
+// newLattice returns an empty lattice; its score scratch has room for
+// every possible tag (maxTags), so scoring may index it by a byte.
 func newLattice() *lattice {
 	l := &lattice{score: make([]float32, maxTags+1)}
 	for i := range l.slot {
