@@ -54,13 +54,14 @@ type lattice struct {
 	asideAlone []int32
 }
 
-// lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a lattice's memo of lemmas of
-// lexicon words in states they were not seen in (direct-mapped).
+// lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a
+// lattice's memo of lemmas of lexicon words in states they were not seen
+// in (direct-mapped).
 const lexLemmaBits = 12
 
 // lexLemmaSlot is one slot of that memo.
 type lexLemmaSlot struct {
-	key   uint32 // 1 + word<<8 + state; 0 for an empty slot
+	key   uint64 // 1 + word<<8 + state; 0 for an empty slot
 	lemma string
 }
 
@@ -70,8 +71,8 @@ func (l *lattice) lexLemma(w int32, st uint8, find func() string) string {
 	if l.lexMemo == nil {
 		l.lexMemo = make([]lexLemmaSlot, 1<<lexLemmaBits)
 	}
-	key := 1 + uint32(w)<<8 + uint32(st)
-	e := &l.lexMemo[(key*0x9e3779b1)>>(32-lexLemmaBits)]
+	key := 1 + uint64(w)<<8 + uint64(st)
+	e := &l.lexMemo[(key*0x9E3779B97F4A7C15)>>(64-lexLemmaBits)]
 	if e.key != key {
 		// A clone: the lemma may be a slice of the document's text.
 		e.key, e.lemma = key, strings.Clone(find())
