@@ -199,25 +199,36 @@ func (m *Model) Tag(s *doc.Sentence) {
 		t.UPOS = m.uposOf(t.Form, st)
 		t.Lemma = ""
 		if w := l.wid[i]; w >= 0 {
-			var lex []tagLemma
-			if m.perc != nil && l.views[i].wn > 0 {
-				v := l.views[i]
-				lex = m.wlex[v.wfirst : v.wfirst+int32(v.wn)]
-			} else {
-				e := &m.words[w]
-				lex = m.wlex[e.first : e.first+e.ntags]
-			}
-			for k := range lex {
-				if lex[k].tag == st {
-					t.Lemma = lex[k].lemma
-					break
-				}
-			}
+			t.Lemma = m.lexiconLemma(l, i, w, st)
 		}
 		if t.Lemma == "" {
 			t.Lemma = m.memoLemma(l, i, st, t)
 		}
 	}
+}
+
+// lexiconLemma returns the lexicon's lemma of token i, lexicon word w,
+// in state st, or "" when the word was not seen with that state: from the
+// view when st is the word's most frequent tag, else from the lexicon.
+func (m *Model) lexiconLemma(l *lattice, i int, w int32, st uint8) string {
+	var first, n int32
+	if m.perc != nil {
+		v := l.views[i]
+		if v.lemmaSet && v.lemmaState == st {
+			return v.lemma
+		}
+		first, n = v.wfirst, int32(v.wn)
+	}
+	if n == 0 {
+		e := &m.words[w]
+		first, n = e.first, e.ntags
+	}
+	for _, x := range m.wlex[first : first+n] {
+		if x.tag == st {
+			return x.lemma
+		}
+	}
+	return ""
 }
 
 // memoLemma lemmatizes token i in state st when the lexicon has no lemma

@@ -79,14 +79,15 @@ type wordView struct {
 	ndict      uint8
 	pairs      bool
 	upperFirst bool
-	// For words outside the lexicon only (whose views a lattice owns):
-	// the lemma last found for the word in state lemmaState.
+	// lemma, when lemmaSet, is the word's lemma in state lemmaState: for
+	// a word outside the lexicon (whose view a lattice owns), the last one
+	// found; for a lexicon word, its lemma with its most frequent tag, set
+	// when the view is built and never changed (the view is shared). The
+	// view is in cache when the lemma is looked up, the lexicon is not.
 	lemmaState uint8
 	lemmaSet   bool
 	// For lexicon words: their tags and lemmas are
-	// Model.wlex[wfirst:wfirst+wn] (kept here, in what was padding, as
-	// the view is in cache when the lemma is looked up and the lexicon
-	// entry is not).
+	// Model.wlex[wfirst:wfirst+wn] (kept in what was padding).
 	wn     uint8
 	wfirst int32
 	lemma  string
@@ -235,6 +236,15 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 	v.pairs, v.npair = true, uint16(len(v.pairData))
 	if e := m.words[w]; e.ntags <= 255 {
 		v.wfirst, v.wn = e.first, uint8(e.ntags)
+		best := e.first
+		for j := e.first; j < e.first+e.ntags; j++ {
+			if m.wcount[j] > m.wcount[best] {
+				best = j
+			}
+		}
+		if x := m.wlex[best]; x.lemma != "" {
+			v.lemma, v.lemmaState, v.lemmaSet = x.lemma, x.tag, true
+		}
 	}
 	if m.words[w].count >= p.dictMin {
 		tags := p.dictTags(w)
