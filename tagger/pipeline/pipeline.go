@@ -4,7 +4,8 @@
 //
 // The shape is map/reduce over documents: Map runs on worker goroutines
 // right after a document is annotated (matching, local counting), Reduce
-// runs on the caller's goroutine in input order (merging, printing). Only a
+// runs on the caller's goroutine in input order (merging, printing); with
+// one worker, everything runs on the caller's goroutine. Only a
 // bounded window of documents is in flight at once, so memory depends on
 // the largest documents, not on the size of the corpus.
 package pipeline
