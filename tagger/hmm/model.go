@@ -207,6 +207,21 @@ func (m *Model) Tag(s *doc.Sentence) {
 	}
 }
 
+// commonLemma returns the tag a lexicon word was seen with most often in
+// training (the first of equals) and the word's lemma with it.
+func (m *Model) commonLemma(e wordEntry) tagLemma {
+	if e.ntags <= 0 {
+		return tagLemma{} // (a model file may hold such an entry)
+	}
+	best := e.first
+	for j := e.first; j < e.first+e.ntags; j++ {
+		if m.wcount[j] > m.wcount[best] {
+			best = j
+		}
+	}
+	return m.wlex[best]
+}
+
 // lexiconLemma returns the lexicon's lemma of token i, lexicon word w,
 // in state st, or "" when the word was not seen with that state: from the
 // view when st is the word's most frequent tag, else from the lexicon.

@@ -222,8 +222,9 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		return v
 	}
 	v := &wordView{}
+	e := m.words[w]
 	var alone []int32
-	if m.words[w].count < p.dictMin || p.dict[w].n > 1 {
+	if e.count < p.dictMin || p.dict[w].n > 1 {
 		alone = make([]int32, p.nt)
 	}
 	l.feats, l.buf = p.fillView(v, form, alone, l.feats, l.buf)
@@ -234,19 +235,13 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 		}
 	}
 	v.pairs, v.npair = true, uint16(len(v.pairData))
-	if e := m.words[w]; e.ntags <= 255 {
+	if e.ntags <= 255 {
 		v.wfirst, v.wn = e.first, uint8(e.ntags)
-		best := e.first
-		for j := e.first; j < e.first+e.ntags; j++ {
-			if m.wcount[j] > m.wcount[best] {
-				best = j
-			}
-		}
-		if x := m.wlex[best]; x.lemma != "" {
+		if x := m.commonLemma(e); x.lemma != "" {
 			v.lemma, v.lemmaState, v.lemmaSet = x.lemma, x.tag, true
 		}
 	}
-	if m.words[w].count >= p.dictMin {
+	if e.count >= p.dictMin {
 		tags := p.dictTags(w)
 		v.ndict, v.dfirst = uint8(len(tags)), p.dict[w].first
 		if v.alone != nil {
