@@ -152,6 +152,19 @@ func TestSelectCandsAgrees(t *testing.T) {
 		if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
 			t.Fatalf("k=%d, steps: %v %v, want %v %v", k, a.cands, a.emit, b.cands, b.emit)
 		}
+		// The decoder's selection of at most eight, on all the tags and
+		// on fewer tags than candidates.
+		if k <= 8 {
+			for _, n := range []int{len(steps), 1 + rng.IntN(12)} {
+				a.reset(1)
+				b.reset(1)
+				selectTop8(a, steps[:n], k, 1)
+				selectCandsLong(b, score[:n], k)
+				if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
+					t.Fatalf("k=%d, %d tags, top 8: %v %v, want %v %v", k, n, a.cands, a.emit, b.cands, b.emit)
+				}
+			}
+		}
 	}
 }
 
