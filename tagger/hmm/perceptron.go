@@ -206,18 +206,7 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		}
 		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, i)
 		if v.ndict > 0 {
-			// Only the dictionary's tags.
-			for k, t := range p.dtags[v.dfirst : v.dfirst+int32(v.ndict)] {
-				s := v.alone[k]
-				for _, vec := range l.vecs {
-					s += int32(vec[t])
-				}
-				for _, r := range l.rows {
-					s += p.steps(r, t)
-				}
-				l.add(t, float32(s)*weightStep)
-			}
-			l.closePos()
+			p.scoreDict(l, v, score)
 			continue
 		}
 		copy(score[:], v.alone)
@@ -234,6 +223,39 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		}
 	}
 	p.fillPairs(l, uint8(nt), l.pairRowOf, l.views)
+}
+
+// scoreDict adds the candidates of a token whose tags the dictionary
+// gives: only those tags are scored. A short row is added whole into
+// score (scratch; only the dictionary's entries are set first and read
+// after), which costs a few adds without a branch, where looking up each
+// tag in it cost a scan that ended in a mispredicted branch per tag.
+func (p *perceptron) scoreDict(l *lattice, v *wordView, score *[256]int32) {
+	tags := p.dtags[v.dfirst : v.dfirst+int32(v.ndict)]
+	for k, t := range tags {
+		s := v.alone[k]
+		for _, vec := range l.vecs {
+			s += int32(vec[t])
+		}
+		score[t] = s
+	}
+	for _, r := range l.rows {
+		if r < 0 {
+			continue
+		}
+		if d := p.dense[r]; d >= 0 {
+			dw := (*[256]int16)(p.denseW[d:][:256])
+			for _, t := range tags {
+				score[t] += int32(dw[t])
+			}
+			continue
+		}
+		p.addRow(score, r)
+	}
+	for _, t := range tags {
+		l.add(t, float32(score[t])*weightStep)
+	}
+	l.closePos()
 }
 
 // addDense adds vec, indexed by tag, to score (in steps).
