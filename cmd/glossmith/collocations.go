@@ -93,6 +93,7 @@ Measures (every one is a column; --measure sorts):
 			}
 			total := colloc.NewCounter()
 			total.SetBudget(in.tableBudget())
+			in.reuseTokens = true // pairs hold strings, not tokens
 			_, runErr := runDocs(&in, args, model, count, func(_ *doc.Document, c *colloc.Counter) { total.Merge(c) })
 			if p := total.Pruned(); p.Pairs > 0 {
 				in.notePruned("pairs", p.Pairs, p.MaxFreq)

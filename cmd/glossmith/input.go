@@ -23,6 +23,10 @@ type inputFlags struct {
 	quiet   bool
 	noTag   bool
 	memory  memorySize
+	// reuseTokens is set by commands whose per-document work keeps
+	// nothing of the tokens (see pipeline.Options.ReuseTokens); not by
+	// find, whose hits keep their documents.
+	reuseTokens bool
 }
 
 func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
@@ -68,6 +72,8 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 		Tagger:  tagger,
 		Workers: f.workers,
 		Report:  pp.report,
+
+		ReuseTokens: f.reuseTokens,
 	}
 	// The runtime's limit covers its own memory only, not the program text
 	// or the allocator's slack that the system counts too: aim a tenth low.

@@ -41,6 +41,7 @@ Output formats (--to):
 				return err
 			}
 			var werr error
+			in.reuseTokens = true // each document is written out before the next
 			_, runErr := runDocs(&in, args, tagger, nil, func(d *doc.Document, _ struct{}) {
 				if werr == nil {
 					werr = w.Write(d)

@@ -110,6 +110,8 @@ validated terminology.`,
 			if opt.Keep, err = spanFilter(include, exclude, rs); err != nil {
 				return err
 			}
+			// Collect and Add copy what they keep of a document.
+			in.reuseTokens = true
 			var ref terms.Reference = modelReference{model}
 			if len(reference) > 0 {
 				counts := &terms.Counts{}

@@ -37,6 +37,11 @@ type Options struct {
 	// Progress, if set, is called from the reducing goroutine after each
 	// document with the running totals.
 	Progress func(Stats)
+	// ReuseTokens declares that neither mapFn's result nor reduceFn keeps
+	// anything of a document's tokens (the slices; strings are fine) once
+	// reduceFn has returned: the run then hands the document's token array
+	// to a later document instead of allocating a new one.
+	ReuseTokens bool
 }
 
 // Stats are running totals of a run.
@@ -91,7 +96,9 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 		doc   *doc.Document
 		probs []read.Problem
 		val   R
+		toks  []doc.Token // the document's token array, for reuse
 	}
+	var pool tokenPool
 	reduce := func(i int, res result) {
 		st.Done++
 		st.DoneBytes += sizes[i]
@@ -112,13 +119,20 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 			if reduceFn != nil {
 				reduceFn(res.doc, res.val)
 			}
+			if opt.ReuseTokens {
+				pool.put(res.toks)
+			}
 		}
 		if opt.Progress != nil {
 			opt.Progress(st)
 		}
 	}
 	work := func(i int) (res result) {
-		res.doc, res.probs = Annotate(inputs[i], opt.Read, opt.Tagger)
+		var buf []doc.Token
+		if opt.ReuseTokens {
+			buf = pool.get()
+		}
+		res.doc, res.probs, res.toks = annotate(inputs[i], opt.Read, opt.Tagger, buf)
 		if res.doc != nil && mapFn != nil {
 			res.val = mapFn(res.doc)
 		}
@@ -180,15 +194,54 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 // Annotate reads one input, tokenizes it unless it came tokenized, and tags
 // it unless it came tagged or tagger is nil.
 func Annotate(in read.Input, ropt read.Options, tagger Tagger) (*doc.Document, []read.Problem) {
+	d, probs, _ := annotate(in, ropt, tagger, nil)
+	return d, probs
+}
+
+// annotate is Annotate with a token array to reuse (see
+// tokenize.DocumentReusing); it returns the array the tokens are in.
+func annotate(in read.Input, ropt read.Options, tagger Tagger, buf []doc.Token) (*doc.Document, []read.Problem, []doc.Token) {
 	d, probs := read.Read(in, ropt)
 	if d == nil {
-		return nil, probs
+		return nil, probs, buf
 	}
-	if !d.Pretokenized {
-		tokenize.Document(d)
-	}
+	toks := tokenize.DocumentReusing(d, buf)
 	if tagger != nil && !d.Tagged() {
 		tagger.TagDocument(d)
 	}
-	return d, probs
+	return d, probs, toks
+}
+
+// tokenPool holds token arrays free for reuse: at most as many as there
+// are documents in flight, and none larger than maxPooledTokens, so that
+// one huge document does not pin its array for the rest of the run.
+type tokenPool struct {
+	mu   sync.Mutex
+	free [][]doc.Token
+}
+
+// maxPooledTokens is the capacity (in tokens, 96 bytes each) above which
+// an array is left to the garbage collector: documents are rarely longer
+// than the 1.3 MB of text it holds.
+const maxPooledTokens = 256 << 10
+
+func (p *tokenPool) get() []doc.Token {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	n := len(p.free)
+	if n == 0 {
+		return nil
+	}
+	b := p.free[n-1]
+	p.free = p.free[:n-1]
+	return b
+}
+
+func (p *tokenPool) put(b []doc.Token) {
+	if cap(b) == 0 || cap(b) > maxPooledTokens {
+		return
+	}
+	p.mu.Lock()
+	p.free = append(p.free, b[:0])
+	p.mu.Unlock()
 }

@@ -88,11 +88,13 @@ func dump(d *doc.Document) string {
 }
 
 // annotated runs the pipeline and returns everything it delivered: the
-// documents in reduce order, the problems and the totals.
-func annotated(t *testing.T, args []string, workers int) string {
+// documents in reduce order, the problems and the totals. With reuse, the
+// token arrays of reduced documents are reused: a document's tokens must
+// still be its own when it is reduced (the check against its map result).
+func annotated(t *testing.T, args []string, workers int, reuse bool) string {
 	t.Helper()
 	var b strings.Builder
-	opt := pipeline.Options{Tagger: tagger(t), Workers: workers,
+	opt := pipeline.Options{Tagger: tagger(t), Workers: workers, ReuseTokens: reuse,
 		Report: func(p read.Problem) { fmt.Fprintf(&b, "problem %s: %s\n", p.Severity, p.Error()) }}
 	st := pipeline.Run(args, opt, dump, func(d *doc.Document, s string) {
 		if s != dump(d) {
@@ -117,13 +119,18 @@ func TestRunSameForAnyWorkerCount(t *testing.T) {
 		{"small", []string{smallDocs(t, 80)}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			want := annotated(t, c.args, 1)
+			want := annotated(t, c.args, 1, false)
 			if !strings.Contains(want, "\t") {
 				t.Fatal("no tokens delivered")
 			}
-			for _, w := range workerCounts[1:] {
-				if got := annotated(t, c.args, w); got != want {
-					t.Errorf("%d workers deliver other documents or order than 1 worker:\n%s", w, firstDiff(want, got))
+			for _, w := range workerCounts {
+				for _, reuse := range []bool{false, true} {
+					if w == 1 && !reuse {
+						continue
+					}
+					if got := annotated(t, c.args, w, reuse); got != want {
+						t.Errorf("%d workers (token arrays reused: %v) deliver other documents or order than 1 worker:\n%s", w, reuse, firstDiff(want, got))
+					}
 				}
 			}
 		})
@@ -205,8 +212,13 @@ func TestRunWithoutInputs(t *testing.T) {
 }
 
 // termList runs term extraction through the pipeline, as the terms
-// command does, and returns the JSON Lines output of every candidate.
+// command does (reusing token arrays), and returns the JSON Lines output
+// of every candidate.
 func termList(t *testing.T, args []string, workers int) string {
+	return termListReusing(t, args, workers, true)
+}
+
+func termListReusing(t *testing.T, args []string, workers int, reuse bool) string {
 	t.Helper()
 	m, err := pattern.CompileStock("terms")
 	if err != nil {
@@ -214,7 +226,7 @@ func termList(t *testing.T, args []string, workers int) string {
 	}
 	col := terms.NewCollector(m, terms.Options{Contexts: 3})
 	corpus := terms.NewCorpus(3)
-	pipeline.Run(args, pipeline.Options{Tagger: tagger(t), Workers: workers}, col.Collect,
+	pipeline.Run(args, pipeline.Options{Tagger: tagger(t), Workers: workers, ReuseTokens: reuse}, col.Collect,
 		func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
 	ranked, err := terms.Rank(corpus.Terms(&terms.Counts{Words: map[string]int{"the": 1000}, Total: 100000}), terms.RankOptions{All: true})
 	if err != nil {
@@ -278,6 +290,18 @@ func TestTermsAndPairsSameForAnyWorkerCount(t *testing.T) {
 					}
 				}
 			})
+		}
+	}
+}
+
+// TestTermsSameWithTokenReuse: the term counts keep nothing of the
+// token arrays that later documents reuse.
+func TestTermsSameWithTokenReuse(t *testing.T) {
+	args := []string{smallDocs(t, 80)}
+	want := termListReusing(t, args, 1, false)
+	for _, w := range workerCounts {
+		if got := termListReusing(t, args, w, true); got != want {
+			t.Errorf("%d workers reusing token arrays give other terms:\n%s", w, firstDiff(want, got))
 		}
 	}
 }

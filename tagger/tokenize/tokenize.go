@@ -34,6 +34,23 @@ func Document(d *doc.Document) {
 	d.Sentences = Sentences(d.Text)
 }
 
+// DocumentReusing is Document with the token array buf (from an earlier
+// call; its contents do not matter) reused when it is large enough. It
+// returns the array the tokens are in (buf itself when the document came
+// pretokenized), for the caller to pass to a later call once nothing
+// refers to this document's tokens any more. Reusing the array spares
+// the allocation, zeroing and collection of 19 bytes or so per byte of
+// text, some 40% of all the memory a `terms` run allocates.
+func DocumentReusing(d *doc.Document, buf []doc.Token) []doc.Token {
+	if d.Pretokenized {
+		return buf[:0]
+	}
+	t := tokenizer{text: d.Text, toks: buf[:0]}
+	t.scan()
+	d.Sentences = t.split()
+	return t.toks[:0]
+}
+
 // Sentences tokenizes text and splits it into sentences. Token offsets are
 // byte offsets into text; Line is the 1-based line of the token.
 func Sentences(text string) []doc.Sentence {
@@ -78,7 +95,9 @@ func (t *tokenizer) scan() {
 	// English text runs at 5 to 6 bytes a token; the slack leaves room for
 	// the periods that split may cut off abbreviations without a copy.
 	est := len(text)/5 + 4
-	t.toks = make([]doc.Token, 0, est+est/32)
+	if cap(t.toks) < est+est/32 {
+		t.toks = make([]doc.Token, 0, est+est/32)
+	}
 	t.breaks = make([]uint8, 0, est)
 	t.line = 1
 	newlines := 2 // the start of the text opens a paragraph
@@ -155,8 +174,9 @@ func (t *tokenizer) scan() {
 var asciiSpace = [utf8.RuneSelf]bool{' ': true, '\t': true, '\n': true, '\v': true, '\f': true, '\r': true}
 
 // emit appends the token text[s:e]. It fills the fields of a slot in the
-// (zeroed) array rather than copying a whole struct in, which spares the
-// garbage collector's bulk write barrier on every token.
+// array rather than copying a whole struct in, which spares the garbage
+// collector's bulk write barrier on every token; the annotation fields
+// are zero in a new array and cleared in a reused one.
 func (t *tokenizer) emit(s, e int, fused bool) {
 	n := len(t.toks)
 	if n < cap(t.toks) {
@@ -171,6 +191,9 @@ func (t *tokenizer) emit(s, e int, fused bool) {
 	tk.Line = t.line
 	tk.SpaceAfter = e == t.chunkEnd && e < len(t.text)
 	tk.FusedNext = fused
+	if tk.UPOS != "" || tk.Lemma != "" || tk.XPOS != "" { // a reused array
+		tk.Lemma, tk.UPOS, tk.XPOS = "", "", ""
+	}
 }
 
 // chunk splits text[s:e], a run without white space, into tokens.

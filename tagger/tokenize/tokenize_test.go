@@ -228,3 +228,60 @@ func TestParagraphSeparator(t *testing.T) {
 		t.Fatalf("got %d sentences: %+v", len(sents), sents)
 	}
 }
+
+// TestDocumentReusing tokenizes texts of falling and rising length into one
+// reused array, after marking every token of the previous text as a tagger
+// would, and requires the sentences Document makes from a fresh array.
+// The texts have abbreviation periods that split cuts off, which takes
+// room past the tokens scan made.
+func TestDocumentReusing(t *testing.T) {
+	base := "The set-up follows Fig. 3 of the manual. Open the valve approx. two turns, e.g. by hand. " +
+		"Don't run the pump dry! The controller's log shows \"ERR 4\" (see Sect. 5.2).\n\n"
+	texts := []string{
+		strings.Repeat(base, 40), strings.Repeat(base, 3), "Short text.", strings.Repeat(base, 2),
+		strings.Repeat(base, 39), "", strings.Repeat(base, 80), "e.g.",
+	}
+	var buf []doc.Token
+	reused := 0
+	for i, text := range texts {
+		want := &doc.Document{Text: text}
+		Document(want)
+		got := &doc.Document{Text: text}
+		before := buf
+		buf = DocumentReusing(got, buf)
+		if cap(before) > 0 && cap(buf) > 0 && &before[:1][0] == &buf[:1][0] {
+			reused++
+		}
+		if len(got.Sentences) != len(want.Sentences) {
+			t.Fatalf("text %d: %d sentences, want %d", i, len(got.Sentences), len(want.Sentences))
+		}
+		for s := range want.Sentences {
+			g, w := got.Sentences[s], want.Sentences[s]
+			if g.Index != w.Index || g.NewPar != w.NewPar || len(g.Tokens) != len(w.Tokens) {
+				t.Fatalf("text %d sentence %d: %+v, want %+v", i, s, g, w)
+			}
+			for k := range w.Tokens {
+				if g.Tokens[k] != w.Tokens[k] {
+					t.Fatalf("text %d sentence %d token %d: %+v, want %+v", i, s, k, g.Tokens[k], w.Tokens[k])
+				}
+			}
+		}
+		// What a tagger leaves in the array for the next text.
+		for s := range got.Sentences {
+			for k := range got.Sentences[s].Tokens {
+				tk := &got.Sentences[s].Tokens[k]
+				tk.Lemma, tk.UPOS, tk.XPOS = "x", "NOUN", "NN"
+			}
+		}
+	}
+	// The array is kept from the first text on except when a text is
+	// longer than all before it (the seventh).
+	if reused != len(texts)-2 {
+		t.Errorf("array reused for %d of %d texts, want %d", reused, len(texts)-1, len(texts)-2)
+	}
+	// A pretokenized document keeps its sentences and the array.
+	p := &doc.Document{Text: "a b", Sentences: []doc.Sentence{{ID: "s1"}}, Pretokenized: true}
+	if out := DocumentReusing(p, buf); cap(out) != cap(buf) || p.Sentences[0].ID != "s1" {
+		t.Errorf("pretokenized: array of %d, sentences %+v", cap(out), p.Sentences)
+	}
+}
