@@ -234,7 +234,7 @@ func BenchmarkTermsPipeline(b *testing.B) {
 			cpu0 := benchcorpus.CPUTime()
 			for b.Loop() {
 				corpus := terms.NewCorpus(3)
-				st := pipeline.Run([]string{dir}, pipeline.Options{Tagger: f.model, Workers: workers},
+				st := pipeline.Run([]string{dir}, pipeline.Options{Tagger: f.model, Workers: workers, ReuseTokens: true},
 					col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
 				tokens = st.Tokens
 			}
