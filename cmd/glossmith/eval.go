@@ -131,7 +131,7 @@ all cut-offs of the full ranking with the rank where it is reached.`,
 			col := terms.NewCollector(m, terms.Options{})
 			corpus := terms.NewCorpus(0)
 			in.reuseTokens = true // Collect and Add copy what they keep
-			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
 			if corpus.Documents() == 0 {
 				return runErr
 			}

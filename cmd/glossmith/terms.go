@@ -115,7 +115,7 @@ validated terminology.`,
 			var ref terms.Reference = modelReference{model}
 			if len(reference) > 0 {
 				counts := &terms.Counts{}
-				if _, err := runDocs(&in, reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc) }); err != nil {
+				if _, err := runDocs(&in, reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() }); err != nil {
 					return fmt.Errorf("reference: %w", err)
 				}
 				ref = counts
@@ -127,7 +127,7 @@ validated terminology.`,
 			col := terms.NewCollector(m, opt)
 			corpus := terms.NewCorpus(keep)
 			corpus.SetBudget(in.tableBudget())
-			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
 			if p := corpus.Pruned(); p.Candidates > 0 {
 				in.notePruned("candidates", p.Candidates, int64(p.MaxFreq))
 			}

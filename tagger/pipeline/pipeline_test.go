@@ -212,8 +212,8 @@ func TestRunWithoutInputs(t *testing.T) {
 }
 
 // termList runs term extraction through the pipeline, as the terms
-// command does (reusing token arrays), and returns the JSON Lines output
-// of every candidate.
+// command does (reusing token arrays and the tables of released counts),
+// and returns the JSON Lines output of every candidate.
 func termList(t *testing.T, args []string, workers int) string {
 	return termListReusing(t, args, workers, true)
 }
@@ -227,7 +227,12 @@ func termListReusing(t *testing.T, args []string, workers int, reuse bool) strin
 	col := terms.NewCollector(m, terms.Options{Contexts: 3})
 	corpus := terms.NewCorpus(3)
 	pipeline.Run(args, pipeline.Options{Tagger: tagger(t), Workers: workers, ReuseTokens: reuse}, col.Collect,
-		func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+		func(_ *doc.Document, dc *terms.DocCounts) {
+			corpus.Add(dc)
+			if reuse {
+				dc.Release()
+			}
+		})
 	ranked, err := terms.Rank(corpus.Terms(&terms.Counts{Words: map[string]int{"the": 1000}, Total: 100000}), terms.RankOptions{All: true})
 	if err != nil {
 		t.Fatal(err)
@@ -295,7 +300,8 @@ func TestTermsAndPairsSameForAnyWorkerCount(t *testing.T) {
 }
 
 // TestTermsSameWithTokenReuse: the term counts keep nothing of the
-// token arrays that later documents reuse.
+// token arrays that later documents reuse, and the corpus nothing of the
+// released counts' tables.
 func TestTermsSameWithTokenReuse(t *testing.T) {
 	args := []string{smallDocs(t, 80)}
 	want := termListReusing(t, args, 1, false)

@@ -235,7 +235,7 @@ func BenchmarkTermsPipeline(b *testing.B) {
 			for b.Loop() {
 				corpus := terms.NewCorpus(3)
 				st := pipeline.Run([]string{dir}, pipeline.Options{Tagger: f.model, Workers: workers, ReuseTokens: true},
-					col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc) })
+					col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
 				tokens = st.Tokens
 			}
 			reportTokens(b, int(tokens), cpu0)
