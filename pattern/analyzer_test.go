@@ -61,7 +61,7 @@ func fakeAnalyze(text string) ([]doc.Sentence, error) {
 			return fmt.Errorf("fake tagger: no tags for %q", form)
 		}
 		upos, xpos, _ := strings.Cut(tags, " ")
-		toks = append(toks, doc.Token{Form: form, Start: start, End: end, Line: 1,
+		toks = append(toks, doc.Token{Form: form, Start: int32(start), End: int32(end), Line: 1,
 			Lemma: strings.ToLower(form), UPOS: upos, XPOS: xpos})
 		start = -1
 		return nil

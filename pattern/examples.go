@@ -75,10 +75,10 @@ func checkExpect(m *Matcher, ex *grammar.Example, sents []doc.Sentence, fail fun
 	for _, s := range sents {
 		start, end := -1, -1
 		for i, t := range s.Tokens {
-			if t.Start == lo {
+			if int(t.Start) == lo {
 				start = i
 			}
-			if t.End == hi {
+			if int(t.End) == hi {
 				end = i + 1
 			}
 		}
@@ -110,7 +110,7 @@ func isSpace(c byte) bool { return c == ' ' || c == '\t' || c == '\n' || c == '\
 
 // spanText quotes tokens [start,end) of a sentence from the text.
 func spanText(text string, toks []doc.Token, start, end int) string {
-	a, b := toks[start].Start, toks[end-1].End
+	a, b := int(toks[start].Start), int(toks[end-1].End)
 	if 0 <= a && a <= b && b <= len(text) {
 		return text[a:b]
 	}

@@ -33,7 +33,7 @@ type Hit struct {
 func NewHit(d *doc.Document, si, start, end int, rule string, slots map[string][2]int) Hit {
 	s := &d.Sentences[si]
 	toks := s.Tokens
-	h := Hit{Doc: d.Name, Sentence: si + 1, Line: toks[start].Line, Start: start, End: end, Rule: rule}
+	h := Hit{Doc: d.Name, Sentence: si + 1, Line: int(toks[start].Line), Start: start, End: end, Rule: rule}
 	h.Text = span(d, toks, start, end)
 	h.Left = span(d, toks, 0, start)
 	h.Right = span(d, toks, end, len(toks))
@@ -62,7 +62,7 @@ func span(d *doc.Document, toks []doc.Token, a, b int) string {
 	if a >= b {
 		return ""
 	}
-	x, y := toks[a].Start, toks[b-1].End
+	x, y := int(toks[a].Start), int(toks[b-1].End)
 	if x >= 0 && y <= len(d.Text) && x < y {
 		return strings.Join(strings.Fields(d.Text[x:y]), " ")
 	}

@@ -445,7 +445,7 @@ func (sc *scratch) markUnclean() spanState {
 	n := int32(0)
 	for k := range toks {
 		t := &toks[k]
-		if t.Start < 0 || t.End < t.Start || t.End > len(text) || k > 0 && t.Start < toks[k-1].End {
+		if t.Start < 0 || t.End < t.Start || int(t.End) > len(text) || k > 0 && t.Start < toks[k-1].End {
 			return spansOdd
 		}
 		if !cleanToken(text[t.Start:t.End]) {
@@ -453,7 +453,7 @@ func (sc *scratch) markUnclean() spanState {
 		}
 		u = append(u, n)
 		if k+1 < len(toks) {
-			if next := toks[k+1].Start; next < t.End || next > len(text) {
+			if next := toks[k+1].Start; next < t.End || int(next) > len(text) {
 				return spansOdd
 			} else if gap := text[t.End:next]; gap != "" && gap != " " {
 				n++

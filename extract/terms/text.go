@@ -14,7 +14,7 @@ import (
 // spelled into buf, and then inBuf is true and the result is valid only
 // until buf is written again.
 func appendSurface(buf []byte, d *doc.Document, toks []doc.Token) (s string, _ []byte, inBuf bool) {
-	a, b := toks[0].Start, toks[len(toks)-1].End
+	a, b := int(toks[0].Start), int(toks[len(toks)-1].End)
 	if a >= 0 && b <= len(d.Text) && a < b && d.Text[a:b] != "" && utf8.ValidString(d.Text[a:b]) {
 		span := d.Text[a:b]
 		if singleSpaced(span) {

@@ -247,7 +247,7 @@ func (r *Reader) readSentence() (s *Sentence, bad bool, err error) {
 		}
 		t := doc.Token{
 			Form:       cols[1],
-			Line:       r.line,
+			Line:       int32(r.line),
 			SpaceAfter: spaceAfter(cols[9]),
 			Lemma:      field(cols[2]),
 			UPOS:       field(cols[3]),
@@ -390,13 +390,13 @@ func placeTokens(b *strings.Builder, s *doc.Sentence, surface []mwt) {
 			spelled := joined.String() == m.form
 			for j := m.first; j <= m.last; j++ {
 				t := &s.Tokens[j]
-				t.Start = pos
+				t.Start = int32(pos)
 				if spelled {
 					pos += len(t.Form)
 				} else if j == m.first {
 					pos = end
 				}
-				t.End = pos
+				t.End = int32(pos)
 			}
 			if m.spaceAfter && m.last < len(s.Tokens)-1 {
 				b.WriteByte(' ')
@@ -405,9 +405,9 @@ func placeTokens(b *strings.Builder, s *doc.Sentence, surface []mwt) {
 			continue
 		}
 		t := &s.Tokens[i]
-		t.Start = b.Len()
+		t.Start = int32(b.Len())
 		b.WriteString(t.Form)
-		t.End = b.Len()
+		t.End = int32(b.Len())
 		if t.SpaceAfter && i < len(s.Tokens)-1 {
 			b.WriteByte(' ')
 		}

@@ -34,7 +34,7 @@ func TestRoundTripEWT(t *testing.T) {
 	for i := range d.Sentences {
 		s := &d.Sentences[i]
 		for _, tok := range s.Tokens {
-			if tok.Start < 0 || tok.End > len(d.Text) || tok.Start > tok.End {
+			if tok.Start < 0 || int(tok.End) > len(d.Text) || tok.Start > tok.End {
 				t.Fatalf("sentence %s: token %q has offsets %d:%d outside the text", s.ID, tok.Form, tok.Start, tok.End)
 			}
 		}

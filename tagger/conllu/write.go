@@ -73,7 +73,7 @@ func writeRange(bw *bufio.Writer, d *doc.Document, s *doc.Sentence, j, k int) {
 	bw.WriteByte('\t')
 	first, last := s.Tokens[j], s.Tokens[k]
 	form := ""
-	if first.Start >= 0 && last.End <= len(d.Text) && first.Start < last.End {
+	if first.Start >= 0 && int(last.End) <= len(d.Text) && first.Start < last.End {
 		form = d.Text[first.Start:last.End]
 	} else {
 		for _, t := range s.Tokens[j : k+1] {
@@ -116,7 +116,7 @@ func spaceAfterOf(d *doc.Document, s *doc.Sentence, j int) bool {
 	if j < len(s.Tokens)-1 || d.Pretokenized {
 		return t.SpaceAfter
 	}
-	if t.End >= len(d.Text) {
+	if int(t.End) >= len(d.Text) {
 		return true
 	}
 	return t.SpaceAfter

@@ -111,7 +111,7 @@ func (j *jsonWriter) Write(d *doc.Document) error {
 		js := jsonSentence{Doc: d.Name, Sentence: si + 1, Line: s.Line(), Text: conllu.SentenceText(d, s),
 			Tokens: make([]jsonToken, len(s.Tokens))}
 		for i, t := range s.Tokens {
-			js.Tokens[i] = jsonToken{t.Form, t.Lemma, t.UPOS, t.XPOS, t.Start, t.End, t.SpaceAfter}
+			js.Tokens[i] = jsonToken{t.Form, t.Lemma, t.UPOS, t.XPOS, int(t.Start), int(t.End), t.SpaceAfter}
 		}
 		if err := enc.Encode(js); err != nil {
 			return err

@@ -338,7 +338,7 @@ func TestCacheKeepsNoDocumentText(t *testing.T) {
 		for end < len(text) && text[end] != ' ' {
 			end++
 		}
-		toks = append(toks, doc.Token{Form: text[start:end], Start: start, End: end})
+		toks = append(toks, doc.Token{Form: text[start:end], Start: int32(start), End: int32(end)})
 		start = end + 1
 	}
 	l := newLattice()

@@ -220,7 +220,7 @@ type tokenPool struct {
 	free [][]doc.Token
 }
 
-// maxPooledTokens is the capacity (in tokens, 96 bytes each) above which
+// maxPooledTokens is the capacity (in tokens, 80 bytes each) above which
 // an array is left to the garbage collector: documents are rarely longer
 // than the 1.3 MB of text it holds.
 const maxPooledTokens = 256 << 10

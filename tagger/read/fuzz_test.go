@@ -109,10 +109,10 @@ func FuzzConllu(f *testing.F) {
 		maxLine := bytes.Count(data, []byte("\n")) + 1
 		for _, s := range d.Sentences {
 			for _, tok := range s.Tokens {
-				if tok.Start < 0 || tok.End < tok.Start || tok.End > len(d.Text) {
+				if tok.Start < 0 || tok.End < tok.Start || int(tok.End) > len(d.Text) {
 					t.Fatalf("token %q offsets %d..%d outside text of %d bytes", tok.Form, tok.Start, tok.End, len(d.Text))
 				}
-				if tok.Line < 1 || tok.Line > maxLine {
+				if tok.Line < 1 || int(tok.Line) > maxLine {
 					t.Fatalf("token %q line %d outside 1..%d", tok.Form, tok.Line, maxLine)
 				}
 			}

@@ -98,12 +98,17 @@ const DefaultMaxBytes = 128 << 20
 // reading it as words would only fill the results with noise.
 const MaxLine = 1 << 20
 
+// maxBytes is the cap in force, never above doc.MaxText: token offsets
+// and line numbers are 32-bit.
 func (o Options) maxBytes() int64 {
 	if o.MaxBytes > 0 {
-		return o.MaxBytes
+		return min(o.MaxBytes, doc.MaxText)
 	}
 	return DefaultMaxBytes
 }
+
+// maxText is doc.MaxText, a variable so that a test can lower it.
+var maxText = doc.MaxText
 
 // Format names, as accepted by Options.Format.
 const (
@@ -155,6 +160,12 @@ func Read(in Input, opt Options) (*doc.Document, []Problem) {
 	if d != nil {
 		if !utf8.ValidString(d.Text) { // a reader bug, never the user's fault
 			r.errorf(0, "internal error: extracted text is not valid UTF-8")
+			return nil, r.probs
+		}
+		if len(d.Text) > maxText {
+			// Markup can add a little text (paragraph marks) to what the
+			// byte cap let in.
+			r.errorf(0, "refused: %s of text, more than the %s one document may hold; split the file", size(int64(len(d.Text))), size(int64(maxText)))
 			return nil, r.probs
 		}
 		if strings.TrimSpace(strings.ReplaceAll(d.Text, paraSep, "")) == "" {

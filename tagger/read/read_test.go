@@ -291,7 +291,7 @@ func TestConlluFixtures(t *testing.T) {
 		assert.Equal(t, sents, len(d.Sentences), tc.name)
 		for _, s := range d.Sentences {
 			for _, tok := range s.Tokens {
-				assert.True(t, lineOf[tok.Line], "token %q line %d is a word row", tok.Form, tok.Line)
+				assert.True(t, lineOf[int(tok.Line)], "token %q line %d is a word row", tok.Form, tok.Line)
 				if !tc.tagged {
 					assert.Empty(t, tok.UPOS)
 				}
@@ -413,6 +413,23 @@ func TestMaxBytes(t *testing.T) {
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
 	assert.Equal(t, "big.txt: file is 1800 bytes, larger than the 1 KiB limit on one document; split it", ps[0].Error())
+}
+
+// Token offsets are 32-bit: a text longer than doc.MaxText (lowered here,
+// as a 2 GiB file has no place in a test) is refused, naming the file,
+// and so is a byte cap above it.
+func TestMaxText(t *testing.T) {
+	defer func(old int) { maxText = old }(maxText)
+	maxText = 1000
+	d, ps := readFile(t, "long.md", strings.Repeat("- valve\n", 200), Options{})
+	assert.Nil(t, d)
+	require.Len(t, ps, 1)
+	assert.Equal(t, Error, ps[0].Severity)
+	assert.Equal(t, "long.md: refused: 1797 bytes of text, more than the 1000 bytes one document may hold; split the file", ps[0].Error())
+	d, ps = readFile(t, "short.md", strings.Repeat("- valve\n", 100), Options{})
+	assert.NotNil(t, d)
+	assert.Empty(t, ps)
+	assert.Equal(t, int64(doc.MaxText), Options{MaxBytes: 1 << 40}.maxBytes())
 }
 
 // A 100 MB line without a newline, then a normal line: the long line is

@@ -18,7 +18,7 @@ import (
 // successor; Line is right; the first sentence starts a paragraph.
 func checkRoundTrip(text string, sents []doc.Sentence) string {
 	var b strings.Builder
-	pos, line, linePos := 0, 1, 0
+	var pos, line, linePos int32 = 0, 1, 0
 	var prev *doc.Token
 	for si := range sents {
 		s := &sents[si]
@@ -33,7 +33,7 @@ func checkRoundTrip(text string, sents []doc.Sentence) string {
 		}
 		for ti := range s.Tokens {
 			tk := &s.Tokens[ti]
-			if tk.Start < pos || tk.End <= tk.Start || tk.End > len(text) {
+			if tk.Start < pos || tk.End <= tk.Start || int(tk.End) > len(text) {
 				return fmt.Sprintf("token %q at [%d,%d) is out of order or outside the text (previous end %d, text length %d)",
 					tk.Form, tk.Start, tk.End, pos, len(text))
 			}
@@ -55,7 +55,7 @@ func checkRoundTrip(text string, sents []doc.Sentence) string {
 					return fmt.Sprintf("token %q at %d is FusedNext but white space follows it", prev.Form, prev.Start)
 				}
 			}
-			line += strings.Count(text[linePos:tk.Start], "\n")
+			line += int32(strings.Count(text[linePos:tk.Start], "\n"))
 			linePos = tk.Start
 			if tk.Line != line {
 				return fmt.Sprintf("token %q at %d has Line %d, want %d", tk.Form, tk.Start, tk.Line, line)

@@ -165,7 +165,7 @@ func (t *tokenizer) headingBreak(ls, k int) bool {
 	}
 	text := t.text
 	lineLen := utf8.RuneCountInString(text[t.toks[ls].Start:t.toks[k-1].End])
-	word := t.toks[k].Start
+	word := int(t.toks[k].Start)
 	for word < len(text) && (text[word] >= utf8.RuneSelf || !asciiSpace[text[word]]) {
 		word++ // the next line's first chunk (up to ASCII white space suffices here)
 	}

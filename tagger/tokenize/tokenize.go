@@ -91,6 +91,13 @@ type tokenizer struct {
 
 // scan cuts the text into tokens.
 func (t *tokenizer) scan() {
+	if len(t.text) > doc.MaxText { // offsets are 32-bit; readers refuse such texts
+		end := doc.MaxText
+		for end > 0 && !utf8.RuneStart(t.text[end]) {
+			end--
+		}
+		t.text = t.text[:end]
+	}
 	text := t.text
 	// English text runs at 5 to 6 bytes a token; the slack leaves room for
 	// the periods that split may cut off abbreviations without a copy.
@@ -186,9 +193,9 @@ func (t *tokenizer) emit(s, e int, fused bool) {
 	}
 	tk := &t.toks[n]
 	tk.Form = t.text[s:e]
-	tk.Start = s
-	tk.End = e
-	tk.Line = t.line
+	tk.Start = int32(s)
+	tk.End = int32(e)
+	tk.Line = int32(t.line)
 	tk.SpaceAfter = e == t.chunkEnd && e < len(t.text)
 	tk.FusedNext = fused
 	if tk.UPOS != "" || tk.Lemma != "" || tk.XPOS != "" { // a reused array
