@@ -145,7 +145,8 @@ type Corpus struct {
 	budget   budget // see budget.go
 
 	// working memory of Add
-	texts []string // copies of the document's context texts, made on first use
+	texts   []string // copies of the document's context texts, made on first use
+	touched int      // see lookUp: a use for the words it reads
 }
 
 // NewCorpus returns an empty corpus keeping up to contexts example
@@ -168,9 +169,13 @@ func (c *Corpus) Add(dc *DocCounts) {
 		c.words.add(w.word, w.n)
 	}
 	c.words.total += dc.Tokens
+	var found [addBatch]*group
 	for xi := range dc.cands {
 		x := &dc.cands[xi]
-		g := c.groups[x.key]
+		if xi%addBatch == 0 {
+			c.lookUp(&found, dc.cands[xi:min(xi+addBatch, len(dc.cands))])
+		}
+		g := found[xi%addBatch]
 		if g == nil {
 			g = c.newGroup(dc, x, di)
 		} else {
@@ -192,6 +197,30 @@ func (c *Corpus) Add(dc *DocCounts) {
 	}
 	clear(c.texts[:min(len(c.texts), len(dc.contexts))])
 	c.checkBudget(dc)
+}
+
+// addBatch is the number of candidates whose groups Add looks up before
+// merging any of them.
+const addBatch = 16
+
+// lookUp finds the groups of the candidates xs (at most addBatch; nil for
+// a candidate new to the corpus) and reads a word of each: the look-ups
+// and reads of a batch do not depend on each other, so the processor
+// waits for their cache misses together, where merging each candidate
+// right after its look-up waited for them one after the other. The keys
+// of one document's candidates differ, so no group of the batch is made
+// in between.
+func (c *Corpus) lookUp(found *[addBatch]*group, xs []docCand) {
+	for i := range xs {
+		found[i] = c.groups[xs[i].key]
+	}
+	n := 0
+	for _, g := range found[:len(xs)] {
+		if g != nil {
+			n += len(g.perDoc)
+		}
+	}
+	c.touched += n
 }
 
 // newGroup adds the group of a candidate new to the corpus, with its
