@@ -171,10 +171,12 @@ func (sc *scratch) newCounts(d *doc.Document) *DocCounts {
 func (sc *scratch) settle(dc *DocCounts) {
 	t, _ := freeTables.Get().(*docTables)
 	if t == nil {
+		// Room for a document a good deal larger than this one, so that
+		// the next rarely grows them.
 		t = &docTables{
-			make([]wordCount, 0, len(dc.words)), make([]docCand, 0, len(dc.cands)),
-			make([]docSpelling, 0, len(dc.spells)), make([]docCanonical, 0, len(dc.canons)),
-			make([]int32, 0, len(dc.ends)), make([]ctxRef, 0, len(dc.contexts)),
+			make([]wordCount, 0, 2*len(dc.words)), make([]docCand, 0, 2*len(dc.cands)),
+			make([]docSpelling, 0, 2*len(dc.spells)), make([]docCanonical, 0, 2*len(dc.canons)),
+			make([]int32, 0, 2*len(dc.ends)), make([]ctxRef, 0, 2*len(dc.contexts)),
 		}
 	}
 	sc.docTables = *t

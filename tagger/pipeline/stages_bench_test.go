@@ -121,7 +121,7 @@ func BenchmarkStages(b *testing.B) {
 		cpu0 := benchcorpus.CPUTime()
 		for b.Loop() {
 			for _, d := range f.tagged {
-				col.Collect(d)
+				col.Collect(d).Release() // as the terms command does, after merging
 			}
 		}
 		reportTokens(b, f.tokens, cpu0)
