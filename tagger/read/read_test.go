@@ -415,6 +415,36 @@ func TestMaxBytes(t *testing.T) {
 	assert.Equal(t, "big.txt: file is 1800 bytes, larger than the 1 KiB limit on one document; split it", ps[0].Error())
 }
 
+// Read buffers are reused from one input to the next: a short file read
+// after a long one (and after a gzip file and a .docx, whose buffers are
+// handled apart) has exactly its own text, nothing left of the other.
+func TestReadAfterLongerInput(t *testing.T) {
+	long := strings.Repeat("The controller logs the valve state every minute.\n", 2000)
+	short := "The valve opens.\n"
+	var gz bytes.Buffer
+	zw := gzip.NewWriter(&gz)
+	_, err := zw.Write([]byte(long))
+	require.NoError(t, err)
+	require.NoError(t, zw.Close())
+	for round := 0; round < 3; round++ {
+		d, ps := readFile(t, "long.txt", long, Options{})
+		require.NotNil(t, d)
+		assert.Empty(t, ps)
+		assert.Equal(t, long, d.Text)
+		d, _ = readFile(t, "long.txt.gz", gz.String(), Options{})
+		require.NotNil(t, d)
+		assert.Equal(t, long, d.Text)
+		docx := makeZip(t, docxFile(`<w:p><w:r><w:t>Solenoid valve</w:t></w:r></w:p>`)...)
+		d, _ = readFile(t, "manual.docx", string(docx), Options{})
+		require.NotNil(t, d)
+		assert.Equal(t, "Solenoid valve", d.Text)
+		d, ps = readFile(t, "short.txt", short, Options{})
+		require.NotNil(t, d)
+		assert.Empty(t, ps)
+		assert.Equal(t, short, d.Text)
+	}
+}
+
 // Token offsets are 32-bit: a text longer than doc.MaxText (lowered here,
 // as a 2 GiB file has no place in a test) is refused, naming the file,
 // and so is a byte cap above it.
