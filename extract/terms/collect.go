@@ -196,10 +196,11 @@ type docTables struct {
 // freeTables holds the (empty) tables of released DocCounts.
 var freeTables sync.Pool
 
-// Release gives dc's tables back for the counts of later documents. Call
-// it once dc has been added to a corpus (Corpus.Add and Counts.Add copy
-// what they keep) and is needed no more: dc is empty afterwards. Not
-// calling it costs only allocations.
+// Release gives dc's tables and the blocks of its arena back for the
+// counts of later documents. Call it once dc has been added to a corpus
+// (Corpus.Add and Counts.Add copy what they keep; TestCorpusKeepsNoDocumentText)
+// and nothing refers to its strings any more: dc is empty afterwards.
+// Not calling it costs only allocations.
 func (dc *DocCounts) Release() {
 	if cap(dc.words) == 0 && cap(dc.cands) == 0 {
 		return
@@ -212,6 +213,7 @@ func (dc *DocCounts) Release() {
 	clear(dc.canons)
 	clear(dc.contexts)
 	freeTables.Put(&docTables{dc.words[:0], dc.cands[:0], dc.spells[:0], dc.canons[:0], dc.ends[:0], dc.contexts[:0]})
+	dc.arena.free()
 	*dc = DocCounts{}
 }
 

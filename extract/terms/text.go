@@ -2,6 +2,7 @@ package terms
 
 import (
 	"strings"
+	"sync"
 	"unicode"
 	"unicode/utf8"
 	"unsafe"
@@ -114,13 +115,22 @@ func view(b []byte) string {
 }
 
 // arena copies short strings into shared blocks: one allocation for the
-// keys and spellings of many candidates. A block is only ever appended
-// to, so the strings handed out never change. Every string of an arena
-// keeps its whole block alive, so a corpus copies what it keeps.
-type arena struct{ block []byte }
+// keys and spellings of many candidates. A block is only appended to
+// while the arena lives, so the strings handed out do not change; every
+// string of an arena keeps its whole block alive, so a corpus copies what
+// it keeps. When the counts that own the arena are released, so are its
+// blocks (free), for the arenas of later documents: its strings must be
+// dead by then (DocCounts.Release).
+type arena struct {
+	block []byte
+	full  [][]byte // earlier blocks of standard size, for free
+}
 
 // arenaBlock is the size of an arena's blocks: a few hundred keys.
 const arenaBlock = 8 << 10
+
+// freeBlocks holds released arena blocks (*[]byte, standard size).
+var freeBlocks sync.Pool
 
 // str returns a copy of s.
 func (a *arena) str(s string) string {
@@ -128,9 +138,36 @@ func (a *arena) str(s string) string {
 		return ""
 	}
 	if len(a.block)+len(s) > cap(a.block) {
-		a.block = make([]byte, 0, max(arenaBlock, len(s)))
+		a.grow(len(s))
 	}
 	start := len(a.block)
 	a.block = append(a.block, s...)
 	return unsafe.String(&a.block[start], len(s))
+}
+
+// grow starts a new block with room for n bytes: a released one when
+// one is free and n fits a standard block.
+func (a *arena) grow(n int) {
+	if cap(a.block) == arenaBlock {
+		a.full = append(a.full, a.block)
+	}
+	if n <= arenaBlock {
+		if b, _ := freeBlocks.Get().(*[]byte); b != nil {
+			a.block = (*b)[:0]
+			return
+		}
+	}
+	a.block = make([]byte, 0, max(arenaBlock, n))
+}
+
+// free hands the arena's standard blocks to later arenas and empties it.
+func (a *arena) free() {
+	if cap(a.block) == arenaBlock {
+		a.full = append(a.full, a.block)
+	}
+	for i, b := range a.full {
+		freeBlocks.Put(&b)
+		a.full[i] = nil
+	}
+	*a = arena{}
 }
