@@ -119,9 +119,9 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 			if reduceFn != nil {
 				reduceFn(res.doc, res.val)
 			}
-			if opt.ReuseTokens {
-				pool.put(res.toks)
-			}
+		}
+		if opt.ReuseTokens {
+			pool.put(res.toks) // (an unreadable input hands back the array it was given)
 		}
 		if opt.Progress != nil {
 			opt.Progress(st)
