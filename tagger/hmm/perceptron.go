@@ -227,9 +227,11 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 
 // scoreDict adds the candidates of a token whose tags the dictionary
 // gives: only those tags are scored. A short row is added whole into
-// score (scratch; only the dictionary's entries are set first and read
-// after), which costs a few adds without a branch, where looking up each
+// score, which costs a few adds without a branch, where looking up each
 // tag in it cost a scan that ended in a mispredicted branch per tag.
+// score is scratch: only the dictionary's entries are set before and
+// read after; what the rows leave in the others is overwritten by the
+// next open token, which starts from a copy of all nt word-alone scores.
 func (p *perceptron) scoreDict(l *lattice, v *wordView, score *[256]int32) {
 	tags := p.dtags[v.dfirst : v.dfirst+int32(v.ndict)]
 	for k, t := range tags {
