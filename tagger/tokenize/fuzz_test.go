@@ -2,6 +2,8 @@ package tokenize
 
 import (
 	"testing"
+
+	"glossmith/tagger/doc"
 )
 
 // FuzzTokenize checks the tokenizer's promises on arbitrary input: no
@@ -32,6 +34,42 @@ func FuzzTokenize(f *testing.F) {
 		sents := Sentences(text)
 		if err := checkRoundTrip(text, sents); err != "" {
 			t.Fatalf("Sentences(%q): %s", text, err)
+		}
+	})
+}
+
+// FuzzDocumentReusing tokenizes two texts into one reused token array, the
+// second after the first's tokens were marked as a tagger marks them, and
+// requires the second's sentences to be those of a fresh array.
+func FuzzDocumentReusing(f *testing.F) {
+	f.Add("Open the valve approx. two turns. Then stop.", "e.g.")
+	f.Add("a", "Dr. Smith's valve, i.e. the V-2, opens at 3 bar. It closes.\n\nNext.")
+	f.Add("", "x")
+	f.Fuzz(func(t *testing.T, first, second string) {
+		d1 := &doc.Document{Text: first}
+		buf := DocumentReusing(d1, nil)
+		for s := range d1.Sentences {
+			for k := range d1.Sentences[s].Tokens {
+				tk := &d1.Sentences[s].Tokens[k]
+				tk.Lemma, tk.UPOS, tk.XPOS = "x", "X", "XX"
+			}
+		}
+		d2 := &doc.Document{Text: second}
+		DocumentReusing(d2, buf)
+		want := Sentences(second)
+		if len(d2.Sentences) != len(want) {
+			t.Fatalf("%q after %q: %d sentences, want %d", second, first, len(d2.Sentences), len(want))
+		}
+		for s := range want {
+			g, w := d2.Sentences[s], want[s]
+			if g.Index != w.Index || g.NewPar != w.NewPar || len(g.Tokens) != len(w.Tokens) {
+				t.Fatalf("%q after %q: sentence %d is %+v, want %+v", second, first, s, g, w)
+			}
+			for k := range w.Tokens {
+				if g.Tokens[k] != w.Tokens[k] {
+					t.Fatalf("%q after %q: token %+v, want %+v", second, first, g.Tokens[k], w.Tokens[k])
+				}
+			}
 		}
 	})
 }
