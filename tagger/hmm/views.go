@@ -307,15 +307,16 @@ func (p *perceptron) unknownView(l *lattice, form string) *wordView {
 	}
 	slot := hashString(form) & (unknownCacheSize - 1)
 	c := &l.cache[slot]
-	if c.holds(form) && form != "" {
+	cacheable := form != "" && len(form) <= maxCachedForm
+	if cacheable && c.holds(form) {
 		c.gen = l.gen
 		return &c.view
 	}
-	if c.gen == l.gen && c.n != 0 || len(form) > maxCachedForm || form == "" {
-		// Another word of this sentence holds the slot, or the form is
-		// too long to cache: build this one aside rather than pull the
-		// view from under that word. (l.aside has room for every token,
-		// so it never moves.)
+	if !cacheable || c.gen == l.gen && c.n != 0 {
+		// The form cannot be cached, or another word of this sentence
+		// holds the slot: build this view aside rather than pull one from
+		// under that word. (l.aside has room for every token, so it never
+		// moves.)
 		k := len(l.aside)
 		l.aside = append(l.aside, wordView{})
 		alone := l.asideAlone[k*p.nt : (k+1)*p.nt : (k+1)*p.nt]
@@ -441,9 +442,9 @@ func (p *perceptron) contextParts(rows []int32, vecs [][]int16, vs []*wordView, 
 	return rows, vecs
 }
 
-// sideVectors fills v.side from the rows in v.ctx, or
-// leaves them nil when a sum does not fit 16 bits (none does in the
-// default model, whose largest is about 25,000 steps).
+// sideVectors fills v.side from the rows in v.ctx, or leaves it nil when
+// a sum does not fit 16 bits (none does in the default model, whose
+// largest is about 25,000 steps).
 func (p *perceptron) sideVectors(v *wordView) {
 	var prev, next [256]int32
 	for _, c := range [...]int{cPrev1, cPrevSuf3, cPrevShape} {
