@@ -228,7 +228,16 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 	if m.trans.rank == nil {
 		t.Fatal("the default model's transitions are not ranked")
 	}
+	if m.trans.steps == nil {
+		t.Fatal("the default model's folded transitions are not in weight steps")
+	}
 	plain := (&transitions{t1: m.trans.t1, layers: m.perc.layers}).fold(nil)
+	// The same table in float32, as it was before it was kept in steps:
+	// the decoder must not tell the two apart.
+	floats := transitions{t1: plain.t1, tri: padTri(plain.t1)}
+	for i, q := range plain.steps[:len(floats.tri)] {
+		floats.tri[i] = float32(q) * weightStep
+	}
 	l := newLattice()
 	for _, s := range dev {
 		m.perc.buildLattice(m, l, s.Tokens)
@@ -237,6 +246,30 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 		l.decode(&plain, m.beam)
 		if !equalSlices(ranked, l.tags) {
 			t.Fatalf("sentence %s: %v with ranks, %v without", s.ID, ranked, l.tags)
+		}
+		l.decode(&floats, m.beam)
+		if !equalSlices(ranked, l.tags) {
+			t.Fatalf("sentence %s: %v in steps, %v in float32", s.ID, ranked, l.tags)
+		}
+	}
+}
+
+// TestInSteps checks that a folded table is kept in 16-bit steps only when
+// every entry is exactly a whole number of steps within int16.
+func TestInSteps(t *testing.T) {
+	ok := []float32{0, weightStep, -3 * weightStep, 32767 * weightStep, -32768 * weightStep}
+	q := inSteps(ok)
+	if q == nil || cap(q) < len(ok)+256 {
+		t.Fatalf("inSteps(%v) = %v (cap %d), want a padded table", ok, q, cap(q))
+	}
+	for i, v := range ok {
+		if float32(q[i])*weightStep != v {
+			t.Errorf("entry %d: %d steps, want %v", i, q[i], v)
+		}
+	}
+	for _, bad := range []float32{weightStep / 2, 32768 * weightStep, -32769 * weightStep, 0.1} {
+		if q := inSteps([]float32{0, bad}); q != nil {
+			t.Errorf("inSteps kept %v as %d steps", bad, q[1])
 		}
 	}
 }

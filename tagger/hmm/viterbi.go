@@ -118,8 +118,13 @@ var negInf = float32(math.Inf(-1))
 // instead summed over the layers; decoding a trained model folds them into
 // tri once.
 type transitions struct {
-	t1     int
-	tri    []float32
+	t1  int
+	tri []float32
+	// steps, when not nil, replaces tri: the folded table of a perceptron
+	// in whole weight steps, padded like tri (see fold). Its 2 MB take
+	// half the cache of the float table, and the decoder's reads of it
+	// are its slowest part.
+	steps  []int16
 	rank   *[256]uint8 // nil, or the index of each tag in tri (see fold)
 	bi     []float32
 	layers []transLayer
@@ -173,9 +178,12 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	for i, c := range l.cands {
 		l.rcand[i] = rank[c]
 	}
-	if tr.layers == nil && tr.bi == nil && cap(tr.tri) >= len(tr.tri)+256 {
-		l.forwardFolded(tr, rank, beam)
-	} else {
+	switch {
+	case tr.steps != nil:
+		forwardFolded(l, tr.steps, tr.t1, weightStep, rank, beam)
+	case tr.layers == nil && tr.bi == nil && cap(tr.tri) >= len(tr.tri)+256:
+		forwardFolded(l, tr.tri, tr.t1, 1, rank, beam)
+	default:
 		l.forward(tr, beam)
 	}
 	l.finish(tr, rank)
@@ -191,10 +199,11 @@ func (l *lattice) candAt(i int) []uint8 {
 }
 
 // forwardFolded fills delta and back for a folded, padded trigram table
-// (see fold): the decoder of tagging, where it is about a fifth of all
-// the work, hence the specialized loops.
-func (l *lattice) forwardFolded(tr *transitions, rank *[256]uint8, beam float32) {
-	t1 := tr.t1
+// (see fold) whose entries times scale are the transition scores: the
+// decoder of tagging, where it is about a fifth of all the work, hence
+// the specialized loops. Scaling by a power of two is exact, so an entry
+// in steps gives the same float32 as the float table held.
+func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32, rank *[256]uint8, beam float32) {
 	pairs := len(l.pair) == len(l.delta)
 	for i := 0; i < l.n; i++ {
 		prev2, prev, cur := l.candAt(i-2), l.candAt(i-1), l.candAt(i)
@@ -227,9 +236,9 @@ func (l *lattice) forwardFolded(tr *transitions, rank *[256]uint8, beam float32)
 				}
 				// A tag is a byte, so an array of 256 needs no bounds checks.
 				off := (int(rank[a])*t1 + rb) * t1
-				tri := (*[256]float32)(tr.tri[off : off+256])
+				tri := (*[256]W)(tab[off : off+256])
 				for k, c := range rcur {
-					if s := d + tri[c]; s > row[k] {
+					if s := d + float32(tri[c])*scale; s > row[k] {
 						row[k] = s
 						brow[k] = int16(h)
 					}
@@ -359,8 +368,10 @@ func (l *lattice) finish(tr *transitions, rank *[256]uint8) {
 			var s float32
 			if tr.layers != nil {
 				s = d + tr.t3(b, c, uint8(bound)) + tr.t2(c, uint8(bound))
+			} else if i := (int(rank[b])*t1+int(rank[c]))*t1 + int(rank[bound]); tr.steps != nil {
+				s = d + float32(tr.steps[i])*weightStep
 			} else {
-				s = d + tr.tri[(int(rank[b])*t1+int(rank[c]))*t1+int(rank[bound])]
+				s = d + tr.tri[i]
 				if tr.bi != nil {
 					s += tr.bi[int(c)*t1+bound]
 				}
@@ -429,7 +440,26 @@ func (tr *transitions) fold(rank *[256]uint8) transitions {
 			}
 		}
 	}
+	if q := inSteps(tri); q != nil {
+		return transitions{t1: t1, steps: q, rank: rank}
+	}
 	return transitions{t1: t1, tri: tri, rank: rank}
+}
+
+// inSteps returns a padded table of tri in weight steps, or nil when an
+// entry is not a whole number of steps within int16. A perceptron's
+// weights are stored in steps, and its folded sums fit: on the
+// embedded model they span −11,333 to 20,462 steps.
+func inSteps(tri []float32) []int16 {
+	q := make([]int16, len(tri), len(tri)+256)
+	for i, v := range tri {
+		x := v / weightStep
+		if x != float32(math.Round(float64(x))) || x < math.MinInt16 || x > math.MaxInt16 {
+			return nil
+		}
+		q[i] = int16(x)
+	}
+	return q
 }
 
 // identityRank maps every tag to itself.
@@ -444,7 +474,7 @@ var identityRank = func() (r [256]uint8) {
 // in every sentence) from the most frequent down. A trigram table indexed
 // by ranks keeps the transitions among frequent tags — nearly all that
 // decoding reads — in a small corner of the table, which stays in cache;
-// indexed by tag it spreads them over all of its 4 MB.
+// indexed by tag it spreads them over all of it (2 MB in steps).
 func frequencyRank(freq []int64) *[256]uint8 {
 	order := make([]int, len(freq))
 	for i := range order {
