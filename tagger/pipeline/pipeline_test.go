@@ -170,8 +170,8 @@ func TestRunBoundsDocumentsInFlight(t *testing.T) {
 				return 0
 			},
 			func(*doc.Document, int) { inFlight.Add(-1) })
-		// window of 2 per worker, plus the one being reduced
-		if limit := int64(2*workers + 1); peak.Load() > limit {
+		// the window, plus the one being reduced
+		if limit := int64(pipeline.DocsPerWorker*workers + 1); peak.Load() > limit {
 			t.Errorf("%d workers: %d documents in flight, want at most %d", workers, peak.Load(), limit)
 		}
 		if peak.Load() == 0 {
