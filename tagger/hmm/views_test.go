@@ -238,6 +238,10 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 	for i, q := range plain.steps[:len(floats.tri)] {
 		floats.tri[i] = float32(q) * weightStep
 	}
+	// Without its padding the table goes to the general forward pass,
+	// which applies the beam in a pass of its own and has no special
+	// cases: forwardFolded must find the same paths.
+	general := transitions{t1: floats.t1, tri: floats.tri[:len(floats.tri):len(floats.tri)]}
 	l := newLattice()
 	for _, s := range dev {
 		m.perc.buildLattice(m, l, s.Tokens)
@@ -250,6 +254,16 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 		l.decode(&floats, m.beam)
 		if !equalSlices(ranked, l.tags) {
 			t.Fatalf("sentence %s: %v in steps, %v in float32", s.ID, ranked, l.tags)
+		}
+		// Narrow beams too, where pruning decides: both passes must drop
+		// the same states.
+		for _, beam := range []float32{m.beam, 4, 1, 0} {
+			l.decode(&floats, beam)
+			folded := append([]uint8(nil), l.tags...)
+			l.decode(&general, beam)
+			if !equalSlices(folded, l.tags) {
+				t.Fatalf("sentence %s, beam %v: %v by forwardFolded, %v by the general forward pass", s.ID, beam, folded, l.tags)
+			}
 		}
 	}
 }

@@ -23,6 +23,8 @@ type lattice struct {
 	back  []int16   // back pointers (index into cands of position i-2)
 	doff  []int32   // delta/back of position i start at doff[i]
 	tags  []uint8   // best path, filled by decode
+	cut   float32   // states of the last position below it are dead (beam)
+	aoff  [256]int  // scratch of forwardFolded: offsets of the rows of the candidates two positions back
 	score []float32 // scratch: one score per tag
 	buf   []byte    // scratch for lower-casing and the like
 	feats []uint64  // scratch for feature keys
@@ -203,39 +205,93 @@ func (l *lattice) candAt(i int) []uint8 {
 // decoder of tagging, where it is about a fifth of all the work, hence
 // the specialized loops. Scaling by a power of two is exact, so an entry
 // in steps gives the same float32 as the float table held.
+//
+// Most positions have few candidates, so what surrounds the innermost
+// loop costs more instructions than the loop itself: the beam is
+// applied when the next position reads a state (a state below its
+// position's cut is dead, as one set to −∞ was) rather than in a pass of
+// its own, and emission and pair scores are added without testing for
+// dead states (−∞ plus a finite score stays −∞).
 func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32, rank *[256]uint8, beam float32) {
 	pairs := len(l.pair) == len(l.delta)
+	aoff := &l.aoff
+	pcut := dead // states of the previous position below it are dead
+	prev2, prev := l.bound[:], l.bound[:]
 	for i := 0; i < l.n; i++ {
-		prev2, prev, cur := l.candAt(i-2), l.candAt(i-1), l.candAt(i)
+		lo, hi := l.off[i], l.off[i+1]
+		cur := l.cands[lo:hi]
 		p1, p0 := len(prev), len(cur)
-		emit := l.emit[l.off[i]:l.off[i+1]][:p0]
-		rcur := l.rcand[l.off[i]:l.off[i+1]][:p0]
+		emit := l.emit[lo:hi][:p0]
+		rcur := l.rcand[lo:hi][:p0]
 		base := int(l.doff[i])
 		delta := l.delta[base : base+p1*p0]
 		back := l.back[base : base+p1*p0]
+		var pair []float32
+		if pairs {
+			pair = l.pair[base : base+p1*p0]
+		}
 		var pdelta []float32
 		if i > 0 {
 			pb := int(l.doff[i-1])
 			pdelta = l.delta[pb : pb+len(prev2)*p1]
 		}
+		for h, a := range prev2 {
+			aoff[h] = int(rank[a]) * t1 * t1
+		}
 		best := negInf
+		if p0 == 1 {
+			// One candidate (a third of the positions: words the tag
+			// dictionary settles): each state is one maximum over the
+			// states before it, kept in registers.
+			c, e := int(rcur[0]), emit[0]
+			for j, b := range prev {
+				rb := int(rank[b])*t1 + c
+				v, bh := negInf, 0
+				for h := range prev2 {
+					var d float32
+					if i > 0 {
+						d = pdelta[h*p1+j]
+						if d < pcut {
+							continue
+						}
+					}
+					if s := d + float32(tab[aoff[uint8(h)]+rb])*scale; s > v {
+						v, bh = s, h
+					}
+				}
+				v += e
+				if pairs {
+					v += pair[j]
+				}
+				delta[j], back[j] = v, int16(bh)
+				if v > best {
+					best = v
+				}
+			}
+			pcut = dead
+			if beam >= 0 {
+				pcut = best - beam
+			}
+			prev2, prev = prev, cur
+			continue
+		}
 		for j, b := range prev {
 			row := delta[j*p0 : j*p0+p0][:p0]
 			brow := back[j*p0 : j*p0+p0][:p0]
 			for k := range row {
 				row[k] = negInf
 			}
-			rb := int(rank[b])
-			for h, a := range prev2 {
+			rb := int(rank[b]) * t1
+			for h := range prev2 {
 				var d float32
 				if i > 0 {
 					d = pdelta[h*p1+j]
-					if d == negInf {
+					if d < pcut {
 						continue
 					}
 				}
 				// A tag is a byte, so an array of 256 needs no bounds checks.
-				off := (int(rank[a])*t1 + rb) * t1
+				off := aoff[uint8(h)] + rb
 				tri := (*[256]W)(tab[off : off+256])
 				for k, c := range rcur {
 					if s := d + float32(tri[c])*scale; s > row[k] {
@@ -244,34 +300,46 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 					}
 				}
 			}
-			var pair []float32
-			if pairs {
-				pair = l.pair[base+j*p0 : base+j*p0+p0][:p0]
-			}
-			for k, v := range row {
-				if v == negInf {
-					continue
-				}
-				v += emit[k]
-				if pairs {
-					v += pair[k]
-				}
-				row[k] = v
+		}
+		// Emission and pair scores, over the position's states at once.
+		if pairs {
+			pair = pair[:len(delta)]
+			k := 0
+			for s, v := range delta {
+				v = v + emit[k] + pair[s]
+				delta[s] = v
 				if v > best { // not max(): its NaN rules cost a third of the loop
 					best = v
 				}
+				if k++; k == p0 {
+					k = 0
+				}
 			}
-		}
-		if beam >= 0 {
-			cut := best - beam
-			for s, d := range delta {
-				if d < cut {
-					delta[s] = negInf
+		} else {
+			k := 0
+			for s, v := range delta {
+				v += emit[k]
+				delta[s] = v
+				if v > best {
+					best = v
+				}
+				if k++; k == p0 {
+					k = 0
 				}
 			}
 		}
+		pcut = dead
+		if beam >= 0 {
+			pcut = best - beam
+		}
+		prev2, prev = prev, cur
 	}
+	l.cut = pcut
 }
+
+// dead is the cut below which no state is alive when there is no beam:
+// only −∞ is below it.
+const dead float32 = -math.MaxFloat32
 
 // forward fills delta and back in the general case: transition layers
 // (training) or a separate bigram table.
@@ -347,6 +415,7 @@ func (l *lattice) forward(tr *transitions, beam float32) {
 			}
 		}
 	}
+	l.cut = dead
 }
 
 // finish picks the best final state, with the transition to the sentence
@@ -362,7 +431,7 @@ func (l *lattice) finish(tr *transitions, rank *[256]uint8) {
 	for j, b := range prev {
 		for k, c := range cur {
 			d := l.delta[base+j*p0+k]
-			if d == negInf {
+			if d < l.cut {
 				continue
 			}
 			var s float32
