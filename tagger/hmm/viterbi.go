@@ -216,6 +216,7 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 	pairs := len(l.pair) == len(l.delta)
 	aoff := &l.aoff
 	pcut := dead // states of the previous position below it are dead
+	var start [1]float32
 	prev2, prev := l.bound[:], l.bound[:]
 	for i := 0; i < l.n; i++ {
 		lo, hi := l.off[i], l.off[i+1]
@@ -230,7 +231,7 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 		if pairs {
 			pair = l.pair[base : base+p1*p0]
 		}
-		var pdelta []float32
+		pdelta := start[:] // before the first position: one state, score 0
 		if i > 0 {
 			pb := int(l.doff[i-1])
 			pdelta = l.delta[pb : pb+len(prev2)*p1]
@@ -248,12 +249,9 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 				rb := int(rank[b])*t1 + c
 				v, bh := negInf, 0
 				for h := range prev2 {
-					var d float32
-					if i > 0 {
-						d = pdelta[h*p1+j]
-						if d < pcut {
-							continue
-						}
+					d := pdelta[h*p1+j]
+					if d < pcut {
+						continue
 					}
 					if s := d + float32(tab[aoff[uint8(h)]+rb])*scale; s > v {
 						v, bh = s, h
@@ -268,65 +266,31 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 					best = v
 				}
 			}
-			pcut = dead
-			if beam >= 0 {
-				pcut = best - beam
-			}
-			prev2, prev = prev, cur
-			continue
-		}
-		for j, b := range prev {
-			row := delta[j*p0 : j*p0+p0][:p0]
-			brow := back[j*p0 : j*p0+p0][:p0]
-			for k := range row {
-				row[k] = negInf
-			}
-			rb := int(rank[b]) * t1
-			for h := range prev2 {
-				var d float32
-				if i > 0 {
-					d = pdelta[h*p1+j]
+		} else {
+			for j, b := range prev {
+				row := delta[j*p0 : j*p0+p0][:p0]
+				brow := back[j*p0 : j*p0+p0][:p0]
+				for k := range row {
+					row[k] = negInf
+				}
+				rb := int(rank[b]) * t1
+				for h := range prev2 {
+					d := pdelta[h*p1+j]
 					if d < pcut {
 						continue
 					}
-				}
-				// A tag is a byte, so an array of 256 needs no bounds checks.
-				off := aoff[uint8(h)] + rb
-				tri := (*[256]W)(tab[off : off+256])
-				for k, c := range rcur {
-					if s := d + float32(tri[c])*scale; s > row[k] {
-						row[k] = s
-						brow[k] = int16(h)
+					// A tag is a byte, so an array of 256 needs no bounds checks.
+					off := aoff[uint8(h)] + rb
+					tri := (*[256]W)(tab[off : off+256])
+					for k, c := range rcur {
+						if s := d + float32(tri[c])*scale; s > row[k] {
+							row[k] = s
+							brow[k] = int16(h)
+						}
 					}
 				}
 			}
-		}
-		// Emission and pair scores, over the position's states at once.
-		if pairs {
-			pair = pair[:len(delta)]
-			k := 0
-			for s, v := range delta {
-				v = v + emit[k] + pair[s]
-				delta[s] = v
-				if v > best { // not max(): its NaN rules cost a third of the loop
-					best = v
-				}
-				if k++; k == p0 {
-					k = 0
-				}
-			}
-		} else {
-			k := 0
-			for s, v := range delta {
-				v += emit[k]
-				delta[s] = v
-				if v > best {
-					best = v
-				}
-				if k++; k == p0 {
-					k = 0
-				}
-			}
+			best = addEmissions(delta, emit, pair, pairs)
 		}
 		pcut = dead
 		if beam >= 0 {
@@ -335,6 +299,40 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 		prev2, prev = prev, cur
 	}
 	l.cut = pcut
+}
+
+// addEmissions adds to a position's states (previous candidate major)
+// the emission scores of their candidates, and their pair scores when
+// pairs is set, over all states in one loop, and returns the best. A dead
+// state needs no test: −∞ plus a finite score stays −∞.
+func addEmissions(delta, emit, pair []float32, pairs bool) float32 {
+	best := negInf
+	p0, k := len(emit), 0
+	if pairs {
+		pair = pair[:len(delta)]
+		for s, v := range delta {
+			v = v + emit[k] + pair[s] // the order of the other passes: exact alike
+			delta[s] = v
+			if v > best { // not max(): its NaN rules cost a third of the loop
+				best = v
+			}
+			if k++; k == p0 {
+				k = 0
+			}
+		}
+		return best
+	}
+	for s, v := range delta {
+		v += emit[k]
+		delta[s] = v
+		if v > best {
+			best = v
+		}
+		if k++; k == p0 {
+			k = 0
+		}
+	}
+	return best
 }
 
 // dead is the cut below which no state is alive when there is no beam:
