@@ -209,6 +209,22 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 			p.scoreDict(l, v, score)
 			continue
 		}
+		if p.maxCands <= 8 {
+			// The rows first, into a zeroed accumulator; then one pass
+			// over the tags sums the dense parts with it and selects.
+			for _, r := range l.rows {
+				p.addRow(&l.acc, r)
+			}
+			va, vb := zeroSide[:], zeroSide[:]
+			if len(l.vecs) > 0 {
+				va = l.vecs[0]
+			}
+			if len(l.vecs) > 1 {
+				vb = l.vecs[1]
+			}
+			sumTop8(l, v.alone[:nt], va, vb, &l.acc, p.maxCands, weightStep)
+			continue
+		}
 		copy(score[:], v.alone)
 		for _, vec := range l.vecs {
 			addDense(score, vec)
@@ -216,11 +232,7 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 		for _, r := range l.rows {
 			p.addRow(score, r)
 		}
-		if p.maxCands <= 8 {
-			selectTop8(l, score[:nt], p.maxCands, weightStep)
-		} else {
-			selectCands(l, score[:nt], p.maxCands, weightStep)
-		}
+		selectCands(l, score[:nt], p.maxCands, weightStep)
 	}
 	p.fillPairs(l, uint8(nt), l.pairRowOf, l.views)
 }
@@ -362,39 +374,54 @@ func selectCands[S int32 | float32](l *lattice, score []S, maxCands int, scale f
 	l.closePos()
 }
 
-// selectTop8 is selectCands for scores in whole steps and at most eight
-// candidates, the decoder's case. Score and tag go into one integer key
-// whose order is the candidates' order (higher score first, then lower
-// tag: the low byte holds 255-tag), and the eight best keys are kept
-// sorted in registers: a key that beats the eighth is put in place by
-// eight min/max pairs, which compile to conditional moves. The insertion
-// loop of selectCands mispredicts its exit at nearly every insertion;
-// on 2,000 score vectors of unknown and rare words from the benchmark
-// corpus (102 tags) this takes 290 ns a token against 480–500.
-func selectTop8(l *lattice, score []int32, maxCands int, scale float32) {
+// sumTop8 sums the scores of an open token — its word-alone weights,
+// two dense vectors (its neighbours' side vectors, or zeroSide) and the
+// rows gathered in acc, all in whole steps — and adds its best maxCands
+// (at most eight) tags to the lattice, in one pass over the tags; acc is
+// left zero. It is selectCands for the decoder's case, fused with the
+// sums: three passes over the tags before it cost more instructions
+// than the selection.
+//
+// Score and tag go into one integer key whose order is the candidates'
+// order (higher score first, then lower tag: the low byte holds
+// 255-tag), and the eight best keys are kept sorted in registers: a key
+// that beats the eighth is put in place by eight min/max pairs, which
+// compile to conditional moves. The insertion loop of selectCands
+// mispredicts its exit at nearly every insertion; on 2,000 score vectors
+// of unknown and rare words from the benchmark corpus (102 tags) this
+// takes 290 ns a token against 480–500.
+func sumTop8(l *lattice, alone []int32, va, vb []int16, acc *[256]int32, maxCands int, scale float32) {
 	const none = math.MinInt64
-	v0, v1, v2, v3, v4, v5, v6, v7 := int64(none), int64(none), int64(none), int64(none), int64(none), int64(none), int64(none), int64(none)
-	for t, s := range score {
+	n := len(alone)
+	va, vb, rows := va[:n], vb[:n], acc[:n]
+	top := [8]int64{none, none, none, none, none, none, none, none}
+	floor := int64(none) // top[7]: the loop needs only it in a register
+	for t, s := range alone {
+		s += int32(va[t]) + int32(vb[t]) + rows[t]
+		rows[t] = 0
 		x := int64(s)<<8 | int64(255-uint8(t))
-		if x <= v7 {
+		if x <= floor {
 			continue
 		}
-		v7 = max(v7, min(v6, x))
-		v6 = max(v6, min(v5, x))
-		v5 = max(v5, min(v4, x))
-		v4 = max(v4, min(v3, x))
-		v3 = max(v3, min(v2, x))
-		v2 = max(v2, min(v1, x))
-		v1 = max(v1, min(v0, x))
-		v0 = max(v0, x)
+		top[7] = max(top[7], min(top[6], x))
+		top[6] = max(top[6], min(top[5], x))
+		top[5] = max(top[5], min(top[4], x))
+		top[4] = max(top[4], min(top[3], x))
+		top[3] = max(top[3], min(top[2], x))
+		top[2] = max(top[2], min(top[1], x))
+		top[1] = max(top[1], min(top[0], x))
+		top[0] = max(top[0], x)
+		floor = top[7]
 	}
-	best := [8]int64{v0, v1, v2, v3, v4, v5, v6, v7}
-	for _, x := range best[:min(maxCands, len(score), 8)] {
+	for _, x := range top[:min(maxCands, n, 8)] {
 		l.cands = append(l.cands, 255-uint8(x))
 		l.emit = append(l.emit, float32(int32(x>>8))*scale)
 	}
 	l.closePos()
 }
+
+// zeroSide stands for a side vector a neighbour does not have.
+var zeroSide [256]int16
 
 // maxFastCands bounds the candidates selectCands keeps on the stack.
 const maxFastCands = 16

@@ -158,7 +158,20 @@ func TestSelectCandsAgrees(t *testing.T) {
 			for _, n := range []int{len(steps), 1 + rng.IntN(12)} {
 				a.reset(1)
 				b.reset(1)
-				selectTop8(a, steps[:n], k, 1)
+				// Split the scores into the four parts sumTop8 adds.
+				var acc [256]int32
+				alone := make([]int32, n)
+				va, vb := make([]int16, n), make([]int16, n)
+				for t, x := range steps[:n] {
+					va[t] = int16(rng.IntN(200) - 100)
+					vb[t] = int16(rng.IntN(200) - 100)
+					acc[t] = int32(rng.IntN(200) - 100)
+					alone[t] = x - int32(va[t]) - int32(vb[t]) - acc[t]
+				}
+				sumTop8(a, alone, va, vb, &acc, k, 1)
+				if acc != ([256]int32{}) {
+					t.Fatalf("sumTop8 left the accumulator dirty: %v", acc[:n])
+				}
 				selectCandsLong(b, score[:n], k)
 				if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
 					t.Fatalf("k=%d, %d tags, top 8: %v %v, want %v %v", k, n, a.cands, a.emit, b.cands, b.emit)

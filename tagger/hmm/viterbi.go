@@ -47,6 +47,7 @@ type lattice struct {
 	rows       []int32
 	vecs       [][]int16
 	steps      [256]int32     // scratch: one score per tag, in weight steps
+	acc        [256]int32     // rows of an open token, in steps; zero between tokens (sumTop8)
 	perc       *perceptron    // the model whose views these are
 	rcand      []uint8        // rank of each candidate (see fold)
 	slot       [256]int16     // the tags of one position → their index, else -1 (markTags)
