@@ -41,20 +41,20 @@ type lattice struct {
 	// views[i] is the view of token i (perceptron): a shared lexicon view
 	// or one from cache, the lattice's own views of words outside the
 	// lexicon, whose word-alone scores live in cacheAlone; rows is scratch.
-	views      []*wordView
-	cache      []cachedView
-	cacheAlone []int32
-	rows       []int32
-	vecs       [][]int16
-	steps      [256]int32     // scratch: one score per tag, in weight steps
-	acc        [256]int32     // rows of an open token, in steps; zero between tokens (sumTop8)
-	perc       *perceptron    // the model whose views these are
-	rcand      []uint8        // rank of each candidate (see fold)
-	slot       [256]int16     // the tags of one position → their index, else -1 (markTags)
-	gen        uint64         // counts the sentences decoded, for the cache
-	lexMemo    []lexLemmaSlot // see lexLemma
-	aside      []wordView     // views of words whose cache slot was taken
-	asideAlone []int32
+	views       []*wordView
+	cache       []cachedView
+	cacheAlone  []int32
+	rows, rows2 []int32        // context rows of the token being scored and of the next
+	vecs, vecs2 [][]int16      // their side vectors
+	steps       [256]int32     // scratch: one score per tag, in weight steps
+	acc         [256]int32     // rows of an open token, in steps; zero between tokens (sumTop8)
+	perc        *perceptron    // the model whose views these are
+	rcand       []uint8        // rank of each candidate (see fold)
+	slot        [256]int16     // the tags of one position → their index, else -1 (markTags)
+	gen         uint64         // counts the sentences decoded, for the cache
+	lexMemo     []lexLemmaSlot // see lexLemma
+	aside       []wordView     // views of words whose cache slot was taken
+	asideAlone  []int32
 }
 
 // lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a
