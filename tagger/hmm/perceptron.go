@@ -249,40 +249,48 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 }
 
 // prefetchParts starts loading what scoring token i will read: the
-// weights of its context rows and, for an open token, its word-alone
-// weights and its neighbours' side vectors.
+// weights of its context rows (those a dictionary word reads from their
+// dense copies excepted) and, for an open token, its word-alone weights
+// and its neighbours' side vectors.
 func (p *perceptron) prefetchParts(views []*wordView, i int, rows []int32) {
-	var at [3]unsafe.Pointer
+	var at [maxPrefetch]uintptr
 	n := 0
-	for _, r := range rows {
-		if r < 0 || p.dense[r] >= 0 && views[i].ndict > 0 {
-			continue // absent, or read from its dense copy (scoreDict)
-		}
-		at[n] = unsafe.Pointer(&p.cells[p.rowStart[r]])
-		if n++; n == 3 {
-			prefetch3(at[0], at[1], at[2], 1)
-			n = 0
-		}
-	}
-	if n > 0 {
-		prefetch3(at[0], at[1], at[2], 1)
-	}
 	v := views[i]
-	if v.ndict != 0 || len(v.alone) == 0 {
-		return
+	dict := v.ndict > 0
+	for _, r := range rows {
+		if r < 0 || dict && p.dense[r] >= 0 || n == maxPrefetch {
+			continue
+		}
+		at[n] = uintptr(unsafe.Pointer(&p.cells[p.rowStart[r]]))
+		n++
 	}
-	var a, b unsafe.Pointer
-	if i > 0 {
-		if w := views[i-1]; w.side != nil {
-			a = unsafe.Pointer(&w.side[0])
+	if !dict && len(v.alone) > 0 {
+		n = addLines(&at, n, unsafe.Pointer(&v.alone[0]), len(v.alone)*4)
+		if i > 0 {
+			if w := views[i-1]; w.side != nil {
+				n = addLines(&at, n, unsafe.Pointer(&w.side[0]), p.nt*2)
+			}
+		}
+		if i+1 < len(views) {
+			if w := views[i+1]; w.side != nil {
+				n = addLines(&at, n, unsafe.Pointer(&w.side[p.nt]), p.nt*2)
+			}
 		}
 	}
-	if i+1 < len(views) {
-		if w := views[i+1]; w.side != nil {
-			b = unsafe.Pointer(&w.side[p.nt])
-		}
+	prefetch(&at, n)
+}
+
+// maxPrefetch bounds the cache lines prefetchParts asks for at once.
+const maxPrefetch = 32
+
+// addLines appends to at the addresses of the cache lines of size bytes
+// from start on, as many as fit.
+func addLines(at *[maxPrefetch]uintptr, n int, start unsafe.Pointer, size int) int {
+	for a, end := uintptr(start), uintptr(start)+uintptr(size); a < end && n < maxPrefetch; a += 64 {
+		at[n] = a
+		n++
 	}
-	prefetch3(unsafe.Pointer(&v.alone[0]), a, b, (len(v.alone)*4+63)/64)
+	return n
 }
 
 // scoreDict adds the candidates of a token whose tags the dictionary

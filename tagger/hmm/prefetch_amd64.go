@@ -1,10 +1,9 @@
 package hmm
 
-import "unsafe"
-
-// prefetch3 asks the processor to start loading lines cache lines from
-// each of a, b and c; it never faults (a prefetch of a bad address is
-// dropped), so pointers past an object's end are harmless.
+// prefetch asks the processor to start loading the cache lines at
+// at[0:n]. A prefetch never faults, so an address past an object's end
+// is harmless; the addresses are uintptrs so that the garbage collector
+// never sees them (the objects are kept alive by their owners).
 //
 //go:noescape
-func prefetch3(a, b, c unsafe.Pointer, lines int)
+func prefetch(at *[maxPrefetch]uintptr, n int)

@@ -1,22 +1,17 @@
 #include "textflag.h"
 
-// func prefetch3(a, b, c unsafe.Pointer, lines int)
-// Asks for `lines` cache lines from each of a, b and c (nil: none).
-TEXT ·prefetch3(SB), NOSPLIT, $0-32
-	MOVQ a+0(FP), AX
-	MOVQ b+8(FP), BX
-	MOVQ c+16(FP), CX
-	MOVQ lines+24(FP), DX
+// func prefetch(at *[maxPrefetch]uintptr, n int)
+// Asks for the cache lines at at[0:n].
+TEXT ·prefetch(SB), NOSPLIT, $0-16
+	MOVQ at+0(FP), AX
+	MOVQ n+8(FP), CX
 loop:
-	TESTQ DX, DX
+	TESTQ CX, CX
 	JLE done
-	PREFETCHT0 (AX)
-	PREFETCHT0 (BX)
-	PREFETCHT0 (CX)
-	ADDQ $64, AX
-	ADDQ $64, BX
-	ADDQ $64, CX
-	DECQ DX
+	MOVQ (AX), DX
+	PREFETCHT0 (DX)
+	ADDQ $8, AX
+	DECQ CX
 	JMP loop
 done:
 	RET

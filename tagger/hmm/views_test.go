@@ -525,12 +525,17 @@ func TestRowFindsEveryKey(t *testing.T) {
 }
 
 // TestPrefetchNeverFaults calls the prefetch kernel with what buildLattice
-// may hand it: nil pointers, and pointers near the end of small objects
-// with more lines asked for than they hold. A prefetch never faults on
-// amd64 (and is a no-op elsewhere); this would crash if the kernel loaded
-// instead of prefetching.
+// may hand it: addresses past the end of small objects, and nil. A
+// prefetch never faults on amd64 (and is a no-op elsewhere); this would
+// crash if the kernel loaded instead of prefetching.
 func TestPrefetchNeverFaults(t *testing.T) {
 	small := make([]int16, 3)
-	prefetch3(nil, nil, nil, 4)
-	prefetch3(unsafe.Pointer(&small[2]), nil, unsafe.Pointer(&small[0]), 64)
+	var at [maxPrefetch]uintptr
+	n := addLines(&at, 0, unsafe.Pointer(&small[0]), 64*maxPrefetch)
+	if n != maxPrefetch || at[1]-at[0] != 64 {
+		t.Fatalf("addLines gave %d lines, %d bytes apart", n, at[1]-at[0])
+	}
+	prefetch(&at, n)
+	at[0] = 0
+	prefetch(&at, 1)
 }
