@@ -201,8 +201,9 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 	// The context parts of token i+1 are gathered while token i is
 	// scored, and what scoring it will read is prefetched: its rows'
 	// weights, and for an open token its word-alone weights and its
-	// neighbours' side vectors, whose cache misses were a fifth of the
-	// tagger's time.
+	// neighbours' side vectors. sumTop8 and addRow, which read them,
+	// took 17–21% of a one-worker run without the prefetch, 10–15% with
+	// it (prefetchParts itself about 5%).
 	if len(toks) > 0 && l.views[0].ndict != 1 {
 		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, 0)
 	}
@@ -440,12 +441,13 @@ func selectCands[S int32 | float32](l *lattice, score []S, maxCands int, scale f
 //
 // Score and tag go into one integer key whose order is the candidates'
 // order (higher score first, then lower tag: the low byte holds
-// 255-tag), and the eight best keys are kept sorted in registers: a key
-// that beats the eighth is put in place by eight min/max pairs, which
-// compile to conditional moves. The insertion loop of selectCands
-// mispredicts its exit at nearly every insertion; on 2,000 score vectors
-// of unknown and rare words from the benchmark corpus (102 tags) this
-// takes 290 ns a token against 480–500.
+// 255-tag), and the eight best keys are kept sorted: a key that beats
+// the eighth is put in place by eight min/max pairs, which compile to
+// conditional moves. The insertion loop of selectCands mispredicts its
+// exit at nearly every insertion; on 2,000 score vectors of unknown and
+// rare words from the benchmark corpus (102 tags) the keys took 290 ns a
+// token against 480–500. Only the eighth key stays in a register through
+// the loop: all eight, with the four slices, spilled on every tag.
 func sumTop8(l *lattice, alone []int32, va, vb []int16, acc *[256]int32, maxCands int, scale float32) {
 	const none = math.MinInt64
 	n := len(alone)

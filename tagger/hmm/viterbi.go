@@ -124,9 +124,9 @@ type transitions struct {
 	t1  int
 	tri []float32
 	// steps, when not nil, replaces tri: the folded table of a perceptron
-	// in whole weight steps, padded like tri (see fold). Its 2 MB take
-	// half the cache of the float table, and the decoder's reads of it
-	// are its slowest part.
+	// in whole weight steps, padded like tri (see fold). Its 2.2 MB take
+	// half the cache of the float table, and the decoder reads it for
+	// every pair of states.
 	steps  []int16
 	rank   *[256]uint8 // nil, or the index of each tag in tri (see fold)
 	bi     []float32
