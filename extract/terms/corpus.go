@@ -6,8 +6,10 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"unsafe"
 
 	"glossmith/extract/termstat"
+	"glossmith/internal/prefetch"
 )
 
 // Reference gives general-language word frequencies: by default those of
@@ -145,8 +147,7 @@ type Corpus struct {
 	budget   budget // see budget.go
 
 	// working memory of Add
-	texts   []string // copies of the document's context texts, made on first use
-	touched int      // see lookUp: a use for the words it reads
+	texts []string // copies of the document's context texts, made on first use
 }
 
 // NewCorpus returns an empty corpus keeping up to contexts example
@@ -204,24 +205,26 @@ func (c *Corpus) Add(dc *DocCounts) {
 const addBatch = 16
 
 // lookUp finds the groups of the candidates xs (at most addBatch; nil for
-// a candidate new to the corpus) and reads a word of each: the look-ups
-// and reads of a batch do not depend on each other, so the processor
-// waits for their cache misses together, where merging each candidate
-// right after its look-up waited for them one after the other. The keys
-// of one document's candidates differ, so no group of the batch is made
-// in between.
+// a candidate new to the corpus) and prefetches each group's first lines,
+// so that the processor waits for the batch's cache misses together,
+// where merging each candidate right after its look-up waited for them one
+// after the other. The keys of one document's candidates differ, so no
+// group of the batch is made in between.
 func (c *Corpus) lookUp(found *[addBatch]*group, xs []docCand) {
+	var at prefetch.List
 	for i := range xs {
-		found[i] = c.groups[xs[i].key]
-	}
-	n := 0
-	for _, g := range found[:len(xs)] {
+		g := c.groups[xs[i].key]
+		found[i] = g
 		if g != nil {
-			n += len(g.perDoc)
+			at.AddBytes(unsafe.Pointer(g), groupHead)
 		}
 	}
-	c.touched += n
+	at.Start()
 }
+
+// groupHead is the part of a group the merge reads first: its fields up
+// to its slices' first elements.
+const groupHead = int(unsafe.Offsetof(group{}.first))
 
 // newGroup adds the group of a candidate new to the corpus, with its
 // counts in document di. Its key, spellings and canonical forms are

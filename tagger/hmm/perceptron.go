@@ -7,6 +7,7 @@ import (
 	"sync/atomic"
 	"unsafe"
 
+	"glossmith/internal/prefetch"
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
 )
@@ -254,44 +255,29 @@ func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
 // dense copies excepted) and, for an open token, its word-alone weights
 // and its neighbours' side vectors.
 func (p *perceptron) prefetchParts(views []*wordView, i int, rows []int32) {
-	var at [maxPrefetch]uintptr
-	n := 0
+	var at prefetch.List
 	v := views[i]
 	dict := v.ndict > 0
 	for _, r := range rows {
-		if r < 0 || dict && p.dense[r] >= 0 || n == maxPrefetch {
+		if r < 0 || dict && p.dense[r] >= 0 {
 			continue
 		}
-		at[n] = uintptr(unsafe.Pointer(&p.cells[p.rowStart[r]]))
-		n++
+		at.Add(unsafe.Pointer(&p.cells[p.rowStart[r]]))
 	}
 	if !dict && len(v.alone) > 0 {
-		n = addLines(&at, n, unsafe.Pointer(&v.alone[0]), len(v.alone)*4)
+		at.AddBytes(unsafe.Pointer(&v.alone[0]), len(v.alone)*4)
 		if i > 0 {
 			if w := views[i-1]; w.side != nil {
-				n = addLines(&at, n, unsafe.Pointer(&w.side[0]), p.nt*2)
+				at.AddBytes(unsafe.Pointer(&w.side[0]), p.nt*2)
 			}
 		}
 		if i+1 < len(views) {
 			if w := views[i+1]; w.side != nil {
-				n = addLines(&at, n, unsafe.Pointer(&w.side[p.nt]), p.nt*2)
+				at.AddBytes(unsafe.Pointer(&w.side[p.nt]), p.nt*2)
 			}
 		}
 	}
-	prefetch(&at, n)
-}
-
-// maxPrefetch bounds the cache lines prefetchParts asks for at once.
-const maxPrefetch = 32
-
-// addLines appends to at the addresses of the cache lines of size bytes
-// from start on, as many as fit.
-func addLines(at *[maxPrefetch]uintptr, n int, start unsafe.Pointer, size int) int {
-	for a, end := uintptr(start), uintptr(start)+uintptr(size); a < end && n < maxPrefetch; a += 64 {
-		at[n] = a
-		n++
-	}
-	return n
+	at.Start()
 }
 
 // scoreDict adds the candidates of a token whose tags the dictionary

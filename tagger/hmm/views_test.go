@@ -523,19 +523,3 @@ func TestRowFindsEveryKey(t *testing.T) {
 		t.Errorf("%d of 100,000 random keys pass the filter", through)
 	}
 }
-
-// TestPrefetchNeverFaults calls the prefetch kernel with what buildLattice
-// may hand it: addresses past the end of small objects, and nil. A
-// prefetch never faults on amd64 (and is a no-op elsewhere); this would
-// crash if the kernel loaded instead of prefetching.
-func TestPrefetchNeverFaults(t *testing.T) {
-	small := make([]int16, 3)
-	var at [maxPrefetch]uintptr
-	n := addLines(&at, 0, unsafe.Pointer(&small[0]), 64*maxPrefetch)
-	if n != maxPrefetch || at[1]-at[0] != 64 {
-		t.Fatalf("addLines gave %d lines, %d bytes apart", n, at[1]-at[0])
-	}
-	prefetch(&at, n)
-	at[0] = 0
-	prefetch(&at, 1)
-}

@@ -1,8 +1,8 @@
 #include "textflag.h"
 
-// func prefetch(at *[maxPrefetch]uintptr, n int)
+// func lines(at *[Max]uintptr, n int)
 // Asks for the cache lines at at[0:n].
-TEXT ·prefetch(SB), NOSPLIT, $0-16
+TEXT ·lines(SB), NOSPLIT, $0-16
 	MOVQ at+0(FP), AX
 	MOVQ n+8(FP), CX
 loop:

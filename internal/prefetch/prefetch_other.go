@@ -1,0 +1,5 @@
+//go:build !amd64
+
+package prefetch
+
+func lines(at *[Max]uintptr, n int) {}

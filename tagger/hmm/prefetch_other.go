@@ -1,5 +1,0 @@
-//go:build !amd64
-
-package hmm
-
-func prefetch(at *[maxPrefetch]uintptr, n int) {}
