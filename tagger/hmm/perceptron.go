@@ -259,8 +259,8 @@ func (p *perceptron) prefetchParts(views []*wordView, i int, rows []int32) {
 	v := views[i]
 	dict := v.ndict > 0
 	for _, r := range rows {
-		if r < 0 || dict && p.dense[r] >= 0 {
-			continue
+		if r < 0 || dict && p.dense[r] >= 0 || p.rowStart[r] == p.rowStart[r+1] {
+			continue // absent, read from its dense copy (scoreDict), or empty
 		}
 		at.Add(unsafe.Pointer(&p.cells[p.rowStart[r]]))
 	}
