@@ -30,10 +30,11 @@ func (l *List) Add(p unsafe.Pointer) {
 	}
 }
 
-// AddBytes appends the addresses of the cache lines of size bytes from p
-// on, as many as there is room for.
+// AddBytes appends the addresses of the cache lines that hold size bytes
+// from p on, as many as there is room for. An object need not start on
+// a line: the first address is p's line.
 func (l *List) AddBytes(p unsafe.Pointer, size int) {
-	for a, end := uintptr(p), uintptr(p)+uintptr(size); a < end && l.n < Max; a += lineSize {
+	for a, end := uintptr(p)&^(lineSize-1), uintptr(p)+uintptr(size); a < end && l.n < Max; a += lineSize {
 		l.at[l.n] = a
 		l.n++
 	}

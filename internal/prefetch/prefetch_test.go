@@ -35,3 +35,16 @@ func TestAddStopsWhenFull(t *testing.T) {
 		t.Fatalf("%d addresses, want %d", l.Len(), Max)
 	}
 }
+
+// TestAddBytesCoversEveryLine checks that an object straddling lines gets
+// all of them: 100 bytes from 40 bytes into a line span three lines.
+func TestAddBytesCoversEveryLine(t *testing.T) {
+	buf := make([]byte, 4*lineSize)
+	base := (uintptr(unsafe.Pointer(&buf[0])) + lineSize - 1) &^ (lineSize - 1)
+	off := int(base - uintptr(unsafe.Pointer(&buf[0])))
+	var l List
+	l.AddBytes(unsafe.Pointer(&buf[off+40]), 100)
+	if l.Len() != 3 || l.at[0] != base || l.at[2] != base+2*lineSize {
+		t.Fatalf("got %d lines from %#x, want 3 from %#x", l.Len(), l.at[0], base)
+	}
+}
