@@ -285,8 +285,9 @@ func (p *perceptron) prefetchParts(views []*wordView, i int, rows []int32) {
 // score, which costs a few adds without a branch, where looking up each
 // tag in it cost a scan that ended in a mispredicted branch per tag.
 // score is scratch: only the dictionary's entries are set before and
-// read after; what the rows leave in the others is overwritten by the
-// next open token, which starts from a copy of all nt word-alone scores.
+// read after; nothing reads what the rows leave in the others (an open
+// token sums into l.acc in sumTop8, or, with more than eight candidates,
+// starts from a copy of all nt word-alone scores).
 func (p *perceptron) scoreDict(l *lattice, v *wordView, score *[256]int32) {
 	tags := p.dtags[v.dfirst : v.dfirst+int32(v.ndict)]
 	for k, t := range tags {
