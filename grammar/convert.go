@@ -7,6 +7,8 @@ import (
 	"unicode"
 
 	"github.com/alecthomas/participle/v2/lexer"
+
+	"glossmith/internal/suggest"
 )
 
 // MaxRepeat is the largest count allowed in {n,m}; it keeps compiled
@@ -15,6 +17,15 @@ const MaxRepeat = 1000
 
 // fieldKeys are the names accepted before a colon in a token test.
 var fieldKeys = []string{"tag", "lemma", "prefix", "suffix", "shape"}
+
+// fieldNames returns the field keys as written, colon included.
+func fieldNames() []string {
+	out := make([]string, len(fieldKeys))
+	for i, k := range fieldKeys {
+		out[i] = k + ":"
+	}
+	return out
+}
 
 func (f *File) pos(p lexer.Position) Pos { return f.lines.pos(p.Offset) }
 
@@ -321,8 +332,8 @@ func (f *File) convField(pa *pAtom, errs *ErrorList) Node {
 		return &Test{Pos: p, Kind: kind, Value: strings.ToLower(val)}
 	}
 	msg := "unknown test " + key + ":"
-	if s := suggest(key, fieldKeys); s != "" {
-		msg += " — did you mean " + s + ":?"
+	if h := suggest.Hint(key+":", fieldNames()); h != "" {
+		msg += " — " + h
 	} else {
 		msg += " (known: tag:, lemma:, prefix:, suffix:, shape:)"
 	}
@@ -449,55 +460,6 @@ func IsUPOS(s string) bool {
 var UPOSTags = []string{
 	"ADJ", "ADP", "ADV", "AUX", "CCONJ", "DET", "INTJ", "NOUN", "NUM",
 	"PART", "PRON", "PROPN", "PUNCT", "SCONJ", "SYM", "VERB", "X",
-}
-
-// suggest returns the candidate closest to s when it is near enough to be
-// the likely intent, or "". Case is ignored; transpositions count as one
-// edit (optimal string alignment distance).
-func suggest(s string, candidates []string) string {
-	best, bestD := "", 1<<30
-	ls := strings.ToLower(s)
-	for _, c := range candidates {
-		d := editDistance(ls, strings.ToLower(c))
-		if d < bestD {
-			best, bestD = c, d
-		}
-	}
-	limit := 1
-	if n := len([]rune(s)); n >= 6 {
-		limit = 2
-	}
-	if best == "" || bestD > limit || best == s {
-		return ""
-	}
-	return best
-}
-
-// editDistance is the optimal string alignment distance: insertions,
-// deletions, substitutions and swaps of neighbours each cost one.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	d := make([][]int, len(ra)+1)
-	for i := range d {
-		d[i] = make([]int, len(rb)+1)
-		d[i][0] = i
-	}
-	for j := range d[0] {
-		d[0][j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			d[i][j] = min(d[i-1][j]+1, d[i][j-1]+1, d[i-1][j-1]+cost)
-			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
-				d[i][j] = min(d[i][j], d[i-2][j-2]+1)
-			}
-		}
-	}
-	return d[len(ra)][len(rb)]
 }
 
 // looksLikeTag reports whether an identifier is written like a tag name

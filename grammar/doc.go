@@ -87,6 +87,6 @@
 // where it is; ParseString, Load and friends return all of them at once as
 // an ErrorList. Syntax errors do not stop the parse: the broken statement
 // is skipped and the next one is read. Names close to a known tag, rule,
-// field or stock set get a "did you mean" suggestion (optimal string
-// alignment distance, case ignored).
+// field or stock set get a "did you mean" suggestion from package
+// internal/suggest, the program's one way of suggesting.
 package grammar

@@ -10,6 +10,8 @@ import (
 	"sort"
 	"strings"
 	"unicode/utf8"
+
+	"glossmith/internal/suggest"
 )
 
 //go:embed stock/*.gsr
@@ -34,8 +36,8 @@ func Stock(name string) (*File, error) {
 	b, err := stockFS.ReadFile("stock/" + name + ".gsr")
 	if err != nil {
 		msg := fmt.Sprintf("no stock rule set %q (have: %s)", name, strings.Join(StockNames(), ", "))
-		if s := suggest(name, StockNames()); s != "" {
-			msg = fmt.Sprintf("no stock rule set %q — did you mean %s?", name, s)
+		if h := suggest.Hint(name, StockNames()); h != "" {
+			msg = fmt.Sprintf("no stock rule set %q — %s", name, h)
 		}
 		return nil, fmt.Errorf("%s", msg)
 	}
@@ -299,8 +301,8 @@ func (l *loader) check() {
 			if looksLikeTag(ref.Name) {
 				what = "unknown tag " + ref.Name
 			}
-			if s := suggest(ref.Name, candidates); s != "" {
-				l.errorAt(ref.Pos, "%s — did you mean %s?", what, s)
+			if h := suggest.Hint(ref.Name, candidates); h != "" {
+				l.errorAt(ref.Pos, "%s — %s", what, h)
 			} else if looksLikeTag(ref.Name) {
 				l.errorAt(ref.Pos, "%s (UPOS tags: %s)", what, strings.Join(UPOSTags, " "))
 			} else {
@@ -318,8 +320,8 @@ func (l *loader) check() {
 			r := rs.byName[ex.Rule]
 			if r == nil {
 				msg := "example for undefined rule " + ex.Rule
-				if s := suggest(ex.Rule, rs.Names()); s != "" {
-					msg += " — did you mean " + s + "?"
+				if h := suggest.Hint(ex.Rule, rs.Names()); h != "" {
+					msg += " — " + h
 				}
 				l.errorAt(ex.Pos, "%s", msg)
 				continue

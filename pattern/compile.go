@@ -9,6 +9,7 @@ import (
 	"sync"
 
 	"glossmith/grammar"
+	"glossmith/internal/suggest"
 )
 
 // MaxAtoms is the largest number of distinct token tests one Matcher can
@@ -180,8 +181,8 @@ func Compile(rs *grammar.RuleSet, names ...string) (*Matcher, error) {
 		r := rs.Rule(name)
 		if r == nil {
 			msg := fmt.Sprintf("pattern: no rule %q", name)
-			if s := closest(name, rs.Names()); s != "" {
-				msg += fmt.Sprintf(" — did you mean %s?", s)
+			if h := suggest.Hint(name, rs.Names()); h != "" {
+				msg += " — " + h
 			}
 			return nil, fmt.Errorf("%s", msg)
 		}
@@ -284,36 +285,6 @@ func CompilePattern(src string, rs *grammar.RuleSet) (*Matcher, error) {
 		return nil, err
 	}
 	return Compile(full, grammar.PatternRule)
-}
-
-func closest(s string, names []string) string {
-	best, bestD := "", 3
-	for _, n := range names {
-		if d := levenshtein(s, n); d < bestD {
-			best, bestD = n, d
-		}
-	}
-	return best
-}
-
-func levenshtein(a, b string) int {
-	prev := make([]int, len(b)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(a); i++ {
-		cur := make([]int, len(b)+1)
-		cur[0] = i
-		for j := 1; j <= len(b); j++ {
-			cost := 1
-			if a[i-1] == b[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev = cur
-	}
-	return prev[len(b)]
 }
 
 type compiler struct {

@@ -244,7 +244,7 @@ func TestCompilePattern(t *testing.T) {
 	if !ok || len(el) != 1 {
 		t.Fatalf("want one error, got %v", err)
 	}
-	if e := el[0]; e.Pos.Line != 1 || e.Pos.Col != 6 || !strings.Contains(e.Msg, "did you mean NOUN?") || e.Source != "term NUON" {
+	if e := el[0]; e.Pos.Line != 1 || e.Pos.Col != 6 || !strings.Contains(e.Msg, `did you mean "NOUN"?`) || e.Source != "term NUON" {
 		t.Errorf("error = %v (source %q)", e, e.Source)
 	}
 	if _, err := CompilePattern(`NOUN (`, nil); err == nil {
@@ -254,7 +254,7 @@ func TestCompilePattern(t *testing.T) {
 
 func TestCompileErrors(t *testing.T) {
 	rs := mustSet(t, "term = NOUN ; _helper = ADJ ;")
-	if _, err := Compile(rs, "trem"); err == nil || !strings.Contains(err.Error(), "did you mean term?") {
+	if _, err := Compile(rs, "trem"); err == nil || !strings.Contains(err.Error(), `did you mean "term"?`) {
 		t.Errorf("err = %v", err)
 	}
 	m, err := Compile(rs)

@@ -280,7 +280,7 @@ func TestRulesCheckReportsPosition(t *testing.T) {
 	if r.code == 0 {
 		t.Fatal("a bad rule file passed")
 	}
-	if !strings.Contains(r.stderr, "bad.gsr:3:11") || !strings.Contains(r.stderr, "did you mean NOUN") || !strings.Contains(r.stderr, "^") {
+	if !strings.Contains(r.stderr, "bad.gsr:3:11") || !strings.Contains(r.stderr, `did you mean "NOUN"`) || !strings.Contains(r.stderr, "^") {
 		t.Errorf("error without position, suggestion or caret:\n%s", r.stderr)
 	}
 }
