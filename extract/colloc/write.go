@@ -2,13 +2,12 @@ package colloc
 
 import (
 	"bufio"
-	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"strconv"
 	"strings"
-	"unicode/utf8"
+
+	"glossmith/internal/tabular"
 )
 
 // Formats lists the output formats of a collocation list.
@@ -45,32 +44,38 @@ type jsonRow struct {
 // Write writes ranked rows in the named format. sortedBy names the measure
 // the rows are sorted by; the text table shows it first.
 func Write(w io.Writer, format string, rows []Row, sortedBy string) error {
+	return WriteOptions(w, format, rows, sortedBy, false)
+}
+
+// WriteOptions is Write with a choice for CSV: bom starts the file with a
+// UTF-8 byte order mark, for spreadsheet programs. TSV and CSV quote as
+// internal/tabular documents.
+func WriteOptions(w io.Writer, format string, rows []Row, sortedBy string, bom bool) error {
 	bw := bufio.NewWriter(w)
 	switch format {
-	case "tsv":
-		bw.WriteString(strings.Join(header, "\t") + "\n")
-		for _, r := range rows {
-			bw.WriteString(strings.Join(r.cells(), "\t") + "\n")
+	case "tsv", "csv":
+		tw := tabular.NewTSV(bw)
+		if format == "csv" {
+			tw = tabular.NewCSV(bw, bom)
 		}
-	case "csv":
-		cw := csv.NewWriter(bw)
-		cw.Write(header)
+		tw.Write(header...)
 		for _, r := range rows {
-			cw.Write(r.cells())
+			tw.Write(r.cells()...)
 		}
-		cw.Flush()
-		if err := cw.Error(); err != nil {
+		if err := tw.Flush(); err != nil {
 			return err
 		}
 	case "jsonl":
-		enc := json.NewEncoder(bw)
-		enc.SetEscapeHTML(false)
+		enc := tabular.NewJSONL(bw)
 		for _, r := range rows {
 			s := r.Scores
 			if err := enc.Encode(jsonRow{r.W1, r.W2, r.Relation, r.Head, r.F12, r.F1, r.F2, r.N,
 				s.G2, s.PMI, s.T, s.Chi2, s.Dice, s.LogDice, s.MI3}); err != nil {
 				return err
 			}
+		}
+		if err := enc.Flush(); err != nil {
+			return err
 		}
 	case "text":
 		writeText(bw, rows, sortedBy)
@@ -91,26 +96,8 @@ func writeText(w *bufio.Writer, rows []Row, sortedBy string) {
 			strconv.FormatFloat(s.G2, 'f', 1, 64), strconv.FormatFloat(s.LogDice, 'f', 2, 64),
 			strconv.FormatFloat(s.PMI, 'f', 2, 64), strconv.FormatFloat(s.T, 'f', 2, 64)})
 	}
-	width := make([]int, len(tab[0]))
-	for _, r := range tab {
-		for i, c := range r {
-			width[i] = max(width[i], utf8.RuneCountInString(c))
-		}
-	}
-	for _, r := range tab {
-		var b strings.Builder
-		for i, c := range r {
-			pad := strings.Repeat(" ", width[i]-utf8.RuneCountInString(c))
-			if i > 0 {
-				b.WriteString("  ")
-			}
-			if i < 2 {
-				b.WriteString(c + pad)
-			} else {
-				b.WriteString(pad + c)
-			}
-		}
-		w.WriteString(strings.TrimRight(b.String(), " ") + "\n")
+	for _, line := range tabular.Align(tab, []bool{false, false, true, true, true, true, true, true, true}) {
+		w.WriteString(line + "\n")
 	}
 	if len(rows) > 0 {
 		fmt.Fprintf(w, "(%d pairs, sorted by %s)\n", len(rows), sortedBy)

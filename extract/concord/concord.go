@@ -4,13 +4,14 @@ package concord
 
 import (
 	"bufio"
-	"encoding/json"
 	"fmt"
 	"io"
 	"sort"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 
+	"glossmith/internal/tabular"
 	"glossmith/tagger/doc"
 )
 
@@ -127,29 +128,27 @@ func firstRunes(s string, n int) string {
 	return string(r[:n-1]) + "…"
 }
 
-// WriteTSV prints hits with a header row.
+// WriteTSV prints hits with a header row, quoting as internal/tabular
+// documents.
 func WriteTSV(w io.Writer, hits []Hit) error {
-	bw := bufio.NewWriter(w)
-	bw.WriteString("doc\tsentence\tline\tstart\tend\trule\tleft\tmatch\tright\n")
-	clean := strings.NewReplacer("\t", " ", "\n", " ", "\r", " ")
+	tw := tabular.NewTSV(w)
+	tw.Write("doc", "sentence", "line", "start", "end", "rule", "left", "match", "right")
 	for _, h := range hits {
-		fmt.Fprintf(bw, "%s\t%d\t%d\t%d\t%d\t%s\t%s\t%s\t%s\n", clean.Replace(h.Doc), h.Sentence, h.Line, h.Start, h.End,
-			h.Rule, strings.TrimSpace(clean.Replace(h.Left)), clean.Replace(h.Text), strings.TrimSpace(clean.Replace(h.Right)))
+		tw.Write(h.Doc, strconv.Itoa(h.Sentence), strconv.Itoa(h.Line), strconv.Itoa(h.Start), strconv.Itoa(h.End),
+			h.Rule, strings.TrimSpace(h.Left), h.Text, strings.TrimSpace(h.Right))
 	}
-	return bw.Flush()
+	return tw.Flush()
 }
 
 // WriteJSONL prints one JSON object per hit.
 func WriteJSONL(w io.Writer, hits []Hit) error {
-	bw := bufio.NewWriter(w)
-	enc := json.NewEncoder(bw)
-	enc.SetEscapeHTML(false)
+	enc := tabular.NewJSONL(w)
 	for _, h := range hits {
 		if err := enc.Encode(h); err != nil {
 			return err
 		}
 	}
-	return bw.Flush()
+	return enc.Flush()
 }
 
 // Counter is a frequency list of matched strings.
@@ -215,27 +214,30 @@ func Key(toks []doc.Token, a, b int, lemma bool) string {
 
 // WriteCounts prints a frequency list as text (aligned), tsv or jsonl.
 func WriteCounts(w io.Writer, format string, list []Entry) error {
-	bw := bufio.NewWriter(w)
 	switch format {
 	case "tsv":
-		bw.WriteString("count\ttext\n")
+		tw := tabular.NewTSV(w)
+		tw.Write("count", "text")
 		for _, e := range list {
-			fmt.Fprintf(bw, "%d\t%s\n", e.Count, e.Text)
+			tw.Write(strconv.Itoa(e.Count), e.Text)
 		}
+		return tw.Flush()
 	case "jsonl":
-		enc := json.NewEncoder(bw)
-		enc.SetEscapeHTML(false)
+		enc := tabular.NewJSONL(w)
 		for _, e := range list {
-			enc.Encode(e)
+			if err := enc.Encode(e); err != nil {
+				return err
+			}
 		}
-	default:
-		width := 1
-		if len(list) > 0 {
-			width = len(fmt.Sprint(list[0].Count))
-		}
-		for _, e := range list {
-			fmt.Fprintf(bw, "%*d  %s\n", width, e.Count, e.Text)
-		}
+		return enc.Flush()
+	}
+	rows := make([][]string, len(list))
+	for i, e := range list {
+		rows[i] = []string{strconv.Itoa(e.Count), e.Text}
+	}
+	bw := bufio.NewWriter(w)
+	for _, line := range tabular.Align(rows, []bool{true}) {
+		bw.WriteString(line + "\n")
 	}
 	return bw.Flush()
 }

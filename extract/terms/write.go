@@ -2,14 +2,13 @@ package terms
 
 import (
 	"bufio"
-	"encoding/csv"
-	"encoding/json"
 	"encoding/xml"
 	"fmt"
 	"io"
 	"strconv"
 	"strings"
-	"unicode/utf8"
+
+	"glossmith/internal/tabular"
 )
 
 // Formats lists the output formats of a term list.
@@ -19,6 +18,7 @@ var Formats = []string{"text", "tsv", "csv", "jsonl", "tbx"}
 type WriteOptions struct {
 	Contexts int    // text format: example sentences printed under each term
 	Source   string // TBX header: what the list was made from
+	BOM      bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
 }
 
 // columns are the measure columns of tsv, csv and text output, in order.
@@ -52,7 +52,7 @@ func Write(w io.Writer, format string, terms []*Term, opt WriteOptions) error {
 	case "tsv":
 		err = writeTSV(bw, terms)
 	case "csv":
-		err = writeCSV(bw, terms)
+		err = writeCSV(bw, terms, opt.BOM)
 	case "jsonl":
 		err = writeJSONL(bw, terms)
 	case "tbx":
@@ -66,41 +66,31 @@ func Write(w io.Writer, format string, terms []*Term, opt WriteOptions) error {
 	return bw.Flush()
 }
 
+// writeTSV and writeCSV use the quoting documented in internal/tabular.
 func writeTSV(w *bufio.Writer, terms []*Term) error {
-	w.WriteString(strings.Join(columns, "\t") + "\n")
-	for _, t := range terms {
-		cells := t.cells()
-		for i, c := range cells {
-			cells[i] = strings.NewReplacer("\t", " ", "\n", " ", "\r", " ").Replace(c)
-		}
-		w.WriteString(strings.Join(cells, "\t") + "\n")
-	}
-	return nil
+	return writeTable(tabular.NewTSV(w), terms)
 }
 
-func writeCSV(w *bufio.Writer, terms []*Term) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(columns); err != nil {
-		return err
-	}
+func writeCSV(w *bufio.Writer, terms []*Term, bom bool) error {
+	return writeTable(tabular.NewCSV(w, bom), terms)
+}
+
+func writeTable(tw *tabular.Writer, terms []*Term) error {
+	tw.Write(columns...)
 	for _, t := range terms {
-		if err := cw.Write(t.cells()); err != nil {
-			return err
-		}
+		tw.Write(t.cells()...)
 	}
-	cw.Flush()
-	return cw.Error()
+	return tw.Flush()
 }
 
 func writeJSONL(w *bufio.Writer, terms []*Term) error {
-	enc := json.NewEncoder(w)
-	enc.SetEscapeHTML(false)
+	enc := tabular.NewJSONL(w)
 	for _, t := range terms {
 		if err := enc.Encode(t); err != nil {
 			return err
 		}
 	}
-	return nil
+	return enc.Flush()
 }
 
 // writeText prints an aligned table: rank, term, score, freq, docs and the
@@ -123,29 +113,9 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
 			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")})
 	}
-	width := make([]int, len(head))
-	for _, r := range rows {
-		for i, c := range r {
-			width[i] = max(width[i], utf8.RuneCountInString(c))
-		}
-	}
-	right := map[int]bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
-	for ri, r := range rows {
-		var line strings.Builder
-		for i, c := range r {
-			pad := strings.Repeat(" ", width[i]-utf8.RuneCountInString(c))
-			if i > 0 {
-				line.WriteString("  ")
-			}
-			if right[i] {
-				line.WriteString(pad + c)
-			} else if i == len(r)-1 {
-				line.WriteString(c)
-			} else {
-				line.WriteString(c + pad)
-			}
-		}
-		w.WriteString(strings.TrimRight(line.String(), " ") + "\n")
+	right := []bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
+	for ri, line := range tabular.Align(rows, right) {
+		w.WriteString(line + "\n")
 		if ri > 0 && opt.Contexts > 0 {
 			for k, cx := range terms[ri-1].Contexts {
 				if k >= opt.Contexts {

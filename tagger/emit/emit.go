@@ -5,11 +5,12 @@ package emit
 
 import (
 	"bufio"
-	"encoding/json"
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 
+	"glossmith/internal/tabular"
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
 )
@@ -35,9 +36,9 @@ func New(format string, w io.Writer, opt Options) (Writer, error) {
 	case "conllu":
 		return conllUWriter{conllu.NewWriter(w)}, nil
 	case "tsv":
-		return &tsvWriter{w: bufio.NewWriter(w)}, nil
+		return &tsvWriter{w: tabular.NewTSV(w)}, nil
 	case "jsonl":
-		return &jsonWriter{w: bufio.NewWriter(w)}, nil
+		return &jsonWriter{w: tabular.NewJSONL(w)}, nil
 	case "text":
 		return &textWriter{w: bufio.NewWriter(w), upos: opt.Tagset == "upos"}, nil
 	}
@@ -49,25 +50,26 @@ type conllUWriter struct{ *conllu.Writer }
 func (c conllUWriter) Write(d *doc.Document) error { return c.WriteDocument(d) }
 
 type tsvWriter struct {
-	w      *bufio.Writer
+	w      *tabular.Writer
 	header bool
 }
 
 // TSV columns: one row per token; sentence numbers count from 1 within
-// each document, token numbers from 1 within each sentence.
-var tsvHeader = "doc\tsentence\ttoken\tform\tlemma\tupos\txpos\tline\tstart\tend\tspace_after\n"
+// each document, token numbers from 1 within each sentence. Fields are
+// quoted as internal/tabular documents.
+var tsvHeader = []string{"doc", "sentence", "token", "form", "lemma", "upos", "xpos", "line", "start", "end", "space_after"}
 
 func (t *tsvWriter) Write(d *doc.Document) error {
 	if !t.header {
-		t.w.WriteString(tsvHeader)
+		t.w.Write(tsvHeader...)
 		t.header = true
 	}
-	name := tsvCell(d.Name)
 	for si := range d.Sentences {
 		for ti, tok := range d.Sentences[si].Tokens {
-			fmt.Fprintf(t.w, "%s\t%d\t%d\t%s\t%s\t%s\t%s\t%d\t%d\t%d\t%t\n", name, si+1, ti+1,
-				tsvCell(tok.Form), tsvCell(tok.Lemma), tsvCell(tok.UPOS), tsvCell(tok.XPOS),
-				tok.Line, tok.Start, tok.End, tok.SpaceAfter)
+			if err := t.w.Write(d.Name, strconv.Itoa(si+1), strconv.Itoa(ti+1), tok.Form, tok.Lemma, tok.UPOS, tok.XPOS,
+				strconv.Itoa(int(tok.Line)), strconv.Itoa(int(tok.Start)), strconv.Itoa(int(tok.End)), strconv.FormatBool(tok.SpaceAfter)); err != nil {
+				return err
+			}
 		}
 	}
 	return nil
@@ -75,15 +77,7 @@ func (t *tsvWriter) Write(d *doc.Document) error {
 
 func (t *tsvWriter) Flush() error { return t.w.Flush() }
 
-// tsvCell keeps a value on one TSV cell: tabs and line breaks become spaces.
-func tsvCell(s string) string {
-	if strings.ContainsAny(s, "\t\n\r") {
-		return strings.NewReplacer("\t", " ", "\n", " ", "\r", " ").Replace(s)
-	}
-	return s
-}
-
-type jsonWriter struct{ w *bufio.Writer }
+type jsonWriter struct{ w *tabular.JSONL }
 
 type jsonToken struct {
 	Form       string `json:"form"`
@@ -104,8 +98,7 @@ type jsonSentence struct {
 }
 
 func (j *jsonWriter) Write(d *doc.Document) error {
-	enc := json.NewEncoder(j.w)
-	enc.SetEscapeHTML(false)
+	enc := j.w
 	for si := range d.Sentences {
 		s := &d.Sentences[si]
 		js := jsonSentence{Doc: d.Name, Sentence: si + 1, Line: s.Line(), Text: conllu.SentenceText(d, s),
