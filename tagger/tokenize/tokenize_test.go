@@ -4,6 +4,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"glossmith/tagger/doc"
 )
 
@@ -131,12 +134,8 @@ func TestTokens(t *testing.T) {
 	for _, tt := range tokenTests {
 		t.Run(tt.name, func(t *testing.T) {
 			sents := Sentences(tt.in)
-			if got := forms(sents); got != tt.want {
-				t.Errorf("Sentences(%q)\n got %s\nwant %s", tt.in, got, tt.want)
-			}
-			if err := checkRoundTrip(tt.in, sents); err != "" {
-				t.Error(err)
-			}
+			assert.Equal(t, tt.want, forms(sents), "Sentences(%q)", tt.in)
+			assert.Empty(t, checkRoundTrip(tt.in, sents))
 		})
 	}
 }
@@ -168,55 +167,43 @@ func TestParagraphsAndHeadings(t *testing.T) {
 		{"- filter cartridge", true, 8},
 		{"- O - ring set", true, 9},
 	}
-	if len(sents) != len(want) {
-		t.Fatalf("got %d sentences %q, want %d", len(sents), forms(sents), len(want))
-	}
+	require.Len(t, sents, len(want), "sentences %q", forms(sents))
 	for i, w := range want {
 		s := sents[i]
-		if got := forms(sents[i : i+1]); got != w.text || s.NewPar != w.newPar || s.Line() != w.line || s.Index != i {
-			t.Errorf("sentence %d = %q NewPar=%v line %d index %d, want %q NewPar=%v line %d",
-				i, got, s.NewPar, s.Line(), s.Index, w.text, w.newPar, w.line)
-		}
+		assert.Equal(t, w.text, forms(sents[i:i+1]), "sentence %d", i)
+		assert.Equal(t, w.newPar, s.NewPar, "sentence %d NewPar", i)
+		assert.Equal(t, w.line, s.Line(), "sentence %d line", i)
+		assert.Equal(t, i, s.Index, "sentence %d index", i)
 	}
-	if err := checkRoundTrip(text, sents); err != "" {
-		t.Error(err)
-	}
+	assert.Empty(t, checkRoundTrip(text, sents))
 }
 
 func TestDocument(t *testing.T) {
 	d := &doc.Document{Name: "note.txt", Text: "Vent A opens.\r\n\r\nVent B closes."}
 	Document(d)
-	if got, want := forms(d.Sentences), "Vent A opens . | Vent B closes ."; got != want {
-		t.Errorf("got %s, want %s", got, want)
-	}
-	if !d.Sentences[1].NewPar || d.Sentences[1].Line() != 3 {
-		t.Errorf("second sentence NewPar=%v line %d, want true, 3", d.Sentences[1].NewPar, d.Sentences[1].Line())
-	}
+	require.Equal(t, "Vent A opens . | Vent B closes .", forms(d.Sentences))
+	assert.True(t, d.Sentences[1].NewPar, "second sentence opens a paragraph")
+	assert.Equal(t, 3, d.Sentences[1].Line(), "second sentence line")
 	// Pretokenized documents keep their sentences.
 	given := []doc.Sentence{{ID: "s1", Tokens: []doc.Token{{Form: "x"}}}}
 	p := &doc.Document{Text: "a b c.", Sentences: given, Pretokenized: true}
 	Document(p)
-	if len(p.Sentences) != 1 || p.Sentences[0].ID != "s1" {
-		t.Errorf("pretokenized document was re-tokenized: %+v", p.Sentences)
-	}
+	require.Len(t, p.Sentences, 1, "pretokenized document was re-tokenized")
+	assert.Equal(t, "s1", p.Sentences[0].ID, "pretokenized document was re-tokenized")
 }
 
 // TestAbbrevList checks the embedded list against facts of the EWT 2.15
 // training data that the generator must have picked up.
 func TestAbbrevList(t *testing.T) {
 	for _, a := range []string{"Dr.", "Mr.", "U.S.", "etc.", "e.g.", "i.e.", "Inc."} {
-		if _, ok := abbrevs[a]; !ok {
-			t.Errorf("%q missing from the abbreviation list", a)
-		}
+		assert.Contains(t, abbrevs, a, "abbreviation list")
 	}
 	// In EWT train "etc." ends more sentences (as "etc" + ".") than it
 	// continues; "Dr." never ends one.
-	if !abbrevs["etc."].mayEnd || abbrevs["Dr."].mayEnd {
-		t.Errorf("mayEnd: etc. %v (want true), Dr. %v (want false)", abbrevs["etc."].mayEnd, abbrevs["Dr."].mayEnd)
-	}
-	if !strings.Contains(abbrevText, "Universal Dependencies") || !strings.Contains(abbrevText, "CC BY-SA 4.0") {
-		t.Error("abbrev.txt header must name its source and licence")
-	}
+	assert.True(t, abbrevs["etc."].mayEnd, "etc. may end a sentence")
+	assert.False(t, abbrevs["Dr."].mayEnd, "Dr. never ends a sentence")
+	assert.Contains(t, abbrevText, "Universal Dependencies", "abbrev.txt header names its source")
+	assert.Contains(t, abbrevText, "CC BY-SA 4.0", "abbrev.txt header names its licence")
 }
 
 // The Markdown reader ends blocks with U+2029 PARAGRAPH SEPARATOR so that
@@ -224,9 +211,10 @@ func TestAbbrevList(t *testing.T) {
 // paragraph like a blank line.
 func TestParagraphSeparator(t *testing.T) {
 	sents := Sentences("Flush the filter\u2029Check the valve")
-	if len(sents) != 2 || !sents[1].NewPar || sents[1].Tokens[0].Form != "Check" || sents[1].Tokens[0].Line != 1 {
-		t.Fatalf("got %d sentences: %+v", len(sents), sents)
-	}
+	require.Len(t, sents, 2)
+	assert.True(t, sents[1].NewPar, "the separator opens a paragraph")
+	assert.Equal(t, "Check", sents[1].Tokens[0].Form)
+	assert.EqualValues(t, 1, sents[1].Tokens[0].Line, "line numbers stay those of the source")
 }
 
 // TestDocumentReusing tokenizes texts of falling and rising length into one
@@ -252,20 +240,7 @@ func TestDocumentReusing(t *testing.T) {
 		if cap(before) > 0 && cap(buf) > 0 && &before[:1][0] == &buf[:1][0] {
 			reused++
 		}
-		if len(got.Sentences) != len(want.Sentences) {
-			t.Fatalf("text %d: %d sentences, want %d", i, len(got.Sentences), len(want.Sentences))
-		}
-		for s := range want.Sentences {
-			g, w := got.Sentences[s], want.Sentences[s]
-			if g.Index != w.Index || g.NewPar != w.NewPar || len(g.Tokens) != len(w.Tokens) {
-				t.Fatalf("text %d sentence %d: %+v, want %+v", i, s, g, w)
-			}
-			for k := range w.Tokens {
-				if g.Tokens[k] != w.Tokens[k] {
-					t.Fatalf("text %d sentence %d token %d: %+v, want %+v", i, s, k, g.Tokens[k], w.Tokens[k])
-				}
-			}
-		}
+		require.Equal(t, want.Sentences, got.Sentences, "text %d", i)
 		// What a tagger leaves in the array for the next text.
 		for s := range got.Sentences {
 			for k := range got.Sentences[s].Tokens {
@@ -276,12 +251,10 @@ func TestDocumentReusing(t *testing.T) {
 	}
 	// The array is kept from the first text on except when a text is
 	// longer than all before it (the seventh).
-	if reused != len(texts)-2 {
-		t.Errorf("array reused for %d of %d texts, want %d", reused, len(texts)-1, len(texts)-2)
-	}
+	assert.Equal(t, len(texts)-2, reused, "texts that reused the array")
 	// A pretokenized document keeps its sentences and the array.
 	p := &doc.Document{Text: "a b", Sentences: []doc.Sentence{{ID: "s1"}}, Pretokenized: true}
-	if out := DocumentReusing(p, buf); cap(out) != cap(buf) || p.Sentences[0].ID != "s1" {
-		t.Errorf("pretokenized: array of %d, sentences %+v", cap(out), p.Sentences)
-	}
+	out := DocumentReusing(p, buf)
+	assert.Equal(t, cap(buf), cap(out), "pretokenized: array kept")
+	assert.Equal(t, "s1", p.Sentences[0].ID, "pretokenized: sentences kept")
 }
