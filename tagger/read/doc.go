@@ -66,8 +66,12 @@
 // row or quote that follows a non-blank line starts with U+2029, and so
 // does a line after a heading or table row.
 //
-// html: the visible text of the body, from golang.org/x/net/html's
-// tokenizer. Dropped with their content: head (and title, which pages
+// html: the visible text of the body, from the tree that
+// golang.org/x/net/html's parser builds by the HTML5 algorithm, so end
+// tags that may be left out (</li>, </p>, </td>, </head>) end their
+// elements where a browser ends them. (A page nested more than 512
+// elements deep, which the parser refuses, is read tag by tag with a
+// Warning.) Dropped with their content: head (and title, which pages
 // repeat as their first heading, so keeping it would count it twice),
 // script, style, noscript, template, svg, math, iframe, object, select,
 // textarea, canvas, audio, video, and any element with the hidden

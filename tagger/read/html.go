@@ -16,13 +16,6 @@ var htmlDropped = map[string]bool{
 	"audio": true, "video": true, "noembed": true, "noframes": true,
 }
 
-// htmlHeadContent are the elements allowed in <head>; any other start tag
-// ends a head whose end tag was left out, as the HTML parser does.
-var htmlHeadContent = map[string]bool{
-	"title": true, "meta": true, "link": true, "style": true, "script": true,
-	"base": true, "noscript": true, "template": true,
-}
-
 // htmlBlocks end a paragraph where they start and where they end.
 var htmlBlocks = map[string]bool{
 	"address": true, "article": true, "aside": true, "blockquote": true,
@@ -37,74 +30,107 @@ var htmlBlocks = map[string]bool{
 	"center": true, "option": true, "optgroup": true, "frameset": true,
 }
 
-// htmlVoid elements have no content and no end tag.
-var htmlVoid = map[string]bool{
-	"area": true, "base": true, "br": true, "col": true, "embed": true,
-	"hr": true, "img": true, "input": true, "link": true, "meta": true,
-	"source": true, "track": true, "wbr": true, "param": true,
+// html extracts the visible text of an HTML page; see the package comment.
+// The page is parsed into a tree by the HTML5 parsing algorithm
+// (html.Parse), so end tags that HTML lets an author leave out — </li>,
+// </p>, </td>, </head> — close their elements where a browser closes
+// them, and hidden content ends where the browser ends it.
+func (r *reader) html(s string) *doc.Document {
+	root, err := html.Parse(strings.NewReader(s))
+	if err != nil {
+		// The parser refuses elements nested more than 512 deep (its guard
+		// against a stack of unbounded size); such a page is read as a
+		// flat run of tags instead, so that its text is not lost.
+		r.warnf(0, "HTML not parsed as a tree (%v); its text is read tag by tag, so the content of hidden elements may be kept", err)
+		return &doc.Document{Text: htmlFlat(s)}
+	}
+	var e textEmitter
+	// An explicit stack rather than recursion: a page of a million nested
+	// tags must not grow the goroutine stack by as many frames.
+	type frame struct {
+		n    *html.Node
+		exit bool // the element's end, after its children
+	}
+	stack := []frame{{n: root}}
+	pre := 0
+	for len(stack) > 0 {
+		f := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		n := f.n
+		if n.Type == html.ElementNode && f.exit {
+			if htmlBlocks[n.Data] {
+				e.para()
+			}
+			if n.Data == "pre" {
+				pre--
+			}
+			continue
+		}
+		switch n.Type {
+		case html.TextNode:
+			e.text(n.Data, pre > 0)
+			continue
+		case html.ElementNode:
+			if n.Namespace != "" || htmlDropped[n.Data] || n.Data == "head" || hiddenByAttr(n.Attr) {
+				continue
+			}
+			switch {
+			case n.Data == "br":
+				e.lineBreak()
+				continue
+			case htmlBlocks[n.Data]:
+				e.para()
+			}
+			if n.Data == "pre" {
+				pre++
+			}
+			stack = append(stack, frame{n: n, exit: true})
+		case html.DocumentNode:
+		default: // comments, doctype
+			continue
+		}
+		// children pushed last first, so the first is handled next
+		for c := n.LastChild; c != nil; c = c.PrevSibling {
+			stack = append(stack, frame{n: c})
+		}
+	}
+	return &doc.Document{Text: e.String()}
 }
 
-// html extracts the visible text of an HTML page; see the package comment.
-func (r *reader) html(s string) *doc.Document {
+// htmlFlat extracts text from a page without building its tree: the text
+// between tags, less the contents of the dropped elements, blocks as
+// paragraphs.
+func htmlFlat(s string) string {
 	z := html.NewTokenizer(strings.NewReader(s))
 	var e textEmitter
-	skip, depth := "", 0 // the element whose content is being dropped
-	inHead, pre := false, 0
+	skip := ""
+	pre := 0
 	for {
 		tt := z.Next()
 		switch tt {
 		case html.ErrorToken:
-			return &doc.Document{Text: e.String()}
+			return e.String()
 		case html.TextToken:
-			if skip == "" && !inHead {
+			if skip == "" {
 				e.text(string(z.Text()), pre > 0)
 			}
-		case html.StartTagToken, html.SelfClosingTagToken:
-			name, hasAttr := z.TagName()
+		case html.StartTagToken, html.EndTagToken, html.SelfClosingTagToken:
+			name, _ := z.TagName()
 			tag := string(name)
-			if skip != "" {
-				if tag == skip && tt == html.StartTagToken {
-					depth++
-				}
-				continue
-			}
-			if inHead && !htmlHeadContent[tag] {
-				inHead = false
-			}
-			hidden := hasAttr && hiddenByAttr(z)
 			switch {
-			case tag == "head":
-				inHead = tt == html.StartTagToken
-			case (htmlDropped[tag] || hidden) && tt == html.StartTagToken && !htmlVoid[tag]:
-				skip, depth = tag, 1
-			case inHead:
+			case skip != "":
+				if tt == html.EndTagToken && tag == skip {
+					skip = ""
+				}
+			case tt == html.StartTagToken && (htmlDropped[tag] || tag == "head"):
+				skip = tag
 			case tag == "br":
 				e.lineBreak()
 			case htmlBlocks[tag]:
 				e.para()
 				if tag == "pre" && tt == html.StartTagToken {
 					pre++
-				}
-			}
-		case html.EndTagToken:
-			name, _ := z.TagName()
-			tag := string(name)
-			if skip != "" {
-				if tag == skip {
-					if depth--; depth == 0 {
-						skip = ""
-					}
-				}
-				continue
-			}
-			switch {
-			case tag == "head":
-				inHead = false
-			case tag == "br": // "</br>" is read as <br> by browsers
-				e.lineBreak()
-			case htmlBlocks[tag]:
-				e.para()
-				if tag == "pre" && pre > 0 {
+				} else if tag == "pre" && tt == html.EndTagToken && pre > 0 {
 					pre--
 				}
 			}
@@ -113,23 +139,20 @@ func (r *reader) html(s string) *doc.Document {
 }
 
 // hiddenByAttr reports a "hidden" attribute or an inline style
-// "display: none" on the current tag.
-func hiddenByAttr(z *html.Tokenizer) bool {
-	for {
-		key, val, more := z.TagAttr()
-		switch string(key) {
+// "display: none" or "visibility: hidden".
+func hiddenByAttr(attrs []html.Attribute) bool {
+	for _, a := range attrs {
+		switch a.Key {
 		case "hidden":
 			return true
 		case "style":
-			v := strings.ToLower(strings.Join(strings.Fields(string(val)), ""))
+			v := strings.ToLower(strings.Join(strings.Fields(a.Val), ""))
 			if strings.Contains(v, "display:none") || strings.Contains(v, "visibility:hidden") {
 				return true
 			}
 		}
-		if !more {
-			return false
-		}
 	}
+	return false
 }
 
 // textEmitter builds extracted text: white space collapsed to single

@@ -1,13 +1,19 @@
 package read
 
 import (
+	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func htmlText(t *testing.T, src string) string {
 	t.Helper()
 	r := &reader{in: Input{Name: "t.html"}}
-	return r.html(src).Text
+	d := r.html(src)
+	require.NotNil(t, d)
+	return d.Text
 }
 
 func TestHTML(t *testing.T) {
@@ -46,9 +52,40 @@ func TestHTML(t *testing.T) {
 		{"comments",
 			"<p>A<!-- no --> B</p>",
 			"A B"},
+		// HTML Living Standard 13.1.2.4 "Optional tags": an li element's end
+		// tag may be omitted when another li follows, a p's when a block
+		// follows; the hidden first item ends where the second begins.
+		{"implied end tags close hidden elements",
+			"<ul><li hidden>Secret<li>Visible</ul><p>Shown</p>",
+			"Visible\n\nShown"},
+		{"implied end of a hidden paragraph",
+			"<p hidden>Secret<div>Visible</div>",
+			"Visible"},
+		{"implied end of a dropped cell",
+			"<table><tr><td style='display:none'>Secret<td>Visible</table>",
+			"Visible"},
+		{"misnested inline tags",
+			"<p><b>bold <i>both</b> italic</i> plain</p>",
+			"bold both italic plain"},
 	} {
-		if got := htmlText(t, tc.in); got != tc.want {
-			t.Errorf("%s:\n got %q\nwant %q", tc.name, got, tc.want)
+		assert.Equal(t, tc.want, htmlText(t, tc.in), tc.name)
+	}
+}
+
+// The HTML parser refuses pages nested more than 512 elements deep; such a
+// page is still read, with a warning, and its text kept.
+func TestHTMLDeepNesting(t *testing.T) {
+	for _, n := range []int{500, 100_000} {
+		src := "<p>Top.</p>" + strings.Repeat("<div>", n) + "Deep <script>x()</script>text." + strings.Repeat("</div>", n)
+		r := &reader{in: Input{Name: "deep.html"}}
+		d := r.html(src)
+		require.NotNil(t, d)
+		assert.Equal(t, "Top.\n\nDeep text.", d.Text, "depth %d", n)
+		if n > 512 {
+			require.Len(t, r.probs, 1)
+			assert.Equal(t, Warning, r.probs[0].Severity)
+		} else {
+			assert.Empty(t, r.probs)
 		}
 	}
 }

@@ -5,6 +5,9 @@ import (
 	"os/exec"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // needPdftotext skips the test when pdftotext is missing, except under CI

@@ -11,6 +11,9 @@ import (
 	"unicode/utf16"
 	"unicode/utf8"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"glossmith/internal/testenv"
 	"glossmith/tagger/doc"
 )
