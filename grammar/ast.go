@@ -35,7 +35,7 @@ type Repeat struct {
 	Min, Max int
 }
 
-// Label names the span Sub matched (`@head NOUN`) so that commands can read
+// Label names the span Sub matched (`@node NOUN`) so that commands can read
 // its words.
 type Label struct {
 	Pos  Pos
@@ -74,21 +74,21 @@ type TestKind int
 const (
 	Any       TestKind = iota // _
 	UPOS                      // NOUN
-	Tag                       // tag:NNS
-	TagRe                     // tag:/^VB/
+	XPOS                      // xpos:NNS
+	XPOSRe                    // xpos:/^VB/
 	Word                      // "valve" (case-insensitive)
 	WordExact                 // 'Valve'
 	WordRe                    // /^[A-Z]+$/
 	Lemma                     // lemma:valve (case-insensitive)
 	LemmaRe                   // lemma:/^valv/
-	Prefix                    // prefix:un (case-insensitive)
-	Suffix                    // suffix:ing (case-insensitive)
-	Shape                     // shape:Xx-d
-	ShapeRe                   // shape:/^X+$/
+	Begins                    // begins:un (case-insensitive)
+	Ends                      // ends:ing (case-insensitive)
+	Chars                     // chars:Aa+ (see CharClasses)
+	CharsRe                   // chars:/^A\+$/
 )
 
 // Test is a test about one token. Value holds the name, word or pattern as
-// written (for Word, Lemma, Prefix and Suffix: lower-cased); Re is the
+// written (for Word, Lemma, Begins and Ends: lower-cased); Re is the
 // compiled expression of the *Re kinds.
 type Test struct {
 	Pos   Pos
@@ -125,10 +125,10 @@ func (t *Test) Key() string {
 		return "_"
 	case UPOS:
 		return t.Value
-	case Tag:
-		return "tag:" + t.Value
-	case TagRe:
-		return "tag:/" + t.Value + "/"
+	case XPOS:
+		return "xpos:" + t.Value
+	case XPOSRe:
+		return "xpos:/" + t.Value + "/"
 	case Word:
 		return strconv.Quote(t.Value)
 	case WordExact:
@@ -140,21 +140,21 @@ func (t *Test) Key() string {
 		return "lemma:" + strconv.Quote(t.Value)
 	case LemmaRe:
 		return "lemma:/" + t.Value + "/"
-	case Prefix:
-		return "prefix:" + strconv.Quote(t.Value)
-	case Suffix:
-		return "suffix:" + strconv.Quote(t.Value)
-	case Shape:
-		return "shape:" + strconv.Quote(t.Value)
-	case ShapeRe:
-		return "shape:/" + t.Value + "/"
+	case Begins:
+		return "begins:" + strconv.Quote(t.Value)
+	case Ends:
+		return "ends:" + strconv.Quote(t.Value)
+	case Chars:
+		return "chars:" + strconv.Quote(t.Value)
+	case CharsRe:
+		return "chars:/" + t.Value + "/"
 	}
 	return fmt.Sprintf("test(%d)", t.Kind)
 }
 
 // Format renders a node fully parenthesized, one pair of parentheses per
 // operator, so that the structure (and thus precedence) is visible:
-// `ADJ | VERB & tag:VBN` formats as `(ADJ | (VERB & tag:VBN))`.
+// `ADJ | VERB & xpos:VBN` formats as `(ADJ | (VERB & xpos:VBN))`.
 func Format(n Node) string {
 	var b strings.Builder
 	format(&b, n)
@@ -255,7 +255,7 @@ func Walk(n Node, f func(Node)) {
 	}
 }
 
-var kindNames = [...]string{"any", "upos", "tag", "tag-re", "word", "word-exact", "word-re", "lemma", "lemma-re", "prefix", "suffix", "shape", "shape-re"}
+var kindNames = [...]string{"any", "upos", "xpos", "xpos-re", "word", "word-exact", "word-re", "lemma", "lemma-re", "begins", "ends", "chars", "chars-re"}
 
 // String names the kind, for messages and keys.
 func (k TestKind) String() string {

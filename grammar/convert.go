@@ -16,7 +16,11 @@ import (
 const MaxRepeat = 1000
 
 // fieldKeys are the names accepted before a colon in a token test.
-var fieldKeys = []string{"tag", "lemma", "prefix", "suffix", "shape"}
+var fieldKeys = []string{"xpos", "lemma", "begins", "ends", "chars"}
+
+// renamedFields maps the field names of earlier versions to today's; an old
+// name is an error that names the new one (there are no aliases).
+var renamedFields = map[string]string{"tag": "xpos", "prefix": "begins", "suffix": "ends", "shape": "chars"}
 
 // fieldNames returns the field keys as written, colon included.
 func fieldNames() []string {
@@ -306,25 +310,29 @@ func (f *File) convField(pa *pAtom, errs *ErrorList) Node {
 		return &Test{Pos: p, Kind: Any}
 	}
 	switch key {
-	case "tag":
+	case "xpos":
 		if isRe {
-			return f.regexTest(vpos, TagRe, val, errs)
+			return f.regexTest(vpos, XPOSRe, val, errs)
 		}
-		return &Test{Pos: p, Kind: Tag, Value: val}
+		return &Test{Pos: p, Kind: XPOS, Value: val}
 	case "lemma":
 		if isRe {
 			return f.regexTest(vpos, LemmaRe, val, errs)
 		}
 		return &Test{Pos: p, Kind: Lemma, Value: strings.ToLower(val)}
-	case "shape":
+	case "chars":
 		if isRe {
-			return f.regexTest(vpos, ShapeRe, val, errs)
+			return f.regexTest(vpos, CharsRe, val, errs)
 		}
-		return &Test{Pos: p, Kind: Shape, Value: val}
-	case "prefix", "suffix":
-		kind := Prefix
-		if key == "suffix" {
-			kind = Suffix
+		if msg := checkChars(val); msg != "" {
+			f.errorf(errs, vpos, "chars:%s %s", val, msg)
+			return &Test{Pos: p, Kind: Any}
+		}
+		return &Test{Pos: p, Kind: Chars, Value: val}
+	case "begins", "ends":
+		kind := Begins
+		if key == "ends" {
+			kind = Ends
 		}
 		if isRe {
 			f.errorf(errs, vpos, "%s: takes plain letters, not a regular expression (use /…/ for the word instead)", key)
@@ -332,10 +340,12 @@ func (f *File) convField(pa *pAtom, errs *ErrorList) Node {
 		return &Test{Pos: p, Kind: kind, Value: strings.ToLower(val)}
 	}
 	msg := "unknown test " + key + ":"
-	if h := suggest.Hint(key+":", fieldNames()); h != "" {
+	if now, ok := renamedFields[key]; ok {
+		msg += " — " + suggest.Phrase([]string{now + ":"})
+	} else if h := suggest.Hint(key+":", fieldNames()); h != "" {
 		msg += " — " + h
 	} else {
-		msg += " (known: tag:, lemma:, prefix:, suffix:, shape:)"
+		msg += " (known: " + strings.Join(fieldNames(), ", ") + ")"
 	}
 	f.errorf(errs, pa.Pos, "%s", msg)
 	return &Test{Pos: p, Kind: Any}

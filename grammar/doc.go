@@ -36,11 +36,11 @@
 //	Quant   = "?" | "*" | "+" | "{" Int "}" | "{" Int "," "}" | "{" Int "," Int "}" .
 //	Label   = "@" Name .
 //	Test    = UPOS | "_" | String | Raw | Regexp | Field .
-//	Field   = ( "tag" | "lemma" | "shape" ) ":" ( Value | Regexp )
-//	        | ( "prefix" | "suffix" ) ":" Value .
+//	Field   = ( "xpos" | "lemma" | "chars" ) ":" ( Value | Regexp )
+//	        | ( "begins" | "ends" ) ":" Value .
 //
 // Binding, tightest first: `!`, then `&`, then repetition, then sequence,
-// then `|`. So `ADJ | VERB & tag:VBN` is an adjective or a past participle,
+// then `|`. So `ADJ | VERB & xpos:VBN` is an adjective or a past participle,
 // `!ADJ & NOUN` is a noun that is not an adjective, and `ADJ NOUN | VERB`
 // is either the pair or the verb. Operands of `&` and `!` must each match
 // exactly one token (tests, and `|`, `&`, `!` of tests, also through rule
@@ -49,30 +49,32 @@
 // Token tests:
 //
 //	NOUN, ADJ, …     the UPOS tag (the 17 tags of Universal Dependencies)
-//	tag:NNS          the fine (XPOS) tag, exactly; tag:/^VB/ by regexp
+//	xpos:NNS         the fine tag (the XPOS column of UD), exactly; xpos:/^VB/ by regexp
 //	"valve"          the word, ignoring case
 //	'Valve'          the word, exactly
 //	/^[A-Z]{2,5}$/   the word against a regular expression (RE2 syntax)
 //	lemma:valve      the lemma, ignoring case; lemma:/^valv/ by regexp
-//	prefix:un        the word starts with un (ignoring case)
-//	suffix:ing       the word ends with ing (ignoring case)
-//	shape:Xx-d       the word's shape (see pattern.Shape); shape:/^X+$/
+//	begins:un        the word begins with un (ignoring case)
+//	ends:ing         the word ends with ing (ignoring case)
+//	chars:Aa+-9      the word's character classes (CharClasses); chars:/^A\+$/
 //	_                any token
 //
 // Regular expressions are Go's (RE2) and are not anchored: write ^ and $
 // inside the slashes to match the whole value. A quoted string with spaces,
 // "in order to", stands for the sequence of its words. A bare field value
 // runs up to white space or one of ; | & ( ) { } ! * + ? # " ' /, so
-// tag:PRP$ is the tag PRP$ (put a space before a following $ anchor);
-// quote other values: tag:"#". Escapes in quotes: \" \' \\ \n \t, and \[
-// \] for literal brackets in examples.
+// xpos:PRP$ is the tag PRP$ (put a space before a following $ anchor);
+// quote other values: xpos:"#". A chars: value may also hold '+'. Escapes
+// in quotes: \" \' \\ \n \t, and \[ \] for literal brackets in examples.
+// The field names of earlier versions (tag:, prefix:, suffix:, shape:) are
+// errors that name today's.
 //
 // A rule's name inside another rule stands for that rule's body. Rules may
 // not refer to themselves, directly or through others ("rule cycle"). `^`
 // and `$` match no token: at the start and at the end of the sentence. A
 // label @name names the span the next element matched (an element with its
 // repetition: `@mods ADJ*`); labels of a referenced rule stay inside it, so
-// write `@head term` to name the span of a referenced rule.
+// write `@node term` to name the span of a referenced rule.
 //
 // Examples are tests that live beside the rules: `expect RULE: "text with
 // [a span]"` requires the bracketed span to be one of RULE's matches (in

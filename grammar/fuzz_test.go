@@ -7,14 +7,14 @@ import (
 )
 
 var fuzzSeeds = []string{
-	"term = modifier* NOUN ;\nmodifier = ADJ | NOUN | PROPN | VERB & tag:VBN ;\n",
+	"term = modifier* NOUN ;\nmodifier = ADJ | NOUN | PROPN | VERB & xpos:VBN ;\n",
 	"# doc\nof_term = term \"of\" DET? term ;\nterm = NOUN+ ;\nexpect of_term: \"the [rate of flow] fell\" ;\n",
 	"verb_obj = @verb VERB DET? ADJ* @object NOUN ;\nreject verb_obj: \"they left quickly\" ;\n",
 	"use \"units.gsr\"\nuse stock terms\nx = ^ /^[A-Z]{2,5}$/ $ ;",
-	"a = (ADJ | NOUN){2,3} !PUNCT & _ lemma:/^val/ prefix:un suffix:ing shape:Xx-d 'Valve' ;",
+	"a = (ADJ | NOUN){2,3} !PUNCT & _ lemma:/^val/ begins:un ends:ing chars:Aa+-9 'Valve' ;",
 	"a = \"open ;\nb = NOUN % ;\nc = NOUN{3,1} ;",
 	"a = b ; b = a ;",
-	"x = tag:PRP$ tag:\"#\" (@h NOUN | @h PROPN) ;",
+	"x = xpos:PRP$ xpos:\"#\" (@h NOUN | @h PROPN) ;",
 	"expect x:\"the [a]\" ;",
 	"a = (((( ;",
 	"ä = NOUN ;\n\t r = \"größe\" ;",

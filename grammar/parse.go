@@ -63,6 +63,8 @@ var reserved = map[string]bool{"use": true, "expect": true, "reject": true, "sto
 var gsrLexer = lexer.MustSimple([]lexer.SimpleRule{
 	{Name: "Comment", Pattern: `#[^\n]*`},
 	{Name: "Whitespace", Pattern: `[ \t\r\n]+`},
+	// A chars: value may hold '+' (a run of one class, as in chars:Aa+).
+	{Name: "CharsField", Pattern: `chars:(?:/(?:\\.|[^/\\\n])*/|"(?:\\.|[^"\\\n])*"|'(?:\\.|[^'\\\n])*'|[^\s;|&()!{}*?#"'/@\[\]]+)`},
 	{Name: "Field", Pattern: `[A-Za-z_][A-Za-z0-9_]*:(?:/(?:\\.|[^/\\\n])*/|"(?:\\.|[^"\\\n])*"|'(?:\\.|[^'\\\n])*'|[^\s;|&()!{}*+?#"'/@\[\]]+)`},
 	{Name: "Ident", Pattern: `[A-Za-z_][A-Za-z0-9_]*`},
 	{Name: "Label", Pattern: `@[A-Za-z_][A-Za-z0-9_]*`},
@@ -115,7 +117,7 @@ type pExample struct {
 
 type pField struct {
 	Pos   lexer.Position
-	Value string `parser:"@Field"`
+	Value string `parser:"@(Field | CharsField)"`
 }
 
 type pRule struct {
@@ -163,7 +165,7 @@ type pNot struct {
 type pAtom struct {
 	Pos   lexer.Position
 	Group *pAlt  `parser:"\"(\" @@ \")\""`
-	Field string `parser:"| @Field"`
+	Field string `parser:"| @(Field | CharsField)"`
 	Regex string `parser:"| @Regex"`
 	Str   string `parser:"| @String"`
 	Raw   string `parser:"| @Raw"`
@@ -284,7 +286,7 @@ func parseMessage(err error) string {
 		case tok.Type == syms["Bad"]:
 			return "unexpected character " + quoteToken(tok.Value)
 		case tok.Type == syms["Label"]:
-			return "a label must be followed by the element it names, as in @head NOUN"
+			return "a label must be followed by the element it names, as in @node NOUN"
 		case tok.Value == ";" && expected == "":
 			return "unexpected ';': something is missing before it"
 		}

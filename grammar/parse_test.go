@@ -1,10 +1,14 @@
 package grammar
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func parseRule(t *testing.T, body string) string {
@@ -20,28 +24,28 @@ func parseRule(t *testing.T, body string) string {
 // then &, then repetition, then sequence, then |.
 func TestPrecedence(t *testing.T) {
 	for in, want := range map[string]string{
-		`ADJ | VERB & tag:VBN`:        `(ADJ | (VERB & tag:VBN))`,
-		`!ADJ & NOUN`:                 `(!ADJ & NOUN)`,
-		`!(ADJ & NOUN)`:               `!(ADJ & NOUN)`,
-		`ADJ NOUN | VERB`:             `((ADJ NOUN) | VERB)`,
-		`ADJ* NOUN+`:                  `((ADJ)* (NOUN)+)`,
-		`(ADJ NOUN)*`:                 `((ADJ NOUN))*`,
-		`NOUN & tag:NNS+`:             `((NOUN & tag:NNS))+`,
-		`!NOUN?`:                      `(!NOUN)?`,
-		`(ADJ | NOUN){2,3} NOUN`:      `(((ADJ | NOUN)){2,3} NOUN)`,
-		`NOUN{2}`:                     `(NOUN){2}`,
-		`NOUN{2,}`:                    `(NOUN){2,}`,
-		`@h NOUN+ "of"`:               `(@h (NOUN)+ "of")`,
-		`^ _ $`:                       `(^ _ $)`,
-		`"in order to"`:               `("in" "order" "to")`,
-		`'Valve' "VALVE"`:             `('Valve' "valve")`,
-		`lemma:Valve prefix:UN`:       `(lemma:"valve" prefix:"un")`,
-		`tag:PRP$ shape:Xx-d`:         `(tag:PRP$ shape:"Xx-d")`,
-		`tag:/^VB/ /^[A-Z]{2,5}$/`:    `(tag:/^VB/ /^[A-Z]{2,5}$/)`,
-		`term "of" DET? term`:         `(term "of" (DET)? term)`,
-		`ADJ|NOUN|PROPN|VERB&tag:VBN`: `(ADJ | NOUN | PROPN | (VERB & tag:VBN))`,
-		`a & b & c`:                   `(a & b & c)`,
-		`"a\"b" 'it\'s'`:              `("a\"b" 'it\'s')`,
+		`ADJ | VERB & xpos:VBN`:        `(ADJ | (VERB & xpos:VBN))`,
+		`!ADJ & NOUN`:                  `(!ADJ & NOUN)`,
+		`!(ADJ & NOUN)`:                `!(ADJ & NOUN)`,
+		`ADJ NOUN | VERB`:              `((ADJ NOUN) | VERB)`,
+		`ADJ* NOUN+`:                   `((ADJ)* (NOUN)+)`,
+		`(ADJ NOUN)*`:                  `((ADJ NOUN))*`,
+		`NOUN & xpos:NNS+`:             `((NOUN & xpos:NNS))+`,
+		`!NOUN?`:                       `(!NOUN)?`,
+		`(ADJ | NOUN){2,3} NOUN`:       `(((ADJ | NOUN)){2,3} NOUN)`,
+		`NOUN{2}`:                      `(NOUN){2}`,
+		`NOUN{2,}`:                     `(NOUN){2,}`,
+		`@h NOUN+ "of"`:                `(@h (NOUN)+ "of")`,
+		`^ _ $`:                        `(^ _ $)`,
+		`"in order to"`:                `("in" "order" "to")`,
+		`'Valve' "VALVE"`:              `('Valve' "valve")`,
+		`lemma:Valve begins:UN`:        `(lemma:"valve" begins:"un")`,
+		`xpos:PRP$ chars:Aa+-9`:        `(xpos:PRP$ chars:"Aa+-9")`,
+		`xpos:/^VB/ /^[A-Z]{2,5}$/`:    `(xpos:/^VB/ /^[A-Z]{2,5}$/)`,
+		`term "of" DET? term`:          `(term "of" (DET)? term)`,
+		`ADJ|NOUN|PROPN|VERB&xpos:VBN`: `(ADJ | NOUN | PROPN | (VERB & xpos:VBN))`,
+		`a & b & c`:                    `(a & b & c)`,
+		`"a\"b" 'it\'s'`:               `("a\"b" 'it\'s')`,
 	} {
 		if got := parseRule(t, in); got != want {
 			t.Errorf("%s\n got %s\nwant %s", in, got, want)
@@ -136,7 +140,7 @@ j = @x ^ ;
 k = (@x NOUN) & ADJ ;
 l = @x NOUN @x ADJ ;
 m = ^* ;
-n = tag:/x/ prefix:/y/ ;
+n = xpos:/x/ begins:/y/ ;
 `)
 	wantErrors(t, err,
 		"2:3: unexpected '=': is the ';' at the end of the rule above missing?",
@@ -156,7 +160,7 @@ n = tag:/x/ prefix:/y/ ;
 		"17:6: a label cannot stand inside & or !",
 		"18:13: label @x is used twice in one sequence",
 		"19:6: an anchor (^ or $) cannot be repeated",
-		"20:20: prefix: takes plain letters",
+		"20:21: begins: takes plain letters",
 	)
 }
 
@@ -300,8 +304,8 @@ func TestStockSets(t *testing.T) {
 				labels[l.Name] = true
 			}
 		})
-		if !labels["head"] || !labels["dep"] || len(labels) != 2 {
-			t.Errorf("%s labels %v, want exactly head and dep", name, labels)
+		if !labels["node"] || !labels["collocate"] || len(labels) != 2 {
+			t.Errorf("%s labels %v, want exactly node and collocate", name, labels)
 		}
 	}
 	if _, err := Stock("nope"); err == nil {
@@ -327,33 +331,36 @@ func TestParsePattern(t *testing.T) {
 	wantErrors(t, err, "1:5: undefined rule trm — did you mean \"term\"?")
 }
 
-// The rule examples in LANGUAGE.md must parse: the guide may not teach
-// syntax the parser rejects.
-func TestLanguageGuideExamples(t *testing.T) {
+// The rule samples of the guide and of the README (fences marked gsr) must
+// load as whole files: the documents may not teach syntax the parser
+// rejects, nor use files that do not exist.
+func TestDocumentSamplesLoad(t *testing.T) {
+	for _, doc := range []string{"LANGUAGE.md", "../README.md"} {
+		b, err := os.ReadFile(doc)
+		require.NoError(t, err)
+		samples := RuleSamples(string(b))
+		require.NotEmpty(t, samples, doc)
+		for _, s := range samples {
+			name := fmt.Sprintf("%s:%d", doc, s.Line)
+			// Blank lines in front keep the positions of errors those of
+			// the document.
+			f, err := ParseString(doc, strings.Repeat("\n", s.Line-1)+s.Text)
+			if assert.NoError(t, err, "%s:\n%s", name, s.Text) {
+				_, err = LoadFiles(f)
+				assert.NoError(t, err, "%s:\n%s", name, s.Text)
+			}
+		}
+	}
 	b, err := os.ReadFile("LANGUAGE.md")
-	if err != nil {
-		t.Fatal(err)
+	require.NoError(t, err)
+	for _, want := range []string{"ADJ | VERB & xpos:VBN", "`!ADJ & NOUN`", "leftmost", "@node term", "`A+-9+`"} {
+		assert.Contains(t, string(b), want)
 	}
-	blocks := strings.Split(string(b), "```")
-	n := 0
-	for i := 1; i < len(blocks); i += 2 {
-		block := blocks[i]
-		if strings.Contains(strings.SplitN(block, "\n", 3)[1], ".gsr:") {
-			continue // a sample error report
-		}
-		n++
-		if _, err := ParseString("LANGUAGE.md block", block); err != nil {
-			t.Errorf("block %d does not parse: %v\n%s", n, err, block)
-		}
-	}
-	if n < 4 {
-		t.Errorf("found only %d rule blocks", n)
-	}
-	for _, want := range []string{"ADJ | VERB & tag:VBN", "`!ADJ & NOUN`", "leftmost", "@head term"} {
-		if !strings.Contains(string(b), want) {
-			t.Errorf("guide lacks %q", want)
-		}
-	}
+}
+
+func TestRuleSamples(t *testing.T) {
+	md := "text\n```gsr\na = NOUN ;\n```\n\n```text\nnot = rules\n```\n```\nplain\n```\n  ```gsr\nb = ADJ ;\n  ```\n"
+	assert.Equal(t, []Sample{{Line: 3, Text: "a = NOUN ;\n"}, {Line: 13, Text: "b = ADJ ;\n"}}, RuleSamples(md))
 }
 
 func TestParseFileMissing(t *testing.T) {

@@ -4,8 +4,6 @@ import (
 	"math/bits"
 	"regexp"
 	"strings"
-	"unicode"
-	"unicode/utf8"
 
 	"glossmith/grammar"
 )
@@ -36,7 +34,7 @@ func newAtom(t *grammar.Test) *atom {
 	if t.Kind == grammar.WordRe && t.Re != nil {
 		a.first = firstBytes(t.Re)
 	}
-	if (t.Kind == grammar.Word || t.Kind == grammar.Prefix) && t.Value != "" && t.Value[0] < 0x80 && t.Value[0] != 'k' && t.Value[0] != 's' {
+	if (t.Kind == grammar.Word || t.Kind == grammar.Begins) && t.Value != "" && t.Value[0] < 0x80 && t.Value[0] != 'k' && t.Value[0] != 's' {
 		// k and s have non-ASCII case variants (Kelvin sign, long s)
 		// that EqualFold accepts; for them the full test always runs.
 		a.fold0 = lowerASCII(t.Value[0])
@@ -58,7 +56,7 @@ func (a *atom) field() int {
 	switch a.kind {
 	case grammar.UPOS:
 		return fieldUPOS
-	case grammar.Tag, grammar.TagRe:
+	case grammar.XPOS, grammar.XPOSRe:
 		return fieldXPOS
 	case grammar.Lemma, grammar.LemmaRe:
 		return fieldLemma
@@ -70,7 +68,7 @@ func (a *atom) field() int {
 // token (a comparison with a short word) rather than through a cache.
 func (a *atom) direct() bool {
 	switch a.kind {
-	case grammar.Word, grammar.WordExact, grammar.Prefix, grammar.Suffix:
+	case grammar.Word, grammar.WordExact, grammar.Begins, grammar.Ends:
 		return a.set == nil
 	}
 	return false
@@ -81,7 +79,7 @@ func (a *atom) test(s string) bool {
 	switch a.kind {
 	case grammar.Any:
 		return true
-	case grammar.UPOS, grammar.Tag, grammar.WordExact:
+	case grammar.UPOS, grammar.XPOS, grammar.WordExact:
 		return s == a.value
 	case grammar.Word, grammar.Lemma:
 		if a.set != nil {
@@ -92,21 +90,21 @@ func (a *atom) test(s string) bool {
 			return ok
 		}
 		return strings.EqualFold(s, a.value)
-	case grammar.TagRe, grammar.LemmaRe:
+	case grammar.XPOSRe, grammar.LemmaRe:
 		return a.re.MatchString(s)
 	case grammar.WordRe:
 		if a.first != nil && (s == "" || !a.first[s[0]]) {
 			return false
 		}
 		return a.re.MatchString(s)
-	case grammar.Prefix:
+	case grammar.Begins:
 		return len(s) >= len(a.value) && strings.EqualFold(s[:len(a.value)], a.value)
-	case grammar.Suffix:
+	case grammar.Ends:
 		return len(s) >= len(a.value) && strings.EqualFold(s[len(s)-len(a.value):], a.value)
-	case grammar.Shape:
-		return Shape(s) == a.value
-	case grammar.ShapeRe:
-		return a.re.MatchString(Shape(s))
+	case grammar.Chars:
+		return grammar.CharClasses(s) == a.value
+	case grammar.CharsRe:
+		return a.re.MatchString(grammar.CharClasses(s))
 	}
 	return false
 }
@@ -124,31 +122,4 @@ func (m *Matcher) evalField(f int, s string) uint64 {
 		}
 	}
 	return out
-}
-
-// Shape returns the word shape of s: upper-case letters become X,
-// lower-case letters x, digits d, other characters stay, and runs of the
-// same symbol collapse to one: "Turbine-2" → "Xx-d", "EC" → "X", "pH7" →
-// "xXd". Letters without case (as in many scripts) count as lower case.
-func Shape(s string) string {
-	var b strings.Builder
-	var last rune = -1
-	for len(s) > 0 {
-		r, n := utf8.DecodeRuneInString(s)
-		s = s[n:]
-		c := r
-		switch {
-		case unicode.IsUpper(r):
-			c = 'X'
-		case unicode.IsLetter(r):
-			c = 'x'
-		case unicode.IsDigit(r):
-			c = 'd'
-		}
-		if c != last {
-			b.WriteRune(c)
-			last = c
-		}
-	}
-	return b.String()
 }

@@ -133,7 +133,7 @@ func BenchmarkPathologicalLong(b *testing.B) {
 }
 
 // BenchmarkPairsSet measures the default mode of the stock pairs set, as
-// the collocations command runs it; every match carries @head and @dep.
+// the collocations command runs it; every match carries @node and @collocate.
 func BenchmarkPairsSet(b *testing.B) {
 	m, err := CompileStock("pairs")
 	if err != nil {
@@ -143,7 +143,7 @@ func BenchmarkPairsSet(b *testing.B) {
 }
 
 // BenchmarkPairsSetNested measures the every-span mode of the stock pairs
-// set, whose matches all carry @head and @dep slots.
+// set, whose matches all carry @node and @collocate slots.
 func BenchmarkPairsSetNested(b *testing.B) {
 	m, err := CompileStock("pairs")
 	if err != nil {

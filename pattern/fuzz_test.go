@@ -17,7 +17,7 @@ func FuzzCompileMatch(f *testing.F) {
 		"r = (_*)*NOUN ;",
 		"a = @h VERB DET? ADJ* @d NOUN | ^ PROPN+ $ ;",
 		"m = ADJ | NOUN ; t = m{2,4} (\"of\" m+)? ;",
-		"x = !PUNCT & /^[a-z]+$/ tag:/^N/ lemma:valve prefix:dr suffix:s shape:x ;",
+		"x = !PUNCT & /^[a-z]+$/ xpos:/^N/ lemma:valve begins:dr ends:s chars:a+ ;",
 		"a0 = NOUN | ADJ ; a1 = a0 | a0 ; a2 = a1 | a1 ; a3 = a2 a2 | a2 ;",
 	} {
 		f.Add(s)

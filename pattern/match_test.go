@@ -124,7 +124,7 @@ func TestLabelChoice(t *testing.T) {
 		t.Errorf("got %s", got)
 	}
 	// Labels of referenced rules stay inside them.
-	m = mustCompile(t, "np = @head NOUN ; r = @obj np ;", "r")
+	m = mustCompile(t, "np = @node NOUN ; r = @obj np ;", "r")
 	if got := render(m.FindAll(toks("x/NOUN"))); got != "r[0,1){obj=0:1}" {
 		t.Errorf("got %s", got)
 	}
@@ -165,8 +165,8 @@ func TestTokenTests(t *testing.T) {
 	s := toks("The/DET/DT Turbine-2/PROPN/NNP unsealed/VERB/VBN EC/PROPN/NNP valves/NOUN/NNS sealing/VERB/VBG Valve/NOUN/NN")
 	s[4].Lemma = "valve"
 	for _, c := range []struct{ rule, want string }{
-		{`r = tag:NNS ;`, "r[4,5)"},
-		{`r = tag:/^VB/ ;`, "r[2,3) r[5,6)"},
+		{`r = xpos:NNS ;`, "r[4,5)"},
+		{`r = xpos:/^VB/ ;`, "r[2,3) r[5,6)"},
 		{`r = "valve" ;`, "r[6,7)"},
 		{`r = 'Valve' ;`, "r[6,7)"},
 		{`r = 'valve' ;`, ""},
@@ -174,16 +174,17 @@ func TestTokenTests(t *testing.T) {
 		{`r = lemma:valve ;`, "r[4,5) r[6,7)"},
 		{`r = lemma:/^val/ & NOUN ;`, "r[4,5) r[6,7)"},
 		{`r = /^[A-Z]{2,5}$/ ;`, "r[3,4)"},
-		{`r = prefix:un ;`, "r[2,3)"},
-		{`r = suffix:ING ;`, "r[5,6)"},
-		{`r = shape:Xx-d ;`, "r[1,2)"},
-		{`r = shape:/^X$/ ;`, "r[3,4)"},
+		{`r = begins:un ;`, "r[2,3)"},
+		{`r = ends:ING ;`, "r[5,6)"},
+		{`r = chars:Aa+-9 ;`, "r[1,2)"},
+		{`r = chars:Aa+ ;`, "r[0,1) r[6,7)"},
+		{`r = chars:/^A\+$/ ;`, "r[3,4)"},
 		{`r = _ ;`, "r[0,7)"},
 		{`r = _+ ;`, "r[0,7)"},
 		{`r = !NOUN & !DET ;`, "r[1,4) r[5,6)"},
 		{`r = !(NOUN | DET) ;`, "r[1,4) r[5,6)"},
 		{`r = !!NOUN ;`, "r[4,5) r[6,7)"},
-		{`r = VERB & tag:VBN | DET ;`, "r[0,1) r[2,3)"},
+		{`r = VERB & xpos:VBN | DET ;`, "r[0,1) r[2,3)"},
 		{`r = PROPN{2} ;`, ""},
 		{`r = (PROPN VERB?){2,} ;`, "r[1,4)"},
 		{`r = "unsealed ec" ;`, "r[2,4)"},
@@ -217,16 +218,6 @@ func mergeRuns(ms []Match) string {
 		i = j + 1
 	}
 	return strings.Join(out, " ")
-}
-
-func TestShape(t *testing.T) {
-	for in, want := range map[string]string{
-		"Turbine-2": "Xx-d", "EC": "X", "pH7": "xXd", "valve": "x", "2024": "d", "A/B": "X/X", "": "",
-	} {
-		if got := Shape(in); got != want {
-			t.Errorf("Shape(%q) = %q, want %q", in, got, want)
-		}
-	}
 }
 
 func TestCompilePattern(t *testing.T) {
@@ -324,12 +315,12 @@ func TestPairsLabels(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, name := range m.Rules() {
-		if l := m.Labels(name); !reflect.DeepEqual(l, []string{"head", "dep"}) && !reflect.DeepEqual(l, []string{"dep", "head"}) {
-			t.Errorf("%s labels %v, want head and dep", name, l)
+		if l := m.Labels(name); !reflect.DeepEqual(l, []string{"node", "collocate"}) && !reflect.DeepEqual(l, []string{"collocate", "node"}) {
+			t.Errorf("%s labels %v, want node and collocate", name, l)
 		}
 	}
 	got := render(m.FindNested(toks("flush/VERB/VB the/DET/DT drip/NOUN/NN line/NOUN/NN")))
-	want := "verb_obj[0,3){dep=2:3,head=0:1} verb_obj[0,4){dep=3:4,head=0:1} noun_noun[2,4){dep=2:3,head=3:4}"
+	want := "verb_obj[0,3){collocate=2:3,node=0:1} verb_obj[0,4){collocate=3:4,node=0:1} noun_noun[2,4){collocate=2:3,node=3:4}"
 	if got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
 	}

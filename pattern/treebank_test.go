@@ -71,7 +71,7 @@ func readTreebank(t *testing.T, path string) []goldSentence {
 // TestPairsAgainstTreebank checks the stock pairs rules against the gold
 // dependency trees of the UD English EWT development set (Universal
 // Dependencies English Web Treebank 2.15, CC BY-SA 4.0), on its gold tags:
-// for every pair a rule finds, the @dep word should depend on the @head
+// for every pair a rule finds, the @collocate word should depend on the @node
 // word with the relation the rule stands for. The thresholds sit a little
 // below the precision measured when the rules were written (reported in
 // the log), so that a rule change that makes a relation much noisier fails.
@@ -105,9 +105,9 @@ func TestPairsAgainstTreebank(t *testing.T) {
 				ms = m.FindNested(s.tokens)
 			}
 			for _, mt := range ms {
-				h, d := mt.Slots["head"], mt.Slots["dep"]
+				h, d := mt.Slots["node"], mt.Slots["collocate"]
 				if h[1]-h[0] != 1 || d[1]-d[0] != 1 {
-					t.Fatalf("%s: head %v and dep %v must be one token each", mt.Rule, h, d)
+					t.Fatalf("%s: node %v and collocate %v must be one token each", mt.Rule, h, d)
 				}
 				found[mt.Rule]++
 				for _, r := range want[mt.Rule].rels {

@@ -21,7 +21,7 @@ func newCollocationsCmd() *cobra.Command {
 		by        string
 		measureN  string
 		minFreq   int64
-		head      string
+		node      string
 		to        string
 		outPath   string
 		limit     int
@@ -33,7 +33,7 @@ func newCollocationsCmd() *cobra.Command {
 		Long: `Counts word pairs and ranks them by how much more often they occur together
 than chance predicts.
 
-Pairs come from the @head and @dep slots of relation rules — the stock "pairs"
+Pairs come from the @node and @collocate slots of relation rules — the stock "pairs"
 set has adj_noun, noun_noun, verb_obj, adv_adj, verb_particle and noun_of_noun —
 or, with --window N, from content words at most N tokens apart in a sentence.
 Pairs are counted on lemmas (--by word counts word forms). For each relation
@@ -44,7 +44,7 @@ Measures (every one is a column; --measure sorts):
   ` + measureHelp(),
 		Example: `  glossmith collocations testdata/demo
   glossmith collocations --relation verb_obj --measure logdice testdata/demo
-  glossmith collocations --head valve --to tsv manuals/
+  glossmith collocations --node valve --to tsv manuals/
   glossmith collocations --window 3 --min-freq 3 notes/`,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			ms, err := measure.Lookup(measureN)
@@ -98,7 +98,7 @@ Measures (every one is a column; --measure sorts):
 			if p := total.Pruned(); p.Pairs > 0 {
 				in.notePruned("pairs", p.Pairs, p.MaxFreq)
 			}
-			rows := total.Rank(colloc.RankOptions{Measure: ms, MinFreq: minFreq, Head: head, Limit: limit})
+			rows := total.Rank(colloc.RankOptions{Measure: ms, MinFreq: minFreq, Node: node, Limit: limit})
 			out, err := openOutput(outPath)
 			if err != nil {
 				return err
@@ -117,7 +117,7 @@ Measures (every one is a column; --measure sorts):
 	fl.StringVar(&by, "by", "lemma", "count lemma or word")
 	fl.StringVar(&measureN, "measure", "g2", "sort by this measure: "+strings.Join(measure.Names(), ", "))
 	fl.Int64Var(&minFreq, "min-freq", 2, "leave out pairs seen fewer times")
-	fl.StringVar(&head, "head", "", "only pairs whose @head is this word (window pairs: either word)")
+	fl.StringVar(&node, "node", "", "only pairs whose @node is this word (window pairs: either word)")
 	fl.StringVar(&to, "to", "text", "output format: "+strings.Join(colloc.Formats, ", "))
 	fl.StringVarP(&outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.IntVar(&limit, "limit", 0, "print at most this many pairs")

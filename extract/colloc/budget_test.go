@@ -16,7 +16,7 @@ func skewed(c *Counter) {
 		}
 		c.Add(Pair{Relation: "adj_noun", W1: w1, W2: w2})
 		if i%3 == 0 {
-			c.Add(Pair{Relation: "verb_obj", W1: w2, W2: w1, HeadIsW2: true})
+			c.Add(Pair{Relation: "verb_obj", W1: w2, W2: w1, NodeIsW2: true})
 		}
 	}
 }
@@ -52,7 +52,7 @@ func TestBudgetKeepsMarginalsExact(t *testing.T) {
 		}
 		// Evert (2005, ch. 3): the marginals of the contingency table are
 		// the relation's totals, whatever pairs the table lists.
-		if r.F1 != w.F1 || r.F2 != w.F2 || r.N != w.N || r.Head != w.Head {
+		if r.F1 != w.F1 || r.F2 != w.F2 || r.N != w.N || r.Node != w.Node {
 			t.Errorf("%s %s %s: marginals %d/%d/%d, want %d/%d/%d", r.Relation, r.W1, r.W2, r.F1, r.F2, r.N, w.F1, w.F2, w.N)
 		}
 		if r.F12 > w.F12 || r.F12 < w.F12-p.MaxFreq*int64(p.Times) {

@@ -24,7 +24,7 @@ func TestMarginalsPerRelation(t *testing.T) {
 	c := NewCounter()
 	add := func(rel, a, b string, n int) {
 		for i := 0; i < n; i++ {
-			c.Add(Pair{Relation: rel, W1: a, W2: b, HeadIsW2: true})
+			c.Add(Pair{Relation: rel, W1: a, W2: b, NodeIsW2: true})
 		}
 	}
 	add("adj_noun", "solenoid", "valve", 5)
@@ -46,15 +46,15 @@ func TestMarginalsPerRelation(t *testing.T) {
 		}
 	}
 	fv := byPair["adj_noun:faulty valve"]
-	if fv.F12 != 2 || fv.F1 != 5 || fv.F2 != 7 || fv.N != 10 || fv.Head != "valve" {
+	if fv.F12 != 2 || fv.F1 != 5 || fv.F2 != 7 || fv.N != 10 || fv.Node != "valve" {
 		t.Errorf("faulty valve: %+v", fv)
 	}
 	rv := byPair["verb_obj:replace valve"]
 	if rv.F12 != 4 || rv.F1 != 4 || rv.F2 != 4 || rv.N != 4 {
 		t.Errorf("replace valve: %+v (marginals must come from verb_obj alone)", rv)
 	}
-	if got := c.Rank(RankOptions{Measure: m, Head: "sensor"}); len(got) != 1 || got[0].W1 != "faulty" {
-		t.Errorf("head filter: %+v", got)
+	if got := c.Rank(RankOptions{Measure: m, Node: "sensor"}); len(got) != 1 || got[0].W1 != "faulty" {
+		t.Errorf("node filter: %+v", got)
 	}
 	if got := c.Rank(RankOptions{Measure: m, MinFreq: 4}); len(got) != 2 {
 		t.Errorf("min-freq 4 kept %d rows, want 2", len(got))
@@ -103,7 +103,7 @@ func TestEdgeCounts(t *testing.T) {
 		t.Fatalf("empty counter gave %d rows", len(rows))
 	}
 	c := NewCounter()
-	c.Add(Pair{Relation: "adj_noun", W1: "brass", W2: "fitting", HeadIsW2: true})
+	c.Add(Pair{Relation: "adj_noun", W1: "brass", W2: "fitting", NodeIsW2: true})
 	for _, r := range c.Rank(RankOptions{Measure: m}) {
 		s := r.Scores
 		for _, v := range []float64{s.G2, s.PMI, s.T, s.Chi2, s.Dice, s.LogDice, s.MI3} {
@@ -116,11 +116,11 @@ func TestEdgeCounts(t *testing.T) {
 
 func TestSlotAndWindowPairs(t *testing.T) {
 	s := toks("Tighten", "VERB", "tighten", "the", "DET", "the", "union", "NOUN", "union", "nuts", "NOUN", "nut", ".", "PUNCT", ".")
-	p, ok := SlotPair("verb_obj", s, map[string][2]int{"head": {2, 4}, "dep": {0, 1}}, ByLemma)
-	if !ok || p.W1 != "tighten" || p.W2 != "nut" || !p.HeadIsW2 {
+	p, ok := SlotPair("verb_obj", s, map[string][2]int{"node": {2, 4}, "collocate": {0, 1}}, ByLemma)
+	if !ok || p.W1 != "tighten" || p.W2 != "nut" || !p.NodeIsW2 {
 		t.Fatalf("slot pair %+v %v", p, ok)
 	}
-	if _, ok := SlotPair("verb_obj", s, map[string][2]int{"head": {2, 4}}, ByLemma); ok {
+	if _, ok := SlotPair("verb_obj", s, map[string][2]int{"node": {2, 4}}, ByLemma); ok {
 		t.Fatal("a match without a dep slot made a pair")
 	}
 	var got [][2]string

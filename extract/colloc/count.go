@@ -18,7 +18,7 @@
 // (Evert 2005, ch. 3): a corpus-wide f(x) would count occurrences of x that
 // could never have formed a pair of R and would inflate every expected value.
 // The first element is the word earlier in the sentence, so "tighten …
-// nut" has x = tighten, y = nut; which of the two is the relation's @head is
+// nut" has x = tighten, y = nut; which of the two is the relation's @node is
 // recorded separately.
 package colloc
 
@@ -31,7 +31,7 @@ import (
 type Pair struct {
 	Relation string
 	W1, W2   string // words in text order
-	HeadIsW2 bool   // the @head slot is W2 (otherwise W1)
+	NodeIsW2 bool   // the @node slot is W2 (otherwise W1)
 }
 
 // key identifies a pair within a relation by the words' ids.
@@ -39,7 +39,7 @@ type key struct{ w1, w2 uint32 }
 
 type relCounts struct {
 	pairs  map[key]int64
-	heads  map[key]bool // HeadIsW2 of the first occurrence seen
+	nodeW2 map[key]bool // NodeIsW2 of the first occurrence seen
 	first  map[uint32]int64
 	second map[uint32]int64
 	n      int64
@@ -80,20 +80,20 @@ func (c *Counter) id(w string) uint32 {
 func (c *Counter) rel(name string) *relCounts {
 	r := c.rels[name]
 	if r == nil {
-		r = &relCounts{pairs: map[key]int64{}, heads: map[key]bool{}, first: map[uint32]int64{}, second: map[uint32]int64{}}
+		r = &relCounts{pairs: map[key]int64{}, nodeW2: map[key]bool{}, first: map[uint32]int64{}, second: map[uint32]int64{}}
 		c.rels[name] = r
 	}
 	return r
 }
 
 // Add counts one pair occurrence.
-func (c *Counter) Add(p Pair) { c.addN(p.Relation, p.W1, p.W2, p.HeadIsW2, 1) }
+func (c *Counter) Add(p Pair) { c.addN(p.Relation, p.W1, p.W2, p.NodeIsW2, 1) }
 
-func (c *Counter) addN(rel, w1, w2 string, headIsW2 bool, n int64) {
+func (c *Counter) addN(rel, w1, w2 string, nodeIsW2 bool, n int64) {
 	r := c.rel(rel)
 	k := key{c.id(w1), c.id(w2)}
 	if _, seen := r.pairs[k]; !seen {
-		r.heads[k] = headIsW2
+		r.nodeW2[k] = nodeIsW2
 		c.size += pairEntryBytes
 	}
 	r.pairs[k] += n
@@ -126,7 +126,7 @@ func (c *Counter) Merge(o *Counter) {
 			return keys[i].w2 < keys[j].w2
 		})
 		for _, k := range keys {
-			c.addN(name, o.words[k.w1], o.words[k.w2], r.heads[k], r.pairs[k])
+			c.addN(name, o.words[k.w1], o.words[k.w2], r.nodeW2[k], r.pairs[k])
 		}
 	}
 }
@@ -182,7 +182,7 @@ type Pruned struct {
 // Estimated bytes per table entry on a 64-bit machine: the payload of a
 // map entry about doubled for the map's slack and control bytes.
 const (
-	pairEntryBytes     = 2*16 + 2*9 // pairs and heads entries
+	pairEntryBytes     = 2*16 + 2*9 // pairs and nodeW2 entries
 	marginalEntryBytes = 2 * 12
 	wordEntryBytes     = 16 + 2*(16+4)
 )
@@ -249,14 +249,14 @@ func (c *Counter) prune(target int64) {
 		for p, f := range r.pairs {
 			if f <= k {
 				delete(r.pairs, p)
-				delete(r.heads, p)
+				delete(r.nodeW2, p)
 				dropped++
 			}
 		}
 		// Go maps do not shrink: copy the survivors so the memory of the
 		// dropped entries is freed.
 		r.pairs = compact(r.pairs)
-		r.heads = compact(r.heads)
+		r.nodeW2 = compact(r.nodeW2)
 	}
 	c.size -= int64(dropped) * pairEntryBytes
 	c.pruned.Pairs += dropped

@@ -31,22 +31,22 @@ func (b By) Key(t *doc.Token) string {
 	return strings.ToLower(w)
 }
 
-// SlotPair makes the pair of a relation match from its "head" and "dep"
-// slots (token spans [start, end) in the sentence). A slot spanning several
+// SlotPair makes the pair of a relation match from its "node" and
+// "collocate" slots (token spans [start, end) in the sentence). A slot spanning several
 // tokens stands for its last token, the head of an English noun phrase. It
 // reports false when either slot is missing or empty.
 func SlotPair(relation string, toks []doc.Token, slots map[string][2]int, by By) (Pair, bool) {
-	h, okh := slots["head"]
-	d, okd := slots["dep"]
+	h, okh := slots[NodeSlot]
+	d, okd := slots[CollocateSlot]
 	if !okh || !okd || h[1] <= h[0] || d[1] <= d[0] || h[1] > len(toks) || d[1] > len(toks) {
 		return Pair{}, false
 	}
 	hi, di := h[1]-1, d[1]-1
 	hw, dw := by.Key(&toks[hi]), by.Key(&toks[di])
 	if di < hi {
-		return Pair{Relation: relation, W1: dw, W2: hw, HeadIsW2: true}, true
+		return Pair{Relation: relation, W1: dw, W2: hw, NodeIsW2: true}, true
 	}
-	return Pair{Relation: relation, W1: hw, W2: dw, HeadIsW2: false}, true
+	return Pair{Relation: relation, W1: hw, W2: dw, NodeIsW2: false}, true
 }
 
 // WindowRelation is the relation name of window co-occurrence pairs.
@@ -74,8 +74,8 @@ func ContentWord(t *doc.Token) bool {
 
 // WindowPairs calls emit for every pair of kept tokens at most n tokens
 // apart within the sentence (positions i < j ≤ i+n, counted over all tokens
-// so that punctuation still takes room). W1 is the earlier token; the head
-// is taken to be W1, the node word a profile is asked about.
+// so that punctuation still takes room). W1 is the earlier token; a window
+// pair has no node of its own (a profile asks for either word).
 func WindowPairs(toks []doc.Token, n int, by By, keep func(*doc.Token) bool, emit func(Pair)) {
 	if keep == nil {
 		keep = ContentWord
@@ -93,3 +93,11 @@ func WindowPairs(toks []doc.Token, n int, by By, keep func(*doc.Token) bool, emi
 		}
 	}
 }
+
+// The labels a relation rule gives its two words: the word studied (the
+// node) and the word found with it (the collocate), the terms of corpus
+// linguistics. A rule that `collocations` counts must set both.
+const (
+	NodeSlot      = "node"
+	CollocateSlot = "collocate"
+)

@@ -10,7 +10,7 @@ import (
 type Row struct {
 	Relation string
 	W1, W2   string
-	Head     string // the word in the relation's @head slot (W1 or W2; empty for window pairs)
+	Node     string // the word in the relation's @node slot (W1 or W2; empty for window pairs)
 	F12      int64
 	F1, F2   int64
 	N        int64
@@ -27,7 +27,7 @@ type RankOptions struct {
 	Measure   measure.Measure // sort key, descending
 	MinFreq   int64           // pairs seen fewer times are left out (default 1)
 	Relations []string        // keep only these relations (empty: all)
-	Head      string          // keep only pairs whose @head word is this, or for window pairs either word (empty: all)
+	Node      string          // keep only pairs whose @node word is this, or for window pairs either word (empty: all)
 	Limit     int             // at most this many rows (0: all)
 }
 
@@ -55,16 +55,16 @@ func (c *Counter) Rank(opt RankOptions) []Row {
 				F1: r.first[k.w1], F2: r.second[k.w2], N: r.n}
 			switch {
 			case name == WindowRelation:
-				// Window pairs have no head: a profile asks for either word.
-				if opt.Head != "" && row.W1 != opt.Head && row.W2 != opt.Head {
+				// Window pairs have no node: a profile asks for either word.
+				if opt.Node != "" && row.W1 != opt.Node && row.W2 != opt.Node {
 					continue
 				}
-			case r.heads[k]:
-				row.Head = row.W2
+			case r.nodeW2[k]:
+				row.Node = row.W2
 			default:
-				row.Head = row.W1
+				row.Node = row.W1
 			}
-			if opt.Head != "" && name != WindowRelation && row.Head != opt.Head {
+			if opt.Node != "" && name != WindowRelation && row.Node != opt.Node {
 				continue
 			}
 			row.Scores = row.Table().Scores()

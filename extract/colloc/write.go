@@ -13,12 +13,12 @@ import (
 // Formats lists the output formats of a collocation list.
 var Formats = []string{"text", "tsv", "csv", "jsonl"}
 
-var header = []string{"w1", "w2", "relation", "head", "f12", "f1", "f2", "n", "g2", "pmi", "t", "chi2", "dice", "logdice", "mi3"}
+var header = []string{"w1", "w2", "relation", "node", "f12", "f1", "f2", "n", "g2", "pmi", "t", "chi2", "dice", "logdice", "mi3"}
 
 func (r Row) cells() []string {
 	s := r.Scores
 	f := func(x float64) string { return strconv.FormatFloat(x, 'f', 4, 64) }
-	return []string{r.W1, r.W2, r.Relation, r.Head,
+	return []string{r.W1, r.W2, r.Relation, r.Node,
 		strconv.FormatInt(r.F12, 10), strconv.FormatInt(r.F1, 10), strconv.FormatInt(r.F2, 10), strconv.FormatInt(r.N, 10),
 		f(s.G2), f(s.PMI), f(s.T), f(s.Chi2), f(s.Dice), f(s.LogDice), f(s.MI3)}
 }
@@ -27,7 +27,7 @@ type jsonRow struct {
 	W1       string  `json:"w1"`
 	W2       string  `json:"w2"`
 	Relation string  `json:"relation"`
-	Head     string  `json:"head,omitempty"`
+	Node     string  `json:"node,omitempty"`
 	F12      int64   `json:"f12"`
 	F1       int64   `json:"f1"`
 	F2       int64   `json:"f2"`
@@ -69,7 +69,7 @@ func WriteOptions(w io.Writer, format string, rows []Row, sortedBy string, bom b
 		enc := tabular.NewJSONL(bw)
 		for _, r := range rows {
 			s := r.Scores
-			if err := enc.Encode(jsonRow{r.W1, r.W2, r.Relation, r.Head, r.F12, r.F1, r.F2, r.N,
+			if err := enc.Encode(jsonRow{r.W1, r.W2, r.Relation, r.Node, r.F12, r.F1, r.F2, r.N,
 				s.G2, s.PMI, s.T, s.Chi2, s.Dice, s.LogDice, s.MI3}); err != nil {
 				return err
 			}
