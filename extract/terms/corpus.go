@@ -6,10 +6,8 @@ import (
 	"sort"
 	"strings"
 	"sync"
-	"unsafe"
 
 	"glossmith/extract/termstat"
-	"glossmith/internal/prefetch"
 )
 
 // Reference gives general-language word frequencies: by default those of
@@ -170,13 +168,9 @@ func (c *Corpus) Add(dc *DocCounts) {
 		c.words.add(w.word, w.n)
 	}
 	c.words.total += dc.Tokens
-	var found [addBatch]*group
 	for xi := range dc.cands {
 		x := &dc.cands[xi]
-		if xi%addBatch == 0 {
-			c.lookUp(&found, dc.cands[xi:min(xi+addBatch, len(dc.cands))])
-		}
-		g := found[xi%addBatch]
+		g := c.groups[x.key]
 		if g == nil {
 			g = c.newGroup(dc, x, di)
 		} else {
@@ -199,32 +193,6 @@ func (c *Corpus) Add(dc *DocCounts) {
 	clear(c.texts[:min(len(c.texts), len(dc.contexts))])
 	c.checkBudget(dc)
 }
-
-// addBatch is the number of candidates whose groups Add looks up before
-// merging any of them.
-const addBatch = 16
-
-// lookUp finds the groups of the candidates xs (at most addBatch; nil for
-// a candidate new to the corpus) and prefetches each group's first lines,
-// so that the processor waits for the batch's cache misses together,
-// where merging each candidate right after its look-up waited for them one
-// after the other. The keys of one document's candidates differ, so no
-// group of the batch is made in between.
-func (c *Corpus) lookUp(found *[addBatch]*group, xs []docCand) {
-	var at prefetch.List
-	for i := range xs {
-		g := c.groups[xs[i].key]
-		found[i] = g
-		if g != nil {
-			at.AddBytes(unsafe.Pointer(g), groupHead)
-		}
-	}
-	at.Start()
-}
-
-// groupHead is the part of a group the merge reads first: its fields up
-// to its slices' first elements.
-const groupHead = int(unsafe.Offsetof(group{}.first))
 
 // newGroup adds the group of a candidate new to the corpus, with its
 // counts in document di. Its key, spellings and canonical forms are
