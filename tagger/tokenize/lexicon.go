@@ -44,7 +44,8 @@ var abbrevShapes = func() (f shapeFilter) {
 
 // extraAbbrevs supplement the learned list with abbreviations common in
 // technical and business English that the treebank happens to lack or has
-// only in another case (common practice; the list is written from memory).
+// only in another case (abbreviations in common use in English technical
+// and business writing, chosen by hand).
 // None of them is taken to end a sentence before a capital, so words that
 // often end one after a number ("5 min.", "10 sec.") are left out.
 var extraAbbrevs = []string{
