@@ -4,7 +4,6 @@ go 1.26.0
 
 require (
 	github.com/alecthomas/participle/v2 v2.1.4
-	github.com/mattn/go-isatty v0.0.24
 	github.com/schollz/progressbar/v3 v3.19.1
 	github.com/spf13/cobra v1.10.2
 	github.com/stretchr/testify v1.12.1

@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"runtime/debug"
 	"strconv"
@@ -36,9 +37,20 @@ func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
 	fl.BoolVarP(&f.quiet, "quiet", "q", false, "print no notes or progress on standard error (warnings and errors still)")
 	f.memory = defaultMemory
 	fl.Var(&f.memory, "memory", "memory to stay within, e.g. 512MiB or 2GiB: count tables get half and drop their rarest entries when full")
+	completeChoices(cmd, "from", read.Formats())
 	if tagging {
 		fl.StringVar(&f.model, "model", "", "tagging model file (default: the embedded English model)")
 	}
+}
+
+// validate checks the reading flags before any input is read.
+func (f *inputFlags) validate(cmd *cobra.Command) error {
+	if f.from != "" {
+		if err := checkChoice("from", f.from, read.Formats()); err != nil {
+			return err
+		}
+	}
+	return checkWorkers(cmd, f.workers)
 }
 
 // problemPrinter writes input problems to standard error as
@@ -134,28 +146,37 @@ func (m *memorySize) Set(s string) error {
 		}
 	}
 	v, err := strconv.ParseFloat(strings.TrimSpace(t), 64)
-	if err != nil || v*mult < 16<<20 {
-		return fmt.Errorf("want a size of at least 16MiB, such as 512MiB or 2GiB")
+	if err != nil || math.IsNaN(v) || v*mult < minMemory || v*mult > maxMemory {
+		return fmt.Errorf("want a size from 16MiB to 64TiB, such as 512MiB or 2GiB")
 	}
 	*m = memorySize(v * mult)
 	return nil
 }
+
+// The bounds of --memory: below 16 MiB the model and one document do not
+// fit; above 64 TiB the number is a typing error, not a machine (and
+// infinity is refused with it).
+const (
+	minMemory = 16 << 20
+	maxMemory = 64 << 40
+)
 
 // tableBudget is the share of --memory given to a command's count tables:
 // the rest is for the model, the documents in flight and the garbage
 // collector's headroom.
 func (f *inputFlags) tableBudget() int64 { return int64(f.memory) / 2 }
 
-// notePruned tells the user, unless --quiet, that the memory budget made a
-// count table drop its rarest entries.
-func (f *inputFlags) notePruned(what string, n int, maxFreq int64) {
-	if n == 0 || f.quiet {
+// warnPruned tells the user that the memory budget made a count table
+// drop its rarest entries: the counts are approximate, so this is a
+// warning that --quiet does not hide.
+func (f *inputFlags) warnPruned(what string, n int, maxFreq int64) {
+	if n == 0 {
 		return
 	}
 	seen := fmt.Sprintf("at most %d times", maxFreq)
 	if maxFreq == 1 {
 		seen = "once"
 	}
-	fmt.Fprintf(os.Stderr, "note: memory budget: dropped %d %s seen %s; counts of %s met again later may be low by up to %d (--memory %s; raise it to keep them)\n",
+	fmt.Fprintf(os.Stderr, "warning: memory budget: dropped %d %s seen %s; counts of %s met again later may be low by up to %d (--memory %s; raise it to keep them)\n",
 		n, what, seen, what, maxFreq, f.memory.String())
 }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/xml"
 	"flag"
 	"fmt"
@@ -10,6 +11,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/golden")
@@ -44,7 +46,21 @@ type result struct {
 // run runs glossmith from the repository root with the given arguments.
 func run(t *testing.T, stdin string, args ...string) result {
 	t.Helper()
-	cmd := exec.Command(binary, args...)
+	r, finished := runBounded(t, stdin, 10*time.Minute, args...)
+	if !finished {
+		t.Fatalf("glossmith %v did not finish", args)
+	}
+	return r
+}
+
+// runBounded runs glossmith with stdin and kills it after limit (a bound
+// that only catches a hang, not a timing); it reports whether the command
+// finished by itself.
+func runBounded(t *testing.T, stdin string, limit time.Duration, args ...string) (result, bool) {
+	t.Helper()
+	ctx, cancel := context.WithTimeout(context.Background(), limit)
+	defer cancel()
+	cmd := exec.CommandContext(ctx, binary, args...)
 	cmd.Dir = "../.."
 	cmd.Stdin = strings.NewReader(stdin)
 	var o, e bytes.Buffer
@@ -56,7 +72,7 @@ func run(t *testing.T, stdin string, args ...string) result {
 	} else if err != nil {
 		t.Fatalf("running glossmith %v: %v", args, err)
 	}
-	return result{o.String(), e.String(), code}
+	return result{o.String(), e.String(), code}, ctx.Err() == nil
 }
 
 func TestVersionAndHelp(t *testing.T) {

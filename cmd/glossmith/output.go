@@ -1,51 +1,47 @@
 package main
 
 import (
-	"fmt"
 	"io"
 	"os"
-	"path/filepath"
+
+	"glossmith/internal/atomicfile"
 )
 
 // output is where a command writes its result: standard output, or a file
-// that appears only when complete. A file output is written to a temporary
-// file in the same directory and renamed over the target on success, so an
-// interrupted or failed run never leaves a half-written file behind.
+// written whole or not at all (package atomicfile: a temporary file renamed
+// over the target; devices written through; read-only files refused).
 type output struct {
 	io.Writer
-	path string
-	tmp  *os.File
+	file *atomicfile.File // nil for standard output
 }
 
+// openOutput opens path ("" or "-": standard output) for writing.
 func openOutput(path string) (*output, error) {
 	if path == "" || path == "-" {
 		return &output{Writer: os.Stdout}, nil
 	}
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
+	f, err := atomicfile.Create(path)
 	if err != nil {
-		return nil, fmt.Errorf("cannot write %s: %w", path, err)
+		return nil, err
 	}
-	_ = tmp.Chmod(0o644) // a finished list is an ordinary file, not a secret
-	return &output{Writer: tmp, path: path, tmp: tmp}, nil
+	return &output{Writer: f, file: f}, nil
 }
 
-// commit finishes the output: on success the temporary file replaces the
-// target; on failure (err != nil) it is removed and err is returned.
+// commit finishes the output: on success (err == nil) the file replaces
+// the target; otherwise it is discarded and err returned.
 func (o *output) commit(err error) error {
-	if o.tmp == nil {
+	if o.file == nil {
 		return err
 	}
-	name := o.tmp.Name()
-	if cerr := o.tmp.Close(); err == nil && cerr != nil {
-		err = cerr
-	}
-	if err != nil {
-		os.Remove(name)
-		return err
-	}
-	if err := os.Rename(name, o.path); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("cannot write %s: %w", o.path, err)
-	}
-	return nil
+	return o.file.Finish(err)
 }
+
+// abort discards a file output; the target stays as it was.
+func (o *output) abort() {
+	if o.file != nil {
+		o.file.Abort()
+	}
+}
+
+// toTerminal reports whether the output is standard output on a terminal.
+func (o *output) toTerminal() bool { return o.file == nil && isTerminal(os.Stdout) }

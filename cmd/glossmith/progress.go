@@ -6,7 +6,6 @@ import (
 	"strings"
 	"time"
 
-	"github.com/mattn/go-isatty"
 	"github.com/schollz/progressbar/v3"
 	"golang.org/x/term"
 
@@ -29,10 +28,7 @@ type progress struct {
 	width int // terminal columns
 }
 
-func stderrIsTerminal() bool {
-	fd := os.Stderr.Fd()
-	return isatty.IsTerminal(fd) || isatty.IsCygwinTerminal(fd)
-}
+func stderrIsTerminal() bool { return isTerminal(os.Stderr) }
 
 func newProgress(quiet bool) *progress {
 	p := &progress{start: time.Now()}

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bufio"
 	"errors"
 	"fmt"
 	"io"
@@ -40,34 +41,45 @@ and tagged with the real tokenizer and tagger and matched against its rule.
 The exit status is 1 when anything failed. "stock:NAME" checks a built-in set.`,
 		Example: `  glossmith rules check myrules.gsr
   glossmith rules check stock:terms stock:pairs`,
-		Args: cobra.MinimumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			m, err := loadModel(model)
-			if err != nil {
-				return err
+			if len(args) == 0 {
+				return usageError("name the rule file(s) to check, or stock:NAME")
 			}
-			failed := 0
-			for _, arg := range args {
-				rs, err := loadRuleArg(arg)
-				if err != nil {
-					failed += printGrammarErrors(os.Stderr, err)
-					continue
-				}
-				n, fails := pattern.CheckExamples(rs, analyzer(m))
-				for _, e := range fails {
-					printGrammarError(os.Stderr, e)
-				}
-				failed += len(fails)
-				fmt.Printf("%s: %d rule(s), %d example(s), %d failed\n", arg, len(rs.Rules), n, len(fails))
-			}
-			if failed > 0 {
-				return exitError{1, fmt.Sprintf("%d problem(s)", failed)}
-			}
-			return nil
+			return runRulesCheck(model, args)
 		},
+		ValidArgsFunction: completeRuleArgs,
 	}
 	cmd.Flags().StringVar(&model, "model", "", "tagging model for the examples (default: the embedded model)")
 	return cmd
+}
+
+func runRulesCheck(model string, args []string) error {
+	m, err := loadModel(model)
+	if err != nil {
+		return err
+	}
+	w := bufio.NewWriter(os.Stdout)
+	failed := 0
+	for _, arg := range args {
+		rs, err := loadRuleArg(arg)
+		if err != nil {
+			failed += printGrammarErrors(os.Stderr, err)
+			continue
+		}
+		n, fails := pattern.CheckExamples(rs, analyzer(m))
+		for _, e := range fails {
+			printGrammarError(os.Stderr, e)
+		}
+		failed += len(fails)
+		fmt.Fprintf(w, "%s: %d rule(s), %d example(s), %d failed\n", arg, len(rs.Rules), n, len(fails))
+	}
+	if err := w.Flush(); err != nil {
+		return exitError{1, fmt.Sprintf("writing the report: %v", err)}
+	}
+	if failed > 0 {
+		return exitError{1, fmt.Sprintf("%d problem(s)", failed)}
+	}
+	return nil
 }
 
 func newRulesListCmd() *cobra.Command {
@@ -76,38 +88,60 @@ func newRulesListCmd() *cobra.Command {
 		Short: "List rules with their documentation comments",
 		Long:  `Lists the rules of rule files, or of every built-in set when no file is named.`,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if len(args) == 0 {
-				for _, n := range grammar.StockNames() {
-					args = append(args, "stock:"+n)
-				}
-			}
-			bad := 0
-			for _, arg := range args {
-				rs, err := loadRuleArg(arg)
-				if err != nil {
-					bad += printGrammarErrors(os.Stderr, err)
-					continue
-				}
-				fmt.Printf("%s\n", arg)
-				for _, r := range rs.Rules {
-					if strings.HasPrefix(r.Name, "_") {
-						continue // helpers, not meant to be run on their own
-					}
-					fmt.Printf("  %s    (%s)\n", r.Name, r.Pos)
-					for _, line := range strings.Split(strings.TrimSpace(r.Doc), "\n") {
-						if line != "" {
-							fmt.Printf("      %s\n", line)
-						}
-					}
-				}
-			}
-			if bad > 0 {
-				return exitError{1, ""}
-			}
-			return nil
+			return runRulesList(args)
 		},
+		ValidArgsFunction: completeRuleArgs,
 	}
 	return cmd
+}
+
+func runRulesList(args []string) error {
+	if len(args) == 0 {
+		args = stockArgs()
+	}
+	w := bufio.NewWriter(os.Stdout)
+	bad := 0
+	for _, arg := range args {
+		rs, err := loadRuleArg(arg)
+		if err != nil {
+			bad += printGrammarErrors(os.Stderr, err)
+			continue
+		}
+		fmt.Fprintf(w, "%s\n", arg)
+		for _, r := range rs.Rules {
+			if strings.HasPrefix(r.Name, "_") {
+				continue // helpers, not meant to be run on their own
+			}
+			fmt.Fprintf(w, "  %s    (%s)\n", r.Name, r.Pos)
+			for _, line := range strings.Split(strings.TrimSpace(r.Doc), "\n") {
+				if line != "" {
+					fmt.Fprintf(w, "      %s\n", line)
+				}
+			}
+		}
+	}
+	if err := w.Flush(); err != nil {
+		return exitError{1, fmt.Sprintf("writing the list: %v", err)}
+	}
+	if bad > 0 {
+		return exitError{1, ""}
+	}
+	return nil
+}
+
+// stockArgs names every built-in rule set as "stock:NAME".
+func stockArgs() []string {
+	var args []string
+	for _, n := range grammar.StockNames() {
+		args = append(args, "stock:"+n)
+	}
+	return args
+}
+
+// completeRuleArgs completes rule-file arguments: the stock sets, and
+// files.
+func completeRuleArgs(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+	return stockArgs(), cobra.ShellCompDirectiveDefault
 }
 
 // loadRuleArg loads a rule file, or a built-in set written "stock:NAME".

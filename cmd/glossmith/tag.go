@@ -1,7 +1,6 @@
 package main
 
 import (
-	"os"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -10,12 +9,16 @@ import (
 	"glossmith/tagger/emit"
 )
 
+// tagOptions are the flags of the tag command.
+type tagOptions struct {
+	in      inputFlags
+	to      string
+	tagset  string
+	outPath string
+}
+
 func newTagCmd() *cobra.Command {
-	var (
-		in     inputFlags
-		to     string
-		tagset string
-	)
+	o := &tagOptions{}
 	cmd := &cobra.Command{
 		Use:   "tag [flags] INPUT...",
 		Short: "Tokenize, sentence-split and tag documents",
@@ -30,34 +33,77 @@ Output formats (--to):
   text    one sentence per line as word/TAG pairs (--tagset xpos|upos)`,
 		Example: `  glossmith tag --to conllu testdata/demo
   glossmith tag --to text --tagset upos manual.md
-  glossmith tag --from conllu --to tsv annotated.conllu`,
+  glossmith tag --from conllu --to tsv annotated.conllu
+  glossmith tag -o corpus.conllu manuals/`,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			w, err := emit.New(to, os.Stdout, emit.Options{Tagset: tagset})
-			if err != nil {
+			if err := o.validate(cmd, args); err != nil {
 				return err
 			}
-			tagger, err := loadTagger(in.model)
-			if err != nil {
-				return err
-			}
-			var werr error
-			in.reuseTokens = true // each document is written out before the next
-			_, runErr := runDocs(&in, args, tagger, nil, func(d *doc.Document, _ struct{}) {
-				if werr == nil {
-					werr = w.Write(d)
-				}
-			})
-			if err := w.Flush(); err != nil && werr == nil {
-				werr = err
-			}
-			if werr != nil {
-				return werr
-			}
-			return runErr
+			return o.run(args)
 		},
 	}
-	in.register(cmd, true)
-	cmd.Flags().StringVar(&to, "to", "conllu", "output format: "+strings.Join(emit.Formats, ", "))
-	cmd.Flags().StringVar(&tagset, "tagset", "xpos", "tag shown by --to text: xpos or upos")
+	o.register(cmd)
 	return cmd
+}
+
+// tagsets are the values of tag --tagset.
+var tagsets = []string{"xpos", "upos"}
+
+func (o *tagOptions) register(cmd *cobra.Command) {
+	o.in.register(cmd, true)
+	fl := cmd.Flags()
+	fl.StringVar(&o.to, "to", "conllu", "output format: "+strings.Join(emit.Formats, ", ")+" (default: from the -o extension, else conllu)")
+	fl.StringVar(&o.tagset, "tagset", "xpos", "tag shown by --to text: "+strings.Join(tagsets, " or "))
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	completeChoices(cmd, "to", emit.Formats)
+	completeChoices(cmd, "tagset", tagsets)
+}
+
+// validate checks every flag value before any input is read.
+func (o *tagOptions) validate(cmd *cobra.Command, args []string) error {
+	if err := o.in.validate(cmd); err != nil {
+		return err
+	}
+	to, err := outputFormat(cmd, o.to, o.outPath, emit.Formats)
+	if err != nil {
+		return err
+	}
+	o.to = to
+	if err := checkChoice("tagset", o.tagset, tagsets); err != nil {
+		return err
+	}
+	return needInputs(args)
+}
+
+func (o *tagOptions) run(args []string) error {
+	tagger, err := loadTagger(o.in.model)
+	if err != nil {
+		return err
+	}
+	out, err := openOutput(o.outPath)
+	if err != nil {
+		return err
+	}
+	defer out.abort()
+	w, err := emit.New(o.to, out, emit.Options{Tagset: o.tagset})
+	if err != nil {
+		return err
+	}
+	var werr error
+	o.in.reuseTokens = true // each document is written out before the next
+	st, runErr := runDocs(&o.in, args, tagger, nil, func(d *doc.Document, _ struct{}) {
+		if werr == nil {
+			werr = w.Write(d)
+		}
+	})
+	if err := w.Flush(); err != nil && werr == nil {
+		werr = err
+	}
+	if werr == nil && st.Documents == 0 {
+		return runErr // nothing read: an existing output file is kept
+	}
+	if err := out.commit(werr); err != nil {
+		return err
+	}
+	return runErr
 }

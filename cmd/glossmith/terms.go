@@ -24,6 +24,7 @@ type ruleFlags struct {
 func (r *ruleFlags) register(cmd *cobra.Command, what string) {
 	cmd.Flags().StringArrayVar(&r.files, "rules", nil, "rule file (.gsr) to use instead of the stock "+what+" rules (repeatable)")
 	cmd.Flags().StringArrayVar(&r.names, "rule", nil, "use only this rule of the set (repeatable)")
+	completeRuleFiles(cmd)
 }
 
 // load returns the rule set: the user's files, or the named stock set.
@@ -51,23 +52,26 @@ type modelReference struct{ m *hmm.Model }
 func (r modelReference) Freq(w string) int { return r.m.RefLemmaFreq(w) }
 func (r modelReference) Size() int         { return r.m.RefSize() }
 
+// termsOptions are the flags of the terms command.
+type termsOptions struct {
+	in        inputFlags
+	rules     ruleFlags
+	reference []string
+	to        string
+	outPath   string
+	sortKey   string
+	minFreq   int
+	maxWords  int
+	contexts  int
+	stopFiles []string
+	include   string
+	exclude   string
+	all       bool
+	limit     int
+}
+
 func newTermsCmd() *cobra.Command {
-	var (
-		in        inputFlags
-		rules     ruleFlags
-		reference []string
-		to        string
-		outPath   string
-		sortKey   string
-		minFreq   int
-		maxWords  int
-		contexts  int
-		stopFiles []string
-		include   string
-		exclude   string
-		all       bool
-		limit     int
-	)
+	o := &termsOptions{}
 	cmd := &cobra.Command{
 		Use:   "terms [flags] INPUT...",
 		Short: "Rank term candidates with their variants, counts, measures and contexts",
@@ -92,80 +96,128 @@ every candidate. The list is a set of candidates for expert review, not a
 validated terminology.`,
 		Example: `  glossmith terms testdata/demo
   glossmith terms --contexts 2 --limit 30 manuals/
-  glossmith terms --to tbx -o glossary.tbx manuals/*.docx
+  glossmith terms -o glossary.tbx manuals/*.docx
   glossmith terms --reference general-texts/ --sort keyness specs/`,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			rs, m, err := rules.matcher("terms")
-			if err != nil {
+			if err := o.validate(cmd, args); err != nil {
 				return err
 			}
-			model, err := loadModel(in.model)
-			if err != nil {
-				return err
-			}
-			opt := terms.Options{MaxWords: maxWords, Contexts: contexts}
-			if opt.Stop, err = readStopLists(stopFiles); err != nil {
-				return err
-			}
-			if opt.Keep, err = spanFilter(include, exclude, rs); err != nil {
-				return err
-			}
-			// Collect and Add copy what they keep of a document.
-			in.reuseTokens = true
-			var ref terms.Reference = modelReference{model}
-			if len(reference) > 0 {
-				counts := &terms.Counts{}
-				if _, err := runDocs(&in, reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() }); err != nil {
-					return fmt.Errorf("reference: %w", err)
-				}
-				ref = counts
-			}
-			if !cmd.Flags().Changed("contexts") && to == "text" {
-				contexts = 0
-			}
-			keep := max(contexts, 3)
-			col := terms.NewCollector(m, opt)
-			corpus := terms.NewCorpus(keep)
-			corpus.SetBudget(in.tableBudget())
-			_, runErr := runDocs(&in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
-			if p := corpus.Pruned(); p.Candidates > 0 {
-				in.notePruned("candidates", p.Candidates, int64(p.MaxFreq))
-			}
-			if corpus.Documents() == 0 {
-				return runErr
-			}
-			ranked, err := terms.Rank(corpus.Terms(ref), terms.RankOptions{MinFreq: minFreq, Sort: sortKey, All: all, Limit: limit})
-			if err != nil {
-				return err
-			}
-			out, err := openOutput(outPath)
-			if err != nil {
-				return err
-			}
-			src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
-			err = out.commit(terms.Write(out, to, ranked, terms.WriteOptions{Contexts: contexts, Source: src}))
-			if err != nil {
-				return err
-			}
-			return runErr
+			return o.run(args)
 		},
 	}
-	in.register(cmd, true)
-	rules.register(cmd, "terms")
-	fl := cmd.Flags()
-	fl.StringArrayVar(&reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
-	fl.StringVar(&to, "to", "text", "output format: "+strings.Join(terms.Formats, ", "))
-	fl.StringVarP(&outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
-	fl.StringVar(&sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
-	fl.IntVar(&minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
-	fl.IntVar(&maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
-	fl.IntVar(&contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
-	fl.StringArrayVar(&stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")
-	fl.StringVar(&include, "include", "", "keep only candidates that the pattern matches whole")
-	fl.StringVar(&exclude, "exclude", "", "leave out candidates that the pattern matches whole")
-	fl.BoolVar(&all, "all", false, "list every candidate, not only those above the score cut-off")
-	fl.IntVar(&limit, "limit", 0, "print at most this many terms")
+	o.register(cmd)
 	return cmd
+}
+
+func (o *termsOptions) register(cmd *cobra.Command) {
+	o.in.register(cmd, true)
+	o.rules.register(cmd, "terms")
+	fl := cmd.Flags()
+	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
+	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(terms.Formats, ", ")+" (default: from the -o extension, else text)")
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
+	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
+	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
+	fl.IntVar(&o.contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
+	fl.StringArrayVar(&o.stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")
+	fl.StringVar(&o.include, "include", "", "keep only candidates that the pattern matches whole")
+	fl.StringVar(&o.exclude, "exclude", "", "leave out candidates that the pattern matches whole")
+	fl.BoolVar(&o.all, "all", false, "list every candidate, not only those above the score cut-off")
+	fl.IntVar(&o.limit, "limit", 0, "print at most this many terms (0: no limit)")
+	completeChoices(cmd, "to", terms.Formats)
+	completeChoices(cmd, "sort", terms.SortKeys)
+}
+
+// validate checks every flag value before any input is read.
+func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
+	if err := o.in.validate(cmd); err != nil {
+		return err
+	}
+	to, err := outputFormat(cmd, o.to, o.outPath, terms.Formats)
+	if err != nil {
+		return err
+	}
+	o.to = to
+	if err := checkChoice("sort", o.sortKey, terms.SortKeys); err != nil {
+		return err
+	}
+	for _, c := range []struct {
+		flag   string
+		v      int
+		lo, hi int64
+	}{
+		{"min-freq", o.minFreq, 1, -1},
+		{"max-words", o.maxWords, 1, maxWordsLimit},
+		{"contexts", o.contexts, 0, maxContexts},
+		{"limit", o.limit, 0, -1},
+	} {
+		if err := checkRange(c.flag, int64(c.v), c.lo, c.hi); err != nil {
+			return err
+		}
+	}
+	if !cmd.Flags().Changed("contexts") && o.to == "text" {
+		o.contexts = 0
+	}
+	return needInputs(args)
+}
+
+// Bounds of terms' numeric flags: a candidate of more than 32 words is a
+// sentence, and contexts beyond 100 per term are a document.
+const (
+	maxWordsLimit = 32
+	maxContexts   = 100
+)
+
+func (o *termsOptions) run(args []string) error {
+	rs, m, err := o.rules.matcher("terms")
+	if err != nil {
+		return err
+	}
+	model, err := loadModel(o.in.model)
+	if err != nil {
+		return err
+	}
+	opt := terms.Options{MaxWords: o.maxWords, Contexts: o.contexts}
+	if opt.Stop, err = readStopLists(o.stopFiles); err != nil {
+		return err
+	}
+	if opt.Keep, err = spanFilter(o.include, o.exclude, rs); err != nil {
+		return err
+	}
+	// Collect and Add copy what they keep of a document.
+	o.in.reuseTokens = true
+	var ref terms.Reference = modelReference{model}
+	if len(o.reference) > 0 {
+		counts := &terms.Counts{}
+		if _, err := runDocs(&o.in, o.reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() }); err != nil {
+			return fmt.Errorf("reference: %w", err)
+		}
+		ref = counts
+	}
+	col := terms.NewCollector(m, opt)
+	corpus := terms.NewCorpus(max(o.contexts, 3))
+	corpus.SetBudget(o.in.tableBudget())
+	_, runErr := runDocs(&o.in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
+	if p := corpus.Pruned(); p.Candidates > 0 {
+		o.in.warnPruned("candidates", p.Candidates, int64(p.MaxFreq))
+	}
+	if corpus.Documents() == 0 {
+		return runErr // nothing read: an existing output file is kept
+	}
+	ranked, err := terms.Rank(corpus.Terms(ref), terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit})
+	if err != nil {
+		return err
+	}
+	out, err := openOutput(o.outPath)
+	if err != nil {
+		return err
+	}
+	src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
+	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src})); err != nil {
+		return err
+	}
+	return runErr
 }
 
 // readStopLists reads stop-word files: one word or phrase per line, "#"

@@ -13,15 +13,21 @@ import (
 	"glossmith/tagger/hmm"
 )
 
+// trainOptions are the flags of the train command.
+type trainOptions struct {
+	method string
+	from   string
+	out    string
+	dev    string
+	epochs int
+	quiet  bool
+}
+
+// trainMethods are the values of train --method.
+var trainMethods = []string{"perceptron", "hmm"}
+
 func newTrainCmd() *cobra.Command {
-	var (
-		method string
-		from   string
-		out    string
-		dev    string
-		epochs int
-		quiet  bool
-	)
+	o := &trainOptions{}
 	cmd := &cobra.Command{
 		Use:   "train [flags] FILE... -o MODEL",
 		Short: "Train a tagging model from annotated CoNLL-U",
@@ -38,66 +44,91 @@ Methods:
 With --dev the accuracy on that file is printed after each epoch.`,
 		Example: `  glossmith train -o en-ewt.glsm --dev en_ewt-ud-dev.conllu en_ewt-ud-train.conllu
   glossmith train --method hmm -o quick.glsm my-annotated/*.conllu`,
-		Args: cobra.MinimumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if out == "" {
-				return fmt.Errorf("name the model file with -o MODEL")
-			}
-			if from != "" && from != "conllu" {
-				return fmt.Errorf("--from %q: training reads CoNLL-U only", from)
-			}
-			sents, bad, err := readConllu(args)
-			if err != nil {
+			if err := o.validate(args); err != nil {
 				return err
 			}
-			opt := hmm.TrainOptions{Method: method, Epochs: epochs, Source: strings.Join(baseNames(args), ", ")}
-			if dev != "" {
-				d, b, err := readConllu([]string{dev})
-				if err != nil {
-					return err
-				}
-				bad += b
-				opt.Dev = d
-			}
-			start := time.Now()
-			opt.Progress = func(epoch int, u, x float64) {
-				if quiet {
-					return
-				}
-				if opt.Dev != nil {
-					fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%%, XPOS %.2f%% (%s)\n", epoch, u, x, time.Since(start).Round(time.Second))
-				} else {
-					fmt.Fprintf(os.Stderr, "epoch %d done (%s)\n", epoch, time.Since(start).Round(time.Second))
-				}
-			}
-			if !quiet {
-				fmt.Fprintf(os.Stderr, "training %s on %d sentences\n", method, len(sents))
-			}
-			m, err := hmm.Train(sents, opt)
-			if err != nil {
-				return err
-			}
-			o, err := openOutput(out)
-			if err != nil {
-				return err
-			}
-			if err := o.commit(m.Save(o)); err != nil {
-				return err
-			}
-			if bad > 0 {
-				return exitError{1, fmt.Sprintf("%d malformed sentence(s) left out of training", bad)}
-			}
-			return nil
+			return o.run(args)
 		},
 	}
 	fl := cmd.Flags()
-	fl.StringVar(&method, "method", "perceptron", "training method: perceptron or hmm")
-	fl.StringVar(&from, "from", "conllu", "input format (CoNLL-U only)")
-	fl.StringVarP(&out, "output", "o", "", "model file to write")
-	fl.StringVar(&dev, "dev", "", "CoNLL-U file to report accuracy on after each epoch")
-	fl.IntVar(&epochs, "epochs", 0, "perceptron epochs (default: the method's default)")
-	fl.BoolVarP(&quiet, "quiet", "q", false, "print no progress")
+	fl.StringVar(&o.method, "method", "perceptron", "training method: "+strings.Join(trainMethods, " or "))
+	fl.StringVar(&o.from, "from", "conllu", "input format (CoNLL-U only)")
+	fl.StringVarP(&o.out, "output", "o", "", "model file to write")
+	fl.StringVar(&o.dev, "dev", "", "CoNLL-U file to report accuracy on after each epoch")
+	fl.IntVar(&o.epochs, "epochs", 0, "perceptron epochs (default: the method's default)")
+	fl.BoolVarP(&o.quiet, "quiet", "q", false, "print no progress")
+	completeChoices(cmd, "method", trainMethods)
+	completeChoices(cmd, "from", []string{"conllu"})
 	return cmd
+}
+
+// maxEpochs bounds --epochs: the perceptron settles within a few dozen.
+const maxEpochs = 1000
+
+// validate checks every flag value before any input is read.
+func (o *trainOptions) validate(args []string) error {
+	if err := checkChoice("method", o.method, trainMethods); err != nil {
+		return err
+	}
+	if err := checkChoice("from", o.from, []string{"conllu"}); err != nil {
+		return err
+	}
+	if err := checkRange("epochs", int64(o.epochs), 0, maxEpochs); err != nil {
+		return err
+	}
+	if o.out == "" {
+		return usageError("name the model file with -o MODEL")
+	}
+	if len(args) == 0 {
+		return usageError("name the annotated CoNLL-U file(s) to train on")
+	}
+	return nil
+}
+
+func (o *trainOptions) run(args []string) error {
+	sents, bad, err := readConllu(args)
+	if err != nil {
+		return err
+	}
+	opt := hmm.TrainOptions{Method: o.method, Epochs: o.epochs, Source: strings.Join(baseNames(args), ", ")}
+	if o.dev != "" {
+		d, b, err := readConllu([]string{o.dev})
+		if err != nil {
+			return err
+		}
+		bad += b
+		opt.Dev = d
+	}
+	start := time.Now()
+	opt.Progress = func(epoch int, u, x float64) {
+		if o.quiet {
+			return
+		}
+		if opt.Dev != nil {
+			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%%, XPOS %.2f%% (%s)\n", epoch, u, x, time.Since(start).Round(time.Second))
+		} else {
+			fmt.Fprintf(os.Stderr, "epoch %d done (%s)\n", epoch, time.Since(start).Round(time.Second))
+		}
+	}
+	if !o.quiet {
+		fmt.Fprintf(os.Stderr, "training %s on %d sentences\n", o.method, len(sents))
+	}
+	m, err := hmm.Train(sents, opt)
+	if err != nil {
+		return err
+	}
+	out, err := openOutput(o.out)
+	if err != nil {
+		return err
+	}
+	if err := out.commit(m.Save(out)); err != nil {
+		return err
+	}
+	if bad > 0 {
+		return exitError{1, fmt.Sprintf("%d malformed sentence(s) left out of training", bad)}
+	}
+	return nil
 }
 
 // readConllu reads CoNLL-U files, reporting malformed sentences (which are
