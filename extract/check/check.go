@@ -1,0 +1,128 @@
+package check
+
+import (
+	"cmp"
+	"slices"
+	"strings"
+
+	"glossmith/extract/terms"
+	"glossmith/pattern"
+	"glossmith/tagger/doc"
+)
+
+// Options select what Check looks for.
+type Options struct {
+	// Glossary is the compiled glossary; nil checks no terms.
+	Glossary *Matcher
+	// Candidates, when set, are the rules (normally the stock "terms"
+	// set) whose matches are grouped into variants as the terms command
+	// groups them, for the mixed-spelling report (see Mixed).
+	Candidates *pattern.Matcher
+}
+
+// DocResult is what one document contributes: its glossary findings in
+// text order and, when asked, the spellings of its variant groups.
+type DocResult struct {
+	Name     string
+	Findings []Finding
+	// Suppressed counts the findings left out as code, addresses or
+	// silenced lines.
+	Suppressed int
+	spellings  []docSpelling
+}
+
+// docSpelling is one spelling of a variant group in a document.
+type docSpelling struct {
+	key, spelling string // group key; spelling as first written, case folded for comparison
+	n             int
+	first         Finding // where it is first used (File, positions, Text)
+}
+
+// Check checks one annotated document. src is its source file as read
+// from disk (nil when there is none, as for standard input), from which
+// Markdown columns, inline code and skip comments are worked out. It is
+// safe to call on several documents at once.
+func Check(d *doc.Document, src []byte, opt Options) *DocResult {
+	res := &DocResult{Name: d.Name}
+	l := newLayout(d, src)
+	if opt.Glossary != nil {
+		sc := &scanner{m: opt.Glossary}
+		var spans []span
+		for si := range d.Sentences {
+			toks := d.Sentences[si].Tokens
+			spans = sc.find(spans[:0], toks)
+			for _, sp := range spans {
+				f := opt.Glossary.classify(d, toks, sp)
+				if f == nil {
+					continue
+				}
+				f.File = d.Name
+				l.span(f)
+				if l.suppressed(f) {
+					res.Suppressed++
+					continue
+				}
+				res.Findings = append(res.Findings, *f)
+			}
+		}
+	}
+	if opt.Candidates != nil {
+		res.spellings = spellings(d, l, opt.Candidates)
+	}
+	return res
+}
+
+// suppressed reports whether a finding is in code, in a URL, e-mail
+// address or file path, or on a silenced line.
+func (l *layout) suppressed(f *Finding) bool {
+	return l.skip[f.Line] || l.inCode(f) || inAddress(l.d.Text, f.Start, f.End)
+}
+
+// spellings collects the spellings of the document's variant groups: how
+// often each is used outside code, addresses and silenced lines, and where
+// first.
+func spellings(d *doc.Document, l *layout, rules *pattern.Matcher) []docSpelling {
+	type use struct {
+		key, spelling string
+		start, end    int32
+	}
+	var uses []use
+	c := terms.NewCollector(rules, terms.Options{Keep: func(toks []doc.Token) bool {
+		key, spelling := terms.SpellingOf(toks)
+		if key != "" {
+			uses = append(uses, use{key, spelling, toks[0].Start, toks[len(toks)-1].End})
+		}
+		return false // counted here, not by the collector
+	}})
+	c.Collect(d).Release()
+	var out []docSpelling
+	index := map[string]int{}
+	for _, u := range uses {
+		f := Finding{File: d.Name, Start: int(u.start), End: int(u.end), Text: foldSpace(d.Text[u.start:u.end])}
+		l.span(&f)
+		if l.suppressed(&f) {
+			continue
+		}
+		k := u.key + "\x00" + strings.ToLower(u.spelling)
+		if at, ok := index[k]; ok {
+			out[at].n++
+			continue
+		}
+		index[k] = len(out)
+		out = append(out, docSpelling{key: u.key, spelling: u.spelling, n: 1, first: f})
+	}
+	return out
+}
+
+// sortFindings orders findings by line, column and kind.
+func sortFindings(fs []Finding) {
+	slices.SortStableFunc(fs, func(a, b Finding) int {
+		if c := cmp.Compare(a.Line, b.Line); c != 0 {
+			return c
+		}
+		if c := cmp.Compare(a.Column, b.Column); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.Kind, b.Kind)
+	})
+}

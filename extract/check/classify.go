@@ -1,0 +1,129 @@
+package check
+
+import (
+	"strings"
+
+	"glossmith/tagger/doc"
+)
+
+// classify decides what a span whose key is a form's key is: nil when it
+// is an allowed term as written (its preferred or an admitted form, or an
+// inflection of one), else the finding, without its position.
+//
+// Among the entries whose forms share the key, in glossary order: a span
+// written as an allowed form of any of them is fine; else one written as a
+// deprecated or forbidden form is that (an error); else, when an entry has
+// an allowed form under the key, the span is another spelling of it (a
+// warning: hyphen, space, closed, case of a case-sensitive form); else it
+// is a spelling of a deprecated term (an error). An entry whose part of
+// speech the head word's tag contradicts is passed over.
+func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding {
+	head := &toks[sp.j-1]
+	surface := foldSpace(d.Text[toks[sp.i].Start:head.End])
+	lemmas := lemmaSurface(toks[sp.i:sp.j])
+	var bad, spell, worse *formRef
+	caseOnly := false
+	for k := range sp.ends {
+		r := &sp.ends[k]
+		f := &m.g.Entries[r.entry].Forms[r.form]
+		if !posFits(f.POS, head.UPOS) {
+			continue
+		}
+		want := foldSpace(f.Text)
+		exact := same(surface, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive)
+		switch {
+		case exact && f.Status.allowed():
+			return nil
+		case exact:
+			if bad == nil {
+				bad = r
+			}
+		case f.Status.allowed():
+			if spell == nil {
+				spell = r
+				caseOnly = f.CaseSensitive && (strings.EqualFold(surface, want) || strings.EqualFold(lemmas, want))
+			}
+		default:
+			if worse == nil {
+				worse = r
+			}
+		}
+	}
+	var r *formRef
+	kind := KindDeprecated
+	switch {
+	case bad != nil:
+		r = bad
+	case spell != nil:
+		r, kind = spell, KindSpelling
+	case worse != nil:
+		r = worse
+	default:
+		return nil
+	}
+	e := &m.g.Entries[r.entry]
+	f := &e.Forms[r.form]
+	preferred := e.Preferred()
+	if caseOnly && kind == KindSpelling {
+		preferred = f.Text
+	}
+	return &Finding{
+		Text:      surface,
+		Kind:      kind,
+		Preferred: preferred,
+		Entry:     e.ID,
+		Message:   message(kind, f.Status, surface, preferred, caseOnly && kind == KindSpelling),
+		Start:     int(toks[sp.i].Start),
+		End:       int(head.End),
+	}
+}
+
+// same compares a text with a form, in case or not.
+func same(text, form string, caseSensitive bool) bool {
+	if caseSensitive {
+		return text == form
+	}
+	return strings.EqualFold(text, form)
+}
+
+// lemmaSurface writes tokens as they stand but with each word replaced by
+// its lemma, kept in the case the word was written in where the lemma is a
+// prefix of it ("PLCs" → "PLC", "magnet valves" → "magnet valve").
+func lemmaSurface(toks []doc.Token) string {
+	var b strings.Builder
+	for k := range toks {
+		t := &toks[k]
+		if k > 0 && !glued(&toks[k-1], t) {
+			b.WriteByte(' ')
+		}
+		w := t.Form
+		if l := t.Lemma; l != "" && l != w {
+			if len(l) <= len(w) && strings.EqualFold(w[:len(l)], l) {
+				w = w[:len(l)]
+			} else {
+				w = l
+			}
+		}
+		if isHyphen(w) {
+			w = "-"
+		}
+		b.WriteString(w)
+	}
+	return b.String()
+}
+
+// posFits reports whether a head word tagged upos can be the head of a term
+// of the glossary's part of speech pos. Only a function word contradicts a
+// noun, verb, adjective or adverb: the tagger takes a rare noun for a verb
+// or an adjective often enough ("both magnet valves" came out VERB) that
+// content-word tags cannot veto, and an untagged word fits anything.
+func posFits(pos, upos string) bool {
+	if pos == "" || upos == "" {
+		return true
+	}
+	switch strings.ToLower(pos) {
+	case "noun", "n", "propn", "proper noun", "propernoun", "verb", "v", "adjective", "adj", "a", "adverb", "adv":
+		return !strings.Contains(" ADP DET PRON CCONJ SCONJ PART INTJ ", " "+upos+" ")
+	}
+	return true
+}

@@ -1,0 +1,452 @@
+package check
+
+import (
+	"bytes"
+	"compress/gzip"
+	"io"
+	"sort"
+	"strings"
+	"unicode/utf8"
+
+	"golang.org/x/net/html"
+
+	"glossmith/tagger/doc"
+)
+
+// SkipMarker, anywhere in a line, silences the findings of the next line
+// that has text. In Markdown and HTML it goes in a comment,
+// "<!-- glossmith:skip-next-line -->" (the readers drop comments, so the
+// check looks for it in the source); in plain text and DOCX it is a line
+// of its own.
+const SkipMarker = "glossmith:skip-next-line"
+
+// layout turns byte offsets of a document's plain text into the lines and
+// columns of its original file, and knows which parts of the text are not
+// prose to check: code, silenced lines.
+//
+// Lines: the readers keep a Markdown or plain text file's lines, so a
+// text line is the file's line; for HTML, DOCX and PDF a line is a line of
+// the extracted text (as every glossmith command reports it). Columns: in
+// Markdown the reader deletes markup within a line ("**set point**" is
+// "set point"), so each text line is aligned with its source line, the
+// text's characters found in order in the source outside tags and link
+// targets; elsewhere a column counts the characters of the text line.
+type layout struct {
+	d         *doc.Document
+	lineStart []int         // byte offset in the text of each line's start
+	src       []string      // source lines (Markdown, plain text), or nil
+	cols      map[int][]int // text line → source column (0-based) of each of its runes
+	srcCode   map[int][][2]int
+	code      [][2]int     // byte ranges of the text that are code (HTML)
+	skip      map[int]bool // silenced text lines
+}
+
+// newLayout reads what the check needs of a document's source file, src
+// (nil when there is none to read, as for standard input: columns then
+// count the text's characters).
+func newLayout(d *doc.Document, src []byte) *layout {
+	l := &layout{d: d, lineStart: []int{0}, skip: map[int]bool{}}
+	for i := 0; i < len(d.Text); i++ {
+		if d.Text[i] == '\n' {
+			l.lineStart = append(l.lineStart, i+1)
+		}
+	}
+	src = decodeSource(src)
+	switch d.Format {
+	case "md", "txt":
+		if src != nil {
+			l.src = strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n")
+			for i, s := range l.src {
+				l.src[i] = strings.TrimSuffix(s, "\r")
+			}
+			if len(l.src) < len(l.lineStart) {
+				l.src = nil // not the file the text came from
+			}
+		}
+	case "html":
+		if src != nil {
+			l.htmlMarks(src)
+		}
+	}
+	l.markSkips(func(n int) string { return l.textLine(n) }, len(l.lineStart))
+	if l.src != nil {
+		l.markSkips(func(n int) string { return l.src[n-1] }, len(l.src))
+	}
+	return l
+}
+
+// decodeSource returns a source file's bytes as text: gunzipped, without a
+// UTF-8 byte order mark; nil when it is not UTF-8 (the columns then come
+// from the text).
+func decodeSource(src []byte) []byte {
+	if len(src) > 2 && src[0] == 0x1f && src[1] == 0x8b {
+		zr, err := gzip.NewReader(bytes.NewReader(src))
+		if err != nil {
+			return nil
+		}
+		src, err = io.ReadAll(io.LimitReader(zr, 256<<20))
+		if err != nil {
+			return nil
+		}
+	}
+	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
+	if !utf8.Valid(src) {
+		return nil
+	}
+	return src
+}
+
+// textLine returns text line n (1-based) without its newline.
+func (l *layout) textLine(n int) string {
+	from := l.lineStart[n-1]
+	to := len(l.d.Text)
+	if n < len(l.lineStart) {
+		to = l.lineStart[n] - 1
+	}
+	return l.d.Text[from:to]
+}
+
+// markSkips silences the line after each line holding SkipMarker: the next
+// one with text.
+func (l *layout) markSkips(line func(n int) string, lines int) {
+	for n := 1; n <= lines; n++ {
+		if !strings.Contains(line(n), SkipMarker) {
+			continue
+		}
+		for m := n + 1; m <= lines; m++ {
+			if strings.TrimSpace(strings.ReplaceAll(line(m), "\u2029", "")) != "" {
+				l.skip[m] = true
+				break
+			}
+		}
+	}
+}
+
+// position returns the 1-based line and column of byte offset off of the
+// text.
+func (l *layout) position(off int) (line, col int) {
+	line = sort.Search(len(l.lineStart), func(i int) bool { return l.lineStart[i] > off })
+	r := utf8.RuneCountInString(l.d.Text[l.lineStart[line-1]:off])
+	if m := l.columns(line); m != nil && r < len(m) {
+		return line, m[r] + 1
+	}
+	return line, r + 1
+}
+
+// span returns the finding's start and end (just past its last character).
+func (l *layout) span(f *Finding) {
+	f.Line, f.Column = l.position(f.Start)
+	_, last := utf8.DecodeLastRuneInString(l.d.Text[:f.End])
+	f.EndLine, f.EndColumn = l.position(f.End - last)
+	f.EndColumn++
+}
+
+// columns returns the source column of each rune of text line n, or nil
+// when columns count the text.
+func (l *layout) columns(n int) []int {
+	if l.src == nil || l.textLine(n) == l.src[n-1] {
+		return nil
+	}
+	if m, ok := l.cols[n]; ok {
+		return m
+	}
+	if l.cols == nil {
+		l.cols = map[int][]int{}
+	}
+	m := align(l.textLine(n), l.src[n-1])
+	l.cols[n] = m
+	return m
+}
+
+// align finds the runes of text in order in src and returns, for each rune
+// of text, its rune index in src. Markup is skipped: HTML tags and the
+// targets of links cannot hold text; an entity (&amp;) stands for the
+// character it decodes to; U+2029, which the Markdown reader puts at the
+// start of a block, has no source character and takes the position of the
+// next one. A rune not found keeps the position reached.
+func align(text, src string) []int {
+	s := []rune(src)
+	hidden := markupMask(s)
+	out := make([]int, 0, len(text))
+	j := 0
+	for _, t := range text {
+		if t == '\u2029' {
+			out = append(out, j)
+			continue
+		}
+		found, next := -1, j
+		for x := j; x < len(s); x++ {
+			if hidden[x] {
+				continue
+			}
+			if s[x] == t {
+				found, next = x, x+1
+				break
+			}
+			if s[x] == '&' {
+				if n, r := entityAt(s[x:]); n > 0 && r == t {
+					found, next = x, x+n
+					break
+				}
+			}
+			if s[x] == '\\' && x+1 < len(s) && s[x+1] == t {
+				found, next = x+1, x+2
+				break
+			}
+		}
+		if found < 0 {
+			out = append(out, j)
+			continue
+		}
+		out = append(out, found)
+		j = next
+	}
+	return out
+}
+
+// entityAt returns the length in runes of the character reference at the
+// start of s and the rune it stands for, or 0.
+func entityAt(s []rune) (int, rune) {
+	for n := 2; n < len(s) && n < 34; n++ {
+		if s[n] == ';' {
+			d := []rune(html.UnescapeString(string(s[:n+1])))
+			if len(d) == 1 && d[0] != '&' {
+				return n + 1, d[0]
+			}
+			return 0, 0
+		}
+	}
+	return 0, 0
+}
+
+// markupMask marks the runes of a Markdown source line that are markup no
+// text comes from: HTML tags (not autolinks, whose URL is shown) and the
+// destinations of inline links "](...)".
+func markupMask(s []rune) []bool {
+	hidden := make([]bool, len(s))
+	for x := 0; x < len(s); x++ {
+		switch {
+		case s[x] == '<' && x+1 < len(s) && (isASCIILetter(s[x+1]) || s[x+1] == '/' || s[x+1] == '!'):
+			end := x + 1
+			for end < len(s) && s[end] != '>' {
+				end++
+			}
+			if end == len(s) {
+				continue
+			}
+			inner := string(s[x+1 : end])
+			if strings.Contains(inner, "://") || strings.HasPrefix(inner, "mailto:") || strings.Contains(inner, "@") && !strings.Contains(inner, " ") {
+				continue // an autolink: its text is shown
+			}
+			for k := x; k <= end; k++ {
+				hidden[k] = true
+			}
+			x = end
+		case s[x] == ']' && x+1 < len(s) && s[x+1] == '(':
+			depth, end := 0, x+1
+			for ; end < len(s); end++ {
+				if s[end] == '(' {
+					depth++
+				} else if s[end] == ')' {
+					depth--
+					if depth == 0 {
+						break
+					}
+				}
+			}
+			for k := x + 1; k < len(s) && k <= end; k++ {
+				hidden[k] = true
+			}
+			x = end
+		}
+	}
+	return hidden
+}
+
+func isASCIILetter(r rune) bool { return 'a' <= r && r <= 'z' || 'A' <= r && r <= 'Z' }
+
+// inCode reports whether any character of the finding is code: in an
+// inline code span of a Markdown line ("`setpoint`", <code>, <kbd>,
+// <samp>), or in an HTML code element (code, pre, kbd, samp, tt, var).
+// (Fenced and indented code blocks never reach the text.)
+func (l *layout) inCode(f *Finding) bool {
+	for _, c := range l.code {
+		if f.Start < c[1] && c[0] < f.End {
+			return true
+		}
+	}
+	if l.src == nil || l.d.Format != "md" {
+		return false
+	}
+	for line := f.Line; line <= f.EndLine; line++ {
+		ranges, ok := l.srcCode[line]
+		if !ok {
+			ranges = codeSpans([]rune(l.src[line-1]))
+			if l.srcCode == nil {
+				l.srcCode = map[int][][2]int{}
+			}
+			l.srcCode[line] = ranges
+		}
+		from, to := 1, 1<<30
+		if line == f.Line {
+			from = f.Column
+		}
+		if line == f.EndLine {
+			to = f.EndColumn
+		}
+		for _, c := range ranges {
+			// c holds 0-based rune indexes [c0, c1); columns are 1-based.
+			if from-1 < c[1] && c[0] < to-1 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// codeSpans returns the rune ranges of a Markdown line that are code: the
+// insides of backtick code spans (a run of n backticks closed by the next
+// run of exactly n) and of inline <code>, <kbd>, <samp> and <tt> elements.
+func codeSpans(s []rune) [][2]int {
+	var out [][2]int
+	for x := 0; x < len(s); {
+		if s[x] != '`' || x > 0 && s[x-1] == '\\' {
+			x++
+			continue
+		}
+		n := 0
+		for x+n < len(s) && s[x+n] == '`' {
+			n++
+		}
+		closed := false
+		for y := x + n; y < len(s); {
+			if s[y] != '`' {
+				y++
+				continue
+			}
+			m := 0
+			for y+m < len(s) && s[y+m] == '`' {
+				m++
+			}
+			if m == n {
+				out = append(out, [2]int{x + n, y})
+				x, closed = y+n, true
+				break
+			}
+			y += m
+		}
+		if !closed {
+			x += n
+		}
+	}
+	line := strings.ToLower(string(s))
+	for _, tag := range []string{"code", "kbd", "samp", "tt"} {
+		for from := 0; ; {
+			i := strings.Index(line[from:], "<"+tag+">")
+			if i < 0 {
+				break
+			}
+			open := from + i + len(tag) + 2
+			j := strings.Index(line[open:], "</"+tag+">")
+			if j < 0 {
+				break
+			}
+			out = append(out, [2]int{utf8.RuneCountInString(line[:open]), utf8.RuneCountInString(line[:open+j])})
+			from = open + j
+		}
+	}
+	return out
+}
+
+// htmlMarks finds, in an HTML source, the text of code elements and the
+// text that follows a skip comment, and locates them in the document's
+// text, which holds the page's visible text in the same order: each text
+// node is looked for from where the previous one was found.
+func (l *layout) htmlMarks(src []byte) {
+	z := html.NewTokenizer(bytes.NewReader(src))
+	text := l.d.Text
+	cursor, hiddenDepth, codeDepth, skipNext := 0, 0, 0, false
+	for {
+		tt := z.Next()
+		switch tt {
+		case html.ErrorToken:
+			return
+		case html.CommentToken:
+			if strings.Contains(string(z.Text()), SkipMarker) {
+				skipNext = true
+			}
+		case html.StartTagToken, html.EndTagToken:
+			name, _ := z.TagName()
+			tag := string(name)
+			d := 1
+			if tt == html.EndTagToken {
+				d = -1
+			}
+			switch {
+			case htmlHidden[tag]:
+				hiddenDepth = max(hiddenDepth+d, 0)
+			case htmlCode[tag]:
+				codeDepth = max(codeDepth+d, 0)
+			}
+		case html.TextToken:
+			if hiddenDepth > 0 {
+				continue
+			}
+			words := strings.Fields(string(z.Text()))
+			if len(words) == 0 {
+				continue
+			}
+			from, to, ok := findWords(text, cursor, words)
+			if !ok {
+				continue
+			}
+			cursor = to
+			if codeDepth > 0 {
+				l.code = append(l.code, [2]int{from, to})
+			}
+			if skipNext {
+				line := sort.Search(len(l.lineStart), func(i int) bool { return l.lineStart[i] > from })
+				l.skip[line] = true
+				skipNext = false
+			}
+		}
+	}
+}
+
+// htmlHidden are the elements whose text the HTML reader drops.
+var htmlHidden = map[string]bool{"head": true, "title": true, "script": true, "style": true, "noscript": true,
+	"template": true, "svg": true, "math": true, "iframe": true, "object": true, "select": true,
+	"textarea": true, "canvas": true, "audio": true, "video": true}
+
+// htmlCode are the elements whose text is code, not prose.
+var htmlCode = map[string]bool{"code": true, "pre": true, "kbd": true, "samp": true, "tt": true, "var": true}
+
+// findWords looks for words, in order with only white space between them,
+// in text from byte offset from; it returns the byte range they cover.
+func findWords(text string, from int, words []string) (start, end int, ok bool) {
+	for from < len(text) {
+		i := strings.Index(text[from:], words[0])
+		if i < 0 {
+			return 0, 0, false
+		}
+		start = from + i
+		end = start + len(words[0])
+		ok = true
+		for _, w := range words[1:] {
+			k := end
+			for k < len(text) && (text[k] == ' ' || text[k] == '\t' || text[k] == '\n') {
+				k++
+			}
+			if !strings.HasPrefix(text[k:], w) {
+				ok = false
+				break
+			}
+			end = k + len(w)
+		}
+		if ok {
+			return start, end, true
+		}
+		from = start + 1
+	}
+	return 0, 0, false
+}

@@ -1,0 +1,265 @@
+package check
+
+import (
+	"cmp"
+	"slices"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/tagger/doc"
+)
+
+// Matcher is a compiled glossary: one automaton over every form of every
+// entry, so that a document is read once however many entries there are.
+//
+// The automaton is a trie over the forms' keys: a form lower-cased with
+// its spaces and hyphens removed ("Set-point", "set point" and "setpoint"
+// all have the key "setpoint"). A text is walked token by token from each
+// word, feeding the trie either the token's form or its lemma (keyed the
+// same way; glued hyphens between words are skipped), so one walk finds
+// the spaced, hyphenated, closed and inflected spellings of a form
+// ("set points", "set-point", "setpoints" → "setpoint"). Where a walk ends
+// on a form's key at a token boundary, the forms there are compared with
+// the text as written to tell the preferred spelling from the others.
+type Matcher struct {
+	g    Glossary
+	root [256]int32 // child of the root by byte; 0 = none (the root is node 0)
+	// Node n's children are the edges lo[n]:lo[n+1] of edgeByte/edgeTo,
+	// sorted by byte.
+	lo       []int32
+	edgeByte []byte
+	edgeTo   []int32
+	final    []int32     // node → 1 + index into ends; 0 when no form ends there
+	ends     [][]formRef // forms whose key ends at a node
+}
+
+// formRef names one form of the glossary.
+type formRef struct{ entry, form int32 }
+
+// Compile builds the matcher of a glossary. Forms whose key is empty (no
+// letters) are left out.
+func Compile(g Glossary) *Matcher {
+	type edge struct {
+		from int32
+		b    byte
+	}
+	edges := map[edge]int32{}
+	next := int32(1)
+	finals := map[int32][]formRef{}
+	var key []byte
+	for ei := range g.Entries {
+		for fi, f := range g.Entries[ei].Forms {
+			key = appendKey(key[:0], f.Text)
+			if len(key) == 0 {
+				continue
+			}
+			n := int32(0)
+			for _, b := range key {
+				e := edge{n, b}
+				c, ok := edges[e]
+				if !ok {
+					c = next
+					next++
+					edges[e] = c
+				}
+				n = c
+			}
+			finals[n] = append(finals[n], formRef{int32(ei), int32(fi)})
+		}
+	}
+	m := &Matcher{g: g, lo: make([]int32, next+1), final: make([]int32, next)}
+	all := make([]edge, 0, len(edges))
+	for e := range edges {
+		all = append(all, e)
+	}
+	slices.SortFunc(all, func(a, b edge) int {
+		if c := cmp.Compare(a.from, b.from); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.b, b.b)
+	})
+	m.edgeByte = make([]byte, len(all))
+	m.edgeTo = make([]int32, len(all))
+	for i, e := range all {
+		m.edgeByte[i], m.edgeTo[i] = e.b, edges[e]
+		m.lo[e.from+1] = int32(i + 1)
+		if e.from == 0 {
+			m.root[e.b] = edges[e]
+		}
+	}
+	// lo[n+1] holds the end of node n's edges where it has any; carry the
+	// ends forward over nodes without children.
+	for n := 1; n < len(m.lo); n++ {
+		m.lo[n] = max(m.lo[n], m.lo[n-1])
+	}
+	nodes := make([]int32, 0, len(finals))
+	for n := range finals {
+		nodes = append(nodes, n)
+	}
+	slices.Sort(nodes)
+	for _, n := range nodes {
+		m.ends = append(m.ends, finals[n])
+		m.final[n] = int32(len(m.ends))
+	}
+	return m
+}
+
+// Glossary returns the glossary the matcher was compiled from.
+func (m *Matcher) Glossary() *Glossary { return &m.g }
+
+// child returns node n's child by byte b, or -1.
+func (m *Matcher) child(n int32, b byte) int32 {
+	if n == 0 {
+		if c := m.root[b]; c != 0 {
+			return c
+		}
+		return -1
+	}
+	lo, hi := m.lo[n], m.lo[n+1]
+	for ; lo < hi; lo++ {
+		switch eb := m.edgeByte[lo]; {
+		case eb == b:
+			return m.edgeTo[lo]
+		case eb > b:
+			return -1
+		}
+	}
+	return -1
+}
+
+// walk feeds s, keyed as appendKey keys it, to the trie from node n and
+// returns the node reached, or -1.
+func (m *Matcher) walk(n int32, s string, scratch *[]byte) int32 {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= utf8.RuneSelf {
+			*scratch = appendKey((*scratch)[:0], s[i:])
+			for _, b := range *scratch {
+				if n = m.child(n, b); n < 0 {
+					return -1
+				}
+			}
+			return n
+		}
+		if c == '-' || c == ' ' {
+			continue
+		}
+		if 'A' <= c && c <= 'Z' {
+			c += 'a' - 'A'
+		}
+		if n = m.child(n, c); n < 0 {
+			return -1
+		}
+	}
+	return n
+}
+
+// appendKey appends the key of s: lower-cased, without white space and
+// hyphens (ASCII, U+2010, U+2011 and the soft hyphen).
+func appendKey(dst []byte, s string) []byte {
+	for _, r := range s {
+		switch {
+		case r == '-' || r == '\u2010' || r == '\u2011' || r == '\u00ad' || unicode.IsSpace(r):
+			continue
+		case r < utf8.RuneSelf:
+			if 'A' <= r && r <= 'Z' {
+				r += 'a' - 'A'
+			}
+			dst = append(dst, byte(r))
+		default:
+			dst = utf8.AppendRune(dst, unicode.ToLower(r))
+		}
+	}
+	return dst
+}
+
+func isHyphen(s string) bool { return s == "-" || s == "‐" || s == "‑" }
+
+// hyphenEdge reports whether a token starts or ends with a hyphen: a dash,
+// a command-line option ("--setpoint"), a prefix ("pre-").
+func hyphenEdge(s string) bool {
+	return s != "" && (s[0] == '-' || s[len(s)-1] == '-' ||
+		strings.HasPrefix(s, "‐") || strings.HasPrefix(s, "‑") || strings.HasSuffix(s, "‐") || strings.HasSuffix(s, "‑"))
+}
+
+func glued(a, b *doc.Token) bool { return !a.SpaceAfter && a.End == b.Start }
+
+// span is a stretch of a sentence's tokens [i, j) whose key is that of the
+// forms in ends.
+type span struct {
+	i, j int
+	ends []formRef
+}
+
+// scanner holds the working memory of scanning one sentence after another.
+type scanner struct {
+	m        *Matcher
+	states   []int32
+	next     []int32
+	scratch  []byte
+	terminal []int32
+}
+
+// find appends to out the leftmost-longest spans of toks whose key is the
+// key of some form; spans do not overlap and do not cut a hyphenated
+// compound ("valve" is not found in "magnet-valve").
+func (sc *scanner) find(out []span, toks []doc.Token) []span {
+	m := sc.m
+	for i := 0; i < len(toks); {
+		if hyphenEdge(toks[i].Form) || i > 0 && glued(&toks[i-1], &toks[i]) && isHyphen(toks[i-1].Form) {
+			i++
+			continue
+		}
+		bestJ := -1
+		sc.states = append(sc.states[:0], 0)
+		for k := i; k < len(toks) && len(sc.states) > 0; k++ {
+			t := &toks[k]
+			if k > i && k+1 < len(toks) && isHyphen(t.Form) && glued(&toks[k-1], t) && glued(t, &toks[k+1]) {
+				continue // the hyphen of "set-point": keys have none
+			}
+			if hyphenEdge(t.Form) {
+				break // "--", "--setpoint": options and dashes are not words
+			}
+			sc.next = sc.next[:0]
+			for _, s := range sc.states {
+				sc.next = addState(sc.next, m.walk(s, t.Form, &sc.scratch))
+				if t.Lemma != "" && t.Lemma != t.Form {
+					sc.next = addState(sc.next, m.walk(s, t.Lemma, &sc.scratch))
+				}
+			}
+			sc.states, sc.next = sc.next, sc.states
+			if k+1 < len(toks) && glued(t, &toks[k+1]) && isHyphen(toks[k+1].Form) {
+				continue // "set-point-based": no end inside a compound
+			}
+			terminal := sc.terminal[:0]
+			for _, s := range sc.states {
+				if m.final[s] != 0 {
+					terminal = append(terminal, s)
+				}
+			}
+			if len(terminal) > 0 {
+				bestJ, sc.terminal = k+1, terminal
+			}
+		}
+		if bestJ < 0 {
+			i++
+			continue
+		}
+		var ends []formRef
+		for _, s := range sc.terminal {
+			ends = append(ends, m.ends[m.final[s]-1]...)
+		}
+		out = append(out, span{i, bestJ, ends})
+		i = bestJ
+	}
+	return out
+}
+
+// addState appends n to states unless it is -1 or already there.
+func addState(states []int32, n int32) []int32 {
+	if n < 0 || slices.Contains(states, n) {
+		return states
+	}
+	return append(states, n)
+}

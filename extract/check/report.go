@@ -1,0 +1,146 @@
+package check
+
+import (
+	"cmp"
+	"fmt"
+	"slices"
+	"strings"
+)
+
+// Report gathers the documents' results in input order and, at the end,
+// works out the mixed spellings, which need every document.
+type Report struct {
+	glossary *Matcher
+	docs     []string
+	findings [][]Finding
+	groups   map[string]*mixedGroup
+	order    []*mixedGroup
+	// Suppressed counts the glossary findings left out (code, addresses,
+	// silenced lines).
+	Suppressed int
+}
+
+// mixedGroup is a variant group's spellings over the documents, in order
+// of first use.
+type mixedGroup struct {
+	key       string
+	spellings []*mixedSpelling
+}
+
+type mixedSpelling struct {
+	spelling, lower string
+	total           int
+	uses            []docUse // per document using it, in input order
+}
+
+// docUse is a spelling's count in one document and its first use there,
+// kept compact: a large corpus has one per candidate and document.
+type docUse struct {
+	doc, n                     int32
+	line, col, endLine, endCol int32
+	text                       string
+}
+
+// NewReport starts a report. g is the glossary the documents were checked
+// against (nil if none): variant groups whose key is a glossary term's are
+// left to the glossary findings.
+func NewReport(g *Matcher) *Report {
+	return &Report{glossary: g, groups: map[string]*mixedGroup{}}
+}
+
+// Add takes one document's result; call it in input order.
+func (r *Report) Add(res *DocResult) {
+	di := int32(len(r.docs))
+	r.docs = append(r.docs, res.Name)
+	sortFindings(res.Findings)
+	r.findings = append(r.findings, res.Findings)
+	r.Suppressed += res.Suppressed
+	for _, s := range res.spellings {
+		if r.glossary != nil && r.glossary.hasKey(s.key) {
+			continue
+		}
+		g := r.groups[s.key]
+		if g == nil {
+			g = &mixedGroup{key: strings.Clone(s.key)}
+			r.groups[g.key] = g
+			r.order = append(r.order, g)
+		}
+		lower := strings.ToLower(s.spelling)
+		var ms *mixedSpelling
+		for _, x := range g.spellings {
+			if x.lower == lower {
+				ms = x
+				break
+			}
+		}
+		if ms == nil {
+			ms = &mixedSpelling{spelling: strings.Clone(s.spelling), lower: strings.Clone(lower)}
+			g.spellings = append(g.spellings, ms)
+		}
+		ms.total += s.n
+		f := &s.first
+		ms.uses = append(ms.uses, docUse{doc: di, n: int32(s.n), line: int32(f.Line), col: int32(f.Column),
+			endLine: int32(f.EndLine), endCol: int32(f.EndColumn), text: strings.Clone(f.Text)})
+	}
+}
+
+// hasKey reports whether a form of the glossary has the key (as appendKey
+// makes it).
+func (m *Matcher) hasKey(key string) bool {
+	n := int32(0)
+	for i := 0; i < len(key) && n >= 0; i++ {
+		n = m.child(n, key[i])
+	}
+	return n >= 0 && m.final[n] != 0
+}
+
+// Findings returns every finding: per document in input order, the
+// glossary's and the mixed spellings', by position. A mixed finding is
+// made for each document and each spelling it uses that is not the
+// group's majority spelling over all documents, at its first use there;
+// its message gives the group's counts in that document and in all.
+func (r *Report) Findings() []Finding {
+	perDoc := make([][]Finding, len(r.docs))
+	for i := range r.findings {
+		perDoc[i] = slices.Clone(r.findings[i])
+	}
+	for _, g := range r.order {
+		if len(g.spellings) < 2 {
+			continue
+		}
+		byTotal := slices.Clone(g.spellings)
+		slices.SortStableFunc(byTotal, func(a, b *mixedSpelling) int { return cmp.Compare(b.total, a.total) })
+		major := byTotal[0]
+		docsUsing := map[int32]bool{}
+		var all []string
+		for _, s := range byTotal {
+			for _, u := range s.uses {
+				docsUsing[u.doc] = true
+			}
+			all = append(all, fmt.Sprintf("%s %d", s.spelling, s.total))
+		}
+		inAll := fmt.Sprintf("in %d document(s) %s", len(docsUsing), strings.Join(all, ", "))
+		here := map[int32][]string{}
+		for _, s := range byTotal {
+			for _, u := range s.uses {
+				here[u.doc] = append(here[u.doc], fmt.Sprintf("%s %d", s.spelling, u.n))
+			}
+		}
+		for _, s := range byTotal[1:] {
+			for _, u := range s.uses {
+				perDoc[u.doc] = append(perDoc[u.doc], Finding{
+					File: r.docs[u.doc], Line: int(u.line), Column: int(u.col), EndLine: int(u.endLine), EndColumn: int(u.endCol),
+					Text: u.text, Kind: KindMixed, Preferred: major.spelling, Entry: major.spelling,
+					Message: fmt.Sprintf("%q is one of %d spellings of a term: here %s; %s: use %q",
+						u.text, len(g.spellings), strings.Join(here[u.doc], ", "), inAll, major.spelling),
+				})
+			}
+		}
+	}
+	var out []Finding
+	for _, fs := range perDoc {
+		sortFindings(fs)
+		out = append(out, fs...)
+	}
+	return out
+}
