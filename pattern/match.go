@@ -3,6 +3,7 @@ package pattern
 import (
 	"math/bits"
 	"slices"
+	"sync"
 
 	"glossmith/tagger/doc"
 )
@@ -21,7 +22,7 @@ type Match struct {
 // independently, so matches of different rules may overlap. The result is
 // sorted by Start, then by rule order.
 func (m *Matcher) FindAll(tokens []doc.Token) []Match {
-	return m.find(tokens, false)
+	return m.find(tokens, false, 0)
 }
 
 // FindNested returns, for every rule, every span [Start,End) of the
@@ -30,7 +31,16 @@ func (m *Matcher) FindAll(tokens []doc.Token) []Match {
 // is sorted by Start, then End, then rule order. This is what term
 // extraction needs to see "steel valve" inside "steel valve body".
 func (m *Matcher) FindNested(tokens []doc.Token) []Match {
-	return m.find(tokens, true)
+	return m.find(tokens, true, 0)
+}
+
+// FindNestedWithin is FindNested without the spans longer than maxLen
+// tokens (maxLen <= 0: no limit). Those are never generated, so the cost
+// is at most the number of tokens times maxLen, where FindNested's grows
+// with the square of a long run of matching tokens (a sentence of 100,000
+// nouns has five billion nested spans).
+func (m *Matcher) FindNestedWithin(tokens []doc.Token, maxLen int) []Match {
+	return m.find(tokens, true, maxLen)
 }
 
 // AppendNested appends the matches FindNested returns to dst and returns
@@ -42,10 +52,34 @@ func (m *Matcher) AppendNested(dst []Match, tokens []doc.Token) []Match {
 	}
 	sc := m.pool.Get().(*scratch)
 	defer m.pool.Put(sc)
-	return m.match(sc, tokens, true, dst)
+	return m.match(sc, tokens, true, 0, dst, nil)
 }
 
-func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
+// EachNested calls fn with the matches FindNestedWithin(tokens, maxLen)
+// returns, in the same order, without collecting them: a start position's
+// matches are handed over before the next position is scanned, so memory
+// does not grow with the number of matches of a long sentence. fn may keep
+// the Match it is given.
+func (m *Matcher) EachNested(tokens []doc.Token, maxLen int, fn func(Match)) {
+	if len(tokens) == 0 {
+		return
+	}
+	sc := m.pool.Get().(*scratch)
+	defer m.pool.Put(sc)
+	bp, _ := eachBufs.Get().(*[]Match)
+	if bp == nil {
+		bp = new([]Match)
+	}
+	buf := m.match(sc, tokens, true, maxLen, (*bp)[:0], fn)
+	clear(buf[:cap(buf)]) // slots are maps, rule names a matcher's
+	*bp = buf[:0]
+	eachBufs.Put(bp)
+}
+
+// eachBufs holds EachNested's buffers for the matches of one position.
+var eachBufs sync.Pool
+
+func (m *Matcher) find(tokens []doc.Token, nested bool, maxLen int) []Match {
 	if len(tokens) == 0 {
 		return nil
 	}
@@ -57,7 +91,7 @@ func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 	if len(sc.slab) < slabSize/8 {
 		sc.slab = make([]Match, slabSize)
 	}
-	buf := m.match(sc, tokens, nested, sc.slab[:0])
+	buf := m.match(sc, tokens, nested, maxLen, sc.slab[:0], nil)
 	if len(buf) == 0 {
 		return nil
 	}
@@ -71,8 +105,10 @@ func (m *Matcher) find(tokens []doc.Token, nested bool) []Match {
 }
 
 // match appends the matches of one sentence to buf, in the order find
-// promises.
-func (m *Matcher) match(sc *scratch, tokens []doc.Token, nested bool, buf []Match) []Match {
+// promises; nested spans are at most maxLen tokens long (0: no limit).
+// With emit set, nested matches go to emit a start position at a time and
+// buf holds only those of the current position.
+func (m *Matcher) match(sc *scratch, tokens []doc.Token, nested bool, maxLen int, buf []Match, emit func(Match)) []Match {
 	sc.prepareSentence(tokens)
 	present := sc.present()
 	for gi, g := range m.groups {
@@ -92,26 +128,33 @@ func (m *Matcher) match(sc *scratch, tokens []doc.Token, nested bool, buf []Matc
 		}
 	}
 	start := len(buf)
-	buf = sc.matchAll(tokens, nested, buf)
-	// FindAll's matches come out sorted. FindNested's come out by start and
-	// rule; a stable sort by start and end puts them in order.
-	if out := buf[start:]; nested && len(m.progs) > 1 {
-		if len(out) > 32 {
-			slices.SortStableFunc(out, func(x, y Match) int {
-				if x.Start != y.Start {
-					return x.Start - y.Start
-				}
-				return x.End - y.End
-			})
-		} else {
-			for i := 1; i < len(out); i++ {
-				for j := i; j > 0 && nestedBefore(&out[j], &out[j-1]); j-- {
-					out[j], out[j-1] = out[j-1], out[j]
-				}
-			}
-		}
+	buf = sc.matchAll(tokens, nested, maxLen, buf, emit)
+	if emit == nil && nested {
+		m.sortNested(buf[start:])
 	}
 	return buf
+}
+
+// sortNested puts nested matches, which come out by start and rule, in
+// FindNested's order: a stable sort by start and end.
+func (m *Matcher) sortNested(out []Match) {
+	if len(m.progs) == 1 {
+		return
+	}
+	if len(out) > 32 {
+		slices.SortStableFunc(out, func(x, y Match) int {
+			if x.Start != y.Start {
+				return x.Start - y.Start
+			}
+			return x.End - y.End
+		})
+		return
+	}
+	for i := 1; i < len(out); i++ {
+		for j := i; j > 0 && nestedBefore(&out[j], &out[j-1]); j-- {
+			out[j], out[j-1] = out[j-1], out[j]
+		}
+	}
 }
 
 // slabSize is the number of matches allocated at once for results: the
@@ -172,7 +215,7 @@ func (sc *scratch) sweep(g *group, gs *groupState, n int) {
 // every match from i to out. It stops as soon as the forward state has
 // nothing in common with the reverse state at its position: no match can
 // be completed from there.
-func (sc *scratch) scan(k int, tokens []doc.Token, i int, nested bool, out []Match) (int, []Match) {
+func (sc *scratch) scan(k int, tokens []doc.Token, i int, nested bool, maxLen int, out []Match) (int, []Match) {
 	p, rs := sc.m.progs[k], sc.rules[k]
 	g, gs := sc.m.groups[p.group], sc.groups[p.group]
 	n := len(tokens)
@@ -184,7 +227,11 @@ func (sc *scratch) scan(k int, tokens []doc.Token, i int, nested bool, out []Mat
 		s = rs.startBegin
 	}
 	best := -1
-	for j := i; j < n; {
+	stop := n // no span ends beyond stop
+	if maxLen > 0 && i+maxLen < n {
+		stop = i + maxLen
+	}
+	for j := i; j < stop; {
 		fd := rs.fwd
 		if c := int(cls[j]); c < fd.stride && fd.trans[int(s)*fd.stride+c] != 0 {
 			s = fd.trans[int(s)*fd.stride+c] - 1
@@ -226,11 +273,16 @@ func (sc *scratch) scan(k int, tokens []doc.Token, i int, nested bool, out []Mat
 // matchAll finds the matches of every rule from the start masks of the
 // reverse states: position by position, rule by rule, so FindAll's result
 // comes out sorted by start and then rule order, and one rule's matches
-// never overlap.
-func (sc *scratch) matchAll(tokens []doc.Token, nested bool, out []Match) []Match {
+// never overlap. Nested spans are at most maxLen tokens (0: no limit);
+// with emit set, each position's nested matches are sorted, handed to
+// emit and dropped from out before the next position.
+func (sc *scratch) matchAll(tokens []doc.Token, nested bool, maxLen int, out []Match, emit func(Match)) []Match {
 	next := sc.nextFree
 	clear(next)
 	for i := range tokens {
+		if emit != nil {
+			out = sc.m.flushNested(out, emit)
+		}
 		for gi, g := range sc.m.groups {
 			possible := sc.possible[gi]
 			if possible == 0 {
@@ -247,7 +299,7 @@ func (sc *scratch) matchAll(tokens []doc.Token, nested bool, out []Match) []Matc
 					continue
 				}
 				var best int
-				best, out = sc.scan(k, tokens, i, nested, out)
+				best, out = sc.scan(k, tokens, i, nested, maxLen, out)
 				if best <= i || nested { // best <= i cannot happen: the reverse sweep promised a match
 					continue
 				}
@@ -260,7 +312,23 @@ func (sc *scratch) matchAll(tokens []doc.Token, nested bool, out []Match) []Matc
 			}
 		}
 	}
+	if emit != nil {
+		out = sc.m.flushNested(out, emit)
+	}
 	return out
+}
+
+// flushNested hands the nested matches of one start position to emit, in
+// order, and returns out emptied.
+func (m *Matcher) flushNested(out []Match, emit func(Match)) []Match {
+	if len(out) == 0 {
+		return out
+	}
+	m.sortNested(out)
+	for _, mt := range out {
+		emit(mt)
+	}
+	return out[:0]
 }
 
 func (sc *scratch) newMatch(p *prog, tokens []doc.Token, start, end int) Match {

@@ -28,17 +28,44 @@ type canonWriter struct {
 type wordSpan struct{ from, to int }
 
 // split divides a span into orthographic words, joining hyphenated parts
-// ("root", "-", "zone" is one word), and returns their number.
-func (cw *canonWriter) split(toks []doc.Token) int {
+// ("root", "-", "zone" is one word), and returns their number; it returns
+// 0 as soon as the span proves to have more than maxWords words or a word
+// of more than maxWordTokens tokens, so that its cost is bounded by the
+// limits, not by the span.
+func (cw *canonWriter) split(toks []doc.Token, maxWords int) int {
 	cw.words = cw.words[:0]
 	for k := range toks {
 		if len(cw.words) > 0 && k > 0 && glued(toks[k-1], toks[k]) && (isHyphen(toks[k].Form) || isHyphen(toks[k-1].Form)) {
-			cw.words[len(cw.words)-1].to = k + 1
+			w := &cw.words[len(cw.words)-1]
+			if w.to++; w.to-w.from > maxWordTokens {
+				return 0
+			}
 			continue
+		}
+		if len(cw.words) == maxWords {
+			return 0
 		}
 		cw.words = append(cw.words, wordSpan{k, k + 1})
 	}
 	return len(cw.words)
+}
+
+// maxWordTokens is the most tokens a word of a candidate may have: a
+// hyphenated compound of up to eight parts ("state-of-the-art" has four).
+// Longer hyphenated runs are codes and noise, not words of a term; without
+// a bound, a run of 300,000 hyphenated parts would be one "word" and every
+// span inside it a nested span to look at.
+const maxWordTokens = 2*8 - 1
+
+// SpanLimit is the most tokens a candidate of at most maxWords words can
+// span (each word at most maxWordTokens tokens): the nested matcher never
+// looks at longer spans, so collection costs at most the number of tokens
+// times this limit, whatever the input.
+func SpanLimit(maxWords int) int {
+	if maxWords <= 0 {
+		maxWords = DefaultMaxWords
+	}
+	return maxWords * maxWordTokens
 }
 
 // write normalizes the words split found: every word lower-cased except

@@ -129,8 +129,9 @@ const maxDocContexts = 3
 // Collector finds candidates with a matcher (normally the stock "terms"
 // rules run in nested mode, so that sub-phrases are candidates too).
 type Collector struct {
-	m   *pattern.Matcher
-	opt Options
+	m     *pattern.Matcher
+	opt   Options
+	limit int // the longest span looked at, in tokens (SpanLimit)
 }
 
 // NewCollector returns a Collector; it is safe for concurrent use.
@@ -138,7 +139,7 @@ func NewCollector(m *pattern.Matcher, opt Options) *Collector {
 	if opt.MaxWords <= 0 {
 		opt.MaxWords = DefaultMaxWords
 	}
-	return &Collector{m: m, opt: opt}
+	return &Collector{m: m, opt: opt, limit: SpanLimit(opt.MaxWords)}
 }
 
 // scratch is the working memory of one Collect call, reused from call to
@@ -154,7 +155,6 @@ type scratch struct {
 	isWord     []bool           // per token of the current sentence
 	wordAt     []int32          // per word token of the sentence: its index in DocCounts.words
 	context    []int32          // per sentence: 1 + its index in DocCounts.contexts, 0 if none
-	matches    []pattern.Match  // the nested matches of the sentence
 	cw         canonWriter
 	buf        []byte   // a lower-cased word key, a folded span
 	keyBuf     []byte   // a canonical spelling and its keys
@@ -234,7 +234,6 @@ func (sc *scratch) release() {
 	}
 	sc.doc, sc.toks = nil, nil
 	clear(sc.recent[:])
-	clear(sc.matches[:cap(sc.matches)]) // slots are maps, rule names the matcher's
 	scratchPool.Put(sc)
 }
 
@@ -331,16 +330,16 @@ func (c *Collector) Collect(d *doc.Document) *DocCounts {
 		toks := d.Sentences[si].Tokens
 		sc.toks, sc.spans = toks, spansUnknown
 		sc.countWords(dc, toks)
-		sc.matches = c.m.AppendNested(sc.matches[:0], toks)
-		ms := sc.matches
-		for k := range ms {
-			// Nested matches come sorted by span, so the same span found
-			// by several rules comes in a row; it counts once.
-			if k > 0 && ms[k].Start == ms[k-1].Start && ms[k].End == ms[k-1].End {
-				continue
+		// Nested matches come sorted by span, so the same span found by
+		// several rules comes in a row; it counts once. Spans longer than
+		// any candidate are never generated (see SpanLimit).
+		last := pattern.Match{Start: -1}
+		c.m.EachNested(toks, c.limit, func(mt pattern.Match) {
+			if mt.Start != last.Start || mt.End != last.End {
+				c.count(dc, sc, si, mt.Start, mt.End)
 			}
-			c.count(dc, sc, si, ms[k].Start, ms[k].End)
-		}
+			last = mt
+		})
 	}
 	sc.settle(dc)
 	return dc
@@ -363,7 +362,7 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 		return
 	}
 	cw := &sc.cw
-	if n := cw.split(toks[i:j]); n == 0 || n > c.opt.MaxWords {
+	if cw.split(toks[i:j], c.opt.MaxWords) == 0 {
 		return
 	}
 	cw.write(toks[i:j])
