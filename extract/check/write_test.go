@@ -98,7 +98,7 @@ func TestBaseline(t *testing.T) {
 
 			now := sampleFindings()
 			now[0].Line, now[0].Column = 9, 2 // the text moved: still known
-			now[1].Text = "Magnet valve"       // case alone: still known
+			now[1].Text = "Magnet valve"      // case alone: still known
 			extra := now[0]
 			extra.Line = 10 // a second use where the baseline had one: new
 			now = append(now, extra)

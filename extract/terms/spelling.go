@@ -15,7 +15,7 @@ import (
 func SpellingOf(toks []doc.Token) (key, spelling string) {
 	cw := canonPool.Get().(*canonWriter)
 	defer canonPool.Put(cw)
-	if cw.split(toks) == 0 {
+	if cw.split(toks, len(toks)) == 0 {
 		return "", ""
 	}
 	cw.write(toks)
