@@ -25,6 +25,7 @@ type collocationsOptions struct {
 	node      string
 	to        string
 	outPath   string
+	bom       bool
 	limit     int
 
 	ms  measure.Measure // the --measure, looked up by validate
@@ -79,6 +80,7 @@ func (o *collocationsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.node, "node", "", "only pairs whose @node is this word (window pairs: either word)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(colloc.Formats, ", ")+" (default: from the -o extension, else text)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many pairs (0: no limit)")
 	completeChoices(cmd, "to", colloc.Formats)
 	completeChoices(cmd, "by", byKeys)
@@ -178,7 +180,7 @@ func (o *collocationsOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
-	if err := out.commit(colloc.Write(out, o.to, rows, o.ms.Name)); err != nil {
+	if err := out.commit(colloc.WriteOptions(out, o.to, rows, o.ms.Name, o.bom)); err != nil {
 		return err
 	}
 	return runErr

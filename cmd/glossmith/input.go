@@ -18,12 +18,13 @@ import (
 
 // inputFlags are the flags of every command that reads documents.
 type inputFlags struct {
-	from    string
-	model   string
-	workers int
-	quiet   bool
-	noTag   bool
-	memory  memorySize
+	from     string
+	encoding string
+	model    string
+	workers  int
+	quiet    bool
+	noTag    bool
+	memory   memorySize
 	// reuseTokens is set by commands whose per-document work keeps
 	// nothing of the tokens (see pipeline.Options.ReuseTokens); not by
 	// find, whose hits keep their documents.
@@ -33,6 +34,7 @@ type inputFlags struct {
 func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
 	fl := cmd.Flags()
 	fl.StringVar(&f.from, "from", "", "input format, overriding detection: "+strings.Join(read.Formats(), ", "))
+	fl.StringVar(&f.encoding, "encoding", "", "encoding of the text inputs, e.g. windows-1252, iso-8859-15, shift_jis (default: byte order mark, declared charset, UTF-8, else Windows-1252)")
 	fl.IntVar(&f.workers, "workers", 0, "documents processed at once (default: one per core)")
 	fl.BoolVarP(&f.quiet, "quiet", "q", false, "print no notes or progress on standard error (warnings and errors still)")
 	f.memory = defaultMemory
@@ -78,9 +80,14 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 	if len(args) == 0 {
 		return pipeline.Stats{}, fmt.Errorf("no input: name files, directories, glob patterns, or - for standard input")
 	}
+	if f.encoding != "" {
+		if _, err := read.LookupEncoding(f.encoding); err != nil {
+			return pipeline.Stats{}, fmt.Errorf("--encoding: %v", err)
+		}
+	}
 	pp := &problemPrinter{w: os.Stderr, quiet: f.quiet}
 	opt := pipeline.Options{
-		Read:    read.Options{Format: f.from},
+		Read:    read.Options{Format: f.from, Encoding: f.encoding},
 		Tagger:  tagger,
 		Workers: f.workers,
 		Report:  pp.report,

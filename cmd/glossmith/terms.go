@@ -59,6 +59,7 @@ type termsOptions struct {
 	reference []string
 	to        string
 	outPath   string
+	bom       bool
 	sortKey   string
 	minFreq   int
 	maxWords  int
@@ -116,6 +117,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(terms.Formats, ", ")+" (default: from the -o extension, else text)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
 	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
 	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
@@ -214,7 +216,7 @@ func (o *termsOptions) run(args []string) error {
 		return err
 	}
 	src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
-	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src})); err != nil {
+	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src, BOM: o.bom})); err != nil {
 		return err
 	}
 	return runErr

@@ -21,20 +21,45 @@ var (
 	bomUTF16BE = []byte{0xFE, 0xFF}
 )
 
-// decode turns the bytes of a text file into valid UTF-8: a UTF-8 byte
-// order mark is dropped, UTF-16 with a byte order mark (LE or BE) is
-// converted, and every byte that is not part of a valid UTF-8 sequence (or
-// every unpaired UTF-16 surrogate) becomes U+FFFD, with a warning naming
-// the line. Line breaks are left as they are.
-func (r *reader) decode(data []byte) string {
+// decode turns the bytes of a text file into valid UTF-8 without NUL
+// characters. A byte order mark decides first: UTF-8 (dropped), UTF-16 LE
+// or BE (converted). Then the encoding named by --encoding, then (HTML
+// only) the charset the page declares. Otherwise valid UTF-8 is taken as
+// it is; data that is not, but holds no UTF-8 sequence at all and no byte
+// Windows-1252 leaves undefined, is read as Windows-1252 with a note; in
+// the rest every byte that is not part of a valid UTF-8 sequence (or every
+// unpaired UTF-16 surrogate) becomes U+FFFD, with a warning naming the
+// line. Line breaks are left as they are.
+func (r *reader) decode(data []byte, format string) string {
+	return r.dropNUL(r.decodeText(data, format))
+}
+
+func (r *reader) decodeText(data []byte, format string) string {
 	switch {
 	case bytes.HasPrefix(data, bomUTF8):
-		data = data[len(bomUTF8):]
+		return r.decodeUTF8(data[len(bomUTF8):])
 	case bytes.HasPrefix(data, bomUTF16LE):
 		return r.decodeUTF16(data[2:], false)
 	case bytes.HasPrefix(data, bomUTF16BE):
 		return r.decodeUTF16(data[2:], true)
 	}
+	if e, name, why := r.chosenEncoding(data, format); e != nil && name != "utf-8" {
+		return r.decodeWith(data, e, name, why)
+	} else if name == "utf-8" {
+		return r.decodeUTF8(data)
+	}
+	if utf8.Valid(data) {
+		return string(data)
+	}
+	if looksWindows1252(data) {
+		return r.readWindows1252(data)
+	}
+	return r.decodeUTF8(data)
+}
+
+// decodeUTF8 replaces each byte that is not part of a valid UTF-8
+// sequence by U+FFFD, with warnings naming the lines.
+func (r *reader) decodeUTF8(data []byte) string {
 	if utf8.Valid(data) {
 		return string(data)
 	}

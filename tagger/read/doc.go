@@ -113,11 +113,24 @@
 //
 // # Encodings
 //
-// Text formats may be UTF-8, with or without a byte order mark (dropped),
-// or UTF-16 LE or BE with a byte order mark. A byte that is not valid
-// UTF-8 (or an unpaired UTF-16 surrogate) becomes U+FFFD with a Warning
-// naming the line — up to 10 lines per file, then one summary warning —
-// and the rest of the file is read.
+// Text formats are decoded in this order: a byte order mark (UTF-8,
+// dropped; UTF-16 LE or BE, converted); Options.Encoding (the CLI's
+// --encoding; labels of the WHATWG Encoding Standard, see
+// LookupEncoding); for html, the charset the page declares in its first
+// 1024 bytes — an XML declaration's encoding or a <meta charset> /
+// <meta http-equiv content="...; charset=..."> as the HTML Standard's
+// prescan finds it (a declared UTF-16 means UTF-8, as that standard
+// says). Otherwise the text must be UTF-8. A file that is not valid UTF-8
+// but holds no multi-byte UTF-8 sequence and none of the five bytes
+// Windows-1252 leaves undefined is read as Windows-1252, with a Note (so
+// Latin-1 "caf\xE9" is "café"). In the rest, a byte that is not valid
+// UTF-8 (or an unpaired UTF-16 surrogate, or a sequence not valid in the
+// named encoding) becomes U+FFFD with a Warning naming the line — up to 10
+// lines per file, then one summary warning — and the rest of the file is
+// read.
+//
+// A NUL byte in the first 8 KiB marks the file as not text (below); a NUL
+// further in is dropped with a Warning naming the first line that has one.
 //
 // # Bad input
 //

@@ -101,7 +101,7 @@ func (r *reader) pdf(data []byte) *doc.Document {
 		r.errorf(0, "pdftotext failed: %s", msg)
 		return nil
 	}
-	return &doc.Document{Text: r.decode(text)}
+	return &doc.Document{Text: r.dropNUL(r.decodeUTF8(text))}
 }
 
 // bboxText turns pdftotext's -bbox-layout XHTML into text: the words of a

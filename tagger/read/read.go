@@ -84,6 +84,11 @@ type Options struct {
 	// standard input, a gzip stream, word/document.xml in a .docx, or the
 	// output of pdftotext. 0 means DefaultMaxBytes.
 	MaxBytes int64
+	// Encoding names the encoding of the text formats (the CLI's
+	// --encoding), overriding the charset a page declares and the
+	// detection; a byte order mark still wins. Labels are the WHATWG
+	// Encoding Standard's (see LookupEncoding). Empty means: detect.
+	Encoding string
 }
 
 // DefaultMaxBytes is the size cap on one document when Options.MaxBytes is
@@ -263,7 +268,7 @@ func (r *reader) read() *doc.Document {
 			r.skipf("not text (%s)", kind)
 			return nil
 		}
-		text := r.decode(data)
+		text := r.decode(data, format)
 		switch format {
 		case FormatText:
 			d = r.text(text)

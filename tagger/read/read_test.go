@@ -124,20 +124,21 @@ func TestUTF16Broken(t *testing.T) {
 	assert.Contains(t, ps[0].Msg, "2 code units")
 }
 
-func TestInvalidUTF8Fixture(t *testing.T) {
+// The fixture is Latin-1 text ("15 °C", "m³/h"): not UTF-8, but clean
+// Windows-1252 (a superset of Latin-1's printable characters), so it is
+// read as such with a note rather than with U+FFFD.
+func TestLatin1FixtureReadAsWindows1252(t *testing.T) {
 	p := fixture(t, "invalid-utf8.txt")
 	raw, err := os.ReadFile(p)
 	require.NoError(t, err)
 	d, ps := Read(Input{Name: "invalid-utf8.txt", Path: p}, Options{})
 	require.NotNil(t, d)
-	require.NotEmpty(t, ps)
-	for _, pr := range ps {
-		assert.Equal(t, Warning, pr.Severity)
-		assert.Equal(t, 3, pr.Line, "the fixture's invalid bytes are on line 3")
-		assert.True(t, strings.HasPrefix(pr.Error(), "invalid-utf8.txt:3: "), pr.Error())
-	}
+	require.Len(t, ps, 1)
+	assert.Equal(t, Note, ps[0].Severity)
+	assert.Contains(t, ps[0].Msg, "Windows-1252")
 	assert.True(t, utf8.ValidString(d.Text))
-	assert.Contains(t, d.Text, "\uFFFD")
+	assert.Contains(t, d.Text, "water temperature 15 °C, flow rate 2.4 m³/h ÿ\n")
+	assert.NotContains(t, d.Text, "\uFFFD")
 	// The rest of the file is read: same number of lines as the source,
 	// and its last line intact.
 	srcLines := strings.Split(string(raw), "\n")
@@ -146,10 +147,21 @@ func TestInvalidUTF8Fixture(t *testing.T) {
 	assert.Equal(t, srcLines[len(srcLines)-2], gotLines[len(gotLines)-2])
 }
 
+// A UTF-8 file with a damaged byte stays UTF-8: the byte becomes U+FFFD
+// with a warning naming its line — never silently.
+func TestDamagedUTF8Warns(t *testing.T) {
+	d, ps := readFile(t, "damaged.txt", "Le café ouvre.\nLa vanne caf\xe9 ferme.\n", Options{})
+	require.NotNil(t, d)
+	assert.Equal(t, "Le café ouvre.\nLa vanne caf\uFFFD ferme.\n", d.Text)
+	require.Len(t, ps, 1)
+	assert.Equal(t, Warning, ps[0].Severity)
+	assert.Equal(t, 2, ps[0].Line)
+}
+
 func TestInvalidUTF8WarningsCapped(t *testing.T) {
 	var b strings.Builder
 	for i := 0; i < 25; i++ {
-		b.WriteString("bad \xC3\x28 and \xFF here\n")
+		b.WriteString("bad \xC3\x28 and \xFF here – UTF-8 elsewhere\n")
 	}
 	d, ps := readFile(t, "bad.txt", b.String(), Options{})
 	require.NotNil(t, d)
@@ -507,4 +519,67 @@ func TestLongLineInMiddle(t *testing.T) {
 	assert.Equal(t, "first\n\nthird\n"+strings.Repeat("y", MaxLine)+"\nlast", d.Text)
 	require.Len(t, ps, 1)
 	assert.Equal(t, 2, ps[0].Line)
+}
+
+// Encodings as the WHATWG Encoding Standard names them; the byte values
+// are those of the published code page tables (windows-1251 0xCF 0xF0 0xE8
+// = "При", ISO 8859-2 0xB3 = "ł", ISO 8859-7 0xE2 0xE1 0xEB 0xE2 0xDF 0xE4
+// 0xE1 = "βαλβίδα", Windows-1252 0xE9 = "é").
+func TestEncodings(t *testing.T) {
+	for _, tc := range []struct {
+		name, file, content string
+		opt                 Options
+		want                string
+		sev                 []Severity
+	}{
+		{"windows-1252 fallback", "a.txt", "Le caf\xe9 ferme \x80 5.\n", Options{}, "Le café ferme € 5.\n", []Severity{Note}},
+		{"meta charset", "p.html", `<html><head><meta charset="windows-1251"></head><body><p>` + "\xcf\xf0\xe8" + `</p></body></html>`, Options{}, "При", nil},
+		{"meta http-equiv", "p.html", `<html><head><meta http-equiv="Content-Type" content="text/html; charset=ISO-8859-2"></head><body><p>` + "Wroc\xb3aw" + `</p>`, Options{}, "Wrocław", nil},
+		{"xml declaration", "p.xhtml", `<?xml version="1.0" encoding="ISO-8859-2"?>` + "\n<html><body><p>Wroc\xb3aw</p></body></html>", Options{}, "Wrocław", nil},
+		{"meta utf-16 means utf-8", "p.html", `<meta charset="utf-16"><p>café</p>`, Options{}, "café", nil},
+		{"unknown charset", "p.html", `<meta charset="x-nonesuch"><p>café</p>`, Options{}, "café", []Severity{Warning}},
+		{"--encoding", "g.txt", "\xe2\xe1\xeb\xe2\xdf\xe4\xe1", Options{Encoding: "iso-8859-7"}, "βαλβίδα", nil},
+		{"--encoding over meta", "p.html", `<meta charset="windows-1251"><p>` + "\xe9" + `</p>`, Options{Encoding: "latin1"}, "é", nil},
+		{"--encoding utf-8 keeps U+FFFD", "u.txt", "caf\xe9", Options{Encoding: "utf-8"}, "caf\uFFFD", []Severity{Warning}},
+		{"byte order mark over meta", "p.html", "\xef\xbb\xbf" + `<meta charset="windows-1251"><p>café</p>`, Options{}, "café", nil},
+	} {
+		d, ps := readFile(t, tc.file, tc.content, tc.opt)
+		if assert.NotNil(t, d, tc.name) {
+			assert.Equal(t, tc.want, d.Text, tc.name)
+		}
+		var sevs []Severity
+		for _, p := range ps {
+			sevs = append(sevs, p.Severity)
+		}
+		assert.Equal(t, tc.sev, sevs, "%s: %v", tc.name, ps)
+	}
+}
+
+func TestLookupEncoding(t *testing.T) {
+	name, err := LookupEncoding("Latin1")
+	require.NoError(t, err)
+	assert.Equal(t, "windows-1252", name, "WHATWG Encoding Standard: latin1 is a label of windows-1252")
+	_, err = LookupEncoding("klingon-8")
+	assert.ErrorContains(t, err, `unknown encoding "klingon-8"`)
+}
+
+// A NUL byte past the first 8 KiB (which the binary check looks at) is
+// dropped with a warning naming its line; in the first 8 KiB it marks the
+// file as binary.
+func TestNULAnywhere(t *testing.T) {
+	head := strings.Repeat("The valve opens.\n", 1000) // 17,000 bytes
+	d, ps := readFile(t, "late-nul.txt", head+"Pres\x00sure drops.\x00\n", Options{})
+	require.NotNil(t, d)
+	assert.NotContains(t, d.Text, "\x00")
+	assert.True(t, strings.HasSuffix(d.Text, "Pressure drops.\n"))
+	require.Len(t, ps, 1)
+	assert.Equal(t, Warning, ps[0].Severity)
+	assert.Equal(t, 1001, ps[0].Line)
+	assert.Contains(t, ps[0].Msg, "2 NUL")
+
+	d, ps = readFile(t, "early-nul.txt", "The\x00valve.\n"+head, Options{})
+	assert.Nil(t, d)
+	require.Len(t, ps, 1)
+	assert.Equal(t, Error, ps[0].Severity)
+	assert.Contains(t, ps[0].Msg, "NUL")
 }

@@ -1,0 +1,102 @@
+package main
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// tsvOutputs are the TSV outputs of every command that writes TSV, on the
+// demo corpus; the find runs meet quotation marks as tokens and in
+// contexts, the bare quote that shifted the columns of naive readers.
+var tsvOutputs = [][]string{
+	{"find", "-q", "--to", "tsv", "PUNCT", "testdata/demo"},
+	{"find", "-q", "--count", "--to", "tsv", "PUNCT _", "testdata/demo"},
+	{"terms", "-q", "--to", "tsv", "testdata/demo"},
+	{"collocations", "-q", "--to", "tsv", "testdata/demo"},
+	{"tag", "-q", "--to", "tsv", "testdata/demo"},
+}
+
+// Every row has the header's number of fields for an RFC 4180 reader with
+// a tab for the comma (Go's encoding/csv), and the fields holding a quote
+// come back with it.
+func TestTSVOutputsReadBack(t *testing.T) {
+	for _, args := range tsvOutputs {
+		r := run(t, "", args...)
+		require.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+		cr := csv.NewReader(strings.NewReader(r.stdout))
+		cr.Comma = '\t'
+		rows, err := cr.ReadAll() // FieldsPerRecord: every row as long as the first
+		require.NoError(t, err, "%v", args)
+		require.Greater(t, len(rows), 1, "%v", args)
+		if args[0] == "find" && len(args) == 6 {
+			quoted := 0
+			for _, row := range rows[1:] {
+				if row[7] == `"` {
+					quoted++
+				}
+			}
+			assert.Positive(t, quoted, "the demo's quotation marks are matched and read back as \"")
+		}
+	}
+}
+
+// Python's csv module, dialect excel-tab, reads the same rows.
+func TestTSVOutputsReadBackInPython(t *testing.T) {
+	py, err := exec.LookPath("python3")
+	if err != nil {
+		t.Skip("python3 not installed")
+	}
+	for _, args := range tsvOutputs {
+		r := run(t, "", args...)
+		require.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+		cmd := exec.Command(py, "-c", `import csv, io, json, sys
+rows = list(csv.reader(io.StringIO(sys.stdin.read(), newline=""), dialect="excel-tab"))
+print(json.dumps(rows))`)
+		cmd.Stdin = strings.NewReader(r.stdout)
+		out, err := cmd.Output()
+		require.NoError(t, err)
+		var rows [][]string
+		require.NoError(t, json.Unmarshal(out, &rows))
+		cr := csv.NewReader(strings.NewReader(r.stdout))
+		cr.Comma = '\t'
+		want, err := cr.ReadAll()
+		require.NoError(t, err)
+		assert.Equal(t, want, rows, "%v", args)
+	}
+}
+
+func TestCSVLineEndsAndBOM(t *testing.T) {
+	for _, cmd := range []string{"terms", "collocations"} {
+		r := run(t, "", cmd, "-q", "--to", "csv", "--bom", "testdata/demo")
+		require.Equal(t, 0, r.code, r.stderr)
+		assert.True(t, strings.HasPrefix(r.stdout, "\uFEFF"), cmd)
+		assert.True(t, strings.HasSuffix(r.stdout, "\r\n"), cmd)
+		assert.Equal(t, strings.Count(r.stdout, "\n"), strings.Count(r.stdout, "\r\n"), "%s: RFC 4180 records end in CRLF", cmd)
+		r = run(t, "", cmd, "-q", "--to", "csv", "testdata/demo")
+		assert.False(t, strings.HasPrefix(r.stdout, "\uFEFF"), cmd)
+	}
+}
+
+// --encoding names the encoding of the inputs (WHATWG labels); an unknown
+// name is a usage error before anything is read.
+func TestEncodingFlag(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "greek.txt")
+	// ISO 8859-7: 0xE2 0xE1 0xEB 0xE2 0xDF 0xE4 0xE1 is "βαλβίδα" (valve).
+	require.NoError(t, os.WriteFile(p, []byte("\xe2\xe1\xeb\xe2\xdf\xe4\xe1\n"), 0o644))
+	r := run(t, "", "tag", "-q", "--to", "text", "--encoding", "iso-8859-7", p)
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.True(t, strings.HasPrefix(r.stdout, "βαλβίδα/"), r.stdout)
+
+	r = run(t, "", "tag", "--encoding", "klingon-8", p)
+	assert.Equal(t, 2, r.code)
+	assert.Contains(t, r.stderr, `unknown encoding "klingon-8"`)
+}
