@@ -23,6 +23,8 @@
 package colloc
 
 import (
+	"maps"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -133,12 +135,7 @@ func (c *Counter) Merge(o *Counter) {
 
 // Relations returns the relation names seen, sorted.
 func (c *Counter) Relations() []string {
-	names := make([]string, 0, len(c.rels))
-	for name := range c.rels {
-		names = append(names, name)
-	}
-	sort.Strings(names)
-	return names
+	return slices.Sorted(maps.Keys(c.rels))
 }
 
 // Total returns the number of pair occurrences counted in all relations.

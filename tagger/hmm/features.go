@@ -108,24 +108,24 @@ var (
 	hEnd   = hashBytes([]byte("\x00</s>"))
 )
 
-// extractFeatures writes the feature keys of every token into l.feats,
-// those of token i at l.feats[l.foff[i]:l.foff[i+1]]; the keys from
-// l.fmid[i] on depend on the token's neighbours or position, those before
-// on the word alone. Tokens marked false in l.need (when set) get none. It allocates nothing
-// once the lattice's buffers have grown.
-func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) []tokenInfo {
+// extractFeatures writes the feature keys of every token into fs.keys,
+// those of token i at fs.keys[fs.keyOff[i]:fs.keyOff[i+1]]; the keys from
+// fs.aloneEnd[i] on depend on the token's neighbours or position, those
+// before on the word alone. Tokens marked false in fs.need (when set) get
+// none. It allocates nothing once the scratch buffers have grown.
+func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo) []tokenInfo {
 	n := len(toks)
 	if cap(info) < n {
 		info = make([]tokenInfo, n)
 	}
 	info = info[:n]
-	buf := l.buf[:0]
+	buf := fs.buf[:0]
 	for i := range toks {
 		buf = info[i].fill(buf, toks[i].Form)
 	}
-	f := l.feats[:0]
-	l.foff = append(l.foff[:0], 0)
-	l.fmid = l.fmid[:0]
+	f := fs.keys[:0]
+	fs.keyOff = append(fs.keyOff[:0], 0)
+	fs.aloneEnd = fs.aloneEnd[:0]
 	at := func(i int) *tokenInfo {
 		if i < 0 || i >= n {
 			return nil
@@ -142,16 +142,16 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 		return hEnd
 	}
 	for i := range toks {
-		if len(l.need) > 0 && !l.need[i] {
-			l.fmid = append(l.fmid, int32(len(f)))
-			l.foff = append(l.foff, int32(len(f)))
+		if len(fs.need) > 0 && !fs.need[i] {
+			fs.aloneEnd = append(fs.aloneEnd, int32(len(f)))
+			fs.keyOff = append(fs.keyOff, int32(len(f)))
 			continue
 		}
 		ti := &info[i]
 		var upperFirst bool
 		f, buf, upperFirst = appendAloneKeys(f, buf, toks[i].Form, ti)
 		// Above: features of the word alone; below: of its context.
-		l.fmid = append(l.fmid, int32(len(f)))
+		fs.aloneEnd = append(fs.aloneEnd, int32(len(f)))
 		if upperFirst {
 			if i == 0 {
 				f = append(f, key(fCapFirst, 0))
@@ -169,10 +169,10 @@ func extractFeatures(m *Model, l *lattice, toks []doc.Token, info []tokenInfo) [
 		if t := at(i + 1); t != nil {
 			f = append(f, key(fNextSuf3, t.suf3), key(fNextShape, t.shape), key(fNextPrefix1, t.pre1))
 		}
-		l.foff = append(l.foff, int32(len(f)))
+		fs.keyOff = append(fs.keyOff, int32(len(f)))
 	}
-	l.feats = f
-	l.buf = buf
+	fs.keys = f
+	fs.buf = buf
 	return info
 }
 

@@ -8,9 +8,10 @@ import (
 	"fmt"
 	"hash/crc32"
 	"io"
+	"maps"
 	"math"
 	"os"
-	"sort"
+	"slices"
 
 	"glossmith/tagger/lemma"
 )
@@ -223,15 +224,6 @@ func (d *dec) tag(nt int) uint8 {
 	return uint8(v)
 }
 
-func sortedKeys[V any](m map[string]V) []string {
-	ks := make([]string, 0, len(m))
-	for k := range m {
-		ks = append(ks, k)
-	}
-	sort.Strings(ks)
-	return ks
-}
-
 func (m *Model) encodePayload(e *enc) {
 	e.str(m.method)
 	e.str(m.tagset)
@@ -242,7 +234,7 @@ func (m *Model) encodePayload(e *enc) {
 	for _, t := range m.tags {
 		e.str(t)
 	}
-	forms := sortedKeys(m.lex)
+	forms := slices.Sorted(maps.Keys(m.lex))
 	e.uint(uint64(len(forms)))
 	for _, f := range forms {
 		w := m.words[m.lex[f]]
@@ -257,7 +249,7 @@ func (m *Model) encodePayload(e *enc) {
 	for _, u := range m.uposByTag {
 		e.str(u)
 	}
-	ws := sortedKeys(m.uposByWord)
+	ws := slices.Sorted(maps.Keys(m.uposByWord))
 	e.uint(uint64(len(ws)))
 	for _, w := range ws {
 		e.str(w)
@@ -270,7 +262,7 @@ func (m *Model) encodePayload(e *enc) {
 	lb, _ := m.lem.MarshalBinary()
 	e.bytes(lb)
 	for _, ref := range []map[string]int32{m.refForm, m.refLemma} {
-		ks := sortedKeys(ref)
+		ks := slices.Sorted(maps.Keys(ref))
 		e.uint(uint64(len(ks)))
 		for _, k := range ks {
 			e.str(k)
@@ -399,11 +391,7 @@ func (g *generative) encode(e *enc) {
 			e.uint(uint64(c))
 		}
 	}
-	keys := make([]int32, 0, len(g.tri))
-	for k := range g.tri {
-		keys = append(keys, k)
-	}
-	sort.Slice(keys, func(i, j int) bool { return keys[i] < keys[j] })
+	keys := slices.Sorted(maps.Keys(g.tri))
 	e.uint(uint64(len(keys)))
 	prev := int32(0)
 	for _, k := range keys {
@@ -412,7 +400,7 @@ func (g *generative) encode(e *enc) {
 		prev = k
 	}
 	for _, st := range g.suf {
-		sufs := sortedKeys(st.entries)
+		sufs := slices.Sorted(maps.Keys(st.entries))
 		e.uint(uint64(len(sufs)))
 		for _, s := range sufs {
 			en := st.entries[s]

@@ -1,7 +1,9 @@
 package hmm
 
 import (
+	"maps"
 	"math"
+	"slices"
 	"sort"
 	"unicode"
 	"unicode/utf8"
@@ -82,12 +84,7 @@ func trainGenerative(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 	}
 	for k := range counts {
 		st := &suffixTable{entries: map[string]suffixEntry{}}
-		keys := make([]string, 0, len(counts[k]))
-		for s := range counts[k] {
-			keys = append(keys, s)
-		}
-		sort.Strings(keys)
-		for _, s := range keys {
+		for _, s := range slices.Sorted(maps.Keys(counts[k])) {
 			var e suffixEntry
 			tags := make([]int, 0, len(counts[k][s]))
 			for t := range counts[k][s] {
@@ -141,11 +138,7 @@ func (g *generative) finish(m *Model) {
 	}
 	// Deleted interpolation (Brants 2000, Figure 1).
 	var lam [3]float64
-	keys := make([]int32, 0, len(g.tri))
-	for k := range g.tri {
-		keys = append(keys, k)
-	}
-	sort.Slice(keys, func(i, j int) bool { return keys[i] < keys[j] })
+	keys := slices.Sorted(maps.Keys(g.tri))
 	ratio := func(num, den int32) float64 {
 		if den <= 1 {
 			return 0
@@ -226,32 +219,32 @@ func (g *generative) finish(m *Model) {
 // thousandth of the best one's suffix probability are dropped as well.
 const unknownCap = 10
 
-func (g *generative) buildLattice(m *Model, l *lattice, toks []doc.Token) {
-	l.reset(len(toks))
+func (g *generative) buildLattice(m *Model, ws *workspace, toks []doc.Token) {
+	ws.reset(len(toks))
 	nt := len(m.tags)
 	for i := range toks {
 		form := toks[i].Form
-		e, ok := m.lookup(l, form)
+		e, ok := m.lookup(&ws.featureScratch, form)
 		if !ok {
-			e, ok = m.variant(l, form)
+			e, ok = m.variant(&ws.featureScratch, form)
 		}
 		if ok {
 			for j := e.first; j < e.first+e.ntags; j++ {
-				l.add(m.wtags[j], g.emit[j])
+				ws.add(m.wtags[j], g.emit[j])
 			}
-			l.closePos()
+			ws.closePos()
 			continue
 		}
-		g.suffixScores(l.score[:nt], form)
-		selectSuffixCands(l, l.score[:nt], g.logP)
+		g.suffixScores(ws.score[:nt], form)
+		selectSuffixCands(&ws.lattice, ws.score[:nt], g.logP)
 	}
 }
 
 // variant looks up the lower-cased, then the capitalized form of an
 // unknown word ("Valve" → "valve", "VALVE" → "Valve").
-func (m *Model) variant(l *lattice, form string) (*wordEntry, bool) {
-	buf := lowerInto(l.buf[:0], form)
-	l.buf = buf
+func (m *Model) variant(fs *featureScratch, form string) (*wordEntry, bool) {
+	buf := lowerInto(fs.buf[:0], form)
+	fs.buf = buf
 	if string(buf) != form {
 		if i, ok := m.lex[string(buf)]; ok {
 			return &m.words[i], true

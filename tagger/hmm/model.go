@@ -112,7 +112,7 @@ type Model struct {
 	gen   *generative
 	perc  *perceptron
 
-	pool sync.Pool // *lattice
+	pool sync.Pool // *workspace
 }
 
 type uposChoice struct {
@@ -189,20 +189,20 @@ func (m *Model) Tag(s *doc.Sentence) {
 	if len(s.Tokens) == 0 || pretagged(s) {
 		return
 	}
-	l := m.getLattice()
-	defer m.pool.Put(l)
-	m.decode(l, s.Tokens)
+	ws := m.getWorkspace()
+	defer m.pool.Put(ws)
+	m.decode(ws, s.Tokens)
 	for i := range s.Tokens {
 		t := &s.Tokens[i]
-		st := l.tags[i]
+		st := ws.tags[i]
 		t.XPOS = m.tagX[st]
 		t.UPOS = m.uposOf(t.Form, st)
 		t.Lemma = ""
-		if w := l.wid[i]; w >= 0 {
-			t.Lemma = m.lexiconLemma(l, i, w, st)
+		if w := ws.wid[i]; w >= 0 {
+			t.Lemma = m.lexiconLemma(ws, i, w, st)
 		}
 		if t.Lemma == "" {
-			t.Lemma = m.memoLemma(l, i, st, t)
+			t.Lemma = m.memoLemma(ws, i, st, t)
 		}
 	}
 }
@@ -225,10 +225,10 @@ func (m *Model) commonLemma(e wordEntry) tagLemma {
 // lexiconLemma returns the lexicon's lemma of token i, lexicon word w,
 // in state st, or "" when the word was not seen with that state: from the
 // view when st is the word's most frequent tag, else from the lexicon.
-func (m *Model) lexiconLemma(l *lattice, i int, w int32, st uint8) string {
+func (m *Model) lexiconLemma(ws *workspace, i int, w int32, st uint8) string {
 	var first, n int32
 	if m.perc != nil {
-		v := l.views[i]
+		v := ws.views[i]
 		if v.lemmaSet && v.lemmaState == st {
 			return v.lemma
 		}
@@ -247,23 +247,23 @@ func (m *Model) lexiconLemma(l *lattice, i int, w int32, st uint8) string {
 }
 
 // memoLemma lemmatizes token i in state st when the lexicon has no lemma
-// for it. The view of a word outside the lexicon belongs to this lattice
+// for it. The view of a word outside the lexicon belongs to this workspace
 // alone, so it can keep the last lemma found for the word: an unknown
 // domain word mostly recurs with the same tag, and its lemma then costs
 // no look-ups. The lemmas of lexicon words in states they were never seen
 // in (0.37 s of the 1.2 s this function took on the 100 MB benchmark
-// corpus) are memoized by the lattice.
-func (m *Model) memoLemma(l *lattice, i int, st uint8, t *doc.Token) string {
-	if w := l.wid[i]; w >= 0 {
+// corpus) are memoized by the workspace (lemmaMemo).
+func (m *Model) memoLemma(ws *workspace, i int, st uint8, t *doc.Token) string {
+	if w := ws.wid[i]; w >= 0 {
 		// A lexicon word with a tag it was not seen with in training: its
-		// view is shared by all goroutines, so the memo is the lattice's
+		// view is shared by all goroutines, so the memo is the workspace's
 		// own, by word and state (which settle form, UPOS and XPOS).
-		return l.lexLemma(w, st, func() string { return m.unknownLemma(t.Form, t.UPOS, t.XPOS) })
+		return ws.lexLemma(w, st, func() string { return m.unknownLemma(t.Form, t.UPOS, t.XPOS) })
 	}
-	if m.perc == nil || i >= len(l.views) {
+	if m.perc == nil || i >= len(ws.views) {
 		return m.unknownLemma(t.Form, t.UPOS, t.XPOS)
 	}
-	v := l.views[i]
+	v := ws.views[i]
 	if !v.lemmaSet || v.lemmaState != st {
 		// A clone: the lemma may be the form itself, a slice of the
 		// document's text, which the cache would otherwise keep alive.
@@ -316,22 +316,22 @@ func (m *Model) prepareLexicon() {
 	}
 }
 
-func (m *Model) getLattice() *lattice {
-	if l, ok := m.pool.Get().(*lattice); ok {
-		return l
+func (m *Model) getWorkspace() *workspace {
+	if ws, ok := m.pool.Get().(*workspace); ok {
+		return ws
 	}
-	return newLattice()
+	return newWorkspace()
 }
 
 // decode builds the lattice of a sentence with the model's scores and runs
-// Viterbi; the best states are left in l.tags.
-func (m *Model) decode(l *lattice, toks []doc.Token) {
+// Viterbi; the best states are left in ws.tags.
+func (m *Model) decode(ws *workspace, toks []doc.Token) {
 	if m.perc != nil {
-		m.perc.buildLattice(m, l, toks)
+		m.perc.buildLattice(m, ws, toks)
 	} else {
-		m.gen.buildLattice(m, l, toks)
+		m.gen.buildLattice(m, ws, toks)
 	}
-	l.decode(&m.trans, m.beam)
+	ws.decode(&m.trans, m.beam)
 }
 
 // uposOf gives the UPOS of a word in a state.
@@ -346,7 +346,7 @@ func (m *Model) uposOf(form string, st uint8) string {
 			}
 		}
 	}
-	if lw := lowerASCIIFast(form); lw != form {
+	if lw := strings.ToLower(form); lw != form {
 		for _, c := range m.uposByWord[lw] {
 			if c.xpos == st {
 				return c.upos
@@ -355,9 +355,6 @@ func (m *Model) uposOf(form string, st uint8) string {
 	}
 	return m.uposByTag[st]
 }
-
-// lowerASCIIFast lower-cases a string, allocating only when it changes.
-func lowerASCIIFast(s string) string { return strings.ToLower(s) }
 
 // entry returns the lexicon entry of a form.
 func (m *Model) entry(form string) (*wordEntry, bool) {
@@ -368,15 +365,15 @@ func (m *Model) entry(form string) (*wordEntry, bool) {
 	return &m.words[i], true
 }
 
-// lookup returns the lexicon entry of a form and records its index for
-// token i of the lattice (-1 when unknown).
-func (m *Model) lookup(l *lattice, form string) (*wordEntry, bool) {
+// lookup returns the lexicon entry of a form and records its index as the
+// next token's in fs.wid (-1 when unknown).
+func (m *Model) lookup(fs *featureScratch, form string) (*wordEntry, bool) {
 	i, ok := m.lex[form]
 	if !ok {
-		l.wid = append(l.wid, -1)
+		fs.wid = append(fs.wid, -1)
 		return nil, false
 	}
-	l.wid = append(l.wid, i)
+	fs.wid = append(fs.wid, i)
 	return &m.words[i], true
 }
 

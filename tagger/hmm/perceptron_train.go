@@ -1,8 +1,10 @@
 package hmm
 
 import (
+	"maps"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 
 	"glossmith/tagger/conllu"
@@ -17,7 +19,7 @@ import (
 // Collins (2002) while touching only the weights an update changes — the
 // same saving as the lazy time-stamp update, with no time stamps.
 type trainer struct {
-	nt, t1 int
+	nt     int
 	w      []float32 // features × tags
 	u      []float64
 	layers []transLayer // transition weights
@@ -59,7 +61,7 @@ func (m *Model) transLayers(flat bool) []transLayer {
 			for _, n := range names {
 				set[n] = true
 			}
-			classes := sortedKeys(set)
+			classes := slices.Sorted(maps.Keys(set))
 			idx := map[string]uint8{}
 			for i, c := range classes {
 				idx[c] = uint8(i)
@@ -89,81 +91,22 @@ type trainSent struct {
 	lower []uint64 // hash of each lower-cased word, for pair features
 }
 
+// trainPerceptron trains the averaged perceptron in steps: the feature
+// rows (trainingRows), the dense weights (newTrainer), then per epoch
+// and sentence the best path under the current weights (predict) and the
+// update from its errors (update); finishPerceptron turns the averages
+// into the model's weights.
 func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
 	nt := len(m.tags)
-	t1 := nt + 1
-	// Features seen fewer than MinFeatureCount times are left out before
-	// training, not only pruned after it: a word seen once then trains the
-	// weights unknown words rely on (suffixes, shape, context) instead of
-	// its own identity feature, which decoding would not have anyway.
-	l := newLattice()
-	freq := map[uint64]int32{}
-	bound := uint8(nt)
-	prevOf := func(seq []uint8, i int) uint8 {
-		if i < 0 || i >= len(seq) {
-			return bound
-		}
-		return seq[i]
-	}
-	for si, s := range sents {
-		l.info = extractFeatures(m, l, s.Tokens, l.info)
-		for _, k := range l.feats {
-			freq[k]++
-		}
-		for i := range s.Tokens {
-			freq[pairKey(l.info[i].lower, prevOf(gold[si], i-1))]++
-		}
-	}
-	// Feature rows in order of first appearance, which is deterministic.
-	rows := map[uint64]int32{}
-	var keys []uint64
-	var counts []int32
-	rowOf := func(k uint64) (int32, bool) {
-		if int(freq[k]) < opt.MinFeatureCount {
-			return 0, false
-		}
-		r, ok := rows[k]
-		if !ok {
-			r = int32(len(keys))
-			rows[k] = r
-			keys = append(keys, k)
-			counts = append(counts, 0)
-		}
-		counts[r]++
-		return r, true
-	}
-	data := make([]trainSent, len(sents))
-	for si, s := range sents {
-		l.info = extractFeatures(m, l, s.Tokens, l.info)
-		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1),
-			lower: make([]uint64, len(s.Tokens))}
-		ts.ids = make([]int32, 0, len(l.feats))
-		for i := range s.Tokens {
-			for _, k := range l.feats[l.foff[i]:l.foff[i+1]] {
-				if r, ok := rowOf(k); ok {
-					ts.ids = append(ts.ids, r)
-				}
-			}
-			ts.off[i+1] = int32(len(ts.ids))
-			ts.lower[i] = l.info[i].lower
-			rowOf(pairKey(ts.lower[i], prevOf(gold[si], i-1)))
-		}
-		data[si] = ts
-	}
-	freq = nil
-	nf := len(keys)
-	tr := &trainer{nt: nt, t1: t1,
-		w: make([]float32, nf*nt), u: make([]float64, nf*nt),
-		layers: m.transLayers(!opt.FactoredTransitions)}
-	for _, y := range tr.layers {
-		tr.ulay = append(tr.ulay, [2][]float64{make([]float64, len(y.tri)), make([]float64, len(y.bi))})
-	}
+	ws := newWorkspace()
+	rows := trainingRows(m, ws, sents, gold, opt.MinFeatureCount)
+	tr := newTrainer(m, len(rows.keys), opt)
 	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}
-	trans := transitions{t1: t1, layers: tr.layers}
+	trans := transitions{t1: nt + 1, layers: tr.layers}
 	if len(tr.layers) == 1 { // the joint states alone: the fast path
-		trans = transitions{t1: t1, tri: tr.layers[0].tri, bi: tr.layers[0].bi}
+		trans = transitions{t1: nt + 1, tri: tr.layers[0].tri, bi: tr.layers[0].bi}
 	}
-	order := make([]int, len(data))
+	order := make([]int, len(rows.data))
 	for i := range order {
 		order[i] = i
 	}
@@ -175,94 +118,194 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 	for ep := 1; ep <= opt.Epochs; ep++ {
 		rng.Shuffle(len(order), func(i, j int) { order[i], order[j] = order[j], order[i] })
 		for _, si := range order {
-			ts := &data[si]
+			ts := &rows.data[si]
 			tr.c++
-			l.reset(len(ts.toks))
-			score := l.score[:nt]
-			for i := range ts.toks {
-				clear(score)
-				for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
-					row := tr.w[int(id)*nt : int(id)*nt+nt]
-					for t, w := range row {
-						score[t] += w
-					}
-				}
-				if e, ok := m.entry(ts.toks[i].Form); ok && e.count >= trainDict {
-					for j := e.first; j < e.first+e.ntags; j++ {
-						l.add(m.wtags[j], score[m.wtags[j]])
-					}
-					l.closePos()
-				} else {
-					selectCands(l, score, m.perc.maxCands, 1)
-				}
-			}
-			// Tag-word pair scores from the current weights.
-			l.startPairs(bound)
-			for i := range ts.toks {
-				prev, cur, out := l.pairBlock(i)
-				for j, b := range prev {
-					r, ok := rows[pairKey(ts.lower[i], b)]
-					for k, c := range cur {
-						var v float32
-						if ok {
-							v = tr.w[int(r)*nt+int(c)]
-						}
-						out[j*len(cur)+k] = v
-					}
-				}
-			}
-			l.decode(&trans, -1) // no pruning while learning
-			pred := l.tags
-			at := func(seq []uint8, i int) uint8 {
-				if i < 0 || i >= len(seq) {
-					return bound
-				}
-				return seq[i]
-			}
-			for i := 0; i <= len(ts.gold); i++ {
-				g2, g1, g0 := at(ts.gold, i-2), at(ts.gold, i-1), at(ts.gold, i)
-				p2, p1, p0 := at(pred, i-2), at(pred, i-1), at(pred, i)
-				if g0 != p0 && i < len(ts.gold) {
-					for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
-						tr.updFeat(id, g0, 1)
-						tr.updFeat(id, p0, -1)
-					}
-				}
-				if (g1 != p1 || g0 != p0) && i < len(ts.gold) {
-					if r, ok := rows[pairKey(ts.lower[i], g1)]; ok {
-						tr.updFeat(r, g0, 1)
-					}
-					if r, ok := rows[pairKey(ts.lower[i], p1)]; ok {
-						tr.updFeat(r, p0, -1)
-					}
-				}
-				if g2 != p2 || g1 != p1 || g0 != p0 {
-					tr.updTrans(g2, g1, g0, 1)
-					tr.updTrans(p2, p1, p0, -1)
-				}
-			}
+			tr.predict(m, &ws.lattice, ts, rows.rows, &trans, trainDict)
+			tr.update(ts, ws.tags, rows.rows)
 		}
 		if opt.Progress != nil {
-			var du, dx float64
-			if len(opt.Dev) > 0 && ep < opt.Epochs {
-				finishPerceptron(m, tr, keys, counts, &TrainOptions{MinFeatureCount: -1, PruneWeight: -1, Beam: opt.Beam})
-				r := Evaluate(m, opt.Dev)
-				du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
-			}
-			if ep == opt.Epochs {
-				finishPerceptron(m, tr, keys, counts, opt)
-				if len(opt.Dev) > 0 {
-					r := Evaluate(m, opt.Dev)
-					du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
-				}
-			}
-			opt.Progress(ep, du, dx)
+			tr.reportEpoch(m, rows, ep, opt)
 		}
 	}
 	if opt.Progress == nil {
-		finishPerceptron(m, tr, keys, counts, opt)
+		finishPerceptron(m, tr, rows.keys, rows.counts, opt)
 	}
 	m.epochs = opt.Epochs
+}
+
+// tagAt returns the tag of position i of seq, or bound outside it.
+func tagAt(seq []uint8, i int, bound uint8) uint8 {
+	if i < 0 || i >= len(seq) {
+		return bound
+	}
+	return seq[i]
+}
+
+// featureRows numbers the features training keeps and holds the
+// training sentences in terms of them.
+type featureRows struct {
+	rows   map[uint64]int32 // feature key → row
+	keys   []uint64         // key of each row, in order of first appearance
+	counts []int32          // occurrences of each row's feature
+	data   []trainSent
+}
+
+// trainingRows counts the features of the training sentences and numbers
+// those seen minCount times or more, in order of first appearance, which
+// is deterministic. Rarer features are left out before training, not
+// only pruned after it: a word seen once then trains the weights unknown
+// words rely on (suffixes, shape, context) instead of its own identity
+// feature, which decoding would not have anyway.
+func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]uint8, minCount int) *featureRows {
+	bound := uint8(len(m.tags))
+	fs := &ws.featureScratch
+	freq := map[uint64]int32{}
+	for si, s := range sents {
+		fs.info = extractFeatures(fs, s.Tokens, fs.info)
+		for _, k := range fs.keys {
+			freq[k]++
+		}
+		for i := range s.Tokens {
+			freq[pairKey(fs.info[i].lower, tagAt(gold[si], i-1, bound))]++
+		}
+	}
+	fr := &featureRows{rows: map[uint64]int32{}}
+	rowOf := func(k uint64) (int32, bool) {
+		if int(freq[k]) < minCount {
+			return 0, false
+		}
+		r, ok := fr.rows[k]
+		if !ok {
+			r = int32(len(fr.keys))
+			fr.rows[k] = r
+			fr.keys = append(fr.keys, k)
+			fr.counts = append(fr.counts, 0)
+		}
+		fr.counts[r]++
+		return r, true
+	}
+	fr.data = make([]trainSent, len(sents))
+	for si, s := range sents {
+		fs.info = extractFeatures(fs, s.Tokens, fs.info)
+		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1),
+			lower: make([]uint64, len(s.Tokens))}
+		ts.ids = make([]int32, 0, len(fs.keys))
+		for i := range s.Tokens {
+			for _, k := range fs.keys[fs.keyOff[i]:fs.keyOff[i+1]] {
+				if r, ok := rowOf(k); ok {
+					ts.ids = append(ts.ids, r)
+				}
+			}
+			ts.off[i+1] = int32(len(ts.ids))
+			ts.lower[i] = fs.info[i].lower
+			rowOf(pairKey(ts.lower[i], tagAt(gold[si], i-1, bound)))
+		}
+		fr.data[si] = ts
+	}
+	return fr
+}
+
+// newTrainer returns zero weights for nf feature rows and the model's
+// transition layers.
+func newTrainer(m *Model, nf int, opt *TrainOptions) *trainer {
+	nt := len(m.tags)
+	tr := &trainer{nt: nt, w: make([]float32, nf*nt), u: make([]float64, nf*nt),
+		layers: m.transLayers(!opt.FactoredTransitions)}
+	for _, y := range tr.layers {
+		tr.ulay = append(tr.ulay, [2][]float64{make([]float64, len(y.tri)), make([]float64, len(y.bi))})
+	}
+	return tr
+}
+
+// predict builds the lattice of a training sentence from the current
+// weights — every tag a candidate unless the word is in the training
+// tag dictionary (trainDict) — with its tag-word pair scores, and
+// decodes it without pruning; the best path is left in l.tags.
+func (tr *trainer) predict(m *Model, l *lattice, ts *trainSent, rows map[uint64]int32, trans *transitions, trainDict int32) {
+	nt := tr.nt
+	l.reset(len(ts.toks))
+	score := l.score[:nt]
+	for i := range ts.toks {
+		clear(score)
+		for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
+			row := tr.w[int(id)*nt : int(id)*nt+nt]
+			for t, w := range row {
+				score[t] += w
+			}
+		}
+		if e, ok := m.entry(ts.toks[i].Form); ok && e.count >= trainDict {
+			for j := e.first; j < e.first+e.ntags; j++ {
+				l.add(m.wtags[j], score[m.wtags[j]])
+			}
+			l.closePos()
+		} else {
+			selectCands(l, score, m.perc.maxCands, 1)
+		}
+	}
+	l.startPairs(uint8(nt))
+	for i := range ts.toks {
+		prev, cur, out := l.pairBlock(i)
+		for j, b := range prev {
+			r, ok := rows[pairKey(ts.lower[i], b)]
+			for k, c := range cur {
+				var v float32
+				if ok {
+					v = tr.w[int(r)*nt+int(c)]
+				}
+				out[j*len(cur)+k] = v
+			}
+		}
+	}
+	l.decode(trans, -1) // no pruning while learning
+}
+
+// update moves the weights toward the gold tags and away from the
+// predicted ones wherever they differ: the token's features, its
+// tag-word pair feature and the transitions.
+func (tr *trainer) update(ts *trainSent, pred []uint8, rows map[uint64]int32) {
+	bound := uint8(tr.nt)
+	for i := 0; i <= len(ts.gold); i++ {
+		g2, g1, g0 := tagAt(ts.gold, i-2, bound), tagAt(ts.gold, i-1, bound), tagAt(ts.gold, i, bound)
+		p2, p1, p0 := tagAt(pred, i-2, bound), tagAt(pred, i-1, bound), tagAt(pred, i, bound)
+		if g0 != p0 && i < len(ts.gold) {
+			for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
+				tr.updFeat(id, g0, 1)
+				tr.updFeat(id, p0, -1)
+			}
+		}
+		if (g1 != p1 || g0 != p0) && i < len(ts.gold) {
+			if r, ok := rows[pairKey(ts.lower[i], g1)]; ok {
+				tr.updFeat(r, g0, 1)
+			}
+			if r, ok := rows[pairKey(ts.lower[i], p1)]; ok {
+				tr.updFeat(r, p0, -1)
+			}
+		}
+		if g2 != p2 || g1 != p1 || g0 != p0 {
+			tr.updTrans(g2, g1, g0, 1)
+			tr.updTrans(p2, p1, p0, -1)
+		}
+	}
+}
+
+// reportEpoch passes the dev accuracies after epoch ep to opt.Progress:
+// after an inner epoch from the averages so far, unpruned; after the last
+// from the finished model, which it leaves in m.
+func (tr *trainer) reportEpoch(m *Model, rows *featureRows, ep int, opt *TrainOptions) {
+	var du, dx float64
+	if len(opt.Dev) > 0 && ep < opt.Epochs {
+		finishPerceptron(m, tr, rows.keys, rows.counts, &TrainOptions{MinFeatureCount: -1, PruneWeight: -1, Beam: opt.Beam})
+		r := Evaluate(m, opt.Dev)
+		du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
+	}
+	if ep == opt.Epochs {
+		finishPerceptron(m, tr, rows.keys, rows.counts, opt)
+		if len(opt.Dev) > 0 {
+			r := Evaluate(m, opt.Dev)
+			du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
+		}
+	}
+	opt.Progress(ep, du, dx)
 }
 
 // finishPerceptron turns the averaged weights into the decoding form,

@@ -10,62 +10,62 @@ import (
 
 // buildLattice scores the tags of every token and keeps the candidates:
 // the tag dictionary's tags for frequent words (one tag needs no scoring
-// at all; see dictShare), the best maxCands tags for the others. Scores come from the
-// words' views (see views.go).
-func (p *perceptron) buildLattice(m *Model, l *lattice, toks []doc.Token) {
-	l.reset(len(toks))
-	p.viewsOf(m, l, toks)
+// at all; see dictShare), the best maxCands tags for the others. Scores
+// come from the words' views (see views.go).
+func (p *perceptron) buildLattice(m *Model, ws *workspace, toks []doc.Token) {
+	ws.reset(len(toks))
+	p.viewsOf(m, ws, toks)
 	nt := len(m.tags)
-	score := &l.steps
+	score := &ws.steps
 	// The context parts of token i+1 are gathered while token i is
 	// scored, and what scoring it will read is prefetched: its rows'
 	// weights, and for an open token its word-alone weights and its
-	// neighbours' side vectors. sumTop8 and addRow, which read them,
-	// took 17–21% of a one-worker run without the prefetch, 10–15% with
-	// it (prefetchParts itself about 5%).
-	if len(toks) > 0 && l.views[0].ndict != 1 {
-		l.rows, l.vecs = p.contextParts(l.rows[:0], l.vecs[:0], l.views, 0)
+	// neighbours' side vectors. scoreOpenToken and addRow, which read
+	// them, took 17–21% of a one-worker run without the prefetch, 10–15%
+	// with it (prefetchParts itself about 5%).
+	if len(toks) > 0 && ws.views[0].ndict != 1 {
+		ws.rows, ws.vecs = p.contextParts(ws.rows[:0], ws.vecs[:0], ws.views, 0)
 	}
 	for i := range toks {
-		if i+1 < len(toks) && l.views[i+1].ndict != 1 {
-			l.rows2, l.vecs2 = p.contextParts(l.rows2[:0], l.vecs2[:0], l.views, i+1)
-			p.prefetchParts(l.views, i+1, l.rows2)
+		if i+1 < len(toks) && ws.views[i+1].ndict != 1 {
+			ws.nextRows, ws.nextVecs = p.contextParts(ws.nextRows[:0], ws.nextVecs[:0], ws.views, i+1)
+			p.prefetchParts(ws.views, i+1, ws.nextRows)
 		}
-		v := l.views[i]
+		v := ws.views[i]
 		switch {
 		case v.ndict == 1:
-			l.add(p.dtags[v.dfirst], 0)
-			l.closePos()
+			ws.add(p.dtags[v.dfirst], 0)
+			ws.closePos()
 		case v.ndict > 0:
-			p.scoreDict(l, v, score)
+			p.scoreDict(ws, v, score)
 		case p.maxCands <= 8:
 			// The rows first, into a zeroed accumulator; then one pass
 			// over the tags sums the dense parts with it and selects.
-			for _, r := range l.rows {
-				p.addRow(&l.acc, r)
+			for _, r := range ws.rows {
+				p.addRow(&ws.acc, r)
 			}
 			va, vb := zeroSide[:], zeroSide[:]
-			if len(l.vecs) > 0 {
-				va = l.vecs[0]
+			if len(ws.vecs) > 0 {
+				va = ws.vecs[0]
 			}
-			if len(l.vecs) > 1 {
-				vb = l.vecs[1]
+			if len(ws.vecs) > 1 {
+				vb = ws.vecs[1]
 			}
-			sumTop8(l, v.alone[:nt], va, vb, &l.acc, p.maxCands, weightStep)
+			scoreOpenToken(&ws.lattice, v.alone[:nt], va, vb, &ws.acc, p.maxCands, weightStep)
 		default:
 			copy(score[:], v.alone)
-			for _, vec := range l.vecs {
+			for _, vec := range ws.vecs {
 				addDense(score, vec)
 			}
-			for _, r := range l.rows {
+			for _, r := range ws.rows {
 				p.addRow(score, r)
 			}
-			selectCands(l, score[:nt], p.maxCands, weightStep)
+			selectCands(&ws.lattice, score[:nt], p.maxCands, weightStep)
 		}
-		l.rows, l.rows2 = l.rows2, l.rows
-		l.vecs, l.vecs2 = l.vecs2, l.vecs
+		ws.rows, ws.nextRows = ws.nextRows, ws.rows
+		ws.vecs, ws.nextVecs = ws.nextVecs, ws.vecs
 	}
-	p.fillPairs(l, uint8(nt), l.pairRowOf, l.views)
+	p.fillPairs(&ws.lattice, &ws.tagIndex, uint8(nt), ws.views, nil)
 }
 
 // prefetchParts starts loading what scoring token i will read: the
@@ -104,18 +104,18 @@ func (p *perceptron) prefetchParts(views []*wordView, i int, rows []int32) {
 // tag in it cost a scan that ended in a mispredicted branch per tag.
 // score is scratch: only the dictionary's entries are set before and
 // read after; nothing reads what the rows leave in the others (an open
-// token sums into l.acc in sumTop8, or, with more than eight candidates,
-// starts from a copy of all nt word-alone scores).
-func (p *perceptron) scoreDict(l *lattice, v *wordView, score *[256]int32) {
+// token sums into ws.acc in scoreOpenToken, or, with more than eight
+// candidates, starts from a copy of all nt word-alone scores).
+func (p *perceptron) scoreDict(ws *workspace, v *wordView, score *[256]int32) {
 	tags := p.dtags[v.dfirst : v.dfirst+int32(v.ndict)]
 	for k, t := range tags {
 		s := v.alone[k]
-		for _, vec := range l.vecs {
+		for _, vec := range ws.vecs {
 			s += int32(vec[t])
 		}
 		score[t] = s
 	}
-	for _, r := range l.rows {
+	for _, r := range ws.rows {
 		if r < 0 {
 			continue
 		}
@@ -129,9 +129,9 @@ func (p *perceptron) scoreDict(l *lattice, v *wordView, score *[256]int32) {
 		p.addRow(score, r)
 	}
 	for _, t := range tags {
-		l.add(t, float32(score[t])*weightStep)
+		ws.add(t, float32(score[t])*weightStep)
 	}
-	l.closePos()
+	ws.closePos()
 }
 
 // addDense adds vec, indexed by tag, to score (in steps).
@@ -142,29 +142,13 @@ func addDense(score *[256]int32, vec []int16) {
 	}
 }
 
-// startPairs sizes l.pair for the lattice's states, with bound the
-// boundary tag (the "previous tag" of the first position).
-func (l *lattice) startPairs(bound uint8) {
-	l.pair = growF32(l.pair, l.layout())
-	l.bound[0] = bound
-}
-
-// pairBlock returns the candidates of positions i-1 (the boundary for
-// i = 0) and i, and the pair scores of their states, from l.pair[doff[i]]
-// on: the score of (prev[j], cur[k]) is out[j*len(cur)+k].
-func (l *lattice) pairBlock(i int) (prev, cur []uint8, out []float32) {
-	prev = l.bound[:]
-	if i > 0 {
-		prev = l.cands[l.off[i-1]:l.off[i]]
-	}
-	return prev, l.cands[l.off[i]:l.off[i+1]], l.pair[l.doff[i]:]
-}
-
-// fillPairs scores the tag-word pair features of every state; rowOf gives
-// the row of "word i after tag b". views, when not nil, are the tokens'
-// views: the scores of words the tag dictionary settles are then copied
-// from their views (wordView.pairData) instead of read from rows.
-func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint8) int32, views []*wordView) {
+// fillPairs scores the tag-word pair features of every state. views,
+// when not nil, are the tokens' views: the row of "word i after tag b" is
+// then found from the view (pairRow), and the scores of words the tag
+// dictionary settles are copied from it (wordView.pairData) instead of
+// read from rows. Without views, rowOf gives that row. index is scratch
+// (see tagIndex).
+func (p *perceptron) fillPairs(l *lattice, index *tagIndex, bound uint8, views []*wordView, rowOf func(i int, b uint8) int32) {
 	l.startPairs(bound)
 	for i := 0; i < l.n; i++ {
 		prev, cur, out := l.pairBlock(i)
@@ -187,11 +171,17 @@ func (p *perceptron) fillPairs(l *lattice, bound uint8, rowOf func(i int, b uint
 			}
 			continue
 		}
-		l.markTags(cur)
+		index.mark(cur)
 		for j, b := range prev {
-			p.rowAt(out[j*nc:(j+1)*nc], rowOf(i, b), cur, &l.slot)
+			var r int32
+			if views != nil {
+				r = p.pairRow(views[i], b)
+			} else {
+				r = rowOf(i, b)
+			}
+			p.rowAt(out[j*nc:(j+1)*nc], r, cur, index)
 		}
-		l.unmarkTags(cur)
+		index.unmark(cur)
 	}
 }
 
@@ -236,7 +226,7 @@ func selectCands[S int32 | float32](l *lattice, score []S, maxCands int, scale f
 	l.closePos()
 }
 
-// sumTop8 sums the scores of an open token — its word-alone weights,
+// scoreOpenToken sums the scores of an open token — its word-alone weights,
 // two dense vectors (its neighbours' side vectors, or zeroSide) and the
 // rows gathered in acc, all in whole steps — and adds its best maxCands
 // (at most eight) tags to the lattice, in one pass over the tags; acc is
@@ -253,7 +243,7 @@ func selectCands[S int32 | float32](l *lattice, score []S, maxCands int, scale f
 // rare words from the benchmark corpus (102 tags) the keys took 290 ns a
 // token against 480–500. Only the eighth key stays in a register through
 // the loop: all eight, with the four slices, spilled on every tag.
-func sumTop8(l *lattice, alone []int32, va, vb []int16, acc *[256]int32, maxCands int, scale float32) {
+func scoreOpenToken(l *lattice, alone []int32, va, vb []int16, acc *[256]int32, maxCands int, scale float32) {
 	const none = math.MinInt64
 	n := len(alone)
 	va, vb, rows := va[:n], vb[:n], acc[:n]

@@ -3,6 +3,8 @@ package hmm
 import (
 	"errors"
 	"fmt"
+	"maps"
+	"slices"
 	"sort"
 	"strings"
 
@@ -222,11 +224,7 @@ func newBase(sents []*conllu.Sentence, opt *TrainOptions) (*Model, [][]uint8, er
 		}
 		gold[si] = g
 	}
-	forms := make([]string, 0, len(wordTags))
-	for f := range wordTags {
-		forms = append(forms, f)
-	}
-	sort.Strings(forms)
+	forms := slices.Sorted(maps.Keys(wordTags))
 	m.lex = make(map[string]int32, len(forms))
 	for _, f := range forms {
 		e := wordEntry{first: int32(len(m.wtags))}

@@ -16,7 +16,7 @@ import (
 // tag" features. Views of lexicon words are built on first use and shared
 // by all goroutines (a view is a pure function of the form, so which
 // goroutine builds it does not matter); views of other words are kept in
-// a small cache per lattice. Scoring then reads three dense vectors (the
+// a small cache per workspace. Scoring then reads three dense vectors (the
 // word's own, its neighbours' side vectors) and a few rows per token, two
 // of them found by hashing (the word bigrams).
 //
@@ -79,7 +79,7 @@ type wordView struct {
 	pairs      bool
 	upperFirst bool
 	// lemma, when lemmaSet, is the word's lemma in state lemmaState: for
-	// a word outside the lexicon (whose view a lattice owns), the last one
+	// a word outside the lexicon (whose view a workspace owns), the last one
 	// found; for a lexicon word, its lemma with its most frequent tag, set
 	// when the view is built and never changed (the view is shared). The
 	// view is in cache when the lemma is looked up, the lexicon is not.
@@ -152,10 +152,10 @@ func (p *perceptron) prepareDense() {
 	p.denseW = append(store, make([]int16, 256)...) // room to view the last row as [256]
 }
 
-// rowAt sets out[k] to the weight of row r for tag tags[k]; slot maps
-// each of tags to its index and every other tag to -1 (see markTags), so
-// that a short row is read once, whatever the number of tags.
-func (p *perceptron) rowAt(out []float32, r int32, tags []uint8, slot *[256]int16) {
+// rowAt sets out[k] to the weight of row r for tag tags[k]; index maps
+// each of tags to its k (see tagIndex), so that a short row is read once,
+// whatever the number of tags.
+func (p *perceptron) rowAt(out []float32, r int32, tags []uint8, index *tagIndex) {
 	out = out[:len(tags)]
 	clear(out)
 	if r < 0 {
@@ -169,23 +169,9 @@ func (p *perceptron) rowAt(out []float32, r int32, tags []uint8, slot *[256]int1
 		return
 	}
 	for _, c := range p.cells[p.rowStart[r]:p.rowStart[r+1]] {
-		if k := slot[c.t]; k >= 0 {
+		if k := index[c.t]; k >= 0 {
 			out[k] = c.w()
 		}
-	}
-}
-
-// markTags points l.slot at the index of each of tags; unmarkTags undoes
-// it, leaving every entry -1 again.
-func (l *lattice) markTags(tags []uint8) {
-	for k, t := range tags {
-		l.slot[t] = int16(k)
-	}
-}
-
-func (l *lattice) unmarkTags(tags []uint8) {
-	for _, t := range tags {
-		l.slot[t] = -1
 	}
 }
 
@@ -200,8 +186,9 @@ func (p *perceptron) addRow(score *[256]int32, r int32) {
 }
 
 // prepareViews readies the lazily built lexicon views and the boundary
-// rows.
+// rows, and gives the weights a new identity (see weightsIDs).
 func (p *perceptron) prepareViews(m *Model) {
+	p.id = weightsIDs.Add(1)
 	p.nt = len(m.tags)
 	p.prepareDense()
 	p.views = make([]atomic.Pointer[wordView], len(m.words))
@@ -216,7 +203,7 @@ func (p *perceptron) prepareViews(m *Model) {
 // on first use. Words the tag dictionary settles on its own get no
 // word-alone scores; every lexicon word gets its pair list, as lexicon
 // words are the ones that recur.
-func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordView {
+func (p *perceptron) lexView(m *Model, fs *featureScratch, w int32, form string) *wordView {
 	if v := p.views[w].Load(); v != nil {
 		return v
 	}
@@ -226,7 +213,7 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 	if e.count < p.dictMin || p.dict[w].n > 1 {
 		alone = make([]int32, p.nt)
 	}
-	l.feats, l.buf = p.fillView(v, form, alone, l.feats, l.buf)
+	fs.keys, fs.buf = p.fillView(v, form, alone, fs.keys, fs.buf)
 	for b := 0; b <= p.nt; b++ {
 		if r := p.row(pairKey(v.lower, uint8(b))); r >= 0 {
 			v.pairSet[b>>6] |= 1 << (b & 63)
@@ -266,14 +253,14 @@ func (p *perceptron) lexView(m *Model, l *lattice, w int32, form string) *wordVi
 }
 
 // unknownCacheSize is the number of views of words outside the lexicon a
-// lattice keeps (direct-mapped by hash: a newcomer replaces whatever sat
+// workspace keeps (direct-mapped by hash: a newcomer replaces whatever sat
 // in its slot). Domain words recur within a document and a corpus: on
 // 4 MiB of the benchmark corpus 43% of the unknown tokens missed a
-// 2048-slot cache, 23% miss this one (about 4 MB per lattice; one lattice
-// per busy goroutine).
+// 2048-slot cache, 23% miss this one (about 4 MB per workspace; one
+// workspace per busy goroutine).
 const unknownCacheSize = 8192
 
-// cachedView is one slot of a lattice's cache of unknown-word views. The
+// cachedView is one slot of a workspace's cache of unknown-word views. The
 // form is kept in the slot itself, where comparing it reads the cache
 // line the slot's look-up has just brought in; kept as a string of its
 // own (a copy: the cache must not keep documents' text alive), comparing
@@ -282,10 +269,10 @@ const unknownCacheSize = 8192
 // after.) Forms longer than maxCachedForm are not cached (see
 // unknownView).
 type cachedView struct {
-	form [maxCachedForm]byte
-	n    uint8  // the form's length; 0 for an empty slot
-	gen  uint64 // the sentence (lattice generation) that last used it
-	view wordView
+	form     [maxCachedForm]byte
+	n        uint8  // the form's length; 0 for an empty slot
+	sentence uint64 // the sentence (featureScratch.sentence) that last used it
+	view     wordView
 }
 
 // maxCachedForm is the longest form the unknown-word cache keeps: nearly
@@ -299,66 +286,67 @@ func (c *cachedView) holds(form string) bool {
 }
 
 // unknownView returns the view of a word outside the lexicon from the
-// lattice's cache, building it when absent.
-func (p *perceptron) unknownView(l *lattice, form string) *wordView {
-	if l.cache == nil {
-		l.cache = make([]cachedView, unknownCacheSize)
-		l.cacheAlone = make([]int32, unknownCacheSize*p.nt)
+// workspace's cache, building it when absent.
+func (p *perceptron) unknownView(fs *featureScratch, form string) *wordView {
+	if fs.cache == nil {
+		fs.cache = make([]cachedView, unknownCacheSize)
+		fs.cacheAlone = make([]int32, unknownCacheSize*p.nt)
 	}
 	slot := hashString(form) & (unknownCacheSize - 1)
-	c := &l.cache[slot]
+	c := &fs.cache[slot]
 	cacheable := form != "" && len(form) <= maxCachedForm
 	if cacheable && c.holds(form) {
-		c.gen = l.gen
+		c.sentence = fs.sentence
 		return &c.view
 	}
-	if !cacheable || c.gen == l.gen && c.n != 0 {
+	if !cacheable || c.sentence == fs.sentence && c.n != 0 {
 		// The form cannot be cached, or another word of this sentence
 		// holds the slot: build this view aside rather than pull one from
-		// under that word. (l.aside has room for every token, so it never
+		// under that word. (fs.aside has room for every token, so it never
 		// moves.)
-		k := len(l.aside)
-		l.aside = append(l.aside, wordView{})
-		alone := l.asideAlone[k*p.nt : (k+1)*p.nt : (k+1)*p.nt]
-		l.feats, l.buf = p.fillView(&l.aside[k], form, alone, l.feats, l.buf)
-		return &l.aside[k]
+		k := len(fs.aside)
+		fs.aside = append(fs.aside, wordView{})
+		alone := fs.asideAlone[k*p.nt : (k+1)*p.nt : (k+1)*p.nt]
+		fs.keys, fs.buf = p.fillView(&fs.aside[k], form, alone, fs.keys, fs.buf)
+		return &fs.aside[k]
 	}
-	c.gen = l.gen
-	alone := l.cacheAlone[int(slot)*p.nt : int(slot+1)*p.nt : int(slot+1)*p.nt]
+	c.sentence = fs.sentence
+	alone := fs.cacheAlone[int(slot)*p.nt : int(slot+1)*p.nt : int(slot+1)*p.nt]
 	c.n = uint8(copy(c.form[:], form))
-	l.feats, l.buf = p.fillView(&c.view, form, alone, l.feats, l.buf)
+	fs.keys, fs.buf = p.fillView(&c.view, form, alone, fs.keys, fs.buf)
 	return &c.view
 }
 
-// viewsOf points l.views at the view of every token and records the
-// lexicon index of each token in l.wid.
-func (p *perceptron) viewsOf(m *Model, l *lattice, toks []doc.Token) {
-	if l.perc != p {
-		// The cache holds views (rows) of another model's weights: during
+// viewsOf points ws.views at the view of every token and records the
+// lexicon index of each token in ws.wid.
+func (p *perceptron) viewsOf(m *Model, ws *workspace, toks []doc.Token) {
+	if ws.cacheWeights != p.id {
+		// The caches hold views (rows) and lemmas of other weights: during
 		// training with progress reports a model's weights are replaced
-		// after every epoch, and its pooled lattices stay.
-		l.cache, l.cacheAlone, l.lexMemo = nil, nil, nil
-		l.perc = p
+		// after every epoch, and its pooled workspaces stay.
+		ws.cache, ws.cacheAlone, ws.lexMemo = nil, nil, nil
+		ws.cacheWeights = p.id
 	}
 	n := len(toks)
-	if cap(l.views) < n {
-		l.views = make([]*wordView, n, 2*n)
-		l.aside = make([]wordView, 0, 2*n)
-		l.asideAlone = make([]int32, 2*n*p.nt)
+	if cap(ws.views) < n {
+		ws.views = make([]*wordView, n, 2*n)
+		ws.aside = make([]wordView, 0, 2*n)
+		ws.asideAlone = make([]int32, 2*n*p.nt)
 	}
-	l.views = l.views[:n]
-	l.wid = l.wid[:0]
-	l.gen++
-	l.aside = l.aside[:0]
+	ws.views = ws.views[:n]
+	ws.wid = ws.wid[:0]
+	ws.sentence++
+	ws.aside = ws.aside[:0]
+	fs := &ws.featureScratch
 	for i := range toks {
 		form := toks[i].Form
 		if w, ok := m.lex[form]; ok {
-			l.wid = append(l.wid, w)
-			l.views[i] = p.lexView(m, l, w, form)
+			ws.wid = append(ws.wid, w)
+			ws.views[i] = p.lexView(m, fs, w, form)
 			continue
 		}
-		l.wid = append(l.wid, -1)
-		l.views[i] = p.unknownView(l, form)
+		ws.wid = append(ws.wid, -1)
+		ws.views[i] = p.unknownView(fs, form)
 	}
 }
 
@@ -376,11 +364,6 @@ func (v *wordView) pairIndex(b uint8) int {
 	}
 	return k
 }
-
-// pairRowOf is fillPairs' row function for the lattice's views; the
-// lattice keeps it as a method value so that no closure is made per
-// sentence.
-func (l *lattice) pairRowOf(i int, b uint8) int32 { return l.perc.pairRow(l.views[i], b) }
 
 // pairRow returns the row of the feature "word of v after tag b", or -1.
 func (p *perceptron) pairRow(v *wordView, b uint8) int32 {

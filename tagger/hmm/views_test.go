@@ -19,36 +19,36 @@ import (
 // It scores the tags of every token and keeps the candidates:
 // the tag dictionary's tags for frequent words (one tag needs no scoring
 // at all), the best maxCands tags for the others.
-func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
-	l.reset(len(toks))
+func (p *perceptron) buildLatticeRef(m *Model, ws *workspace, toks []doc.Token) {
+	ws.reset(len(toks))
 	// Look the words up first: a dictionary word with one tag needs no
 	// features at all.
-	l.need = l.need[:0]
+	ws.need = ws.need[:0]
 	for i := range toks {
-		e, ok := m.lookup(l, toks[i].Form)
-		l.need = append(l.need, !ok || e.count < p.dictMin || p.dict[l.wid[i]].n > 1)
+		e, ok := m.lookup(&ws.featureScratch, toks[i].Form)
+		ws.need = append(ws.need, !ok || e.count < p.dictMin || p.dict[ws.wid[i]].n > 1)
 	}
-	l.info = extractFeatures(m, l, toks, l.info)
-	l.need = l.need[:0]
+	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info)
+	ws.need = ws.need[:0]
 	nt := len(m.tags)
-	score := l.score[:nt]
+	score := ws.score[:nt]
 	for i := range toks {
 		var e *wordEntry
-		if w := l.wid[i]; w >= 0 {
+		if w := ws.wid[i]; w >= 0 {
 			e = &m.words[w]
 		}
 		dict := e != nil && e.count >= p.dictMin
-		if dict && p.dict[l.wid[i]].n == 1 {
-			l.add(p.dictTags(l.wid[i])[0], 0)
-			l.closePos()
+		if dict && p.dict[ws.wid[i]].n == 1 {
+			ws.add(p.dictTags(ws.wid[i])[0], 0)
+			ws.closePos()
 			continue
 		}
 		clear(score)
-		from := l.foff[i]
+		from := ws.keyOff[i]
 		if dict {
-			from = l.fmid[i] // the word-alone part is in wscore
+			from = ws.aloneEnd[i] // the word-alone part is in wscore
 		}
-		for _, k := range l.feats[from:l.foff[i+1]] {
+		for _, k := range ws.keys[from:ws.keyOff[i+1]] {
 			r := p.row(k)
 			if r < 0 {
 				continue
@@ -58,20 +58,20 @@ func (p *perceptron) buildLatticeRef(m *Model, l *lattice, toks []doc.Token) {
 			}
 		}
 		if dict {
-			for _, t := range p.dictTags(l.wid[i]) {
+			for _, t := range p.dictTags(ws.wid[i]) {
 				var alone float32 // what the old load-time table held
-				for _, k := range l.feats[l.foff[i]:l.fmid[i]] {
+				for _, k := range ws.keys[ws.keyOff[i]:ws.aloneEnd[i]] {
 					alone += p.weight(p.row(k), t)
 				}
-				l.add(t, score[t]+alone)
+				ws.add(t, score[t]+alone)
 			}
-			l.closePos()
+			ws.closePos()
 			continue
 		}
-		selectCands(l, score, p.maxCands, 1)
+		selectCands(&ws.lattice, score, p.maxCands, 1)
 	}
 	// "Word after tag" rows by key, from the hashes of every token.
-	p.fillPairs(l, uint8(nt), func(i int, b uint8) int32 { return p.row(pairKey(l.info[i].lower, b)) }, nil)
+	p.fillPairs(&ws.lattice, &ws.tagIndex, uint8(nt), nil, func(i int, b uint8) int32 { return p.row(pairKey(ws.info[i].lower, b)) })
 }
 
 // weight returns the weight of row r for tag t (0 when absent), for the
@@ -91,7 +91,7 @@ func TestViewsMatchPlainScoring(t *testing.T) {
 		t.Fatal(err)
 	}
 	p := m.perc
-	fast, plain := newLattice(), newLattice()
+	fast, plain := newWorkspace(), newWorkspace()
 	toks := 0
 	for _, s := range dev {
 		p.buildLattice(m, fast, s.Tokens)
@@ -128,7 +128,8 @@ func equalSlices[E comparable](a, b []E) bool {
 // insertion it replaced, on random scores with many ties.
 func TestSelectCandsAgrees(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
-	a, b := newLattice(), newLattice()
+	la, lb := newLattice(), newLattice()
+	a, b := &la, &lb
 	score := make([]float32, 102)
 	steps := make([]int32, 102)
 	for round := 0; round < 2000; round++ {
@@ -158,7 +159,7 @@ func TestSelectCandsAgrees(t *testing.T) {
 			for _, n := range []int{len(steps), 1 + rng.IntN(12)} {
 				a.reset(1)
 				b.reset(1)
-				// Split the scores into the four parts sumTop8 adds.
+				// Split the scores into the four parts scoreOpenToken adds.
 				var acc [256]int32
 				alone := make([]int32, n)
 				va, vb := make([]int16, n), make([]int16, n)
@@ -168,9 +169,9 @@ func TestSelectCandsAgrees(t *testing.T) {
 					acc[t] = int32(rng.IntN(200) - 100)
 					alone[t] = x - int32(va[t]) - int32(vb[t]) - acc[t]
 				}
-				sumTop8(a, alone, va, vb, &acc, k, 1)
+				scoreOpenToken(a, alone, va, vb, &acc, k, 1)
 				if acc != ([256]int32{}) {
-					t.Fatalf("sumTop8 left the accumulator dirty: %v", acc[:n])
+					t.Fatalf("scoreOpenToken left the accumulator dirty: %v", acc[:n])
 				}
 				selectCandsLong(b, score[:n], k)
 				if !equalSlices(a.cands, b.cands) || !equalSlices(a.emit, b.emit) || !equalSlices(a.off, b.off) {
@@ -255,7 +256,7 @@ func TestRankedTransitionsDecodeAlike(t *testing.T) {
 	// which applies the beam in a pass of its own and has no special
 	// cases: forwardFolded must find the same paths.
 	general := transitions{t1: floats.t1, tri: floats.tri[:len(floats.tri):len(floats.tri)]}
-	l := newLattice()
+	l := newWorkspace()
 	for _, s := range dev {
 		m.perc.buildLattice(m, l, s.Tokens)
 		l.decode(&m.trans, m.beam)
@@ -309,7 +310,7 @@ func TestMemoLemmaFollowsState(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	l := newLattice()
+	l := newWorkspace()
 	toks := []doc.Token{{Form: "Glorbs"}, {Form: "flimbles"}}
 	m.perc.buildLattice(m, l, toks)
 	for _, st := range []string{"NNS\tNOUN", "JJ\tADJ", "NNS\tNOUN"} {
@@ -401,7 +402,7 @@ func TestCacheKeepsNoDocumentText(t *testing.T) {
 		toks = append(toks, doc.Token{Form: text[start:end], Start: int32(start), End: int32(end)})
 		start = end + 1
 	}
-	l := newLattice()
+	l := newWorkspace()
 	m.decode(l, toks)
 	for i := range toks { // as Tag does for words outside the lexicon
 		st := l.tags[i]
@@ -448,7 +449,7 @@ func FuzzViewsMatchPlainScoring(f *testing.F) {
 	if err != nil {
 		f.Fatal(err)
 	}
-	fast, plain := newLattice(), newLattice()
+	fast, plain := newWorkspace(), newWorkspace()
 	f.Fuzz(func(t *testing.T, text string) {
 		var toks []doc.Token
 		for _, w := range strings.Fields(text) {
@@ -485,7 +486,7 @@ func TestCacheFollowsWeights(t *testing.T) {
 	for _, w := range strings.Fields("The glorbished flanges of the zentrifuge were unpackaged .") {
 		toks = append(toks, doc.Token{Form: w})
 	}
-	reused, fresh := newLattice(), newLattice()
+	reused, fresh := newWorkspace(), newWorkspace()
 	m1.perc.buildLattice(m1, reused, toks)
 	m2.perc.buildLattice(m2, reused, toks)
 	m2.perc.buildLattice(m2, fresh, toks)

@@ -3,11 +3,10 @@ package hmm
 import (
 	"math"
 	"sort"
-	"strings"
 )
 
-// lattice holds one sentence's decoding problem and the scratch space of
-// the second-order Viterbi search. Both the generative and the perceptron
+// lattice holds one sentence's decoding problem and the state of the
+// second-order Viterbi search. Both the generative and the perceptron
 // model reduce to it: every score is additive (log probabilities or
 // perceptron weights), so the decoder does not care which model made them.
 //
@@ -19,78 +18,29 @@ type lattice struct {
 	cands []uint8   // candidate tags of all positions, flat
 	off   []int32   // cands of position i: cands[off[i]:off[i+1]]
 	emit  []float32 // emission score per candidate, parallel to cands
-	delta []float32 // per position: prev-cand × cur-cand scores
-	back  []int16   // back pointers (index into cands of position i-2)
-	doff  []int32   // delta/back of position i start at doff[i]
-	tags  []uint8   // best path, filled by decode
-	cut   float32   // states of the last position below it are dead (beam)
-	aoff  [256]int  // scratch of forwardFolded: offsets of the rows of the candidates two positions back
-	score []float32 // scratch: one score per tag
-	buf   []byte    // scratch for lower-casing and the like
-	feats []uint64  // scratch for feature keys
-	info  []tokenInfo
-	foff  []int32
-	fmid  []int32
-	bound [1]uint8
-	wid   []int32 // lexicon index of each token, -1 if unknown
-	need  []bool  // tokens that need features (nil or empty: all)
 	// pair holds, in the layout of delta, a score for each (previous tag,
 	// tag) state that depends on the word: the perceptron's tag-word
 	// features. Unused when its length differs from delta's.
-	pair []float32
-	// views[i] is the view of token i (perceptron): a shared lexicon view
-	// or one from cache, the lattice's own views of words outside the
-	// lexicon, whose word-alone scores live in cacheAlone; rows is scratch.
-	views       []*wordView
-	cache       []cachedView
-	cacheAlone  []int32
-	rows, rows2 []int32        // context rows of the token being scored and of the next
-	vecs, vecs2 [][]int16      // their side vectors
-	steps       [256]int32     // scratch: one score per tag, in weight steps
-	acc         [256]int32     // rows of an open token, in steps; zero between tokens (sumTop8)
-	perc        *perceptron    // the model whose views these are
-	rcand       []uint8        // rank of each candidate (see fold)
-	slot        [256]int16     // the tags of one position → their index, else -1 (markTags)
-	gen         uint64         // counts the sentences decoded, for the cache
-	lexMemo     []lexLemmaSlot // see lexLemma
-	aside       []wordView     // views of words whose cache slot was taken
-	asideAlone  []int32
-}
-
-// lexLemmaBits gives the number of slots (1<<lexLemmaBits) of a
-// lattice's memo of lemmas of lexicon words in states they were not seen
-// in (direct-mapped).
-const lexLemmaBits = 12
-
-// lexLemmaSlot is one slot of that memo.
-type lexLemmaSlot struct {
-	key   uint64 // 1 + word<<8 + state; 0 for an empty slot
-	lemma string
-}
-
-// lexLemma returns the lemma of lexicon word w in state st from the
-// lattice's memo, or from find (whose result is kept) when absent.
-func (l *lattice) lexLemma(w int32, st uint8, find func() string) string {
-	if l.lexMemo == nil {
-		l.lexMemo = make([]lexLemmaSlot, 1<<lexLemmaBits)
-	}
-	key := 1 + uint64(w)<<8 + uint64(st)
-	e := &l.lexMemo[(key*0x9E3779B97F4A7C15)>>(64-lexLemmaBits)]
-	if e.key != key {
-		// A clone: the lemma may be a slice of the document's text.
-		e.key, e.lemma = key, strings.Clone(find())
-	}
-	return e.lemma
+	pair     []float32
+	delta    []float32 // per position: prev-cand × cur-cand scores
+	back     []int16   // back pointers (index into cands of position i-2)
+	stateOff []int32   // delta, back and pair of position i start at stateOff[i]
+	candRank []uint8   // rank of each candidate, parallel to cands (see fold)
+	// prev2Row is scratch of forwardFolded: for each candidate two
+	// positions back, the offset of its block of the trigram table.
+	prev2Row [256]int
+	tags     []uint8 // best path, filled by decode
+	cut      float32 // states of the last position below it are dead (beam)
+	bound    [1]uint8
+	// score is scratch of candidate selection and of the generative
+	// model's suffix scores: one score per tag.
+	score []float32
 }
 
 // newLattice returns an empty lattice; its score scratch has room for
 // every possible tag (maxTags), so scoring may index it by a byte.
-func newLattice() *lattice {
-	l := &lattice{score: make([]float32, maxTags+1)}
-	for i := range l.slot {
-		l.slot[i] = -1
-	}
-	return l
+func newLattice() lattice {
+	return lattice{score: make([]float32, maxTags+1)}
 }
 
 func (l *lattice) reset(n int) {
@@ -98,7 +48,6 @@ func (l *lattice) reset(n int) {
 	l.cands = l.cands[:0]
 	l.emit = l.emit[:0]
 	l.off = append(l.off[:0], 0)
-	l.wid = l.wid[:0]
 	l.pair = l.pair[:0]
 }
 
@@ -110,6 +59,25 @@ func (l *lattice) add(tag uint8, score float32) {
 }
 
 func (l *lattice) closePos() { l.off = append(l.off, int32(len(l.cands))) }
+
+// startPairs sizes l.pair for the lattice's states, with bound the
+// boundary tag (the "previous tag" of the first position).
+func (l *lattice) startPairs(bound uint8) {
+	l.pair = growF32(l.pair, l.layout())
+	l.bound[0] = bound
+}
+
+// pairBlock returns the candidates of positions i-1 (the boundary for
+// i = 0) and i, and the pair scores of their states, from
+// l.pair[stateOff[i]] on: the score of (prev[j], cur[k]) is
+// out[j*len(cur)+k].
+func (l *lattice) pairBlock(i int) (prev, cur []uint8, out []float32) {
+	prev = l.bound[:]
+	if i > 0 {
+		prev = l.cands[l.off[i-1]:l.off[i]]
+	}
+	return prev, l.cands[l.off[i]:l.off[i+1]], l.pair[l.stateOff[i]:]
+}
 
 var negInf = float32(math.Inf(-1))
 
@@ -177,9 +145,9 @@ func (l *lattice) decode(tr *transitions, beam float32) {
 	if rank == nil {
 		rank = &identityRank
 	}
-	l.rcand = grow(l.rcand, len(l.cands))
+	l.candRank = grow(l.candRank, len(l.cands))
 	for i, c := range l.cands {
-		l.rcand[i] = rank[c]
+		l.candRank[i] = rank[c]
 	}
 	switch {
 	case tr.steps != nil:
@@ -215,7 +183,7 @@ func (l *lattice) candAt(i int) []uint8 {
 // dead states (−∞ plus a finite score stays −∞).
 func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32, rank *[256]uint8, beam float32) {
 	pairs := len(l.pair) == len(l.delta)
-	aoff := &l.aoff
+	prev2Row := &l.prev2Row
 	pcut := dead // states of the previous position below it are dead
 	var start [1]float32
 	prev2, prev := l.bound[:], l.bound[:]
@@ -224,8 +192,8 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 		cur := l.cands[lo:hi]
 		p1, p0 := len(prev), len(cur)
 		emit := l.emit[lo:hi][:p0]
-		rcur := l.rcand[lo:hi][:p0]
-		base := int(l.doff[i])
+		rcur := l.candRank[lo:hi][:p0]
+		base := int(l.stateOff[i])
 		delta := l.delta[base : base+p1*p0]
 		back := l.back[base : base+p1*p0]
 		var pair []float32
@@ -234,11 +202,11 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 		}
 		pdelta := start[:] // before the first position: one state, score 0
 		if i > 0 {
-			pb := int(l.doff[i-1])
+			pb := int(l.stateOff[i-1])
 			pdelta = l.delta[pb : pb+len(prev2)*p1]
 		}
 		for h, a := range prev2 {
-			aoff[h] = int(rank[a]) * t1 * t1
+			prev2Row[h] = int(rank[a]) * t1 * t1
 		}
 		best := negInf
 		if p0 == 1 {
@@ -254,7 +222,7 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 					if d < pcut {
 						continue
 					}
-					if s := d + float32(tab[aoff[uint8(h)]+rb])*scale; s > v {
+					if s := d + float32(tab[prev2Row[uint8(h)]+rb])*scale; s > v {
 						v, bh = s, h
 					}
 				}
@@ -281,7 +249,7 @@ func forwardFolded[W int16 | float32](l *lattice, tab []W, t1 int, scale float32
 						continue
 					}
 					// A tag is a byte, so an array of 256 needs no bounds checks.
-					off := aoff[uint8(h)] + rb
+					off := prev2Row[uint8(h)] + rb
 					tri := (*[256]W)(tab[off : off+256])
 					for k, c := range rcur {
 						if s := d + float32(tri[c])*scale; s > row[k] {
@@ -349,7 +317,7 @@ func (l *lattice) forward(tr *transitions, beam float32) {
 		prev2, prev, cur := l.candAt(i-2), l.candAt(i-1), l.candAt(i)
 		p1, p0 := len(prev), len(cur)
 		emit := l.emit[l.off[i]:l.off[i+1]]
-		base := int(l.doff[i])
+		base := int(l.stateOff[i])
 		delta := l.delta[base : base+p1*p0]
 		back := l.back[base : base+p1*p0]
 		for s := range delta {
@@ -357,7 +325,7 @@ func (l *lattice) forward(tr *transitions, beam float32) {
 		}
 		var pdelta []float32
 		if i > 0 {
-			pb := int(l.doff[i-1])
+			pb := int(l.stateOff[i-1])
 			pdelta = l.delta[pb : pb+len(prev2)*p1]
 		}
 		for j, b := range prev {
@@ -424,7 +392,7 @@ func (l *lattice) finish(tr *transitions, rank *[256]uint8) {
 	bound := int(l.bound[0])
 	prev, cur := l.candAt(n-2), l.candAt(n-1)
 	p0 := len(cur)
-	base := int(l.doff[n-1])
+	base := int(l.stateOff[n-1])
 	best := negInf
 	bj, bk := 0, 0
 	for j, b := range prev {
@@ -457,26 +425,26 @@ func (l *lattice) finish(tr *transitions, rank *[256]uint8) {
 		if i == 0 {
 			break
 		}
-		h := int(l.back[int(l.doff[i])+j*len(cur)+k])
+		h := int(l.back[int(l.stateOff[i])+j*len(cur)+k])
 		k = j
 		j = h
 	}
 }
 
-// layout fills l.doff: position i has P(i-1) × P(i) states (P(-1) = 1,
-// the boundary), stored from l.doff[i] on. It returns the total.
+// layout fills l.stateOff: position i has P(i-1) × P(i) states (P(-1) = 1,
+// the boundary), stored from l.stateOff[i] on. It returns the total.
 func (l *lattice) layout() int {
 	n := l.n
-	l.doff = growI32(l.doff, n+1)
+	l.stateOff = growI32(l.stateOff, n+1)
 	size := 0
 	prevP := 1
 	for i := 0; i < n; i++ {
-		l.doff[i] = int32(size)
+		l.stateOff[i] = int32(size)
 		p := int(l.off[i+1] - l.off[i])
 		size += prevP * p
 		prevP = p
 	}
-	l.doff[n] = int32(size)
+	l.stateOff[n] = int32(size)
 	return size
 }
 

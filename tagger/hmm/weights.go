@@ -40,6 +40,9 @@ type perceptron struct {
 	// the tags, or -1 for a short row (see denseMin).
 	dense  []int32
 	denseW []int16 // weights in steps, as in cells
+	// id identifies these weights to the workspaces that cache what they
+	// read from them (see weightsIDs); set by prepareViews.
+	id uint64
 }
 
 // dictShare is the smallest share of a frequent word's occurrences with
