@@ -1,0 +1,177 @@
+package termbase
+
+import (
+	"fmt"
+	"strings"
+	"time"
+	"unicode"
+)
+
+// Status is a term's standing in the termbase.
+type Status string
+
+// The statuses: the TBX-Basic administrative statuses, then the two review
+// states of a candidate.
+const (
+	Preferred  Status = "preferred"
+	Admitted   Status = "admitted"
+	Deprecated Status = "deprecated"
+	Candidate  Status = "candidate" // seen, not decided (Deferred when put off on purpose)
+	Rejected   Status = "rejected"  // not a term; never offered as new again
+)
+
+// Statuses lists every status, in the order of the schema.
+var Statuses = []Status{Preferred, Admitted, Deprecated, Candidate, Rejected}
+
+// ParseStatus checks a status name.
+func ParseStatus(s string) (Status, error) {
+	for _, st := range Statuses {
+		if string(st) == s {
+			return st, nil
+		}
+	}
+	return "", fmt.Errorf("unknown status %q (want one of preferred, admitted, deprecated, candidate, rejected)", s)
+}
+
+// Entry is one concept with its terms.
+type Entry struct {
+	ID         int64    `json:"id"`
+	ExtID      string   `json:"ext_id,omitempty"` // the id it had where it was imported from
+	Subject    string   `json:"subject,omitempty"`
+	Definition string   `json:"definition,omitempty"`
+	DefSource  string   `json:"definition_source,omitempty"`
+	Notes      []string `json:"notes,omitempty"`
+	Terms      []*Term  `json:"terms"`
+}
+
+// Term is one designation of a concept in one language.
+type Term struct {
+	ID       int64     `json:"id"`
+	EntryID  int64     `json:"entry"`
+	Lang     string    `json:"lang"`
+	Text     string    `json:"text"`
+	Key      string    `json:"key"`
+	Status   Status    `json:"status"`
+	Deferred bool      `json:"deferred,omitempty"`
+	POS      string    `json:"pos,omitempty"`
+	Notes    []string  `json:"notes,omitempty"`
+	Forms    []string  `json:"forms,omitempty"` // surface forms seen in documents
+	Contexts []Context `json:"contexts,omitempty"`
+}
+
+// Context is a sentence a term was seen in.
+type Context struct {
+	Text   string `json:"text"`
+	Doc    string `json:"doc,omitempty"`
+	Line   int    `json:"line,omitempty"`
+	Source string `json:"source,omitempty"` // a bibliographic source, as TBX-Basic has it
+}
+
+// MaxContexts is how many contexts a term keeps.
+const MaxContexts = 3
+
+// Preferred returns the entry's preferred term in lang ("" for any
+// language), or failing that its first admitted term, or its first term.
+func (e *Entry) Preferred(lang string) *Term {
+	var best *Term
+	rank := func(s Status) int {
+		switch s {
+		case Preferred:
+			return 0
+		case Admitted:
+			return 1
+		case Candidate:
+			return 2
+		case Deprecated:
+			return 3
+		}
+		return 4
+	}
+	for _, t := range e.Terms {
+		if lang != "" && t.Lang != lang {
+			continue
+		}
+		if best == nil || rank(t.Status) < rank(best.Status) {
+			best = t
+		}
+	}
+	return best
+}
+
+// Term returns the entry's term with this text in lang, or nil.
+func (e *Entry) Term(lang, text string) *Term {
+	for _, t := range e.Terms {
+		if t.Lang == lang && t.Text == text {
+			return t
+		}
+	}
+	return nil
+}
+
+// Key is the form terms are matched by: lower case, one space between
+// words, no space at the ends. Spelling variants that differ in more than
+// that ("set point", "setpoint") have different keys and are linked by
+// being terms or forms of one entry.
+func Key(s string) string {
+	var b strings.Builder
+	b.Grow(len(s))
+	space := false
+	for _, r := range s {
+		if unicode.IsSpace(r) {
+			space = b.Len() > 0
+			continue
+		}
+		if space {
+			b.WriteByte(' ')
+			space = false
+		}
+		b.WriteRune(unicode.ToLower(r))
+	}
+	return b.String()
+}
+
+// Change is one row of the change log.
+type Change struct {
+	ID       int64     `json:"id"`
+	Time     time.Time `json:"time"`
+	User     string    `json:"user"`
+	Action   string    `json:"action"`
+	Summary  string    `json:"summary"`
+	Undoes   int64     `json:"undoes,omitempty"`    // an undo: the change it undid
+	UndoneBy int64     `json:"undone_by,omitempty"` // undone by this later change
+}
+
+// Run is a recorded run of term extraction.
+type Run struct {
+	ID        int64     `json:"id"`
+	Label     string    `json:"label"`
+	Time      time.Time `json:"time"`
+	Inputs    []string  `json:"inputs"`
+	Documents int       `json:"documents"`
+	Tokens    int       `json:"tokens"`
+}
+
+// RunTerm is one candidate of a recorded run.
+type RunTerm struct {
+	Term     string    `json:"term"`
+	POS      string    `json:"pos,omitempty"`
+	Freq     int       `json:"freq"`
+	Docs     int       `json:"docs"`
+	Forms    []Form    `json:"forms,omitempty"`
+	Contexts []Context `json:"contexts,omitempty"`
+}
+
+// Form is a surface form with its count.
+type Form struct {
+	Text  string `json:"text"`
+	Count int    `json:"count"`
+}
+
+// Proposal is a term put up for a decision with what is known of it.
+type Proposal struct {
+	Text     string
+	Lang     string // "" for the store's language
+	POS      string
+	Forms    []string
+	Contexts []Context
+}

@@ -1,0 +1,292 @@
+package termbase
+
+import (
+	"database/sql"
+	"math/rand"
+	"os"
+	"path/filepath"
+	"sync"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+func openTemp(t *testing.T) *Store {
+	t.Helper()
+	s, err := Open(filepath.Join(t.TempDir(), "tb.sqlite"))
+	require.NoError(t, err)
+	t.Cleanup(func() { s.Close() })
+	s.User = "tester"
+	return s
+}
+
+// termStatus returns the status of the term with this text, "" if none.
+func termStatus(t *testing.T, s *Store, text string) Status {
+	t.Helper()
+	es, err := s.Entries()
+	require.NoError(t, err)
+	for _, e := range es {
+		for _, x := range e.Terms {
+			if x.Text == text {
+				return x.Status
+			}
+		}
+	}
+	return ""
+}
+
+func TestDecisionsAndUndo(t *testing.T) {
+	s := openTemp(t)
+	c, err := s.Accept("solenoid valve", "set point")
+	require.NoError(t, err)
+	assert.NotZero(t, c.ID)
+	assert.Equal(t, "tester", c.User)
+	_, err = s.Reject("next step")
+	require.NoError(t, err)
+	_, err = s.Defer("drip line")
+	require.NoError(t, err)
+	assert.Equal(t, Preferred, termStatus(t, s, "solenoid valve"))
+	assert.Equal(t, Rejected, termStatus(t, s, "next step"))
+	assert.Equal(t, Candidate, termStatus(t, s, "drip line"))
+
+	// Accepting again changes nothing and logs nothing.
+	c, err = s.Accept("solenoid valve")
+	require.NoError(t, err)
+	assert.Zero(t, c.ID)
+
+	before, err := s.Entries()
+	require.NoError(t, err)
+
+	// A deprecated synonym, a preferred spelling, a merge, fields.
+	_, err = s.SetStatus("solenoid valve", "magnet valve", Deprecated)
+	require.NoError(t, err)
+	_, err = s.SetPreferred("set point", "setpoint")
+	require.NoError(t, err)
+	assert.Equal(t, Preferred, termStatus(t, s, "setpoint"))
+	assert.Equal(t, Admitted, termStatus(t, s, "set point"), "the former preferred term becomes admitted")
+	_, err = s.Merge("set point", "drip line")
+	require.NoError(t, err)
+	_, err = s.SetDefinition("solenoid valve", "A valve opened by an electromagnet.", "Climate controller manual")
+	require.NoError(t, err)
+	_, err = s.SetPOS("solenoid valve", "NOUN")
+	require.NoError(t, err)
+	_, err = s.SetNote("solenoid valve", "Do not use magnet valve.")
+	require.NoError(t, err)
+	_, err = s.SetSubject("solenoid valve", "irrigation")
+	require.NoError(t, err)
+
+	es, err := s.Lookup("magnet valve")
+	require.NoError(t, err)
+	require.Len(t, es, 1)
+	e := es[0]
+	assert.Equal(t, "solenoid valve", e.Preferred("en").Text)
+	assert.Equal(t, "A valve opened by an electromagnet.", e.Definition)
+	assert.Equal(t, "irrigation", e.Subject)
+	assert.Equal(t, []string{"Do not use magnet valve."}, e.Notes)
+	assert.Equal(t, "NOUN", e.Term("en", "solenoid valve").POS)
+	es, err = s.Lookup("drip line")
+	require.NoError(t, err)
+	require.Len(t, es, 1)
+	assert.NotNil(t, es[0].Term("en", "setpoint"), "merged into one entry")
+
+	hist, err := s.History(e.ID)
+	require.NoError(t, err)
+	assert.GreaterOrEqual(t, len(hist), 5)
+
+	// Undoing the seven changes restores the entries exactly.
+	undone, err := s.Undo(7)
+	require.NoError(t, err)
+	assert.Len(t, undone, 7)
+	after, err := s.Entries()
+	require.NoError(t, err)
+	assert.Equal(t, before, after)
+
+	cs, err := s.Changes(c.Time.AddDate(-1, 0, 0))
+	require.NoError(t, err)
+	assert.Len(t, cs, 3+7+7)
+	assert.Equal(t, "undo", cs[len(cs)-1].Action)
+	assert.NotZero(t, cs[len(cs)-1].Undoes)
+}
+
+func TestChangeLogIsAppendOnly(t *testing.T) {
+	s := openTemp(t)
+	_, err := s.Accept("drip emitter")
+	require.NoError(t, err)
+	_, err = s.db.Exec("UPDATE changes SET user = 'someone else'")
+	assert.ErrorContains(t, err, "append-only")
+	_, err = s.db.Exec("DELETE FROM changes")
+	assert.ErrorContains(t, err, "append-only")
+}
+
+func TestReopenKeepsDecisions(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "tb.sqlite")
+	s, err := Open(path)
+	require.NoError(t, err)
+	_, err = s.Accept("humidity sensor")
+	require.NoError(t, err)
+	require.NoError(t, s.Close())
+	s, err = Open(path)
+	require.NoError(t, err)
+	defer s.Close()
+	assert.Equal(t, Preferred, termStatus(t, s, "humidity sensor"))
+}
+
+// Files that are not termbases are refused with the file's name and left
+// as they were.
+func TestOpenRefusesOtherFiles(t *testing.T) {
+	dir := t.TempDir()
+	random := make([]byte, 8192)
+	rand.New(rand.NewSource(1)).Read(random)
+
+	good := filepath.Join(dir, "good.sqlite")
+	s, err := Open(good)
+	require.NoError(t, err)
+	_, err = s.Accept("climate controller")
+	require.NoError(t, err)
+	require.NoError(t, s.Close())
+	whole, err := os.ReadFile(good)
+	require.NoError(t, err)
+	require.Greater(t, len(whole), 4096)
+
+	other := filepath.Join(dir, "other.sqlite")
+	db, err := sql.Open("sqlite", other)
+	require.NoError(t, err)
+	_, err = db.Exec("CREATE TABLE t(x)")
+	require.NoError(t, err)
+	db.Close()
+
+	corrupt := append([]byte(nil), whole...)
+	for i := 4096; i < len(corrupt); i++ {
+		corrupt[i] = byte(i * 7)
+	}
+
+	for _, tc := range []struct {
+		name, want string
+		data       []byte
+	}{
+		{"empty.sqlite", "empty", []byte{}},
+		{"random.sqlite", "not an SQLite database", random},
+		{"text.sqlite", "not an SQLite database", []byte("term\tstatus\nvalve\tpreferred\n")},
+		{"half.sqlite", "truncated", whole[:len(whole)/2+100]},
+		{"corrupt.sqlite", "damaged", corrupt},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			p := filepath.Join(dir, tc.name)
+			require.NoError(t, os.WriteFile(p, tc.data, 0o644))
+			_, err := Open(p)
+			require.Error(t, err)
+			assert.Contains(t, err.Error(), p)
+			assert.Contains(t, err.Error(), tc.want)
+			got, _ := os.ReadFile(p)
+			assert.Equal(t, tc.data, got, "the file is left as it was")
+		})
+	}
+	_, err = Open(other)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "not a glossmith termbase")
+}
+
+// A file at schema version 1 is backed up, then migrated.
+func TestMigrationBacksUp(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "old.sqlite")
+	s, err := open(path, 1)
+	require.NoError(t, err)
+	_, err = s.Accept("valve")
+	require.NoError(t, err)
+	require.NoError(t, s.Close())
+
+	s, err = Open(path)
+	require.NoError(t, err)
+	defer s.Close()
+	var v string
+	require.NoError(t, s.db.QueryRow("SELECT value FROM meta WHERE key = 'schema_version'").Scan(&v))
+	assert.Equal(t, "2", v)
+	_, err = s.Runs()
+	assert.NoError(t, err, "the runs table exists after migrating")
+	assert.Equal(t, Preferred, termStatus(t, s, "valve"))
+
+	bak, err := Open(path + ".v1.bak")
+	require.NoError(t, err, "the backup is a termbase of its own")
+	defer bak.Close()
+	es, err := bak.Entries()
+	require.NoError(t, err)
+	require.Len(t, es, 1)
+	assert.Equal(t, "valve", es[0].Terms[0].Text)
+}
+
+// Two stores on one file deciding at the same time both succeed.
+func TestConcurrentWriters(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "tb.sqlite")
+	first, err := Open(path)
+	require.NoError(t, err)
+	first.Close()
+	var wg sync.WaitGroup
+	errs := make(chan error, 2)
+	for w := range 2 {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			s, err := Open(path)
+			if err != nil {
+				errs <- err
+				return
+			}
+			defer s.Close()
+			for i := range 50 {
+				if _, err := s.Accept(string(rune('a'+w)) + "-term " + string(rune('a'+i%26)) + string(rune('a'+i/26))); err != nil {
+					errs <- err
+					return
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	close(errs)
+	for err := range errs {
+		require.NoError(t, err)
+	}
+	s, err := Open(path)
+	require.NoError(t, err)
+	defer s.Close()
+	es, err := s.Entries()
+	require.NoError(t, err)
+	assert.Len(t, es, 100)
+}
+
+func TestIndexLabels(t *testing.T) {
+	s := openTemp(t)
+	_, err := s.Accept("set point")
+	require.NoError(t, err)
+	_, err = s.SetStatus("set point", "setpoint", Admitted)
+	require.NoError(t, err)
+	_, err = s.SetStatus("solenoid valve", "magnet valve", Deprecated)
+	require.NoError(t, err)
+	_, err = s.Reject("next step")
+	require.NoError(t, err)
+	_, err = s.Defer("drip line")
+	require.NoError(t, err)
+	_, err = s.Decide(Preferred, Proposal{Text: "valve", Forms: []string{"valves", "Valve"}})
+	require.NoError(t, err)
+	es, err := s.Entries()
+	require.NoError(t, err)
+	ix := NewIndex(es, "en")
+	for _, tc := range []struct {
+		term, label, entry string
+		forms              []string
+	}{
+		{"set point", LabelAccepted, "set point", nil},
+		{"Set Point", LabelAccepted, "set point", nil},
+		{"setpoint", LabelAccepted, "set point", nil},
+		{"magnet valve", LabelDeprecated, "solenoid valve", nil},
+		{"next step", LabelRejected, "next step", nil},
+		{"drip line", LabelNew, "", nil},
+		{"valves", LabelVariant, "valve", nil},
+		{"set-point", LabelVariant, "set point", []string{"set-point", "setpoint"}},
+		{"pressure sensor", LabelNew, "", []string{"pressure sensors"}},
+	} {
+		label, entry := ix.Label(tc.term, tc.forms)
+		assert.Equal(t, tc.label, label, tc.term)
+		assert.Equal(t, tc.entry, entry, tc.term)
+	}
+}
