@@ -20,7 +20,8 @@ import (
 func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding {
 	head := &toks[sp.j-1]
 	surface := foldSpace(d.Text[toks[sp.i].Start:head.End])
-	lemmas := lemmaSurface(toks[sp.i:sp.j])
+	lemmas := ""
+	lemmasMade := false
 	var bad, spell, worse *formRef
 	caseOnly := false
 	for k := range sp.ends {
@@ -29,8 +30,12 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 		if !posFits(f.POS, head.UPOS) {
 			continue
 		}
-		want := foldSpace(f.Text)
-		exact := same(surface, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive)
+		want := m.folded[r.entry][r.form]
+		exact := same(surface, want, f.CaseSensitive)
+		if !exact && !lemmasMade {
+			lemmas, lemmasMade = lemmaSurface(toks[sp.i:sp.j]), true
+		}
+		exact = exact || same(lemmas, want, f.CaseSensitive)
 		switch {
 		case exact && f.Status.allowed():
 			return nil
@@ -121,9 +126,14 @@ func posFits(pos, upos string) bool {
 	if pos == "" || upos == "" {
 		return true
 	}
+	switch upos {
+	case "ADP", "DET", "PRON", "CCONJ", "SCONJ", "PART", "INTJ":
+	default:
+		return true
+	}
 	switch strings.ToLower(pos) {
 	case "noun", "n", "propn", "proper noun", "propernoun", "verb", "v", "adjective", "adj", "a", "adverb", "adv":
-		return !strings.Contains(" ADP DET PRON CCONJ SCONJ PART INTJ ", " "+upos+" ")
+		return false
 	}
 	return true
 }

@@ -3,6 +3,7 @@ package check
 import (
 	"fmt"
 	"strings"
+	"unicode/utf8"
 )
 
 // Kind is what a finding is about.
@@ -107,7 +108,7 @@ func message(kind Kind, status Status, text, preferred string, caseOnly bool) st
 // foldSpace returns s with every run of white space as one space and the
 // hyphens U+2010 and U+2011 as "-".
 func foldSpace(s string) string {
-	if !strings.ContainsAny(s, "\t\n\r\u2010\u2011\u2029\u00a0") && !strings.Contains(s, "  ") {
+	if folded(s) {
 		return s
 	}
 	var b strings.Builder
@@ -127,4 +128,23 @@ func foldSpace(s string) string {
 		b.WriteRune(r)
 	}
 	return b.String()
+}
+
+// folded reports whether foldSpace would leave s as it is: printable ASCII
+// with single spaces between words, the usual case, is checked byte by byte.
+func folded(s string) bool {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c >= utf8.RuneSelf:
+			return !strings.ContainsAny(s, "\u2010\u2011\u2029\u00a0") && !strings.ContainsAny(s, "\t\n\r") && !strings.Contains(s, "  ")
+		case c == ' ':
+			if i == 0 || i == len(s)-1 || s[i+1] == ' ' {
+				return false
+			}
+		case c < ' ':
+			return false
+		}
+	}
+	return true
 }

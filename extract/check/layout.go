@@ -39,6 +39,10 @@ type layout struct {
 	srcCode   map[int][][2]int
 	code      [][2]int     // byte ranges of the text that are code (HTML)
 	skip      map[int]bool // silenced text lines
+	// The last offset position counted runes to, and its line and rune
+	// count: uses come in text order, mostly, and counting on from there
+	// keeps a long line from being counted again for each.
+	lastOff, lastLine, lastRunes int
 }
 
 // newLayout reads what the check needs of a document's source file, src
@@ -125,8 +129,15 @@ func (l *layout) markSkips(line func(n int) string, lines int) {
 // position returns the 1-based line and column of byte offset off of the
 // text.
 func (l *layout) position(off int) (line, col int) {
-	line = sort.Search(len(l.lineStart), func(i int) bool { return l.lineStart[i] > off })
-	r := utf8.RuneCountInString(l.d.Text[l.lineStart[line-1]:off])
+	var r int
+	if l.lastLine > 0 && off >= l.lastOff && (l.lastLine == len(l.lineStart) || off < l.lineStart[l.lastLine]) {
+		line = l.lastLine
+		r = l.lastRunes + utf8.RuneCountInString(l.d.Text[l.lastOff:off])
+	} else {
+		line = sort.Search(len(l.lineStart), func(i int) bool { return l.lineStart[i] > off })
+		r = utf8.RuneCountInString(l.d.Text[l.lineStart[line-1]:off])
+	}
+	l.lastOff, l.lastLine, l.lastRunes = off, line, r
 	if m := l.columns(line); m != nil && r < len(m) {
 		return line, m[r] + 1
 	}

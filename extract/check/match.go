@@ -30,9 +30,20 @@ type Matcher struct {
 	lo       []int32
 	edgeByte []byte
 	edgeTo   []int32
-	final    []int32     // node → 1 + index into ends; 0 when no form ends there
-	ends     [][]formRef // forms whose key ends at a node
+	// dense[n] is 1 + the index in tables of node n's child table, for
+	// nodes with many children (the first levels of a large glossary),
+	// where a scan of the edges would be long; 0 for the others.
+	dense  []int32
+	tables [][256]int32
+	final  []int32     // node → 1 + index into ends; 0 when no form ends there
+	ends   [][]formRef // forms whose key ends at a node
+	// folded holds each form's text as compared with the text found
+	// (foldSpace), per entry and form.
+	folded [][]string
 }
+
+// denseFrom is the number of children from which a node gets a table.
+const denseFrom = 8
 
 // formRef names one form of the glossary.
 type formRef struct{ entry, form int32 }
@@ -93,6 +104,26 @@ func Compile(g Glossary) *Matcher {
 	for n := 1; n < len(m.lo); n++ {
 		m.lo[n] = max(m.lo[n], m.lo[n-1])
 	}
+	m.dense = make([]int32, next)
+	for n := int32(1); n < next; n++ {
+		lo, hi := m.lo[n], m.lo[n+1]
+		if hi-lo < denseFrom {
+			continue
+		}
+		var t [256]int32
+		for k := lo; k < hi; k++ {
+			t[m.edgeByte[k]] = m.edgeTo[k]
+		}
+		m.tables = append(m.tables, t)
+		m.dense[n] = int32(len(m.tables))
+	}
+	m.folded = make([][]string, len(g.Entries))
+	for ei, e := range g.Entries {
+		m.folded[ei] = make([]string, len(e.Forms))
+		for fi, f := range e.Forms {
+			m.folded[ei][fi] = foldSpace(f.Text)
+		}
+	}
 	nodes := make([]int32, 0, len(finals))
 	for n := range finals {
 		nodes = append(nodes, n)
@@ -112,6 +143,12 @@ func (m *Matcher) Glossary() *Glossary { return &m.g }
 func (m *Matcher) child(n int32, b byte) int32 {
 	if n == 0 {
 		if c := m.root[b]; c != 0 {
+			return c
+		}
+		return -1
+	}
+	if t := m.dense[n]; t != 0 {
+		if c := m.tables[t-1][b]; c != 0 {
 			return c
 		}
 		return -1
@@ -179,8 +216,15 @@ func isHyphen(s string) bool { return s == "-" || s == "‐" || s == "‑" }
 // hyphenEdge reports whether a token starts or ends with a hyphen: a dash,
 // a command-line option ("--setpoint"), a prefix ("pre-").
 func hyphenEdge(s string) bool {
-	return s != "" && (s[0] == '-' || s[len(s)-1] == '-' ||
-		strings.HasPrefix(s, "‐") || strings.HasPrefix(s, "‑") || strings.HasSuffix(s, "‐") || strings.HasSuffix(s, "‑"))
+	if s == "" {
+		return false
+	}
+	first, last := s[0], s[len(s)-1]
+	if first < utf8.RuneSelf && last < utf8.RuneSelf {
+		return first == '-' || last == '-'
+	}
+	return first == '-' || last == '-' ||
+		strings.HasPrefix(s, "‐") || strings.HasPrefix(s, "‑") || strings.HasSuffix(s, "‐") || strings.HasSuffix(s, "‑")
 }
 
 func glued(a, b *doc.Token) bool { return !a.SpaceAfter && a.End == b.Start }
