@@ -3,7 +3,6 @@ package check
 import (
 	"fmt"
 	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 
@@ -54,15 +53,7 @@ func benchGlossary(tb testing.TB, ranked []*terms.Term, n int) Glossary {
 // 2 MiB of benchmark-corpus text, or the directory GLOSSMITH_BENCH_DIR.
 // Rates are tokens per CPU second.
 func BenchmarkCheck(b *testing.B) {
-	dir := os.Getenv("GLOSSMITH_BENCH_DIR")
-	if dir == "" {
-		dir = b.TempDir()
-		for i, t := range benchcorpus.Slice(b, 2<<20) {
-			if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("doc-%05d.txt", i+1)), []byte(t), 0o644); err != nil {
-				b.Fatal(err)
-			}
-		}
-	}
+	dir := benchcorpus.SliceDir(b, 2<<20)
 	model, err := hmm.Default()
 	if err != nil {
 		b.Fatal(err)

@@ -1,6 +1,8 @@
 package benchcorpus
 
 import (
+	"fmt"
+	"os"
 	"path/filepath"
 	"testing"
 
@@ -28,4 +30,22 @@ func Slice(tb testing.TB, size int64) []string {
 		n += int64(len(d))
 	}
 	return docs
+}
+
+// SliceDir returns a directory of benchmark documents: the one named by
+// the environment variable GLOSSMITH_BENCH_DIR (a corpus made by
+// internal/benchcorpus/cmd, say), else a temporary one holding Slice's
+// documents of about size bytes as doc-NNNNN.txt.
+func SliceDir(tb testing.TB, size int64) string {
+	tb.Helper()
+	if dir := os.Getenv("GLOSSMITH_BENCH_DIR"); dir != "" {
+		return dir
+	}
+	dir := tb.TempDir()
+	for i, t := range Slice(tb, size) {
+		if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("doc-%05d.txt", i+1)), []byte(t), 0o644); err != nil {
+			tb.Fatal(err)
+		}
+	}
+	return dir
 }
