@@ -1,8 +1,11 @@
 package main
 
 import (
+	"context"
+	"errors"
 	"os"
 	"strings"
+	"syscall"
 
 	"github.com/spf13/cobra"
 
@@ -10,6 +13,8 @@ import (
 	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
+	"glossmith/tagger/hmm"
+	"glossmith/tagger/pipeline"
 )
 
 // findOptions are the flags of the find command.
@@ -23,6 +28,8 @@ type findOptions struct {
 	nested bool
 	limit  int
 	color  string
+	// outPath is the -o file; "" or "-" for standard output.
+	outPath string
 }
 
 func newFindCmd() *cobra.Command {
@@ -50,7 +57,7 @@ lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
 			if err := o.validate(cmd, args); err != nil {
 				return err
 			}
-			return o.run(cmd, args)
+			return o.run(args)
 		},
 	}
 	o.register(cmd)
@@ -58,7 +65,7 @@ lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
 }
 
 // findFormats are the output formats of find.
-var findFormats = []string{"text", "tsv", "jsonl"}
+var findFormats = concord.HitFormats
 
 // countKeys are the values of find --by.
 var countKeys = []string{"word", "lemma"}
@@ -73,7 +80,8 @@ func (o *findOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(findFormats, ", "))
 	fl.IntVar(&o.width, "width", 40, "characters of context on each side (text output)")
 	fl.BoolVar(&o.nested, "nested", false, "report every matching span, not only leftmost-longest ones")
-	fl.IntVar(&o.limit, "limit", 0, "print at most this many lines (0: no limit)")
+	fl.IntVar(&o.limit, "limit", 0, "print at most this many lines and stop reading (0: no limit)")
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.StringVar(&o.color, "color", "auto", "highlight matches: auto (on a terminal, unless NO_COLOR is set or TERM=dumb), always, never")
 	completeRuleFiles(cmd)
 	completeChoices(cmd, "to", findFormats)
@@ -89,6 +97,11 @@ func (o *findOptions) validate(cmd *cobra.Command, args []string) error {
 	if err := o.in.validate(cmd); err != nil {
 		return err
 	}
+	to, err := outputFormat(cmd, o.to, o.outPath, findFormats)
+	if err != nil {
+		return err
+	}
+	o.to = to
 	for _, c := range []struct {
 		flag, v string
 		valid   []string
@@ -146,7 +159,7 @@ func (o *findOptions) matcher(args []string) (*pattern.Matcher, []string, error)
 	return m, args, nil
 }
 
-func (o *findOptions) run(cmd *cobra.Command, args []string) error {
+func (o *findOptions) run(args []string) error {
 	m, args, err := o.matcher(args)
 	if err != nil {
 		return err
@@ -159,57 +172,95 @@ func (o *findOptions) run(cmd *cobra.Command, args []string) error {
 	if o.nested {
 		find = m.FindNested
 	}
-	lemma := o.by == "lemma"
-	type result struct {
-		hits   []concord.Hit
-		counts *concord.Counter
-	}
-	var hits []concord.Hit
-	total := concord.NewCounter()
-	mapFn := func(d *doc.Document) result {
-		var r result
-		if o.count {
-			r.counts = concord.NewCounter()
-		}
-		for si := range d.Sentences {
-			toks := d.Sentences[si].Tokens
-			for _, mt := range find(toks) {
-				if o.count {
-					r.counts.Add(concord.Key(toks, mt.Start, mt.End, lemma))
-				} else {
-					r.hits = append(r.hits, concord.NewHit(d, si, mt.Start, mt.End, mt.Rule, mt.Slots))
-				}
-			}
-		}
-		return r
-	}
-	_, runErr := runDocs(&o.in, args, model, mapFn, func(_ *doc.Document, r result) {
-		if o.count {
-			total.Merge(r.counts)
-		} else if o.limit <= 0 || len(hits) < o.limit {
-			hits = append(hits, r.hits...)
-		}
-	})
-	if o.limit > 0 && len(hits) > o.limit {
-		hits = hits[:o.limit]
-	}
-	switch {
-	case o.count:
-		list := total.Sorted()
-		if o.limit > 0 && len(list) > o.limit {
-			list = list[:o.limit]
-		}
-		err = concord.WriteCounts(os.Stdout, o.to, list)
-	case o.to == "text":
-		hl := useColor(o.color, isTerminal(os.Stdout))
-		err = concord.WriteText(os.Stdout, hits, concord.Style{Width: o.width, Highlight: hl})
-	case o.to == "tsv":
-		err = concord.WriteTSV(os.Stdout, hits)
-	case o.to == "jsonl":
-		err = concord.WriteJSONL(os.Stdout, hits)
-	}
+	out, err := openOutput(o.outPath)
 	if err != nil {
 		return err
 	}
+	defer out.abort()
+	o.in.reuseTokens = true // hits and counts hold strings, not tokens
+	if o.count {
+		return o.runCount(out, find, args, model)
+	}
+	hw, err := concord.NewHitWriter(out, o.to, concord.Style{Width: o.width, Highlight: useColor(o.color, out.toTerminal())})
+	if err != nil {
+		return err
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	o.in.ctx = ctx
+	mapFn := func(d *doc.Document) []concord.Hit {
+		var hits []concord.Hit
+		for si := range d.Sentences {
+			toks := d.Sentences[si].Tokens
+			for _, mt := range find(toks) {
+				hits = append(hits, concord.NewHit(d, si, mt.Start, mt.End, mt.Rule, mt.Slots))
+			}
+		}
+		return hits
+	}
+	// Hits are written as each document is reduced, in input order; on
+	// standard output each document's lines are flushed at once, so that a
+	// reader (a terminal, "head") sees them while the search goes on, and
+	// a closed pipe ends the run at the next document with hits.
+	written := 0
+	var werr error
+	st, runErr := runDocs(&o.in, args, model, mapFn, func(_ *doc.Document, hits []concord.Hit) {
+		if werr != nil || len(hits) == 0 {
+			return
+		}
+		if o.limit > 0 && written+len(hits) >= o.limit {
+			hits = hits[:o.limit-written]
+			cancel() // enough: read no further
+		}
+		written += len(hits)
+		werr = hw.Write(hits)
+		if werr == nil && out.file == nil {
+			werr = hw.Flush()
+		}
+		if werr != nil {
+			cancel()
+		}
+	})
+	if werr == nil {
+		werr = hw.Flush()
+	}
+	return o.finish(out, st, werr, runErr)
+}
+
+// finish commits the output unless nothing was read (an existing file is
+// then kept) or writing failed; a reader that went away (a closed pipe)
+// ends the run quietly.
+func (o *findOptions) finish(out *output, st pipeline.Stats, werr, runErr error) error {
+	if errors.Is(werr, syscall.EPIPE) {
+		return exitError{code: 1}
+	}
+	if werr == nil && st.Documents == 0 {
+		return runErr
+	}
+	if err := out.commit(werr); err != nil {
+		return err
+	}
 	return runErr
+}
+
+// runCount prints the frequency list of the matched strings.
+func (o *findOptions) runCount(out *output, find func([]doc.Token) []pattern.Match, args []string, model *hmm.Model) error {
+	lemma := o.by == "lemma"
+	total := concord.NewCounter()
+	mapFn := func(d *doc.Document) *concord.Counter {
+		c := concord.NewCounter()
+		for si := range d.Sentences {
+			toks := d.Sentences[si].Tokens
+			for _, mt := range find(toks) {
+				c.Add(concord.Key(toks, mt.Start, mt.End, lemma))
+			}
+		}
+		return c
+	}
+	st, runErr := runDocs(&o.in, args, model, mapFn, func(_ *doc.Document, c *concord.Counter) { total.Merge(c) })
+	list := total.Sorted()
+	if o.limit > 0 && len(list) > o.limit {
+		list = list[:o.limit]
+	}
+	return o.finish(out, st, concord.WriteCounts(out, o.to, list), runErr)
 }

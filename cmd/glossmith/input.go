@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"math"
@@ -11,6 +12,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"glossmith/internal/printable"
 	"glossmith/tagger/doc"
 	"glossmith/tagger/pipeline"
 	"glossmith/tagger/read"
@@ -29,6 +31,9 @@ type inputFlags struct {
 	// nothing of the tokens (see pipeline.Options.ReuseTokens); not by
 	// find, whose hits keep their documents.
 	reuseTokens bool
+	// ctx, if set, stops the run early when it is cancelled (find's
+	// --limit, a failed write).
+	ctx context.Context
 }
 
 func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
@@ -70,7 +75,7 @@ func (p *problemPrinter) report(pr read.Problem) {
 	if p.quiet && pr.Severity == read.Note {
 		return
 	}
-	fmt.Fprintf(p.w, "%s: %s\n", pr.Severity, pr.Error())
+	fmt.Fprintf(p.w, "%s: %s\n", pr.Severity, printable.Escape(pr.Error()))
 }
 
 // runDocs runs the pipeline over the command's inputs with the given
@@ -93,6 +98,7 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 		Report:  pp.report,
 
 		ReuseTokens: f.reuseTokens,
+		Context:     f.ctx,
 	}
 	// The runtime's limit covers its own memory only, not the program text
 	// or the allocator's slack that the system counts too: aim a tenth low.

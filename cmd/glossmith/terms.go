@@ -190,10 +190,15 @@ func (o *termsOptions) run(args []string) error {
 	// Collect and Add copy what they keep of a document.
 	o.in.reuseTokens = true
 	var ref terms.Reference = modelReference{model}
+	var refErr error // a reference input that could not be read: reported, and the run goes on
 	if len(o.reference) > 0 {
 		counts := &terms.Counts{}
-		if _, err := runDocs(&o.in, o.reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() }); err != nil {
+		st, err := runDocs(&o.in, o.reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() })
+		if st.Documents == 0 {
 			return fmt.Errorf("reference: %w", err)
+		}
+		if err != nil {
+			refErr = exitError{1, fmt.Sprintf("reference: %v", err)}
 		}
 		ref = counts
 	}
@@ -203,6 +208,9 @@ func (o *termsOptions) run(args []string) error {
 	_, runErr := runDocs(&o.in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
 	if p := corpus.Pruned(); p.Candidates > 0 {
 		o.in.warnPruned("candidates", p.Candidates, int64(p.MaxFreq))
+	}
+	if runErr == nil {
+		runErr = refErr
 	}
 	if corpus.Documents() == 0 {
 		return runErr // nothing read: an existing output file is kept

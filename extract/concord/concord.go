@@ -11,6 +11,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"glossmith/internal/printable"
 	"glossmith/internal/tabular"
 	"glossmith/tagger/doc"
 )
@@ -25,8 +26,8 @@ type Hit struct {
 	Text     string            `json:"text"`
 	Rule     string            `json:"rule"`
 	Slots    map[string]string `json:"slots,omitempty"`
-	Left     string            `json:"-"` // context before, ending in a space when the text has one
-	Right    string            `json:"-"` // context after, starting with a space when the text has one
+	Left     string            `json:"left"`  // context before, ending in a space when the text has one
+	Right    string            `json:"right"` // context after, starting with a space when the text has one
 }
 
 // NewHit describes the match [start, end) of sentence si of d. Text and
@@ -83,30 +84,106 @@ type Style struct {
 	Highlight bool // mark the match with terminal colours
 }
 
-// WriteText prints hits as aligned concordance lines: the document and
-// line, the left context right-aligned, the match, the right context.
-func WriteText(w io.Writer, hits []Hit, st Style) error {
+// HitFormats are the formats a HitWriter writes.
+var HitFormats = []string{"text", "tsv", "csv", "jsonl"}
+
+// HitWriter writes concordance lines as they are found, a batch (one
+// document's hits) at a time, so that a long search shows its first lines
+// at once and holds no more than one document's hits.
+type HitWriter struct {
+	format string
+	style  Style
+	text   *bufio.Writer
+	table  *tabular.Writer
+	jsonl  *tabular.JSONL
+}
+
+// NewHitWriter returns a writer of hits in format (one of HitFormats):
+//
+//   - text: concordance lines — the document and line, the left context
+//     right-aligned, the match, the right context — with control
+//     characters escaped (package printable) so that neither a document
+//     nor a file name can drive the terminal or break a line in two; the
+//     location column is aligned within each batch;
+//   - tsv, csv: a header row, then doc, sentence, line, start, end, rule,
+//     left, match, right (quoted as package tabular documents);
+//   - jsonl: one object per hit with the same fields (match as "text").
+func NewHitWriter(w io.Writer, format string, st Style) (*HitWriter, error) {
 	if st.Width <= 0 {
 		st.Width = 40
 	}
-	bw := bufio.NewWriter(w)
-	where := 0
-	for _, h := range hits {
-		where = max(where, utf8.RuneCountInString(fmt.Sprintf("%s:%d", h.Doc, h.Line)))
+	h := &HitWriter{format: format, style: st}
+	switch format {
+	case "text":
+		h.text = bufio.NewWriter(w)
+	case "tsv", "csv":
+		if format == "tsv" {
+			h.table = tabular.NewTSV(w)
+		} else {
+			h.table = tabular.NewCSV(w, false)
+		}
+		h.table.Write("doc", "sentence", "line", "start", "end", "rule", "left", "match", "right")
+	case "jsonl":
+		h.jsonl = tabular.NewJSONL(w)
+	default:
+		return nil, fmt.Errorf("unknown output format %q (want one of %s)", format, strings.Join(HitFormats, ", "))
 	}
-	for _, h := range hits {
-		loc := fmt.Sprintf("%s:%d", h.Doc, h.Line)
-		left := lastRunes(h.Left, st.Width)
-		right := firstRunes(h.Right, st.Width)
-		match := h.Text
-		if st.Highlight {
+	return h, nil
+}
+
+// Write writes a batch of hits (buffered; see Flush).
+func (h *HitWriter) Write(hits []Hit) error {
+	switch {
+	case h.text != nil:
+		return h.writeText(hits)
+	case h.table != nil:
+		for _, x := range hits {
+			h.table.Write(x.Doc, strconv.Itoa(x.Sentence), strconv.Itoa(x.Line), strconv.Itoa(x.Start), strconv.Itoa(x.End),
+				x.Rule, strings.TrimSpace(x.Left), x.Text, strings.TrimSpace(x.Right))
+		}
+		return nil
+	}
+	for _, x := range hits {
+		if err := h.jsonl.Encode(x); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// writeText prints hits as aligned concordance lines.
+func (h *HitWriter) writeText(hits []Hit) error {
+	locs := make([]string, len(hits))
+	where := 0
+	for i, x := range hits {
+		locs[i] = printable.Escape(fmt.Sprintf("%s:%d", x.Doc, x.Line))
+		where = max(where, utf8.RuneCountInString(locs[i]))
+	}
+	w := h.style.Width
+	for i, x := range hits {
+		left := lastRunes(printable.Escape(x.Left), w)
+		right := firstRunes(printable.Escape(x.Right), w)
+		match := printable.Escape(x.Text)
+		if h.style.Highlight {
 			match = "\x1b[1;33m" + match + "\x1b[0m"
 		} else {
 			match = "[" + match + "]"
 		}
-		fmt.Fprintf(bw, "%-*s  %*s%s%s\n", where, loc, st.Width, left, match, right)
+		fmt.Fprintf(h.text, "%-*s  %*s%s%s\n", where, locs[i], w, left, match, right)
 	}
-	return bw.Flush()
+	return nil
+}
+
+// Flush writes out what is buffered and reports the first error of any
+// write so far.
+func (h *HitWriter) Flush() error {
+	switch {
+	case h.text != nil:
+		return h.text.Flush()
+	case h.table != nil:
+		return h.table.Flush()
+	}
+	return h.jsonl.Flush()
 }
 
 // lastRunes keeps the last n characters of s, marking a cut with "…".
@@ -126,29 +203,6 @@ func firstRunes(s string, n int) string {
 		return s
 	}
 	return string(r[:n-1]) + "…"
-}
-
-// WriteTSV prints hits with a header row, quoting as internal/tabular
-// documents.
-func WriteTSV(w io.Writer, hits []Hit) error {
-	tw := tabular.NewTSV(w)
-	tw.Write("doc", "sentence", "line", "start", "end", "rule", "left", "match", "right")
-	for _, h := range hits {
-		tw.Write(h.Doc, strconv.Itoa(h.Sentence), strconv.Itoa(h.Line), strconv.Itoa(h.Start), strconv.Itoa(h.End),
-			h.Rule, strings.TrimSpace(h.Left), h.Text, strings.TrimSpace(h.Right))
-	}
-	return tw.Flush()
-}
-
-// WriteJSONL prints one JSON object per hit.
-func WriteJSONL(w io.Writer, hits []Hit) error {
-	enc := tabular.NewJSONL(w)
-	for _, h := range hits {
-		if err := enc.Encode(h); err != nil {
-			return err
-		}
-	}
-	return enc.Flush()
 }
 
 // Counter is a frequency list of matched strings.
@@ -212,11 +266,15 @@ func Key(toks []doc.Token, a, b int, lemma bool) string {
 	return sb.String()
 }
 
-// WriteCounts prints a frequency list as text (aligned), tsv or jsonl.
+// WriteCounts prints a frequency list as text (aligned, control
+// characters escaped), tsv, csv or jsonl.
 func WriteCounts(w io.Writer, format string, list []Entry) error {
 	switch format {
-	case "tsv":
+	case "tsv", "csv":
 		tw := tabular.NewTSV(w)
+		if format == "csv" {
+			tw = tabular.NewCSV(w, false)
+		}
 		tw.Write("count", "text")
 		for _, e := range list {
 			tw.Write(strconv.Itoa(e.Count), e.Text)
@@ -233,7 +291,7 @@ func WriteCounts(w io.Writer, format string, list []Entry) error {
 	}
 	rows := make([][]string, len(list))
 	for i, e := range list {
-		rows[i] = []string{strconv.Itoa(e.Count), e.Text}
+		rows[i] = []string{strconv.Itoa(e.Count), printable.Escape(e.Text)}
 	}
 	bw := bufio.NewWriter(w)
 	for _, line := range tabular.Align(rows, []bool{true}) {

@@ -11,6 +11,7 @@
 package pipeline
 
 import (
+	"context"
 	"os"
 	"runtime"
 	"sync"
@@ -42,6 +43,11 @@ type Options struct {
 	// reduceFn has returned: the run then hands the document's token array
 	// to a later document instead of allocating a new one.
 	ReuseTokens bool
+	// Context, if set, stops the run when it is done: no input is started
+	// after that, reduceFn is not called again, and Run returns once the
+	// documents being annotated are finished (a reduceFn that has what it
+	// needs — find's --limit — or whose output is gone cancels it).
+	Context context.Context
 }
 
 // Stats are running totals of a run.
@@ -57,6 +63,8 @@ type Stats struct {
 	// Documents vary in size, so time left is better estimated from bytes
 	// than from the number of documents.
 	InputBytes, DoneBytes int64
+	// Stopped is set when Options.Context ended the run early.
+	Stopped bool
 }
 
 // Run expands args into inputs and processes them. mapFn is called on a
@@ -144,6 +152,10 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 		// reducer kept a second core some 17% busy on the benchmark
 		// corpus: "one worker" used more than one core's time.)
 		for i := range inputs {
+			if stopped(opt.Context) {
+				st.Stopped = true
+				break
+			}
 			reduce(i, work(i))
 		}
 		return st
@@ -175,15 +187,26 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 	for i := 0; i < window; i++ {
 		tokens <- struct{}{}
 	}
+	// done is closed when the run stops early: workers waiting for a
+	// token give up, and the reducer stops waiting for inputs that no
+	// worker will take.
+	var done <-chan struct{}
+	if opt.Context != nil {
+		done = opt.Context.Done()
+	}
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for {
-				<-tokens
+				select {
+				case <-tokens:
+				case <-done:
+					return
+				}
 				i := int(next.Add(1) - 1)
-				if i >= len(inputs) {
+				if i >= len(inputs) || stopped(opt.Context) {
 					tokens <- struct{}{}
 					return
 				}
@@ -191,14 +214,28 @@ func Run[R any](args []string, opt Options, mapFn func(*doc.Document) R, reduceF
 			}
 		}()
 	}
+reduce:
 	for i := range inputs {
-		res := <-slots[i%window]
+		var res result
+		select {
+		case res = <-slots[i%window]:
+		case <-done:
+			st.Stopped = true
+			break reduce
+		}
+		if stopped(opt.Context) {
+			st.Stopped = true
+			break
+		}
 		tokens <- struct{}{}
 		reduce(i, res)
 	}
 	wg.Wait()
 	return st
 }
+
+// stopped reports whether ctx (which may be nil) is done.
+func stopped(ctx context.Context) bool { return ctx != nil && ctx.Err() != nil }
 
 // Annotate reads one input, tokenizes it unless it came tokenized, and tags
 // it unless it came tagged or tagger is nil.
