@@ -147,7 +147,7 @@ func TestTermsTBX(t *testing.T) {
 	}
 	contexts := 0
 	for _, n := range e.Langs[0].Terms[0].Notes {
-		if strings.HasPrefix(n, "context (testdata/demo/") {
+		if strings.HasPrefix(n, "context: ") && strings.Contains(n, "(source: testdata/demo/") {
 			contexts++
 		}
 	}

@@ -115,7 +115,7 @@ func TestDeterministicOutput(t *testing.T) {
 		"The solenoid valve opens. The solenoid valve closes. A drip line feeds the pots.",
 		"Flush the drip line. The valve seat wears. The valve seat is brass.",
 	}
-	var first [5][]byte
+	first := make([][]byte, len(Formats))
 	for run := 0; run < 3; run++ {
 		ranked, err := Rank(extractTexts(t, texts...), RankOptions{All: true})
 		if err != nil {

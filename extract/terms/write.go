@@ -2,22 +2,23 @@ package terms
 
 import (
 	"bufio"
-	"encoding/xml"
 	"fmt"
 	"io"
 	"strconv"
 	"strings"
 
+	"glossmith/extract/tbx"
 	"glossmith/internal/tabular"
 )
 
 // Formats lists the output formats of a term list.
-var Formats = []string{"text", "tsv", "csv", "jsonl", "tbx"}
+var Formats = []string{"text", "tsv", "csv", "jsonl", "tbx", "tbx-basic"}
 
 // WriteOptions tune the writers.
 type WriteOptions struct {
 	Contexts int    // text format: example sentences printed under each term
 	Source   string // TBX header: what the list was made from
+	Lang     string // TBX: the documents' language (BCP 47), "" for English
 	BOM      bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
 }
 
@@ -55,8 +56,8 @@ func Write(w io.Writer, format string, terms []*Term, opt WriteOptions) error {
 		err = writeCSV(bw, terms, opt.BOM)
 	case "jsonl":
 		err = writeJSONL(bw, terms)
-	case "tbx":
-		err = writeTBX(bw, terms, opt)
+	case "tbx", "tbx-basic":
+		err = writeTBX(bw, terms, opt, map[string]string{"tbx": tbx.Core, "tbx-basic": tbx.Basic}[format])
 	default:
 		return fmt.Errorf("unknown output format %q (want one of %s)", format, strings.Join(Formats, ", "))
 	}
@@ -126,64 +127,4 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		}
 	}
 	return nil
-}
-
-// writeTBX writes a TermBase eXchange document in the TBX v3 core
-// structure (ISO 30042:2019, dialect TBX-Core, DCT style): one conceptEntry
-// per candidate, one langSec, the canonical term and its other surface
-// forms as termSecs, the statistics, contexts and source documents as notes.
-func writeTBX(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
-	w.WriteString(xml.Header)
-	w.WriteString(`<tbx style="dct" type="TBX-Core" xml:lang="en" xmlns="urn:iso:std:iso:30042:ed-2">` + "\n")
-	w.WriteString("  <tbxHeader>\n    <fileDesc>\n      <sourceDesc>\n        <p>")
-	xmlText(w, "Term candidates for review, extracted by glossmith. "+opt.Source)
-	w.WriteString("</p>\n      </sourceDesc>\n    </fileDesc>\n  </tbxHeader>\n  <text>\n    <body>\n")
-	for _, t := range terms {
-		fmt.Fprintf(w, "      <conceptEntry id=\"c%d\">\n", t.Rank)
-		w.WriteString("        <note>")
-		xmlText(w, fmt.Sprintf("candidate rank %d; score %s; frequency %d in %d document(s)", t.Rank, num(t.Score), t.Freq, t.Docs))
-		w.WriteString("</note>\n")
-		w.WriteString("        <langSec xml:lang=\"en\">\n")
-		forms := []string{t.Term}
-		seen := map[string]bool{t.Term: true}
-		for _, v := range t.Variants {
-			if !seen[v.Form] {
-				seen[v.Form] = true
-				forms = append(forms, v.Form)
-			}
-		}
-		for i, f := range forms {
-			w.WriteString("          <termSec>\n            <term>")
-			xmlText(w, f)
-			w.WriteString("</term>\n")
-			if i > 0 {
-				for _, v := range t.Variants {
-					if v.Form == f {
-						w.WriteString("            <note>")
-						xmlText(w, fmt.Sprintf("surface form; %d occurrence(s)", v.Count))
-						w.WriteString("</note>\n")
-					}
-				}
-			}
-			if i == 0 {
-				for _, cx := range t.Contexts {
-					w.WriteString("            <note>")
-					xmlText(w, fmt.Sprintf("context (%s, line %d): %s", cx.Doc, cx.Line, cx.Text))
-					w.WriteString("</note>\n")
-				}
-			}
-			w.WriteString("          </termSec>\n")
-		}
-		w.WriteString("        </langSec>\n      </conceptEntry>\n")
-	}
-	w.WriteString("    </body>\n  </text>\n</tbx>\n")
-	return nil
-}
-
-// xmlText writes s escaped for XML character data, dropping characters XML
-// 1.0 does not allow.
-func xmlText(w *bufio.Writer, s string) {
-	var b strings.Builder
-	xml.EscapeText(&b, []byte(s))
-	w.WriteString(b.String())
 }
