@@ -11,6 +11,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"glossmith/extract/wordshape"
 	"glossmith/internal/printable"
 	"glossmith/internal/tabular"
 	"glossmith/tagger/doc"
@@ -232,10 +233,36 @@ type Entry struct {
 }
 
 // Sorted returns the list, most frequent first, ties in byte order.
+// Strings that differ only in case are one line: written in lower case
+// when that spelling was counted, else in their most frequent spelling
+// (ties: the byte-wise smallest). Deciding here, on the merged counts,
+// makes the list the same however the input was split among workers.
 func (c *Counter) Sorted() []Entry {
-	out := make([]Entry, 0, len(c.counts))
+	type line struct {
+		text      string
+		n, textN  int
+		lowerSeen bool
+	}
+	lines := map[string]*line{}
 	for k, v := range c.counts {
-		out = append(out, Entry{k, v})
+		low := strings.ToLower(k)
+		l := lines[low]
+		if l == nil {
+			l = &line{}
+			lines[low] = l
+		}
+		l.n += v
+		switch {
+		case l.lowerSeen:
+		case k == low:
+			l.text, l.lowerSeen = k, true
+		case v > l.textN || v == l.textN && (l.text == "" || k < l.text):
+			l.text, l.textN = k, v
+		}
+	}
+	out := make([]Entry, 0, len(lines))
+	for _, l := range lines {
+		out = append(out, Entry{l.text, l.n})
 	}
 	sort.Slice(out, func(i, j int) bool {
 		if out[i].Count != out[j].Count {
@@ -250,18 +277,36 @@ func (c *Counter) Sorted() []Entry {
 func (c *Counter) Total() int { return c.total }
 
 // Key returns the string counted for tokens [a, b): the words, or the
-// lemmas, lower-cased and joined by spaces.
+// lemmas, joined by spaces and lower-cased except where case carries
+// meaning (acronyms, units, mixed-case words: wordshape.KeepsCase), as in
+// "3 MW", "kPa". A lemma keeps the case of such a form ("HAWTs" → "HAWT").
+// Sorted folds the spellings of one lower-cased string.
 func Key(toks []doc.Token, a, b int, lemma bool) string {
 	var sb strings.Builder
 	for i := a; i < b; i++ {
 		if i > a {
 			sb.WriteByte(' ')
 		}
-		w := toks[i].Form
+		f := toks[i].Form
+		keep := wordshape.KeepsCase(f) || wordshape.IsAcronym(f)
+		w := f
 		if lemma && toks[i].Lemma != "" {
 			w = toks[i].Lemma
+			if keep {
+				switch {
+				case strings.EqualFold(f, w):
+					w = f
+				case strings.HasSuffix(f, "s") && strings.EqualFold(f[:len(f)-1], w):
+					w = f[:len(f)-1]
+				default:
+					keep = false
+				}
+			}
 		}
-		sb.WriteString(strings.ToLower(w))
+		if !keep {
+			w = strings.ToLower(w)
+		}
+		sb.WriteString(w)
 	}
 	return sb.String()
 }

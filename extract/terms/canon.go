@@ -95,7 +95,7 @@ func (cw *canonWriter) write(toks []doc.Token) {
 		}
 		// Proper nouns keep their case here; the corpus folds a group's case
 		// when a lower-case spelling of it occurs too.
-		keepCase := wordshape.IsAcronym(text) || last.UPOS == "PROPN"
+		keepCase := wordshape.KeepsCase(text) || wordshape.IsAcronym(text) || last.UPOS == "PROPN"
 		if n == head && last.Lemma != "" && !strings.ContainsAny(text, "-") {
 			text = headLemma(text, last.Lemma, keepCase)
 		} else if n == head && last.Lemma != "" {

@@ -46,3 +46,31 @@ func IsAcronym(s string) bool {
 	}
 	return upper >= 2
 }
+
+// KeepsCase reports whether the case of s carries meaning, so that
+// lower-casing would lose it: an upper-case letter right after another
+// letter, as in acronyms and units or mixed-case words ("PLC", "kPa",
+// "pH", "MWh", "HAWTs", "EC-3"). A capital that starts a word ("Valve" at
+// the start of a sentence, "Drip-Line" in a heading) carries none.
+func KeepsCase(s string) bool {
+	// Most words are lower-case ASCII: one comparison a byte says so. The
+	// first byte cannot be a capital after a letter.
+	for i := 1; i < len(s); i++ {
+		if c := s[i]; c-'A' < 26 || c >= utf8.RuneSelf {
+			return keepsCaseRunes(s)
+		}
+	}
+	return false
+}
+
+// keepsCaseRunes is KeepsCase for any text.
+func keepsCaseRunes(s string) bool {
+	prevLetter := false
+	for _, r := range s {
+		if prevLetter && unicode.IsUpper(r) {
+			return true
+		}
+		prevLetter = unicode.IsLetter(r)
+	}
+	return false
+}

@@ -1,6 +1,10 @@
 package wordshape
 
-import "testing"
+import (
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+)
 
 func TestIsWord(t *testing.T) {
 	for s, want := range map[string]bool{
@@ -21,5 +25,14 @@ func TestIsAcronym(t *testing.T) {
 		if got := IsAcronym(s); got != want {
 			t.Errorf("IsAcronym(%q) = %v, want %v", s, got, want)
 		}
+	}
+}
+
+func TestKeepsCase(t *testing.T) {
+	for s, want := range map[string]bool{
+		"PLC": true, "EC-3": true, "kPa": true, "pH": true, "MWh": true, "HAWTs": true, "3-MW": true, "ÉDF": true, "mΩ": true, "ÖKo": true,
+		"A": false, "Valve": false, "Drip-Line": false, "valve": false, "": false, "X-Ray": false, "Émetteur": false,
+	} {
+		assert.Equal(t, want, KeepsCase(s), "KeepsCase(%q)", s)
 	}
 }
