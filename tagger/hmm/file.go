@@ -16,30 +16,40 @@ import (
 	"glossmith/tagger/lemma"
 )
 
-// The model file format, version 2:
+// The model file format, version 3:
 //
 //	magic    "GLSMTAG\x00" (8 bytes)
 //	version  uint16, little endian
-//	length   uint64, little endian: bytes of the payload
+//	length   uint64, little endian: bytes of the payload as stored
+//	size     uint64, little endian: bytes of the payload inflated
 //	payload  the model, in varints and length-prefixed strings, compressed
 //	         with DEFLATE (RFC 1951) at the best compression level
 //	crc      uint32, little endian: CRC-32 (IEEE) of everything before it
 //
-// Version 1 is the same with the payload stored uncompressed; it is still
-// read. Compression halves the embedded model and keeps the treebank's
-// vocabulary, which the model carries for reference counts, out of plain
-// sight in the binary.
+// Version 2 is the same without the size field, version 1 also stores the
+// payload uncompressed; both are still read. Compression keeps the
+// treebank's vocabulary, which the model carries for reference counts,
+// out of plain sight in the binary. The size lets a reader inflate into a
+// buffer of exactly that size and refuse a payload that inflates further,
+// so a small crafted file cannot make it allocate far beyond what it says.
 //
 // Every map is written in sorted order, so a model always encodes to the
 // same bytes. Perceptron weights are stored as integer multiples of
 // weightStep; the model in memory holds the same rounded values.
 const (
 	fileMagic   = "GLSMTAG\x00"
-	fileVersion = 2
-	headerSize  = len(fileMagic) + 2 + 8
-	// maxPayload bounds the inflated payload, so that a crafted file cannot
-	// make Decode allocate without limit.
-	maxPayload = 1 << 30
+	fileVersion = 3
+	// headerSize is the header of version 3, headerSizeV2 that of
+	// versions 1 and 2 (no size field).
+	headerSizeV2 = len(fileMagic) + 2 + 8
+	headerSize   = headerSizeV2 + 8
+	// MaxFileSize bounds a model file and MaxPayloadSize its inflated
+	// payload (the README states both): the default model is 1.9 MB and
+	// inflates to 2.3 MB, so the caps leave room for models of treebanks
+	// some thirty times larger while a crafted file or a device such as
+	// /dev/zero cannot make Load or Decode allocate without limit.
+	MaxFileSize    = 64 << 20
+	MaxPayloadSize = 64 << 20
 )
 
 // FormatError describes a model file that cannot be used.
@@ -57,16 +67,58 @@ func (e *FormatError) Error() string {
 
 // Load reads a model file written by Save.
 func Load(path string) (*Model, error) {
-	data, err := os.ReadFile(path)
+	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
-	m, err := Decode(data)
+	defer f.Close()
+	data, err := readModelFile(f)
+	var m *Model
+	if err == nil {
+		m, err = Decode(data)
+	}
 	var fe *FormatError
 	if errors.As(err, &fe) {
 		fe.File = path
 	}
 	return m, err
+}
+
+// readModelFile reads the bytes of a model file: its header, then no more
+// than the header announces (and one byte past it, so that Decode sees
+// trailing data), never more than MaxFileSize. Anything that is not a
+// model — a text file, a device such as /dev/zero — costs the read of a
+// header; Decode says what is wrong with it.
+func readModelFile(r io.Reader) ([]byte, error) {
+	head := make([]byte, headerSize)
+	k, err := io.ReadFull(r, head)
+	if err != nil && err != io.EOF && err != io.ErrUnexpectedEOF {
+		return nil, err
+	}
+	head = head[:k]
+	if k < headerSizeV2 || string(head[:len(fileMagic)]) != fileMagic {
+		return head, nil
+	}
+	version := binary.LittleEndian.Uint16(head[len(fileMagic):])
+	hs := headerSizeV2
+	if version >= 3 {
+		hs = headerSize
+	}
+	n := binary.LittleEndian.Uint64(head[len(fileMagic)+2:])
+	if n > MaxFileSize || uint64(hs)+n+4 > MaxFileSize {
+		return nil, &FormatError{Msg: fmt.Sprintf("the header announces %d bytes of payload; a model file may have at most %d bytes (%d MiB)", n, MaxFileSize, MaxFileSize>>20)}
+	}
+	want := hs + int(n) + 4 + 1
+	if want <= len(head) {
+		return head, nil
+	}
+	data := make([]byte, want)
+	copy(data, head)
+	k, err = io.ReadFull(r, data[len(head):])
+	if err != nil && err != io.EOF && err != io.ErrUnexpectedEOF {
+		return nil, err
+	}
+	return data[:len(head)+k], nil
 }
 
 // Decode builds a model from the bytes of a model file.
@@ -77,8 +129,8 @@ func Decode(data []byte) (*Model, error) {
 	if len(data) < len(fileMagic) || string(data[:len(fileMagic)]) != fileMagic {
 		return fail("not a glossmith tagger model (wrong magic bytes)")
 	}
-	if len(data) < headerSize {
-		return fail("truncated: %d bytes, shorter than the %d-byte header", len(data), headerSize)
+	if len(data) < headerSizeV2 {
+		return fail("truncated: %d bytes, shorter than the %d-byte header", len(data), headerSizeV2)
 	}
 	version := binary.LittleEndian.Uint16(data[len(fileMagic):])
 	if version > fileVersion {
@@ -87,28 +139,38 @@ func Decode(data []byte) (*Model, error) {
 	if version == 0 {
 		return fail("invalid format version 0")
 	}
+	hs := headerSizeV2
+	if version >= 3 {
+		hs = headerSize
+		if len(data) < hs {
+			return fail("truncated: %d bytes, shorter than the %d-byte header", len(data), hs)
+		}
+	}
 	n := binary.LittleEndian.Uint64(data[len(fileMagic)+2:])
-	want := uint64(headerSize) + n + 4
+	want := uint64(hs) + n + 4
 	if n > uint64(len(data)) || uint64(len(data)) < want {
 		return fail("truncated: %d bytes, the header announces %d", len(data), want)
 	}
 	if uint64(len(data)) > want {
 		return fail("%d bytes of unexpected data after the model", uint64(len(data))-want)
 	}
-	body := data[:headerSize+int(n)]
-	sum := binary.LittleEndian.Uint32(data[headerSize+int(n):])
+	body := data[:hs+int(n)]
+	sum := binary.LittleEndian.Uint32(data[hs+int(n):])
 	if crc32.ChecksumIEEE(body) != sum {
 		return fail("checksum mismatch: the file is corrupt")
 	}
-	payload := body[headerSize:]
+	payload := body[hs:]
 	if version >= 2 {
-		r := flate.NewReader(bytes.NewReader(payload))
-		raw, err := io.ReadAll(io.LimitReader(r, maxPayload+1))
-		if err != nil {
-			return fail("malformed compressed payload: %v", err)
+		size := uint64(MaxPayloadSize) // version 2 declares no size: the cap bounds it
+		if version >= 3 {
+			size = binary.LittleEndian.Uint64(data[headerSizeV2:])
+			if size > MaxPayloadSize {
+				return fail("the header announces a payload of %d bytes inflated; at most %d (%d MiB) are read", size, MaxPayloadSize, MaxPayloadSize>>20)
+			}
 		}
-		if len(raw) > maxPayload {
-			return fail("payload inflates beyond %d bytes", maxPayload)
+		raw, err := inflate(payload, int(size), version >= 3)
+		if err != nil {
+			return fail("%v", err)
 		}
 		payload = raw
 	}
@@ -119,10 +181,41 @@ func Decode(data []byte) (*Model, error) {
 	return m, nil
 }
 
+// inflate decompresses a payload of at most size bytes, exactly size when
+// exact is set (the size the header declares). It allocates no more than
+// that, whatever the stream would inflate to.
+func inflate(payload []byte, size int, exact bool) ([]byte, error) {
+	r := flate.NewReader(bytes.NewReader(payload))
+	var raw []byte
+	var err error
+	if exact {
+		raw = make([]byte, size)
+		if _, err = io.ReadFull(r, raw); err != nil {
+			return nil, fmt.Errorf("malformed compressed payload: it inflates to less than the %d bytes the header announces (%v)", size, err)
+		}
+	} else if raw, err = io.ReadAll(io.LimitReader(r, int64(size))); err != nil {
+		return nil, fmt.Errorf("malformed compressed payload: %v", err)
+	}
+	// One byte more than allowed, or a stream that does not end, is an error.
+	if more, err := io.ReadAll(io.LimitReader(r, 1)); err != nil || len(more) > 0 {
+		if err != nil {
+			return nil, fmt.Errorf("malformed compressed payload: %v", err)
+		}
+		if exact {
+			return nil, fmt.Errorf("payload inflates beyond the %d bytes the header announces", size)
+		}
+		return nil, fmt.Errorf("payload inflates beyond %d bytes (%d MiB)", size, size>>20)
+	}
+	return raw, nil
+}
+
 // Save writes the model in the format above.
 func (m *Model) Save(w io.Writer) error {
 	var e enc
 	m.encodePayload(&e)
+	if len(e.b) > MaxPayloadSize {
+		return fmt.Errorf("tagger model: the model's payload is %d bytes; a model file holds at most %d (%d MiB)", len(e.b), MaxPayloadSize, MaxPayloadSize>>20)
+	}
 	var z bytes.Buffer
 	fw, err := flate.NewWriter(&z, flate.BestCompression)
 	if err != nil {
@@ -138,6 +231,7 @@ func (m *Model) Save(w io.Writer) error {
 	out.WriteString(fileMagic)
 	out.Write(binary.LittleEndian.AppendUint16(nil, fileVersion))
 	out.Write(binary.LittleEndian.AppendUint64(nil, uint64(z.Len())))
+	out.Write(binary.LittleEndian.AppendUint64(nil, uint64(len(e.b))))
 	out.Write(z.Bytes())
 	out.Write(binary.LittleEndian.AppendUint32(nil, crc32.ChecksumIEEE(out.Bytes())))
 	_, err = w.Write(out.Bytes())
