@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"os"
+	"slices"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -115,7 +116,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	o.rules.register(cmd, "terms")
 	fl := cmd.Flags()
 	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
-	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(terms.Formats, ", ")+" (default: from the -o extension, else text)")
+	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
@@ -127,16 +128,20 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.exclude, "exclude", "", "leave out candidates that the pattern matches whole")
 	fl.BoolVar(&o.all, "all", false, "list every candidate, not only those above the score cut-off")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many terms (0: no limit)")
-	completeChoices(cmd, "to", terms.Formats)
+	completeChoices(cmd, "to", termsFormats)
 	completeChoices(cmd, "sort", terms.SortKeys)
 }
+
+// termsFormats are the output formats of terms: the term list's own, and
+// html, the static review report (extract/review/web).
+var termsFormats = append(slices.Clip(terms.Formats), "html")
 
 // validate checks every flag value before any input is read.
 func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
 	if err := o.in.validate(cmd); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, terms.Formats)
+	to, err := outputFormat(cmd, o.to, o.outPath, termsFormats)
 	if err != nil {
 		return err
 	}
@@ -201,6 +206,9 @@ func (o *termsOptions) run(args []string) error {
 			refErr = exitError{1, fmt.Sprintf("reference: %v", err)}
 		}
 		ref = counts
+	}
+	if o.to == "html" {
+		return writeHTMLReport(&o.in, args, model, m, opt, ref, terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit}, o.outPath)
 	}
 	col := terms.NewCollector(m, opt)
 	corpus := terms.NewCorpus(max(o.contexts, 3))
