@@ -7,9 +7,11 @@
 //
 // # Files and statements
 //
-// A rule file is UTF-8 text. `#` starts a comment that runs to the end of
-// the line. The comment lines directly above a rule (no blank line between)
-// are the rule's documentation. Statements:
+// A rule file is UTF-8 text of at most MaxFileSize bytes whose name ends in
+// ".gsr" (RuleFileExt); other files are refused by name, unread. `#` starts
+// a comment that runs to the end of the line. The comment lines directly
+// above a rule (no blank line between) are the rule's documentation.
+// Statements:
 //
 //	File      = { Statement } .
 //	Statement = Use | Rule | Example .
@@ -38,6 +40,8 @@
 //	Test    = UPOS | "_" | String | Raw | Regexp | Field .
 //	Field   = ( "xpos" | "lemma" | "chars" ) ":" ( Value | Regexp )
 //	        | ( "begins" | "ends" ) ":" Value .
+//
+// Parentheses and `!` nest at most MaxNesting levels deep.
 //
 // Binding, tightest first: `!`, then `&`, then repetition, then sequence,
 // then `|`. So `ADJ | VERB & xpos:VBN` is an adjective or a past participle,

@@ -145,6 +145,10 @@ type lineTable struct {
 	name  string
 	src   string
 	start []int // byte offset at which each line starts
+	// The last position computed: the parser asks for positions in
+	// increasing order, so counting the characters of a line from there
+	// keeps a long line from costing quadratic time.
+	last Pos
 }
 
 func newLineTable(name, src string) *lineTable {
@@ -160,15 +164,15 @@ func newLineTable(name, src string) *lineTable {
 // pos converts a byte offset into a position; offsets past the end land just
 // after the last character.
 func (t *lineTable) pos(off int) Pos {
-	if off < 0 {
-		off = 0
-	}
-	if off > len(t.src) {
-		off = len(t.src)
-	}
+	off = max(0, min(off, len(t.src)))
 	line := sort.Search(len(t.start), func(i int) bool { return t.start[i] > off }) // first line starting after off
-	ls := t.start[line-1]
-	return Pos{File: t.name, Line: line, Col: utf8.RuneCountInString(t.src[ls:off]) + 1, Offset: off}
+	from, col := t.start[line-1], 1
+	if l := t.last; l.Line == line && l.Offset <= off && l.Offset >= from {
+		from, col = l.Offset, l.Col
+	}
+	p := Pos{File: t.name, Line: line, Col: col + utf8.RuneCountInString(t.src[from:off]), Offset: off}
+	t.last = p
+	return p
 }
 
 // line returns the text of 1-based line n without its line ending.

@@ -171,7 +171,18 @@ func (l *loader) loadDiskUse(p string, from *File, u *Use) {
 	if !l.enter(key, p, from, u) {
 		return
 	}
-	b, err := os.ReadFile(p)
+	// Only rule files are read: a mistyped or hostile name (a device, a
+	// file of secrets) is refused by its name, before a byte of it is read,
+	// so that no message can quote it.
+	if !IsRuleFileName(p) {
+		if from == nil {
+			l.errs = append(l.errs, &Error{Pos: Pos{File: p}, Msg: "not a rule file: rule file names end in " + RuleFileExt})
+		} else {
+			l.useError(from, u, "use reads only rule files, whose names end in %s: %s", RuleFileExt, u.Path)
+		}
+		return
+	}
+	b, err := readRuleFile(p)
 	if err != nil {
 		if from == nil {
 			l.errs = append(l.errs, &Error{Pos: Pos{File: p}, Msg: fmt.Sprintf("cannot read rule file: %v", unwrapPathError(err))})
@@ -182,6 +193,15 @@ func (l *loader) loadDiskUse(p string, from *File, u *Use) {
 	}
 	f, perr := ParseString(p, string(b))
 	l.addParsed(key, f, perr)
+}
+
+// RuleFileExt ends the name of every rule file.
+const RuleFileExt = ".gsr"
+
+// IsRuleFileName reports whether name is a rule file's name: it ends in
+// RuleFileExt (in any case).
+func IsRuleFileName(name string) bool {
+	return strings.EqualFold(filepath.Ext(name), RuleFileExt)
 }
 
 func unwrapPathError(err error) error {
