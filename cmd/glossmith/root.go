@@ -68,7 +68,7 @@ exit status is 1 when anything was skipped.`,
 			profFile.Close()
 		}
 	}
-	root.CompletionOptions.HiddenDefaultCmd = true
+	root.SetHelpCommand(newHelpCmd())
 	root.AddCommand(newTagCmd(), newTermsCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd())
 	return root
 }
