@@ -41,30 +41,30 @@
 // txt: the text as it is. CRLF and lone CR become LF (so in md too, and
 // in html <pre>), so Token.Line is the line an editor shows.
 //
-// md (CommonMark with the GitHub tables, task lists, strikethrough and
-// footnotes): the text keeps exactly the source's lines — markup is
-// deleted within its line, dropped lines become empty lines — so
-// Token.Line is the source line. Dropped: YAML (---) or TOML (+++) front
-// matter at the top; fenced code blocks (``` or ~~~) and indented code
-// blocks, fences included, since code is not prose and its identifiers
-// would crowd the term lists; <script>, <style> and <textarea> blocks;
-// HTML comments, also across lines; HTML tags (their text is kept);
-// thematic breaks and setext underlines; link reference definitions;
-// footnote references "[^1]". Kept as text: heading text without its #
-// marks; list items without bullets or numbers (a step number is not
-// prose) and without task boxes "[ ]"; block quotes without ">"; emphasis,
-// strong and strikethrough text without their * _ ~ (CommonMark's flanking
-// rules decide which runs may open or close; a run pairs with the nearest
-// open run of the same kind, and one that pairs with none, as in "5 * 3"
-// or snake_case, stays); inline code without
-// backticks; link text for [text](url), [text][ref] and [ref] (the URL is
-// dropped); image alt text for ![alt](src); autolinks <https://...> as
-// the URL; backslash escapes as the character; entities (&amp;) decoded.
-// Tables: the delimiter row becomes an empty line, each other row stays
-// on its line with its cells trimmed and joined by U+2029, so no sentence
-// runs from one cell into the next. A heading, list item, footnote, table
-// row or quote that follows a non-blank line starts with U+2029, and so
-// does a line after a heading or table row.
+// md: parsed by goldmark (CommonMark 0.31.2 with the GitHub extensions —
+// tables, task lists, strikethrough, autolinked URLs — and footnotes);
+// what a renderer shows as text is kept, each run on the line of the
+// source where it stands (goldmark gives byte offsets into the source),
+// so the text has exactly the source's lines and Token.Line is the source
+// line. Dropped: YAML (---) or TOML (+++) front matter at the top; fenced
+// and indented code blocks, since code is not prose and its identifiers
+// would crowd the term lists; raw HTML tags (the text between them is
+// kept), HTML comments, and the content of script, style, textarea and
+// pre; thematic breaks and setext underlines; link reference definitions
+// (also over several lines); link destinations and titles; footnote
+// references "[^1]"; task boxes. Kept: heading text, list items without
+// bullets or numbers, block quotes without ">", emphasis, strikethrough
+// and link text (also wrapped over lines), inline code without backticks,
+// image alt text, autolinks as the URL, backslash escapes and entities
+// decoded, footnote text; markup that CommonMark does not take as markup
+// ("5 * 3", snake_case, an undefined "[^9]") stays as written. A table's
+// delimiter row becomes an empty line. A block (paragraph, heading, list
+// item, quote, table cell, footnote) that starts on the line of other
+// text or the line right after one starts with U+2029, so no sentence
+// runs from one cell or item into the next. On words, the reader agrees
+// with the HTML of 645 of the 652 examples of the CommonMark
+// specification (commonmark_test.go). "[", "](" and ">" nested more than
+// 32 deep are read as text, which keeps the parser linear.
 //
 // html: the visible text of the body, from the tree that
 // golang.org/x/net/html's parser builds by the HTML5 algorithm, so end

@@ -1,597 +1,420 @@
 package read
 
 import (
+	"bufio"
+	"bytes"
 	"html"
 	"regexp"
+	"slices"
 	"strings"
-	"unicode"
-	"unicode/utf8"
+
+	"github.com/yuin/goldmark"
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/extension"
+	east "github.com/yuin/goldmark/extension/ast"
+	mdhtml "github.com/yuin/goldmark/renderer/html"
+	"github.com/yuin/goldmark/text"
+	xhtml "golang.org/x/net/html"
 
 	"glossmith/tagger/doc"
 )
 
 // paraSep is U+2029 PARAGRAPH SEPARATOR. The Markdown reader puts it where a
-// block (heading, list item, table row or cell, quote) begins right after a
-// non-blank line, since it may not add the blank line that would otherwise
-// mark the break without shifting the line numbers of everything below.
-// Unicode defines it as a paragraph break (The Unicode Standard, section
-// 5.8 "Newline Guidelines"; UAX #29 rule SB4 ends a sentence after it).
+// block (heading, paragraph, list item, table cell, quote, footnote) begins
+// on the line of, or the line right after, other text, since it may not add
+// the blank line that would otherwise mark the break without shifting the
+// line numbers of everything below. Unicode defines it as a paragraph
+// break (The Unicode Standard, section 5.8 "Newline Guidelines"; UAX #29
+// rule SB4 ends a sentence after it).
 const paraSep = "\u2029"
 
 var (
-	mdFenceOpen   = regexp.MustCompile("^([ \t]*)(`{3,}|~{3,})(.*)$")
-	mdThematic    = regexp.MustCompile(`^ {0,3}([-*_])([ \t]*[-*_]){2,}[ \t]*$`)
-	mdSetextEq    = regexp.MustCompile(`^ {0,3}=+[ \t]*$`)
-	mdLinkDef     = regexp.MustCompile(`^ {0,3}\[([^\]^][^\]]*)\]:[ \t]*\S`)
-	mdFootDef     = regexp.MustCompile(`^ {0,3}\[\^[^\]]+\]:[ \t]*`)
-	mdQuote       = regexp.MustCompile(`^ {0,3}> ?`)
-	mdListItem    = regexp.MustCompile(`^[ \t]*([-*+]|[0-9]{1,9}[.)])([ \t]+|$)`)
-	mdTask        = regexp.MustCompile(`^\[[ xX]\][ \t]+`)
-	mdATX         = regexp.MustCompile(`^ {0,3}#{1,6}([ \t]+|$)`)
-	mdATXClose    = regexp.MustCompile(`([ \t]+#+)?[ \t]*$`)
-	mdDelimRow    = regexp.MustCompile(`^[ \t]*\|?[ \t]*:?-+:?[ \t]*(\|[ \t]*:?-+:?[ \t]*)*\|?[ \t]*$`)
-	mdRawOpen     = regexp.MustCompile(`(?i)^[ \t]*<(script|style|textarea)[\s>]`)
-	mdHTMLTag     = regexp.MustCompile(`^</?[A-Za-z][A-Za-z0-9-]*(\s[^<>]*)?/?>`)
-	mdAutolink    = regexp.MustCompile(`^<([A-Za-z][A-Za-z0-9+.-]{1,31}:[^\s<>]*|[^\s@<>]+@[^\s@<>]+)>`)
-	mdEntity      = regexp.MustCompile(`^&(#[0-9]{1,7}|#[xX][0-9a-fA-F]{1,6}|[A-Za-z][A-Za-z0-9]{1,31});`)
-	mdFrontYAML   = regexp.MustCompile(`^(---|\.\.\.)[ \t]*$`)
-	mdFrontTOML   = regexp.MustCompile(`^\+\+\+[ \t]*$`)
-	mdLabelFolder = strings.NewReplacer("\t", " ", "  ", " ")
+	mdFrontYAML = regexp.MustCompile(`^(---|\.\.\.)[ \t]*$`)
+	mdFrontTOML = regexp.MustCompile(`^\+\+\+[ \t]*$`)
 )
 
-// markdown removes Markdown markup line by line; see the package comment
-// for the rules. The text keeps exactly the source's lines.
+// mdParser is goldmark's CommonMark parser with the GitHub extensions
+// (tables, strikethrough, task lists, autolinked URLs) and footnotes. A
+// hand-written line reader got CommonMark's many context rules wrong
+// (wrapped link text, "2019." at a line start taken for a list item, tags
+// and link definitions over several lines); goldmark passes the
+// specification's examples. Parsers are safe for concurrent use.
+var mdParser = goldmark.New(goldmark.WithExtensions(extension.GFM, extension.Footnote)).Parser()
+
+// markdown keeps the text a renderer would show, each piece on the line of
+// the source where it stands; see the package comment for the rules. The
+// text has exactly the source's lines.
 func (r *reader) markdown(s string) *doc.Document {
 	s = r.capLines(normalizeNewlines(s))
-	lines := strings.Split(s, "\n")
-	m := &mdReader{refs: map[string]bool{}}
-	for _, l := range lines {
-		if sm := mdLinkDef.FindStringSubmatch(l); sm != nil {
-			m.refs[foldLabel(sm[1])] = true
-		}
+	src := []byte(s)
+	blankFrontMatter(src)
+	hid := hideDeepNesting(src)
+	root := mdParser.Parse(text.NewReader(src))
+	for _, h := range hid { // the tree points into src: its texts get them back
+		src[h.at] = h.c
 	}
-	out := make([]string, len(lines))
-	start := frontMatterEnd(lines)
-	prevBlank, prevEnds, prevQuote := true, false, false
-	for i := start; i < len(lines); i++ {
-		line := lines[i]
-		text, block, ends, quote := m.line(line, lines, i, prevBlank)
-		if strings.TrimSpace(text) == "" {
-			out[i] = ""
-			prevBlank, prevEnds, prevQuote = true, false, false
-			continue
-		}
-		if quote && !prevQuote {
-			block = true
-		}
-		if !prevBlank && (block || prevEnds) {
-			text = paraSep + text
-		}
-		out[i] = text
-		prevBlank, prevEnds, prevQuote = false, ends, quote
-	}
-	return &doc.Document{Text: strings.Join(out, "\n")}
+	m := &mdText{src: src, lineStart: lineStarts(src)}
+	m.walk(root)
+	return &doc.Document{Text: m.assemble()}
 }
 
-// frontMatterEnd returns the index of the first line after a YAML ("---")
-// or TOML ("+++") front matter block at the top of the file, or 0.
-func frontMatterEnd(lines []string) int {
-	if len(lines) < 2 {
-		return 0
+// lineStarts returns the byte offset of the start of each line of src.
+func lineStarts(src []byte) []int {
+	starts := make([]int, 1, bytes.Count(src, []byte{'\n'})+1)
+	for i, c := range src {
+		if c == '\n' {
+			starts = append(starts, i+1)
+		}
 	}
+	return starts
+}
+
+// blankFrontMatter replaces a YAML ("---") or TOML ("+++") front matter
+// block at the top of the file by spaces, keeping its line breaks, so that
+// the parser sees blank lines and every offset stays where it was.
+func blankFrontMatter(src []byte) {
+	first, _, _ := bytes.Cut(src, []byte{'\n'})
 	var closer *regexp.Regexp
-	switch strings.TrimRight(lines[0], " \t") {
+	switch strings.TrimRight(string(first), " \t") {
 	case "---":
 		closer = mdFrontYAML
 	case "+++":
 		closer = mdFrontTOML
 	default:
-		return 0
+		return
 	}
-	for i := 1; i < len(lines); i++ {
-		if closer.MatchString(lines[i]) {
-			return i + 1
+	off := len(first) + 1
+	for off < len(src) {
+		line, _, _ := bytes.Cut(src[off:], []byte{'\n'})
+		end := off + len(line)
+		if closer.Match(line) {
+			for i := 0; i < end; i++ {
+				if src[i] != '\n' {
+					src[i] = ' '
+				}
+			}
+			return
 		}
+		off = end + 1
 	}
-	return 0 // not closed: a thematic break, not front matter
+	// not closed: a thematic break, not front matter
 }
 
-func foldLabel(s string) string {
-	return strings.ToLower(strings.TrimSpace(mdLabelFolder.Replace(s)))
-}
+// maxNesting bounds the nesting the parser sees, for three constructs
+// whose cost in goldmark grows with the square of their number: nested
+// "[" (its link parser spends time in proportion to the text after an
+// open bracket at each "]": 100,000 pairs took 10 s), "](" inside a run
+// of text without spaces that never closes its "(" (each starts a link
+// destination that is scanned to the end of the run: 50,000 took 51 s),
+// and ">" quote markers at a line start (50,000 took 4 s). No prose nests
+// any of them this deep; CommonMark lets implementations limit nesting
+// for this reason (section 6.3 on parentheses in link destinations).
+const maxNesting = 32
 
-// mdReader holds the state that runs across lines.
-type mdReader struct {
-	refs      map[string]bool // link reference labels defined in the file
-	fence     string          // the open code fence ("```", "~~~~"), or ""
-	raw       string          // the open raw HTML element (script, style), or ""
-	inComment bool            // inside an HTML comment
-	inTable   bool
-	inList    bool
-	inCode    bool // the previous line was indented code
-}
+// hiddenByte stands for a markup character hidden from the parser:
+// 0xFF is never part of UTF-8 text, so it cannot be mistaken for anything
+// else; once the tree is built, each goes back to the character it
+// replaced (hideDeepNesting records which).
+const hiddenByte = 0xFF
 
-// line turns one source line into text. block reports that the line starts
-// a new block, ends that it ends one (a heading or a table row), quote that
-// it is inside a block quote.
-func (m *mdReader) line(line string, lines []string, i int, prevBlank bool) (text string, block, ends, quote bool) {
-	switch {
-	case m.fence != "":
-		t := strings.TrimLeft(line, " \t")
-		if strings.HasPrefix(t, m.fence) && strings.Trim(t, m.fence[:1]+" \t") == "" {
-			m.fence = ""
+// hideDeepNesting replaces, by hiddenByte, each "[" nested more than
+// maxNesting deep in a paragraph (the depth starts again after a blank
+// line), each "]" of a "](" met when maxNesting "(" of the same
+// space-free run are open, and each ">" after the first maxNesting of a
+// line's quote markers. It returns the positions and characters replaced.
+func hideDeepNesting(src []byte) []hidden {
+	var hid []hidden
+	hide := func(i int) {
+		hid = append(hid, hidden{i, src[i]})
+		src[i] = hiddenByte
+	}
+	depth, parens, quotes, lineStart := 0, 0, 0, true
+	for i := 0; i < len(src); i++ {
+		c := src[i]
+		if lineStart {
+			if c == '>' {
+				if quotes++; quotes > maxNesting {
+					hide(i)
+				}
+				continue
+			}
+			if c != ' ' && c != '\t' {
+				lineStart = false
+			}
 		}
-		return "", false, false, false
-	case m.raw != "":
-		if strings.Contains(strings.ToLower(line), "</"+m.raw) {
-			m.raw = ""
-		}
-		return "", false, false, false
-	}
-	if strings.TrimSpace(line) == "" {
-		m.inTable, m.inCode = false, false
-		return "", false, false, false
-	}
-	if m.inComment {
-		end := strings.Index(line, "-->")
-		if end < 0 {
-			return "", false, false, false
-		}
-		m.inComment = false
-		if line = line[end+3:]; strings.TrimSpace(line) == "" {
-			return "", false, false, false
-		}
-	}
-	indent := indentWidth(line)
-	if indent >= 4 && !m.inList && (prevBlank || m.inCode) && !m.inTable {
-		m.inCode = true // indented code block: dropped like fenced code
-		return "", false, false, false
-	}
-	m.inCode = false
-	if indent < 4 || m.inList {
-		if sm := mdFenceOpen.FindStringSubmatch(line); sm != nil && !(sm[2][0] == '`' && strings.Contains(sm[3], "`")) {
-			m.fence = sm[2]
-			return "", false, false, false
-		}
-	}
-	if sm := mdRawOpen.FindStringSubmatch(line); sm != nil {
-		tag := strings.ToLower(sm[1])
-		if !strings.Contains(strings.ToLower(line), "</"+tag) {
-			m.raw = tag
-		}
-		return "", false, false, false
-	}
-	if mdThematic.MatchString(line) || (!prevBlank && mdSetextEq.MatchString(line)) || mdLinkDef.MatchString(line) {
-		m.inTable = false
-		return "", false, false, false
-	}
-	// Tables (GitHub Flavored Markdown): a header row, a delimiter row,
-	// then rows until a line without a pipe.
-	if m.inTable && strings.Contains(line, "|") {
-		if mdDelimRow.MatchString(line) {
-			return "", false, false, false
-		}
-		return m.tableRow(line), true, true, false
-	}
-	m.inTable = false
-	if strings.Contains(line, "|") && i+1 < len(lines) && strings.Contains(lines[i+1], "|") && mdDelimRow.MatchString(lines[i+1]) {
-		m.inTable = true
-		return m.tableRow(line), true, true, false
-	}
-	// Container markers: block quotes, then list items and footnotes.
-	for {
-		loc := mdQuote.FindStringIndex(line)
-		if loc == nil {
-			break
-		}
-		quote = true
-		line = line[loc[1]:]
-	}
-	if loc := mdListItem.FindStringIndex(line); loc != nil && !mdThematic.MatchString(line) {
-		m.inList = true
-		block = true
-		line = line[loc[1]:]
-		if loc := mdTask.FindStringIndex(line); loc != nil {
-			line = line[loc[1]:]
-		}
-	} else if loc := mdFootDef.FindStringIndex(line); loc != nil {
-		block = true
-		line = line[loc[1]:]
-	} else if indent == 0 && prevBlank {
-		m.inList = false
-	}
-	if loc := mdATX.FindStringIndex(line); loc != nil {
-		line = line[loc[1]:]
-		line = line[:mdATXClose.FindStringIndex(line)[0]]
-		block, ends = true, true
-	}
-	return m.inline(line), block, ends, quote
-}
-
-func indentWidth(line string) int {
-	w := 0
-	for _, c := range line {
 		switch c {
-		case ' ':
-			w++
-		case '\t':
-			w += 4 - w%4
-		default:
-			return w
-		}
-	}
-	return w
-}
-
-// tableRow returns the cells of a table row, each preceded by a paragraph
-// separator so that no sentence runs from one cell into the next.
-func (m *mdReader) tableRow(line string) string {
-	line = strings.TrimSpace(line)
-	line = strings.TrimPrefix(line, "|")
-	if strings.HasSuffix(line, "|") && !strings.HasSuffix(line, `\|`) {
-		line = line[:len(line)-1]
-	}
-	var cells []string
-	cell := strings.Builder{}
-	for i := 0; i < len(line); i++ {
-		switch {
-		case line[i] == '\\' && i+1 < len(line) && line[i+1] == '|':
-			cell.WriteString(`\|`)
-			i++
-		case line[i] == '|':
-			cells = append(cells, cell.String())
-			cell.Reset()
-		default:
-			cell.WriteByte(line[i])
-		}
-	}
-	cells = append(cells, cell.String())
-	var b strings.Builder
-	for _, c := range cells {
-		c = strings.TrimSpace(m.inline(c))
-		if c == "" {
-			continue
-		}
-		if b.Len() > 0 {
-			b.WriteString(paraSep)
-		}
-		b.WriteString(c)
-	}
-	return b.String()
-}
-
-// piece is a bit of inline output: text, or a run of emphasis delimiters
-// that is dropped when it pairs with another.
-type piece struct {
-	text            string
-	delim           byte // '*', '_' or '~' for a delimiter run, else 0
-	canOpen, canClo bool
-	drop            bool
-}
-
-// inline removes inline markup from one line (or one table cell) in one
-// left-to-right pass. Brackets, parentheses and code spans are matched
-// beforehand in linear time, so no construct is searched for again and
-// again: a megabyte line of "[" or "`" costs no more than any other.
-func (m *mdReader) inline(s string) string {
-	ps := m.scan(s)
-	pairDelims(ps)
-	var b strings.Builder
-	b.Grow(len(s))
-	for _, p := range ps {
-		if !p.drop {
-			b.WriteString(p.text)
-		}
-	}
-	return b.String()
-}
-
-// matches holds, for one line, the partner of every matched "[" and "("
-// and the closing run of every backtick run that opens a code span.
-type matches struct {
-	partner map[int]int
-	code    map[int]int
-}
-
-func matchLine(s string) matches {
-	var mt matches
-	if !strings.ContainsAny(s, "[(`") {
-		return mt
-	}
-	mt.partner, mt.code = map[int]int{}, map[int]int{}
-	// Backtick runs, and for each the next run of the same length
-	// (CommonMark 6.1: a code span ends at the next run of equal length).
-	type run struct{ pos, n int }
-	var runs []run
-	for i := 0; i < len(s); i++ {
-		switch s[i] {
 		case '\\':
-			if i+1 < len(s) && isASCIIPunct(s[i+1]) {
-				i++
-			}
-		case '`':
-			n := runLen(s, i, '`')
-			runs = append(runs, run{i, n})
-			i += n - 1
-		}
-	}
-	nextSame := make([]int, len(runs))
-	last := map[int]int{}
-	for k := len(runs) - 1; k >= 0; k-- {
-		nextSame[k] = -1
-		if j, ok := last[runs[k].n]; ok {
-			nextSame[k] = j
-		}
-		last[runs[k].n] = k
-	}
-	var squares, parens []int
-	k := 0
-	for i := 0; i < len(s); i++ {
-		switch s[i] {
-		case '\\':
-			if i+1 < len(s) && isASCIIPunct(s[i+1]) {
-				i++
-			}
-		case '`':
-			for runs[k].pos != i {
-				k++
-			}
-			if j := nextSame[k]; j >= 0 {
-				mt.code[i] = runs[j].pos
-				i = runs[j].pos + runs[j].n - 1
-				k = j + 1
-			} else {
-				i += runs[k].n - 1
-				k++
-			}
+			i++ // an escaped character is no markup
 		case '[':
-			squares = append(squares, i)
+			if depth++; depth > maxNesting {
+				hide(i)
+			}
 		case ']':
-			if n := len(squares); n > 0 {
-				mt.partner[squares[n-1]] = i
-				squares = squares[:n-1]
+			if i+1 < len(src) && src[i+1] == '(' && parens >= maxNesting {
+				hide(i)
+				break
 			}
+			depth = max(depth-1, 0)
 		case '(':
-			parens = append(parens, i)
+			parens++
 		case ')':
-			if n := len(parens); n > 0 {
-				mt.partner[parens[n-1]] = i
-				parens = parens[:n-1]
+			parens = max(parens-1, 0)
+		case ' ', '\t':
+			parens = 0
+		case '\n':
+			parens, quotes, lineStart = 0, 0, true
+			if j := i + 1; j < len(src) && src[j] == '\n' {
+				depth = 0
 			}
 		}
 	}
-	return mt
+	return hid
 }
 
-// skip is the tail of a recognized link, "](dest)" or "][label]", to drop
-// when the scan reaches its "]".
-type skip struct{ from, to int }
+// hidden is a character hideDeepNesting replaced.
+type hidden struct {
+	at int
+	c  byte
+}
 
-func (m *mdReader) scan(s string) []piece {
-	mt := matchLine(s)
-	var ps []piece
-	var skips []skip // innermost link on top
-	textStart := 0
-	flush := func(end int) {
-		if end > textStart {
-			ps = append(ps, piece{text: s[textStart:end]})
+// mdPiece is a run of shown text and where it stands in the source.
+type mdPiece struct {
+	off   int // byte offset in the source
+	line  int // 0-based source line
+	text  string
+	block bool // the first text of a block
+}
+
+// mdText collects the shown text of a parsed document.
+type mdText struct {
+	src       []byte
+	lineStart []int
+	pieces    []mdPiece
+	newBlock  bool // the next piece starts a block
+	buf       bytes.Buffer
+}
+
+func (m *mdText) lineOf(off int) int {
+	i, found := slices.BinarySearch(m.lineStart, off)
+	if !found {
+		i--
+	}
+	return i
+}
+
+// add records text found at source offset off; text over several lines
+// (which only HTML blocks give) is split at its line breaks, each part on
+// its own line.
+func (m *mdText) add(off int, s string) {
+	line := m.lineOf(off)
+	for {
+		part, rest, more := strings.Cut(s, "\n")
+		if part != "" {
+			// a line break decoded from an entity (&#10;) must not add a line
+			part = strings.Map(func(r rune) rune {
+				if r == '\r' {
+					return ' '
+				}
+				return r
+			}, part)
+			m.pieces = append(m.pieces, mdPiece{off: off, line: line, text: part, block: m.newBlock})
+			m.newBlock = false
+		}
+		if !more {
+			return
+		}
+		s = rest
+		line++
+		if line < len(m.lineStart) {
+			off = m.lineStart[line]
 		}
 	}
-	for i := 0; i < len(s); {
-		for n := len(skips); n > 0 && i >= skips[n-1].from; n = len(skips) {
-			sk := skips[n-1]
-			skips = skips[:n-1]
-			if i == sk.from {
-				flush(i)
-				i = sk.to
-				textStart = i
-			}
-		}
-		if i >= len(s) {
-			break
-		}
-		c := s[i]
-		switch c {
-		case '\\':
-			if i+1 < len(s) && isASCIIPunct(s[i+1]) {
-				flush(i)
-				ps = append(ps, piece{text: s[i+1 : i+2]})
-				i += 2
-				textStart = i
-				continue
-			}
-			if i+1 == len(s) { // hard line break
-				flush(i)
-				i++
-				textStart = i
-				continue
-			}
-		case '`':
-			n := runLen(s, i, '`')
-			if end, ok := mt.code[i]; ok {
-				flush(i)
-				code := s[i+n : end]
-				if len(code) > 2 && code[0] == ' ' && code[len(code)-1] == ' ' && strings.TrimSpace(code) != "" {
-					code = code[1 : len(code)-1]
-				}
-				ps = append(ps, piece{text: code})
-				i = end + n
-				textStart = i
-				continue
-			}
-			i += n
-			continue
-		case '!', '[':
-			open := i
-			if c == '!' {
-				if i+1 >= len(s) || s[i+1] != '[' {
-					break
-				}
-				open = i + 1
-			}
-			if close, next, ok := m.link(s, open, mt); ok {
-				flush(i)
-				if s[open+1] == '^' { // footnote reference: dropped whole
-					i = next
-				} else {
-					skips = append(skips, skip{close, next})
-					i = open + 1
-				}
-				textStart = i
-				continue
-			}
-		case '<':
-			if strings.HasPrefix(s[i:], "<!--") {
-				flush(i)
-				if end := strings.Index(s[i+4:], "-->"); end >= 0 {
-					i += 4 + end + 3
-				} else {
-					m.inComment = true
-					i = len(s)
-				}
-				textStart = i
-				continue
-			}
-			if loc := mdAutolink.FindStringSubmatchIndex(s[i:]); loc != nil {
-				flush(i)
-				ps = append(ps, piece{text: s[i+loc[2] : i+loc[3]]})
-				i += loc[1]
-				textStart = i
-				continue
-			}
-			if loc := mdHTMLTag.FindStringIndex(s[i:]); loc != nil {
-				flush(i)
-				i += loc[1]
-				textStart = i
-				continue
-			}
-		case '&':
-			if loc := mdEntity.FindStringIndex(s[i:]); loc != nil {
-				flush(i)
-				ps = append(ps, piece{text: cleanEntity(html.UnescapeString(s[i : i+loc[1]]))})
-				i += loc[1]
-				textStart = i
-				continue
-			}
-		case '*', '_', '~':
-			n := runLen(s, i, c)
-			flush(i)
-			before, _ := utf8.DecodeLastRuneInString(s[:i])
-			after, _ := utf8.DecodeRuneInString(s[i+n:])
-			if i == 0 {
-				before = ' '
-			}
-			if i+n == len(s) {
-				after = ' '
-			}
-			// Flanking rules of CommonMark 6.2.
-			left := !unicode.IsSpace(after) && (!isPunct(after) || unicode.IsSpace(before) || isPunct(before))
-			right := !unicode.IsSpace(before) && (!isPunct(before) || unicode.IsSpace(after) || isPunct(after))
-			p := piece{text: s[i : i+n], delim: c, canOpen: left, canClo: right}
-			if c == '_' {
-				p.canOpen = left && (!right || isPunct(before))
-				p.canClo = right && (!left || isPunct(after))
-			}
-			if c == '~' && n > 2 {
-				p.delim = 0
-			}
-			ps = append(ps, p)
-			i += n
-			textStart = i
+}
+
+// unescaped resolves backslash escapes and entity references of an inline
+// text as goldmark's HTML renderer does, then undoes the HTML escaping.
+func (m *mdText) unescaped(v []byte) string {
+	m.buf.Reset()
+	w := bufio.NewWriter(&m.buf)
+	mdhtml.DefaultWriter.Write(w, v)
+	w.Flush()
+	return strings.ReplaceAll(html.UnescapeString(m.buf.String()), "\n", " ")
+}
+
+// walk visits the tree in document order, without recursion (a list
+// nested a thousand deep must not grow the stack as deep).
+func (m *mdText) walk(root ast.Node) {
+	stack := []ast.Node{root}
+	for len(stack) > 0 {
+		n := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		if !m.visit(n) {
 			continue
 		}
-		i++
+		for c := n.LastChild(); c != nil; c = c.PreviousSibling() {
+			stack = append(stack, c)
+		}
 	}
-	flush(len(s))
-	return ps
 }
 
-// link recognizes a link or image whose "[" is at s[open]: inline
-// "[text](dest)", full or collapsed reference "[text][label]", a shortcut
-// reference to a label the file defines, or a footnote reference "[^1]".
-// It returns the index of the "]" closing the text and the index after
-// the whole construct.
-func (m *mdReader) link(s string, open int, mt matches) (close, next int, ok bool) {
-	close, ok = mt.partner[open]
-	if !ok {
-		return 0, 0, false
-	}
-	text := s[open+1 : close]
-	if strings.HasPrefix(text, "^") {
-		return close, close + 1, true
-	}
-	if close+1 < len(s) {
-		switch s[close+1] {
-		case '(':
-			if end, ok := mt.partner[close+1]; ok {
-				return close, end + 1, true
+// visit handles one node and reports whether its children are to be
+// visited.
+func (m *mdText) visit(n ast.Node) bool {
+	switch n := n.(type) {
+	case *ast.FencedCodeBlock, *ast.CodeBlock, *ast.ThematicBreak, *ast.RawHTML,
+		*east.TaskCheckBox, *east.FootnoteLink, *east.FootnoteBacklink:
+		return false // code is not prose; tags are not text
+	case *ast.HTMLBlock:
+		m.htmlBlock(n)
+		return false
+	case *ast.Text:
+		v := n.Segment.Value(m.src)
+		v = bytes.TrimSuffix(v, []byte{'\n'})
+		if n.IsRaw() {
+			m.add(n.Segment.Start, strings.ReplaceAll(string(v), "\n", " "))
+		} else {
+			m.add(n.Segment.Start, m.unescaped(v))
+		}
+		return false
+	case *ast.String:
+		if at := m.lastOff(); at >= 0 { // a String has no place in the source
+			s := string(n.Value)
+			if !n.IsCode() && !n.IsRaw() {
+				s = m.unescaped(n.Value)
 			}
-		case '[':
-			if end, ok := mt.partner[close+1]; ok {
-				label := s[close+2 : end]
-				if label == "" {
-					label = text
+			m.add(at, s)
+		}
+		return false
+	case *ast.AutoLink:
+		m.add(m.autolinkOff(n), string(n.Label(m.src)))
+		return false
+	case *ast.CodeSpan:
+		for c := n.FirstChild(); c != nil; c = c.NextSibling() {
+			if t, ok := c.(*ast.Text); ok {
+				v := bytes.TrimSuffix(t.Segment.Value(m.src), []byte{'\n'})
+				m.add(t.Segment.Start, string(v))
+			}
+		}
+		return false
+	}
+	if n.Type() == ast.TypeBlock {
+		switch n.(type) {
+		case *ast.Paragraph, *ast.TextBlock, *ast.Heading, *ast.ListItem, *ast.Blockquote,
+			*east.TableCell, *east.Footnote:
+			m.newBlock = true
+		}
+	}
+	return true
+}
+
+// lastOff returns the offset of the text before, for nodes that have no
+// place of their own.
+func (m *mdText) lastOff() int {
+	if len(m.pieces) == 0 {
+		return -1
+	}
+	return m.pieces[len(m.pieces)-1].off
+}
+
+// autolinkOff finds where an autolink's label stands: after the last
+// piece, the first occurrence of the label.
+func (m *mdText) autolinkOff(n *ast.AutoLink) int {
+	from := 0
+	if len(m.pieces) > 0 {
+		from = m.pieces[len(m.pieces)-1].off
+	}
+	if i := bytes.Index(m.src[from:], n.Label(m.src)); i >= 0 {
+		return from + i
+	}
+	return from
+}
+
+// mdDropped are the HTML elements whose content a Markdown page does not
+// show as prose.
+var mdDropped = map[string]bool{"script": true, "style": true, "textarea": true, "pre": true, "title": true, "template": true}
+
+// htmlBlock keeps the text between the tags of a block of raw HTML, each
+// run on its source line; comments and the content of script, style,
+// textarea and pre are dropped.
+func (m *mdText) htmlBlock(n *ast.HTMLBlock) {
+	lines := n.Lines()
+	if lines.Len() == 0 {
+		return
+	}
+	start, stop := lines.At(0).Start, lines.At(lines.Len()-1).Stop
+	if n.HasClosure() {
+		stop = max(stop, n.ClosureLine.Stop)
+	}
+	m.newBlock = true
+	z := xhtml.NewTokenizer(bytes.NewReader(m.src[start:stop]))
+	off, skip := start, ""
+	for {
+		tt := z.Next()
+		if tt == xhtml.ErrorToken {
+			return
+		}
+		raw := z.Raw()
+		switch tt {
+		case xhtml.TextToken:
+			if skip == "" {
+				// decode line by line so that each run keeps its line
+				for i, part := range strings.Split(string(raw), "\n") {
+					if i > 0 {
+						m.add(off, "\n")
+					}
+					if part != "" {
+						m.add(off+strings.LastIndexByte(string(raw[:len(raw)-len(part)]), '\n')+1, html.UnescapeString(part))
+					}
 				}
-				if m.refs[foldLabel(label)] {
-					return close, end + 1, true
-				}
+			}
+		case xhtml.StartTagToken:
+			name, _ := z.TagName()
+			if skip == "" && mdDropped[string(name)] {
+				skip = string(name)
+			}
+		case xhtml.EndTagToken:
+			name, _ := z.TagName()
+			if string(name) == skip {
+				skip = ""
 			}
 		}
-	}
-	if m.refs[foldLabel(text)] {
-		return close, close + 1, true
-	}
-	return 0, 0, false
-}
-
-func runLen(s string, i int, c byte) int {
-	n := 0
-	for i+n < len(s) && s[i+n] == c {
-		n++
-	}
-	return n
-}
-
-// pairDelims drops emphasis delimiter runs that open and close a span, in
-// the manner of CommonMark's delimiter stack, simplified to stay linear:
-// each kind of delimiter has its own stack and a closer pairs only with
-// the opener on top of it (for ~, only of the same length); runs pair
-// whole. Unpaired runs, like the "*" in "5 * 3", stay as text.
-func pairDelims(ps []piece) {
-	stacks := map[byte][]int{}
-	for i := range ps {
-		p := &ps[i]
-		if p.delim == 0 {
-			continue
-		}
-		st := stacks[p.delim]
-		if p.canClo && len(st) > 0 {
-			o := &ps[st[len(st)-1]]
-			if p.delim != '~' || len(o.text) == len(p.text) {
-				o.drop, p.drop = true, true
-				stacks[p.delim] = st[:len(st)-1]
-				continue
-			}
-		}
-		if p.canOpen {
-			stacks[p.delim] = append(st, i)
-		}
+		off += len(raw)
 	}
 }
 
-func isASCIIPunct(c byte) bool {
-	return c < utf8.RuneSelf && unicode.IsPunct(rune(c)) || strings.IndexByte("$+<=>^`|~", c) >= 0
-}
-
-func isPunct(r rune) bool { return unicode.IsPunct(r) || unicode.IsSymbol(r) }
-
-// cleanEntity keeps a decoded character reference from adding a line or
-// paragraph break, which would shift line numbers or split a sentence.
-func cleanEntity(s string) string {
-	return strings.Map(func(r rune) rune {
-		if r == '\n' || r == '\r' || r == '\u2028' || r == '\u2029' || r == '\u0085' || r == 0 {
-			return ' '
+// assemble lays the pieces out on their source lines: a block that starts
+// on the line of other text, or on the line after one, starts with
+// paraSep; a line with nothing but white space is empty.
+func (m *mdText) assemble() string {
+	slices.SortStableFunc(m.pieces, func(a, b mdPiece) int { return a.off - b.off })
+	var out strings.Builder
+	out.Grow(len(m.src))
+	line := 0
+	var cur strings.Builder
+	prevHasText := false
+	flush := func() {
+		t := cur.String()
+		has := strings.TrimSpace(strings.ReplaceAll(t, paraSep, "")) != ""
+		if has {
+			out.WriteString(t)
 		}
-		return r
-	}, s)
+		prevHasText = has
+		cur.Reset()
+	}
+	for _, p := range m.pieces {
+		for line < p.line {
+			flush()
+			out.WriteByte('\n')
+			line++
+		}
+		if p.block && (prevHasText || strings.TrimSpace(cur.String()) != "") {
+			cur.WriteString(paraSep)
+		}
+		cur.WriteString(p.text)
+	}
+	flush()
+	for ; line < len(m.lineStart)-1; line++ {
+		out.WriteByte('\n')
+	}
+	return out.String()
 }

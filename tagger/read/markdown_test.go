@@ -1,8 +1,12 @@
 package read
 
 import (
+	"strconv"
 	"strings"
 	"testing"
+	"time"
+
+	"github.com/stretchr/testify/assert"
 )
 
 func md(t *testing.T, src string) string {
@@ -44,10 +48,14 @@ func TestMarkdownInline(t *testing.T) {
 		{"A <span class=\"x\">red</span> tag<br/>.", "A red tag."},
 		{"Tom &amp; Jerry &copy; &#169; &#xA9; &bogus;", "Tom & Jerry © © © &bogus;"},
 		{"Escaped \\*stars\\* and \\_under\\_", "Escaped *stars* and _under_"},
-		{"note[^1] here", "note here"},
+		{"note[^1] here.\n\n[^1]: The note.", "note here.\n\nThe note."},
+		// GFM: a footnote reference without a definition is literal text.
+		{"note[^9] here", "note[^9] here"},
 		{"a <!-- hidden --> b", "a  b"},
 		{"[not a link] and [brackets]", "[not a link] and [brackets]"},
-		{"line with hard break\\", "line with hard break"},
+		{"line with hard break\\\nnext", "line with hard break\nnext"},
+		// CommonMark 6.7: a backslash at the end of a block is no hard break.
+		{"last line\\", "last line\\"},
 		{"A line break &#10; inside", "A line break   inside"},
 	} {
 		if got := md(t, tc.in); got != tc.want {
@@ -66,10 +74,10 @@ func TestMarkdownBlocks(t *testing.T) {
 			"Valves\n\nText.\n\nPumps\n\nMore."},
 		{"lists",
 			"Steps:\n- Close the valve\n- Bleed the line\n  which takes time\n1. First\n2) Second\n* [x] done task\n+ [ ] open task",
-			"Steps:\n" + P + "Close the valve\n" + P + "Bleed the line\n  which takes time\n" + P + "First\n" + P + "Second\n" + P + "done task\n" + P + "open task"},
+			"Steps:\n" + P + "Close the valve\n" + P + "Bleed the line\nwhich takes time\n" + P + "First\n" + P + "Second\n" + P + "done task\n" + P + "open task"},
 		{"quotes",
 			"Before.\n> Quoted line\n> > nested\ncontinued\n\n> new quote",
-			"Before.\n" + P + "Quoted line\nnested\ncontinued\n\nnew quote"},
+			"Before.\n" + P + "Quoted line\n" + P + "nested\ncontinued\n\nnew quote"},
 		{"table",
 			"Parts:\n| Part | Function |\n|------|:--------:|\n| Valve | Opens \\| shuts |\n| *Sensor* | Measures |\nAfter.",
 			"Parts:\n" + P + "Part" + P + "Function\n\nValve" + P + "Opens | shuts\n" + P + "Sensor" + P + "Measures\n" + P + "After."},
@@ -84,7 +92,7 @@ func TestMarkdownBlocks(t *testing.T) {
 			"Text.\n\n\n"},
 		{"indented code dropped, list continuation kept",
 			"Text.\n\n    code line\n    more code\n\n- item\n\n    continued item text",
-			"Text.\n\n\n\n\n" + "item\n\n    continued item text"},
+			"Text.\n\n\n\n\n" + "item\n\ncontinued item text"},
 		{"front matter",
 			"---\ntitle: Valves\nauthor: x\n---\n# Heading\nBody.",
 			"\n\n\n\nHeading\n" + P + "Body."},
@@ -96,7 +104,7 @@ func TestMarkdownBlocks(t *testing.T) {
 			"\nText.\n\nMore."},
 		{"html comment across lines",
 			"One.\n<!-- start\nhidden\nend -->Two.\nThree.",
-			"One.\n\n\nTwo.\nThree."},
+			"One.\n\n\nTwo.\n" + P + "Three."}, // the HTML block ends on the line with "-->"
 		{"script block",
 			"One.\n<script>\nvar x = 1;\n</script>\nTwo.",
 			"One.\n\n\n\nTwo."},
@@ -127,5 +135,62 @@ func TestMarkdownLinesPointToSource(t *testing.T) {
 				t.Errorf("source line %d has %q, text line %d is %q", i+1, w, i+1, got[i])
 			}
 		}
+	}
+}
+
+// Cases that the line-by-line reader got wrong, each against what
+// CommonMark 0.31.2 renders.
+func TestMarkdownWrappedConstructs(t *testing.T) {
+	for _, tc := range []struct{ name, in, want string }{
+		// 6.3: link text may span lines; the destination is not prose.
+		{"wrapped link text", "See [the pressure\nsensor manual](https://example.com/m) now.",
+			"See the pressure\nsensor manual now."},
+		// 5.2: a line inside a paragraph cannot start an ordered list unless
+		// the number is 1 (an interrupting list must start at 1).
+		{"year at a line start", "The valve was introduced in\n2019. It replaced the old one.",
+			"The valve was introduced in\n2019. It replaced the old one."},
+		// 6.6: an HTML tag may span lines.
+		{"tag over two lines", "Open the <span\nclass=\"x\">inlet</span> valve.",
+			"Open the \ninlet valve."},
+		// 4.7: a link reference definition may span lines.
+		{"definition over lines", "Read [the guide].\n\n[the guide]:\n  https://example.com/guide\n  \"Guide\"",
+			"Read the guide.\n\n\n\n"},
+	} {
+		assert.Equal(t, tc.want, md(t, tc.in), tc.name)
+	}
+}
+
+// Nested brackets took quadratic time in the line reader (36 s for
+// 100,000 pairs); goldmark's bracket matching is linear. A generous bound
+// catches a hang; BenchmarkMarkdownNestedBrackets measures.
+func TestMarkdownNestedBracketsLinear(t *testing.T) {
+	const n = 100_000
+	src := strings.Repeat("[", n) + "valve" + strings.Repeat("]", n)
+	done := make(chan string, 1)
+	go func() {
+		r := &reader{in: Input{Name: "nested.md"}}
+		done <- r.markdown(src).Text
+	}()
+	select {
+	case text := <-done:
+		// no link: every bracket is text, as CommonMark renders it
+		assert.Equal(t, n, strings.Count(text, "["))
+		assert.Equal(t, n, strings.Count(text, "]"))
+		assert.Equal(t, len(src), len(text))
+	case <-time.After(20 * time.Second):
+		t.Fatal("nested brackets: not read within 20 s")
+	}
+}
+
+func BenchmarkMarkdownNestedBrackets(b *testing.B) {
+	for _, n := range []int{10_000, 100_000} {
+		src := strings.Repeat("[", n) + "valve" + strings.Repeat("]", n)
+		b.Run(strconv.Itoa(n), func(b *testing.B) {
+			b.SetBytes(int64(len(src)))
+			for b.Loop() {
+				r := &reader{in: Input{Name: "nested.md"}}
+				r.markdown(src)
+			}
+		})
 	}
 }
