@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"glossmith/extract/concord"
+	"glossmith/extract/terms"
 	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -44,7 +45,7 @@ terminal the match is highlighted.
 
 Matches never cross a sentence boundary. By default each rule reports its
 leftmost-longest, non-overlapping matches; --nested reports every span that
-matches (sub-phrases too).
+matches (sub-phrases too) up to the longest span terms looks at (45 tokens).
 
 --count prints a frequency list of the matched strings instead (--by word or
 lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
@@ -170,7 +171,11 @@ func (o *findOptions) run(args []string) error {
 	}
 	find := m.FindAll
 	if o.nested {
-		find = m.FindNested
+		// Spans no longer than terms looks at: their number grows with the
+		// square of a run of matching tokens otherwise.
+		find = func(toks []doc.Token) []pattern.Match {
+			return m.FindNestedWithin(toks, terms.SpanLimit(terms.DefaultMaxWords))
+		}
 	}
 	out, err := openOutput(o.outPath)
 	if err != nil {
