@@ -12,6 +12,9 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/golden")
@@ -77,14 +80,11 @@ func runBounded(t *testing.T, stdin string, limit time.Duration, args ...string)
 
 func TestVersionAndHelp(t *testing.T) {
 	r := run(t, "", "--version")
-	if r.code != 0 || !strings.HasPrefix(r.stdout, "glossmith ") {
-		t.Fatalf("--version: %+v", r)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.True(t, strings.HasPrefix(r.stdout, "glossmith "), "--version: %q", r.stdout)
 	r = run(t, "", "--help")
 	for _, c := range []string{"terms", "collocations", "find", "tag", "rules", "eval", "train"} {
-		if !strings.Contains(r.stdout, c) {
-			t.Errorf("--help does not list %q:\n%s", c, r.stdout)
-		}
+		assert.Contains(t, r.stdout, c, "--help does not list %q", c)
 	}
 }
 
@@ -92,35 +92,23 @@ func TestVersionAndHelp(t *testing.T) {
 // same input gives the same bytes on every run.
 func TestDemoTermsGolden(t *testing.T) {
 	r := run(t, "", "terms", "--limit", "20", "testdata/demo")
-	if r.code != 0 {
-		t.Fatalf("exit %d: %s", r.code, r.stderr)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
 	again := run(t, "", "terms", "--limit", "20", "--workers", "1", "testdata/demo")
-	if again.stdout != r.stdout {
-		t.Fatalf("two runs (default workers and one worker) differ:\n%s\n---\n%s", r.stdout, again.stdout)
-	}
+	require.Equal(t, r.stdout, again.stdout, "two runs (default workers and one worker) differ")
 	golden := filepath.Join("..", "..", "testdata", "golden", "demo-terms.txt")
 	if *update {
-		if err := os.WriteFile(golden, []byte(r.stdout), 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(golden, []byte(r.stdout), 0o644))
 	}
 	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run go test ./cmd/glossmith -run Golden -update to create it)", err)
-	}
-	if r.stdout != string(want) {
-		t.Errorf("terms on the demo corpus changed; if intended, run with -update.\ngot:\n%s\nwant:\n%s", r.stdout, want)
-	}
+	require.NoError(t, err, "run go test ./cmd/glossmith -run Golden -update to create it")
+	assert.Equal(t, string(want), r.stdout, "terms on the demo corpus changed; if intended, run with -update")
 }
 
 // TBX output parses as XML with one conceptEntry per candidate, each with a
 // langSec holding the canonical term first (TBX v3 core structure).
 func TestTermsTBX(t *testing.T) {
 	r := run(t, "", "terms", "--to", "tbx", "--limit", "15", "testdata/demo")
-	if r.code != 0 {
-		t.Fatalf("exit %d: %s", r.code, r.stderr)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
 	var tbx struct {
 		XMLName xml.Name `xml:"urn:iso:std:iso:30042:ed-2 tbx"`
 		Type    string   `xml:"type,attr"`
@@ -135,15 +123,12 @@ func TestTermsTBX(t *testing.T) {
 			} `xml:"langSec"`
 		} `xml:"text>body>conceptEntry"`
 	}
-	if err := xml.Unmarshal([]byte(r.stdout), &tbx); err != nil {
-		t.Fatalf("TBX does not parse: %v\n%s", err, r.stdout)
-	}
-	if tbx.Type != "TBX-Core" || len(tbx.Entries) != 15 {
-		t.Fatalf("type %q, %d entries", tbx.Type, len(tbx.Entries))
-	}
+	require.NoError(t, xml.Unmarshal([]byte(r.stdout), &tbx), "TBX does not parse")
+	require.Equal(t, "TBX-Core", tbx.Type)
+	require.Len(t, tbx.Entries, 15)
 	e := tbx.Entries[0]
 	if len(e.Langs) != 1 || e.Langs[0].Lang != "en" || len(e.Langs[0].Terms) == 0 || e.Langs[0].Terms[0].Term == "" {
-		t.Fatalf("first entry malformed: %+v", e)
+		require.Fail(t, "first entry malformed", "%+v", e)
 	}
 	contexts := 0
 	for _, n := range e.Langs[0].Terms[0].Notes {
@@ -151,28 +136,22 @@ func TestTermsTBX(t *testing.T) {
 			contexts++
 		}
 	}
-	if contexts == 0 {
-		t.Errorf("the first term carries no context note: %+v", e.Langs[0].Terms[0])
-	}
+	assert.NotZero(t, contexts, "the first term carries no context note: %+v", e.Langs[0].Terms[0])
 }
 
 func TestTermsFormats(t *testing.T) {
 	for _, f := range []string{"tsv", "csv", "jsonl"} {
 		r := run(t, "", "terms", "--to", f, "--limit", "5", "testdata/demo")
+		require.Equal(t, 0, r.code, "%s: %s", f, r.stderr)
 		lines := strings.Split(strings.TrimSpace(r.stdout), "\n")
-		if r.code != 0 {
-			t.Fatalf("%s: exit %d: %s", f, r.code, r.stderr)
+		if f == "jsonl" {
+			require.Len(t, lines, 5)
+			assert.Contains(t, lines[0], `"term":`)
+			assert.Contains(t, lines[0], `"variants":`)
+			continue
 		}
-		switch f {
-		case "jsonl":
-			if len(lines) != 5 || !strings.Contains(lines[0], `"term":`) || !strings.Contains(lines[0], `"variants":`) {
-				t.Errorf("jsonl: %s", r.stdout)
-			}
-		default:
-			if len(lines) != 6 || !strings.HasPrefix(lines[0], "rank") {
-				t.Errorf("%s: want a header and 5 rows:\n%s", f, r.stdout)
-			}
-		}
+		require.Len(t, lines, 6, "%s: a header and 5 rows", f)
+		assert.True(t, strings.HasPrefix(lines[0], "rank"), "%s header %q", f, lines[0])
 	}
 }
 
@@ -181,21 +160,14 @@ func TestOutputFileAtomic(t *testing.T) {
 	dir := t.TempDir()
 	out := filepath.Join(dir, "list.tsv")
 	r := run(t, "", "terms", "--to", "tsv", "-o", out, "testdata/demo")
-	if r.code != 0 {
-		t.Fatalf("exit %d: %s", r.code, r.stderr)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
 	b, err := os.ReadFile(out)
-	if err != nil || !strings.HasPrefix(string(b), "rank\tterm") {
-		t.Fatalf("output file: %v %q", err, b)
-	}
+	require.NoError(t, err)
+	assert.True(t, strings.HasPrefix(string(b), "rank\tterm"), "%q", firstLine(string(b)))
 	r = run(t, "", "terms", "--to", "nonsense", "-o", filepath.Join(dir, "bad.txt"), "testdata/demo")
-	if r.code == 0 {
-		t.Fatal("an unknown format was accepted")
-	}
+	assert.NotEqual(t, 0, r.code, "an unknown format was accepted")
 	ents, _ := os.ReadDir(dir)
-	if len(ents) != 1 {
-		t.Fatalf("a failed run left files behind: %v", ents)
-	}
+	assert.Len(t, ents, 1, "a failed run left files behind")
 }
 
 // Bad inputs: each gets a message naming it, the other inputs are still
@@ -205,34 +177,24 @@ func TestBadInputsGoOn(t *testing.T) {
 	empty := filepath.Join(dir, "empty.txt")
 	binaryFile := filepath.Join(dir, "blob.txt")
 	emptyDir := filepath.Join(dir, "nothing")
-	os.WriteFile(empty, nil, 0o644)
-	os.WriteFile(binaryFile, []byte("\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00"), 0o644)
-	os.Mkdir(emptyDir, 0o755)
+	require.NoError(t, os.WriteFile(empty, nil, 0o644))
+	require.NoError(t, os.WriteFile(binaryFile, []byte("\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00"), 0o644))
+	require.NoError(t, os.Mkdir(emptyDir, 0o755))
 	missing := filepath.Join(dir, "missing.md")
 	r := run(t, "", "tag", "--to", "text", empty, binaryFile, missing, emptyDir, "testdata/demo/maintenance-schedule.txt")
-	if r.code != 1 {
-		t.Errorf("exit status %d, want 1", r.code)
-	}
+	assert.Equal(t, 1, r.code)
 	for _, name := range []string{empty, binaryFile, missing, emptyDir} {
-		if !strings.Contains(r.stderr, name) {
-			t.Errorf("no message names %s:\n%s", name, r.stderr)
-		}
+		assert.Contains(t, r.stderr, name, "no message names %s", name)
 	}
-	if !strings.Contains(r.stdout, "/NN") {
-		t.Errorf("the good file was not tagged:\n%s", r.stdout)
-	}
-	if strings.Contains(r.stderr, "panic") {
-		t.Fatalf("panic:\n%s", r.stderr)
-	}
+	assert.Contains(t, r.stdout, "/NN", "the good file was not tagged")
+	assert.NotContains(t, r.stderr, "panic")
 }
 
 // The CoNLL-U writer: # sent_id and # text for every sentence, ten columns
 // per token, SpaceAfter=No where no space follows.
 func TestTagConllu(t *testing.T) {
 	r := run(t, "Don't over-tighten the union nut.\n", "tag", "--to", "conllu", "-")
-	if r.code != 0 {
-		t.Fatalf("exit %d: %s", r.code, r.stderr)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
 	var ids, texts, rows int
 	for _, line := range strings.Split(r.stdout, "\n") {
 		switch {
@@ -240,78 +202,61 @@ func TestTagConllu(t *testing.T) {
 			ids++
 		case strings.HasPrefix(line, "# text = "):
 			texts++
-			if line != "# text = Don't over-tighten the union nut." {
-				t.Errorf("text line %q", line)
-			}
+			assert.Equal(t, "# text = Don't over-tighten the union nut.", line)
 		case line == "" || strings.HasPrefix(line, "#"):
 		default:
 			rows++
-			if n := len(strings.Split(line, "\t")); n != 10 {
-				t.Errorf("%d columns: %q", n, line)
-			}
+			assert.Len(t, strings.Split(line, "\t"), 10, "%q", line)
 		}
 	}
-	if ids != 1 || texts != 1 || rows < 8 {
-		t.Errorf("ids %d texts %d rows %d:\n%s", ids, texts, rows, r.stdout)
-	}
-	if !strings.Contains(r.stdout, "\tnut\tnut\tNOUN\tNN\t_\t_\t_\t_\tSpaceAfter=No") {
-		t.Errorf("the last word is not tagged as expected or lacks SpaceAfter=No:\n%s", r.stdout)
-	}
+	assert.Equal(t, 1, ids)
+	assert.Equal(t, 1, texts)
+	assert.GreaterOrEqual(t, rows, 8)
+	assert.Contains(t, r.stdout, "\tnut\tnut\tNOUN\tNN\t_\t_\t_\t_\tSpaceAfter=No",
+		"the last word is not tagged as expected or lacks SpaceAfter=No")
 }
 
 // Pre-tagged CoNLL-U input is used as given: its tags come out unchanged.
 func TestTagPretagged(t *testing.T) {
 	in := "# sent_id = x\n1\tFlush\tflush\tVERB\tVB\t_\t_\t_\t_\t_\n2\tlines\tline\tNOUN\tNNS\t_\t_\t_\t_\tSpaceAfter=No\n3\t.\t.\tPUNCT\t.\t_\t_\t_\t_\t_\n\n"
 	r := run(t, in, "tag", "--from", "conllu", "--to", "text", "-")
-	if r.code != 0 || strings.TrimSpace(r.stdout) != "Flush/VB lines/NNS ./." {
-		t.Fatalf("%+v", r)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Equal(t, "Flush/VB lines/NNS ./.", strings.TrimSpace(r.stdout))
 	in2 := strings.ReplaceAll(in, "\tNOUN\tNNS\t", "\tVERB\tVBZ\t")
 	r = run(t, in2, "tag", "--from", "conllu", "--to", "text", "-")
-	if strings.TrimSpace(r.stdout) != "Flush/VB lines/VBZ ./." {
-		t.Fatalf("hand annotation was re-tagged: %q", r.stdout)
-	}
+	assert.Equal(t, "Flush/VB lines/VBZ ./.", strings.TrimSpace(r.stdout), "hand annotation was re-tagged")
 }
 
 func TestFind(t *testing.T) {
 	r := run(t, "", "find", "--to", "jsonl", `"union" "nut"`, "testdata/demo")
-	if r.code != 0 || !strings.Contains(r.stdout, `"start":`) || !strings.Contains(r.stdout, `"rule":`) {
-		t.Fatalf("%+v", r)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, `"start":`)
+	assert.Contains(t, r.stdout, `"rule":`)
 	r = run(t, "", "find", "--count", `ADJ NOUN`, "testdata/demo")
-	if r.code != 0 || len(strings.Split(r.stdout, "\n")) < 10 {
-		t.Fatalf("%+v", r)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.GreaterOrEqual(t, len(strings.Split(r.stdout, "\n")), 10)
 	r = run(t, "", "find", "NUON", "testdata/demo")
-	if r.code == 0 || !strings.Contains(r.stderr, "NOUN") {
-		t.Fatalf("a misspelt tag gave no suggestion: %+v", r)
-	}
+	assert.NotEqual(t, 0, r.code)
+	assert.Contains(t, r.stderr, "NOUN", "a misspelt tag gave no suggestion")
 }
 
 func TestRulesCheckReportsPosition(t *testing.T) {
 	dir := t.TempDir()
 	f := filepath.Join(dir, "bad.gsr")
-	os.WriteFile(f, []byte("# a rule\ngood = ADJ NOUN ;\nbad = ADJ NUON ;\n"), 0o644)
+	require.NoError(t, os.WriteFile(f, []byte("# a rule\ngood = ADJ NOUN ;\nbad = ADJ NUON ;\n"), 0o644))
 	r := run(t, "", "rules", "check", f)
-	if r.code == 0 {
-		t.Fatal("a bad rule file passed")
-	}
-	if !strings.Contains(r.stderr, "bad.gsr:3:11") || !strings.Contains(r.stderr, `did you mean "NOUN"`) || !strings.Contains(r.stderr, "^") {
-		t.Errorf("error without position, suggestion or caret:\n%s", r.stderr)
+	assert.NotEqual(t, 0, r.code, "a bad rule file passed")
+	for _, want := range []string{"bad.gsr:3:11", `did you mean "NOUN"`, "^"} {
+		assert.Contains(t, r.stderr, want, "error without position, suggestion or caret")
 	}
 }
 
 func TestCollocations(t *testing.T) {
 	r := run(t, "", "collocations", "--to", "jsonl", "--relation", "verb_obj", "--min-freq", "2", "testdata/demo")
-	if r.code != 0 {
-		t.Fatalf("exit %d: %s", r.code, r.stderr)
-	}
+	require.Equal(t, 0, r.code, r.stderr)
 	for _, k := range []string{`"w1":`, `"w2":`, `"relation":"verb_obj"`, `"f12":`, `"f1":`, `"f2":`, `"n":`, `"g2":`, `"pmi":`, `"t":`, `"chi2":`, `"dice":`, `"logdice":`, `"mi3":`} {
-		if !strings.Contains(r.stdout, k) {
-			t.Errorf("jsonl lacks %s:\n%s", k, r.stdout)
-		}
+		assert.Contains(t, r.stdout, k)
 	}
-	if strings.Contains(r.stdout, "NaN") || strings.Contains(r.stdout, "Inf") {
-		t.Errorf("non-finite value printed")
-	}
+	assert.NotContains(t, r.stdout, "NaN", "non-finite value printed")
+	assert.NotContains(t, r.stdout, "Inf", "non-finite value printed")
 }

@@ -1,25 +1,28 @@
 package main
 
-import "testing"
+import (
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+)
 
 func TestMemorySize(t *testing.T) {
 	for in, want := range map[string]memorySize{
 		"1GiB": 1 << 30, "512MiB": 512 << 20, "800MB": 800 << 20, "2g": 2 << 30,
 		"1.5G": 3 << 29, "67108864": 64 << 20, "1.0 GiB": 1 << 30, // the default as printed
+		"16MiB": minMemory, "65536G": maxMemory,
 	} {
 		var m memorySize
-		if err := m.Set(in); err != nil || m != want {
-			t.Errorf("--memory %s = %d, %v; want %d", in, m, err, want)
+		if assert.NoError(t, m.Set(in), "--memory %s", in) {
+			assert.Equal(t, want, m, "--memory %s", in)
 		}
 	}
-	for _, bad := range []string{"", "lots", "1MB", "-2G", "GiB"} {
+	// NaN and infinities are numbers to strconv.ParseFloat; 1e30 bytes is
+	// no machine's memory.
+	for _, bad := range []string{"", "lots", "1MB", "-2G", "GiB", "NaN", "nan", "Inf", "+Inf", "-Inf", "1e30", "1e400", "65537G"} {
 		var m memorySize
-		if err := m.Set(bad); err == nil {
-			t.Errorf("--memory %q accepted as %d", bad, m)
-		}
+		assert.Error(t, m.Set(bad), "--memory %q accepted as %d", bad, m)
 	}
 	m := defaultMemory
-	if got := m.String(); got != "1.0 GiB" {
-		t.Errorf("default prints as %q", got)
-	}
+	assert.Equal(t, "1.0 GiB", m.String())
 }

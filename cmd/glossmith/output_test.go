@@ -9,6 +9,7 @@ import (
 	"strings"
 	"syscall"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -147,4 +148,25 @@ func TestPrunedWarningSurvivesQuiet(t *testing.T) {
 	var b bytes.Buffer
 	_, _ = b.ReadFrom(r)
 	assert.True(t, strings.HasPrefix(b.String(), "warning: memory budget: dropped 12 candidates seen once"), "%q", b.String())
+}
+
+// SIGINT or SIGTERM while an output file is being written removes its
+// temporary file: find opens -o before reading, and then blocks on a named
+// pipe nobody writes to.
+func TestSignalLeavesNoTemporaryFile(t *testing.T) {
+	for _, sig := range []syscall.Signal{syscall.SIGINT, syscall.SIGTERM} {
+		dir := t.TempDir()
+		out := filepath.Join(dir, "hits.tsv")
+		cmd := exec.Command(binary, "find", "-o", out, "NOUN", fifoInput(t))
+		require.NoError(t, cmd.Start())
+		require.Eventually(t, func() bool {
+			ents, _ := os.ReadDir(dir)
+			return len(ents) == 1
+		}, time.Minute, 20*time.Millisecond, "the temporary file appears")
+		require.NoError(t, cmd.Process.Signal(sig))
+		err := cmd.Wait()
+		assert.Error(t, err, "ended by %v", sig)
+		ents, _ := os.ReadDir(dir)
+		assert.Empty(t, ents, "after %v", sig)
+	}
 }
