@@ -9,6 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"glossmith/extract/termbase"
 	"glossmith/extract/terms"
 	"glossmith/grammar"
 	"glossmith/pattern"
@@ -70,6 +71,7 @@ type termsOptions struct {
 	exclude   string
 	all       bool
 	limit     int
+	tb        termsTermbase // --termbase, --new, --record (termbase_terms.go)
 }
 
 func newTermsCmd() *cobra.Command {
@@ -128,6 +130,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.exclude, "exclude", "", "leave out candidates that the pattern matches whole")
 	fl.BoolVar(&o.all, "all", false, "list every candidate, not only those above the score cut-off")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many terms (0: no limit)")
+	o.tb.register(cmd)
 	completeChoices(cmd, "to", termsFormats)
 	completeChoices(cmd, "sort", terms.SortKeys)
 }
@@ -165,6 +168,9 @@ func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
 	}
 	if !cmd.Flags().Changed("contexts") && o.to == "text" {
 		o.contexts = 0
+	}
+	if err := o.tb.validate(); err != nil {
+		return err
 	}
 	return needInputs(args)
 }
@@ -223,7 +229,11 @@ func (o *termsOptions) run(args []string) error {
 	if corpus.Documents() == 0 {
 		return runErr // nothing read: an existing output file is kept
 	}
-	ranked, err := terms.Rank(corpus.Terms(ref), terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit})
+	cands, err := o.tb.apply(corpus.Terms(ref), termbase.Run{Inputs: args, Documents: corpus.Documents(), Tokens: corpus.Tokens()})
+	if err != nil {
+		return err
+	}
+	ranked, err := terms.Rank(cands, terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit})
 	if err != nil {
 		return err
 	}

@@ -117,41 +117,81 @@ func (s *Store) Decide(st Status, cs ...Proposal) (Change, error) {
 	}
 	return s.update(action, joinQuoted(texts), func(t *Tx) error {
 		for _, c := range cs {
-			want := st
-			if want == Admitted {
-				want = Preferred
+			if err := t.decide(st, c); err != nil {
+				return err
 			}
-			e, term, created, err := t.findOrCreate(c, want)
+		}
+		return nil
+	})
+}
+
+// decide records one decision (see Decide).
+func (t *Tx) decide(st Status, c Proposal) error {
+	want := st
+	if want == Admitted {
+		want = Preferred
+	}
+	e, term, created, err := t.findOrCreate(c, want)
+	if err != nil {
+		return err
+	}
+	if created {
+		if st == Candidate {
+			return t.markDeferred(e.ID, term)
+		}
+		return nil
+	}
+	n := *term
+	n.Deferred = false
+	switch st {
+	case Preferred, Admitted:
+		if term.Status == Preferred || term.Status == Admitted {
+			n.Status = term.Status
+		} else if p := e.Preferred(term.Lang); p != nil && p != term && p.Status == Preferred {
+			n.Status = Admitted
+		} else {
+			n.Status = Preferred
+		}
+	case Candidate:
+		n.Status, n.Deferred = Candidate, true
+	default:
+		n.Status = st
+	}
+	if c.POS != "" && n.POS == "" {
+		n.POS = c.POS
+	}
+	n.Forms, n.Contexts = c.Forms, c.Contexts
+	return t.setTerm(term, &n)
+}
+
+// Verdict is one row of a review: a term, the decision on it (a Status;
+// "" for none) and a comment (added to the entry's notes).
+type Verdict struct {
+	Term    string
+	Status  Status
+	Comment string
+}
+
+// Review records a reviewer's verdicts — from a review sheet — as one
+// change.
+func (s *Store) Review(what string, vs []Verdict) (Change, error) {
+	return s.update("review", fmt.Sprintf("%s: %d verdict(s)", what, len(vs)), func(t *Tx) error {
+		for _, v := range vs {
+			if v.Status != "" {
+				if err := t.decide(v.Status, Proposal{Text: v.Term}); err != nil {
+					return err
+				}
+			}
+			if v.Comment == "" {
+				continue
+			}
+			e, _, _, err := t.findOrCreate(Proposal{Text: v.Term}, Candidate)
 			if err != nil {
 				return err
 			}
-			if created {
-				if st == Candidate {
-					return t.markDeferred(e.ID, term)
-				}
-				continue
-			}
-			n := *term
-			n.Deferred = false
-			switch st {
-			case Preferred, Admitted:
-				if term.Status == Preferred || term.Status == Admitted {
-					n.Status = term.Status
-				} else if p := e.Preferred(term.Lang); p != nil && p != term && p.Status == Preferred {
-					n.Status = Admitted
-				} else {
-					n.Status = Preferred
-				}
-			case Candidate:
-				n.Status, n.Deferred = Candidate, true
-			default:
-				n.Status = st
-			}
-			if c.POS != "" && n.POS == "" {
-				n.POS = c.POS
-			}
-			n.Forms, n.Contexts = c.Forms, c.Contexts
-			if err := t.setTerm(term, &n); err != nil {
+			n := *e
+			n.Notes = mergeNotes(e.Notes, []string{v.Comment})
+			if err := t.setEntry(e, &n); err != nil {
 				return err
 			}
 		}
@@ -340,5 +380,79 @@ func (s *Store) SetPOS(term, pos string) (Change, error) {
 		n.POS = pos
 		n.Forms, n.Contexts = nil, nil
 		return t.setTerm(x, &n)
+	})
+}
+
+// Edit is a set of changes to one entry, made as one change by
+// Store.Edit. Empty fields are left alone.
+type Edit struct {
+	Preferred  string   // this form becomes the preferred term
+	Admitted   []string // these forms become admitted terms
+	Deprecated []string // these forms become deprecated terms
+	POS        string   // the named term's part of speech
+	Definition string
+	DefSource  string
+	Note       string // added to the entry's notes
+	Subject    string
+}
+
+// Edit applies an Edit to the entry term names (created when there is
+// none) as one change.
+func (s *Store) Edit(term string, ed Edit) (Change, error) {
+	var parts []string
+	add := func(name, v string) {
+		if v != "" {
+			parts = append(parts, fmt.Sprintf("%s %q", name, v))
+		}
+	}
+	add("preferred", ed.Preferred)
+	add("admitted", strings.Join(ed.Admitted, ", "))
+	add("deprecated", strings.Join(ed.Deprecated, ", "))
+	add("pos", ed.POS)
+	add("definition", ed.Definition)
+	add("note", ed.Note)
+	add("subject", ed.Subject)
+	return s.update("set", fmt.Sprintf("%q: %s", term, strings.Join(parts, "; ")), func(t *Tx) error {
+		if ed.Preferred != "" {
+			if err := t.setStatus(term, ed.Preferred, Preferred); err != nil {
+				return err
+			}
+		}
+		for _, f := range ed.Admitted {
+			if err := t.setStatus(term, f, Admitted); err != nil {
+				return err
+			}
+		}
+		for _, f := range ed.Deprecated {
+			if err := t.setStatus(term, f, Deprecated); err != nil {
+				return err
+			}
+		}
+		e, x, _, err := t.findOrCreate(Proposal{Text: term}, Candidate)
+		if err != nil {
+			return err
+		}
+		if ed.POS != "" {
+			n := *x
+			n.POS = ed.POS
+			n.Forms, n.Contexts = nil, nil
+			if err := t.setTerm(x, &n); err != nil {
+				return err
+			}
+		}
+		if e, err = t.entry(e.ID); err != nil {
+			return err
+		}
+		n := *e
+		if ed.Definition != "" {
+			n.Definition, n.DefSource = ed.Definition, ed.DefSource
+		}
+		if ed.Note != "" {
+			n.Notes = mergeNotes(e.Notes, []string{ed.Note})
+		}
+		if ed.Subject != "" {
+			n.Subject = ed.Subject
+		}
+		return t.setEntry(e, &n)
 	})
 }

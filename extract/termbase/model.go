@@ -98,6 +98,15 @@ func (e *Entry) Preferred(lang string) *Term {
 	return best
 }
 
+// Head is the term an entry is shown by: its preferred term in lang when
+// it has a term in lang, else its preferred term in any language.
+func (e *Entry) Head(lang string) *Term {
+	if t := e.Preferred(lang); t != nil {
+		return t
+	}
+	return e.Preferred("")
+}
+
 // Term returns the entry's term with this text in lang, or nil.
 func (e *Entry) Term(lang, text string) *Term {
 	for _, t := range e.Terms {

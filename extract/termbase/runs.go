@@ -19,7 +19,8 @@ import (
 // terms it lacks are added, a status or part of speech given replaces the
 // stored one, empty fields are filled and notes added; otherwise it becomes
 // a new entry. Importing the same entries twice therefore changes nothing
-// the second time. what names the source in the change log.
+// the second time. A new term without a status is admitted. what names the
+// source in the change log.
 func (s *Store) Import(what string, entries []*Entry) (Change, error) {
 	return s.update("import", fmt.Sprintf("%s: %d entries", what, len(entries)), func(t *Tx) error {
 		index, err := t.termIndex()
@@ -63,6 +64,10 @@ func (s *Store) Import(what string, entries []*Entry) (Change, error) {
 	})
 }
 
+// importedStatus is the status of an imported term that comes without
+// one: a glossary's terms are its approved designations.
+const importedStatus = Admitted
+
 // termIndex maps "lang\x00text" of every stored term to its entry.
 func (t *Tx) termIndex() (map[string]int64, error) {
 	rows, err := t.tx.QueryContext(t.ctx, "SELECT lang, text, entry_id FROM terms ORDER BY id DESC")
@@ -98,6 +103,9 @@ func (t *Tx) mergeInto(id int64, e *Entry) error {
 			if err := t.touch(id); err != nil {
 				return err
 			}
+			if x.Status == "" {
+				x.Status = importedStatus
+			}
 			if err := t.insertTerm(id, x); err != nil {
 				return err
 			}
@@ -128,9 +136,6 @@ func (e *Entry) filledFrom(o *Entry) Entry {
 	}
 	if n.Definition == "" {
 		n.Definition, n.DefSource = o.Definition, o.DefSource
-	}
-	if n.ExtID == "" {
-		n.ExtID = o.ExtID
 	}
 	n.Notes = mergeNotes(n.Notes, o.Notes)
 	return n
@@ -203,7 +208,7 @@ func (ins *inserter) entry(e *Entry) (int64, error) {
 	t.changed = true
 	for _, x := range e.Terms {
 		if x.Status == "" {
-			x.Status = Candidate
+			x.Status = importedStatus
 		}
 		x.Key, x.EntryID = Key(x.Text), e.ID
 		res, err := ins.term.ExecContext(ctx, e.ID, x.Lang, x.Text, x.Key, string(x.Status), x.Deferred, x.POS, encodeNotes(x.Notes))

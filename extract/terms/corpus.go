@@ -349,9 +349,14 @@ type Term struct {
 	// Score is the combined ranking score.
 	Score    float64   `json:"score"`
 	Contexts []Context `json:"contexts,omitempty"`
-	key      string
-	words    []string
-	keys     []string
+	// Status and Entry come from a termbase (terms --termbase): new,
+	// accepted, variant, deprecated or rejected, and the preferred term of
+	// the entry it belongs to. Empty without a termbase.
+	Status string `json:"status,omitempty"`
+	Entry  string `json:"entry,omitempty"`
+	key    string
+	words  []string
+	keys   []string
 }
 
 // canonical picks a group's display form: the most frequent canonical

@@ -77,9 +77,18 @@ func writeCSV(w *bufio.Writer, terms []*Term, bom bool) error {
 }
 
 func writeTable(tw *tabular.Writer, terms []*Term) error {
-	tw.Write(columns...)
+	labelled := hasStatus(terms)
+	if labelled {
+		tw.Write(append(columns[:len(columns):len(columns)], "status", "entry")...)
+	} else {
+		tw.Write(columns...)
+	}
 	for _, t := range terms {
-		tw.Write(t.cells()...)
+		if labelled {
+			tw.Write(append(t.cells(), t.Status, t.Entry)...)
+		} else {
+			tw.Write(t.cells()...)
+		}
 	}
 	return tw.Flush()
 }
@@ -113,6 +122,9 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		rows = append(rows, []string{strconv.Itoa(t.Rank), t.Term, strconv.FormatFloat(t.Score, 'f', 2, 64),
 			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
 			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")})
+	}
+	if hasStatus(terms) {
+		addStatusColumn(rows, terms)
 	}
 	right := []bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
 	for ri, line := range tabular.Align(rows, right) {

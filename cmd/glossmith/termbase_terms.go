@@ -1,0 +1,70 @@
+package main
+
+import (
+	"os"
+
+	"github.com/spf13/cobra"
+
+	"glossmith/extract/termbase"
+	"glossmith/extract/termio"
+	"glossmith/extract/terms"
+)
+
+// termsTermbase are the termbase flags of terms: label the candidates
+// from a termbase, keep only undecided ones, record the run.
+type termsTermbase struct {
+	tf      termbaseFlags
+	onlyNew bool
+	record  string
+}
+
+func (o *termsTermbase) register(cmd *cobra.Command) {
+	o.tf.register(cmd.Flags())
+	fl := cmd.Flags()
+	fl.BoolVar(&o.onlyNew, "new", false, "list only candidates the termbase has no decision on (needs a termbase)")
+	fl.StringVar(&o.record, "record", "", "store this run in the termbase under `LABEL` (counts and contexts of every candidate), for termbase diff")
+}
+
+// used reports whether a termbase takes part in the run: one is named
+// (flag or environment) or needed.
+func (o *termsTermbase) used() bool {
+	return o.tf.path != "" || os.Getenv(termbaseEnv) != "" || o.onlyNew || o.record != ""
+}
+
+// validate settles the termbase file (flag or environment) when one is
+// wanted; --new and --record need one.
+func (o *termsTermbase) validate() error {
+	if !o.used() {
+		return nil
+	}
+	return o.tf.validate()
+}
+
+// apply labels every candidate from the termbase (one in-memory index,
+// built once), records the run when asked, and keeps only the new ones
+// under --new. run describes the run for --record.
+func (o *termsTermbase) apply(cands []*terms.Term, run termbase.Run) ([]*terms.Term, error) {
+	if !o.used() {
+		return cands, nil
+	}
+	s, err := o.tf.open()
+	if err != nil {
+		return nil, err
+	}
+	defer s.Close()
+	entries, err := s.Entries()
+	if err != nil {
+		return nil, exitError{1, err.Error()}
+	}
+	termio.Label(termbase.NewIndex(entries, s.Lang), cands)
+	if o.record != "" {
+		run.Label = o.record
+		if _, err := s.RecordRun(run, termio.RunTerms(cands)); err != nil {
+			return nil, exitError{1, err.Error()}
+		}
+	}
+	if o.onlyNew {
+		cands = termio.OnlyNew(cands)
+	}
+	return cands, nil
+}

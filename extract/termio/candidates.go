@@ -1,0 +1,46 @@
+package termio
+
+import (
+	"glossmith/extract/termbase"
+	"glossmith/extract/terms"
+)
+
+// Label sets each candidate's Status and Entry from the index (one map
+// look-up per form; see termbase.Index.Label).
+func Label(ix *termbase.Index, cands []*terms.Term) {
+	var forms []string
+	for _, t := range cands {
+		forms = forms[:0]
+		for _, v := range t.Variants {
+			forms = append(forms, v.Form)
+		}
+		t.Status, t.Entry = ix.Label(t.Term, forms)
+	}
+}
+
+// OnlyNew keeps the candidates without a decision.
+func OnlyNew(cands []*terms.Term) []*terms.Term {
+	out := cands[:0:0]
+	for _, t := range cands {
+		if t.Status == termbase.LabelNew {
+			out = append(out, t)
+		}
+	}
+	return out
+}
+
+// RunTerms turns candidates into what a recorded run keeps of them.
+func RunTerms(cands []*terms.Term) []termbase.RunTerm {
+	out := make([]termbase.RunTerm, len(cands))
+	for i, t := range cands {
+		r := termbase.RunTerm{Term: t.Term, POS: t.POS, Freq: t.Freq, Docs: t.Docs}
+		for _, v := range t.Variants {
+			r.Forms = append(r.Forms, termbase.Form{Text: v.Form, Count: v.Count})
+		}
+		for _, c := range t.Contexts {
+			r.Contexts = append(r.Contexts, termbase.Context{Text: c.Text, Doc: c.Doc, Line: c.Line})
+		}
+		out[i] = r
+	}
+	return out
+}
