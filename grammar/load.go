@@ -3,15 +3,13 @@ package grammar
 import (
 	"embed"
 	"fmt"
+	"glossmith/internal/suggest"
 	"io/fs"
 	"os"
 	"path"
 	"path/filepath"
 	"sort"
 	"strings"
-	"unicode/utf8"
-
-	"glossmith/internal/suggest"
 )
 
 //go:embed stock/*.gsr
@@ -326,7 +324,8 @@ func (l *loader) check() {
 			} else if looksLikeTag(ref.Name) {
 				l.errorAt(ref.Pos, "%s (UPOS tags: %s)", what, strings.Join(UPOSTags, " "))
 			} else {
-				l.errorAt(ref.Pos, "%s", what)
+				// Most often a word meant to be matched, written bare.
+				l.errorAt(ref.Pos, "%s — to match the word, quote it: %q", what, ref.Name)
 			}
 		})
 	}
@@ -479,43 +478,91 @@ func (rs *RuleSet) isSingle(n Node, seen map[string]bool) bool {
 	return false
 }
 
+// CanCoverToken reports whether n can match a span of at least one token,
+// following references in rs. A rule that cannot (`^`, `^ $`, `NOUN{0}`)
+// never matches anything, since every match covers at least one token;
+// pattern.Compile refuses such a rule.
+func CanCoverToken(rs *RuleSet, n Node) bool {
+	return rs.covers(n, map[string]bool{}, map[string]bool{})
+}
+
+// covers answers CanCoverToken; memo holds the answers for rules, active
+// the rules being visited (a cycle is reported elsewhere: it counts as
+// covering).
+func (rs *RuleSet) covers(n Node, memo, active map[string]bool) bool {
+	switch n := n.(type) {
+	case *Test, *Not, *And:
+		return true
+	case *Seq:
+		for _, it := range n.Items {
+			if rs.covers(it, memo, active) {
+				return true
+			}
+		}
+	case *Alt:
+		for _, a := range n.Alts {
+			if rs.covers(a, memo, active) {
+				return true
+			}
+		}
+	case *Repeat:
+		return n.Max != 0 && rs.covers(n.Sub, memo, active)
+	case *Label:
+		return rs.covers(n.Sub, memo, active)
+	case *Ref:
+		if v, ok := memo[n.Name]; ok {
+			return v
+		}
+		r := rs.byName[n.Name]
+		if r == nil || active[n.Name] {
+			return true // undefined or cyclic: reported elsewhere
+		}
+		active[n.Name] = true
+		v := rs.covers(r.Expr, memo, active)
+		delete(active, n.Name)
+		memo[n.Name] = v
+		return v
+	}
+	return false
+}
+
 // PatternRule is the name ParsePattern gives to a one-off pattern.
 const PatternRule = "pattern"
 
 // ParsePattern parses src, a rule body written on the command line (as in
 // `NOUN "of" term`), as a rule called PatternRule that may refer to the
 // rules of base (which may be nil). It returns a new set holding base's
-// rules and the pattern; base is not changed. Error positions are
-// reported in a file called "pattern", with columns counted in src.
+// rules and the pattern; base is not changed. Positions, of errors and of
+// the pattern's nodes, are in a file called "pattern" whose one line is
+// src.
 func ParsePattern(src string, base *RuleSet) (*RuleSet, error) {
+	f := &File{Name: "pattern", Src: src, lines: newLineTable("pattern", src)}
+	start := Pos{File: "pattern", Line: 1, Col: 1}
 	if strings.ContainsAny(src, "\n\r") {
-		return nil, ErrorList{{Pos: Pos{File: "pattern", Line: 1, Col: 1}, Msg: "a pattern is one line", Source: src}}
+		return nil, ErrorList{{Pos: start, Msg: "a pattern is one line", Source: firstLine(src)}}
 	}
-	const head = "pattern = "
-	f, perr := ParseString("pattern", head+src+" ;")
-	end := utf8.RuneCountInString(src) + 1
-	shift := func(el ErrorList) ErrorList {
-		for _, e := range el {
-			if e.Pos.File == "pattern" {
-				e.Pos.Col = max(1, e.Pos.Col-len(head))
-				e.Pos.Offset = max(0, e.Pos.Offset-len(head))
-				e.Source = src
-				if e.Pos.Col > end { // at the ";" we added
-					e.Pos.Col, e.Pos.Offset = end, len(src)
-					e.Msg = strings.Replace(e.Msg, "unexpected ';'", "unexpected end of pattern", 1)
-				}
-			}
+	p := &parser{f: f, sc: scanner{src: src}, pattern: true}
+	r := &Rule{Name: PatternRule, Pos: start}
+	off, msg, ok := p.try(func() {
+		if p.peek().kind == tEOF {
+			p.fail(0, "empty pattern: give a rule body, as in 'ADJ* NOUN'")
 		}
-		return el
-	}
-	if perr != nil {
-		if el, ok := perr.(ErrorList); ok {
-			return nil, shift(el)
+		r.Expr = p.alt(0)
+		if t := p.next(); t.kind != tEOF {
+			p.unexpected(t, "")
 		}
-		return nil, perr
+	})
+	if !ok {
+		f.lines.errorf(&p.errs, off, "%s", msg)
+		p.errs.Sort()
+		return nil, p.errs
 	}
-	for _, r := range f.Rules { // shift node positions too
-		r.Pos.Col = 1
+	r.End = f.lines.pos(len(src))
+	f.Rules = []*Rule{r}
+	f.checkLocal(&p.errs)
+	if len(p.errs) > 0 {
+		p.errs.Sort()
+		return nil, p.errs
 	}
 	l := newLoader()
 	if base != nil {
@@ -529,15 +576,18 @@ func ParsePattern(src string, base *RuleSet) (*RuleSet, error) {
 		}
 	}
 	if l.rs.byName[PatternRule] != nil {
-		return nil, ErrorList{{Pos: Pos{File: "pattern", Line: 1, Col: 1}, Msg: "the rule set already has a rule called " + PatternRule, Source: src}}
+		return nil, ErrorList{{Pos: start, Msg: "the rule set already has a rule called " + PatternRule, Source: src}}
 	}
 	l.add("pattern:", f)
 	// The base set was checked when it was loaded; check only the pattern.
-	rs, err := l.finishOnly(f)
-	if err != nil {
-		return nil, shift(err.(ErrorList))
+	return l.finishOnly(f)
+}
+
+func firstLine(s string) string {
+	if i := strings.IndexAny(s, "\r\n"); i >= 0 {
+		return s[:i]
 	}
-	return rs, nil
+	return s
 }
 
 // finishOnly checks only the rules of f against the whole set.

@@ -147,6 +147,9 @@ type parser struct {
 	// only if the statement is read to its end (a syntax error drops the
 	// statement and them).
 	stmt ErrorList
+	// pattern is set when the source is one rule body given on the
+	// command line, which messages call a pattern.
+	pattern bool
 }
 
 // syntaxError stops the statement being read; statement recovers it.
@@ -177,7 +180,7 @@ func (p *parser) fail(off int, format string, args ...any) {
 // unexpected stops the statement at t, naming what was expected (a
 // punctuation character) when there is one thing to name.
 func (p *parser) unexpected(t token, expected string) {
-	p.fail(t.off, "%s", unexpectedMessage(t, expected))
+	p.fail(t.off, "%s", unexpectedMessage(t, expected, p.pattern))
 }
 
 // expect reads the punctuation character want or stops the statement.
@@ -199,6 +202,12 @@ func (p *parser) pos(off int) Pos { return p.f.lines.pos(off) }
 // statement reads one statement; on a syntax error it returns the offset
 // and message with ok false.
 func (p *parser) statement() (off int, msg string, ok bool) {
+	return p.try(p.readStatement)
+}
+
+// try runs read, which reads one statement, and catches its syntax error.
+// The statement's other errors are kept only when it is read whole.
+func (p *parser) try(read func()) (off int, msg string, ok bool) {
 	p.stmt = p.stmt[:0]
 	defer func() {
 		if r := recover(); r != nil {
@@ -209,6 +218,12 @@ func (p *parser) statement() (off int, msg string, ok bool) {
 			off, msg, ok = se.off, se.msg, false
 		}
 	}()
+	read()
+	p.errs = append(p.errs, p.stmt...)
+	return 0, "", true
+}
+
+func (p *parser) readStatement() {
 	t := p.next()
 	isRule := p.peek().kind == tPunct && p.peek().text == "="
 	switch {
@@ -221,8 +236,6 @@ func (p *parser) statement() (off int, msg string, ok bool) {
 	default:
 		p.unexpected(t, "")
 	}
-	p.errs = append(p.errs, p.stmt...)
-	return 0, "", true
 }
 
 func (p *parser) use(kw token) {
@@ -501,17 +514,21 @@ func (p *parser) atom(depth int) Node {
 
 // unexpectedMessage says what is wrong at an unexpected token in words for
 // people who write rules, not grammars.
-func unexpectedMessage(t token, expected string) string {
+func unexpectedMessage(t token, expected string, pattern bool) string {
 	exp := ""
 	if expected != "" {
 		exp = " (expected '" + expected + "')"
 	}
 	switch {
+	case t.kind == tEOF && pattern:
+		return "unexpected end of pattern" + exp
 	case t.kind == tEOF:
 		if expected != "" && expected != ";" {
 			return "unexpected end of file" + exp
 		}
 		return "unexpected end of file: is the ';' after the last rule missing?"
+	case pattern && t.kind == tPunct && (t.text == "=" || t.text == ";"):
+		return "unexpected " + quoteToken(t.text) + ": a pattern is one rule body, as in 'ADJ* NOUN'"
 	case t.kind == tPunct && t.text == "=":
 		return "unexpected '=': is the ';' at the end of the rule above missing?"
 	case t.kind == tUnterminated:

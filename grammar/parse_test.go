@@ -383,3 +383,26 @@ func TestByteOrderMarkAndCRLF(t *testing.T) {
 		t.Errorf("caret %q", c)
 	}
 }
+
+func TestBareWordSaysQuoteIt(t *testing.T) {
+	_, err := ParsePattern("ADJ valve", nil)
+	require.Error(t, err)
+	assert.Equal(t, `pattern:1:5: undefined rule valve — to match the word, quote it: "valve"`, err.Error())
+	var list ErrorList
+	require.ErrorAs(t, err, &list)
+	assert.Equal(t, "ADJ valve\n    ^", list[0].Caret())
+}
+
+func TestPatternMessages(t *testing.T) {
+	for src, want := range map[string]string{
+		"":           "pattern:1:1: empty pattern",
+		"ADJ (NOUN":  "pattern:1:10: unexpected end of pattern (expected ')')",
+		"NOUN ;":     "pattern:1:6: unexpected ';': a pattern is one rule body",
+		"r = NOUN":   "pattern:1:3: unexpected '=': a pattern is one rule body",
+		"NOUN\nADJ":  "pattern:1:1: a pattern is one line",
+		"NOUN | % X": "pattern:1:8: unexpected character '%'",
+	} {
+		_, err := ParsePattern(src, nil)
+		assert.ErrorContains(t, err, want, "%q", src)
+	}
+}

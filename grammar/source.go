@@ -9,36 +9,13 @@ func (rs *RuleSet) Source(r *Rule) string {
 		if f.Name != r.Pos.File {
 			continue
 		}
-		start := r.Pos.Offset
-		if start < 0 || start >= len(f.Src) {
+		start, end := r.Pos.Offset, r.End.Offset
+		if start < 0 || end <= start || end > len(f.Src) {
 			return ""
 		}
-		return f.Src[start:ruleEnd(f.Src, start)]
+		return f.Src[start:end]
 	}
 	return ""
-}
-
-// ruleEnd returns the offset just past the ";" that ends the rule starting
-// at start: quoted words, regular expressions (each with backslash
-// escapes) and comments are skipped, since they may hold a ";".
-func ruleEnd(src string, start int) int {
-	for i := start; i < len(src); i++ {
-		switch c := src[i]; c {
-		case ';':
-			return i + 1
-		case '#':
-			for i < len(src) && src[i] != '\n' {
-				i++
-			}
-		case '"', '\'', '/':
-			for i++; i < len(src) && src[i] != c && src[i] != '\n'; i++ {
-				if src[i] == '\\' {
-					i++
-				}
-			}
-		}
-	}
-	return len(src)
 }
 
 // Uses returns the rules that the rule called name refers to, directly or

@@ -188,7 +188,7 @@ func Compile(rs *grammar.RuleSet, names ...string) (*Matcher, error) {
 		}
 		p, err := c.compileRule(r)
 		if err != nil {
-			return nil, err
+			return nil, ruleError(rs, r, "%s", strings.TrimPrefix(err.Error(), "pattern: "))
 		}
 		c.m.progs = append(c.m.progs, p)
 	}
@@ -254,6 +254,62 @@ func Compile(rs *grammar.RuleSet, names ...string) (*Matcher, error) {
 	return m, nil
 }
 
+// ruleError is a problem with rule r, positioned at the rule so that
+// messages say file:line:col.
+func ruleError(rs *grammar.RuleSet, r *grammar.Rule, format string, args ...any) error {
+	return grammar.ErrorList{{Pos: r.Pos, Msg: fmt.Sprintf(format, args...), Source: rs.SourceLine(r.Pos)}}
+}
+
+// coverError reports a rule that can match no token (it would never
+// match, which is a mistake rather than a search worth running), or nil.
+func coverError(rs *grammar.RuleSet, r *grammar.Rule) error {
+	if grammar.CanCoverToken(rs, r.Expr) {
+		return nil
+	}
+	what := "rule " + r.Name
+	if r.Name == grammar.PatternRule && r.Pos.File == "pattern" {
+		what = "the pattern"
+	}
+	return ruleError(rs, r, "%s can match no token, and every match covers at least one: it would never match", what)
+}
+
+// CheckRules compiles the rules that commands run — each rule of rs whose
+// name does not start with "_" — as `rules check` does before any text is
+// read: each alone, so that a rule too large to run or one that can match
+// no token is reported at its file:line:col, then all together (as `find
+// --rules` runs them), which can exceed MaxAtoms.
+func CheckRules(rs *grammar.RuleSet) grammar.ErrorList {
+	var errs grammar.ErrorList
+	var names []string
+	for _, r := range rs.Rules {
+		if strings.HasPrefix(r.Name, "_") {
+			continue
+		}
+		names = append(names, r.Name)
+		err := coverError(rs, r)
+		if err == nil {
+			_, err = Compile(rs, r.Name)
+		}
+		if err != nil {
+			errs = append(errs, asErrorList(err)...)
+		}
+	}
+	if len(errs) == 0 && len(names) > 1 {
+		if _, err := Compile(rs, names...); err != nil {
+			errs = append(errs, asErrorList(err)...)
+		}
+	}
+	errs.Sort()
+	return errs
+}
+
+func asErrorList(err error) grammar.ErrorList {
+	if el, ok := err.(grammar.ErrorList); ok {
+		return el
+	}
+	return grammar.ErrorList{{Msg: err.Error()}}
+}
+
 // group is a run of at most 64 rules whose reverse automata run as one:
 // a state of the group's reverse DFA is the concatenation of its rules'
 // state sets (rule k's set in words off[k]…), so one table look-up per
@@ -278,10 +334,14 @@ func CompileStock(names ...string) (*Matcher, error) {
 
 // CompilePattern compiles a one-off pattern, such as the PATTERN argument
 // of `glossmith find`; it may name rules of rs (which may be nil). The
-// pattern's matches carry the rule name grammar.PatternRule.
+// pattern's matches carry the rule name grammar.PatternRule. A pattern
+// that can match no token (`^`) is an error.
 func CompilePattern(src string, rs *grammar.RuleSet) (*Matcher, error) {
 	full, err := grammar.ParsePattern(src, rs)
 	if err != nil {
+		return nil, err
+	}
+	if err := coverError(full, full.Rule(grammar.PatternRule)); err != nil {
 		return nil, err
 	}
 	return Compile(full, grammar.PatternRule)
