@@ -1,0 +1,158 @@
+package main
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// termsStatus runs terms --to jsonl with the termbase and returns each
+// candidate's status and entry.
+func termsStatus(t *testing.T, tb string, extra ...string) map[string][2]string {
+	t.Helper()
+	r := run(t, "", append([]string{"terms", "--termbase", tb, "--to", "jsonl", "--all"}, append(extra, "testdata/demo")...)...)
+	require.Equal(t, 0, r.code, r.stderr)
+	out := map[string][2]string{}
+	for _, line := range strings.Split(strings.TrimSpace(r.stdout), "\n") {
+		var c struct{ Term, Status, Entry string }
+		require.NoError(t, json.Unmarshal([]byte(line), &c))
+		out[c.Term] = [2]string{c.Status, c.Entry}
+	}
+	return out
+}
+
+// The glossary's life on the demo corpus: record a first version, decide,
+// record a second, compare, export and import again.
+func TestTermbaseWorkflow(t *testing.T) {
+	dir := t.TempDir()
+	tb := filepath.Join(dir, "gloss.db")
+
+	r := run(t, "", "terms", "--termbase", tb, "--record", "v1", "--limit", "5",
+		"testdata/demo/gc48-installation-manual.md", "testdata/demo/maintenance-schedule.txt")
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, "status")
+
+	for _, args := range [][]string{
+		{"accept", "irrigation", "valve", "solenoid valve"},
+		{"reject", "AC"},
+		{"defer", "drip"},
+		{"set", "solenoid valve", "--deprecated", "magnet valve", "--pos", "noun", "--definition", "A valve opened by an electromagnet."},
+	} {
+		r = run(t, "", append([]string{"termbase", "--termbase", tb, "--user", "tester"}, args...)...)
+		require.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+		assert.Regexp(t, `^#\d+ `, r.stdout)
+	}
+	st := termsStatus(t, tb)
+	assert.Equal(t, [2]string{"accepted", "irrigation"}, st["irrigation"])
+	assert.Equal(t, [2]string{"accepted", "solenoid valve"}, st["solenoid valve"])
+	assert.Equal(t, [2]string{"rejected", "AC"}, st["AC"])
+	assert.Equal(t, "new", st["drip"][0], "a deferred candidate has no decision yet")
+	assert.Equal(t, "new", st["emitter"][0])
+
+	onlyNew := termsStatus(t, tb, "--new")
+	assert.NotContains(t, onlyNew, "irrigation")
+	assert.NotContains(t, onlyNew, "AC")
+	assert.Contains(t, onlyNew, "emitter")
+
+	r = run(t, "", "terms", "--termbase", tb, "--record", "v2", "--limit", "3", "testdata/demo")
+	require.Equal(t, 0, r.code, r.stderr)
+	r = run(t, "", "terms", "--termbase", tb, "--record", "v2", "--limit", "3", "testdata/demo")
+	assert.Equal(t, 1, r.code, "a label is recorded once")
+	assert.Contains(t, r.stderr, "v2")
+
+	r = run(t, "", "termbase", "--termbase", tb, "diff", "v1", "v2", "--to", "jsonl")
+	require.Equal(t, 0, r.code, r.stderr)
+	kinds := map[string]int{}
+	for _, line := range strings.Split(strings.TrimSpace(r.stdout), "\n") {
+		var d struct {
+			Term, Kind   string
+			Freq1, Freq2 int
+			G2           float64
+		}
+		require.NoError(t, json.Unmarshal([]byte(line), &d))
+		kinds[d.Kind]++
+		switch d.Kind {
+		case "new":
+			assert.Zero(t, d.Freq1, d.Term)
+		case "gone":
+			assert.Zero(t, d.Freq2, d.Term)
+		case "rose":
+			assert.GreaterOrEqual(t, d.G2, 15.13, d.Term)
+		case "fell":
+			assert.LessOrEqual(t, d.G2, -15.13, d.Term)
+		}
+	}
+	assert.Positive(t, kinds["new"], "the whole corpus has terms the two documents lack")
+
+	r = run(t, "", "termbase", "--termbase", tb, "show", "magnet valve")
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, "deprecated  magnet valve")
+	assert.Contains(t, r.stdout, "preferred   solenoid valve")
+	assert.Contains(t, r.stdout, "tester set")
+
+	// Export as CSV, import into a new termbase: the same list.
+	csv := filepath.Join(dir, "gloss.csv")
+	r = run(t, "", "termbase", "--termbase", tb, "export", "-o", csv)
+	require.Equal(t, 0, r.code, r.stderr)
+	tb2 := filepath.Join(dir, "copy.db")
+	r = run(t, "", "termbase", "--termbase", tb2, "import", csv)
+	require.Equal(t, 0, r.code, r.stderr)
+	list1 := run(t, "", "termbase", "--termbase", tb, "list")
+	list2 := run(t, "", "termbase", "--termbase", tb2, "list")
+	assert.Equal(t, list1.stdout, list2.stdout)
+	r = run(t, "", "termbase", "--termbase", tb2, "import", csv)
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, "nothing changed")
+
+	// TBX-Basic export names the statuses.
+	r = run(t, "", "termbase", "--termbase", tb, "export", "--to", "tbx-basic")
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, `<termNote type="administrativeStatus">deprecatedTerm-admn-sts</termNote>`)
+
+	// Undo the last decision (the set): magnet valve is gone again.
+	r = run(t, "", "termbase", "--termbase", tb, "undo", "3")
+	require.Equal(t, 0, r.code, r.stderr)
+	r = run(t, "", "termbase", "--termbase", tb, "show", "magnet valve")
+	assert.Equal(t, 1, r.code)
+}
+
+func TestTermbaseErrors(t *testing.T) {
+	dir := t.TempDir()
+	tb := filepath.Join(dir, "gloss.db")
+	// No termbase named: a usage error before anything is read.
+	r := run(t, "", "termbase", "list")
+	assert.Equal(t, 2, r.code)
+	assert.Contains(t, r.stderr, "GLOSSMITH_TERMBASE")
+	r = run(t, "", "terms", "--new", "testdata/demo")
+	assert.Equal(t, 2, r.code)
+
+	// A file that is not a termbase is refused and kept.
+	notes := filepath.Join(dir, "notes.txt")
+	require.NoError(t, os.WriteFile(notes, []byte("remember the valves\n"), 0o644))
+	r = run(t, "", "termbase", "--termbase", notes, "accept", "valve")
+	assert.Equal(t, 1, r.code)
+	assert.Contains(t, r.stderr, notes)
+	got, _ := os.ReadFile(notes)
+	assert.Equal(t, "remember the valves\n", string(got))
+
+	// Bad rows are reported with their line; the others are imported.
+	bad := filepath.Join(dir, "bad.csv")
+	require.NoError(t, os.WriteFile(bad, []byte("term,status\nvalve,preferred\n,admitted\nvent,sometimes\nemitter,\n"), 0o644))
+	r = run(t, "", "termbase", "--termbase", tb, "import", bad)
+	assert.Equal(t, 1, r.code)
+	assert.Contains(t, r.stderr, bad+":3: no term")
+	assert.Contains(t, r.stderr, bad+":4: unknown status")
+	r = run(t, "", "termbase", "--termbase", tb, "list")
+	assert.Contains(t, r.stdout, "valve")
+	assert.Contains(t, r.stdout, "emitter")
+	assert.Contains(t, r.stdout, "2 entries")
+
+	r = run(t, "", "termbase", "--termbase", tb, "list", "--status", "prefered")
+	assert.Equal(t, 2, r.code)
+	assert.Contains(t, r.stderr, "preferred")
+}
