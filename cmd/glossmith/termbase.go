@@ -637,6 +637,7 @@ func writeEntry(w *bufio.Writer, e *termbase.Entry, hist []termbase.Change) {
 type termbaseDiffOptions struct {
 	tf        *termbaseFlags
 	threshold float64
+	minFreq   int
 	to        string
 	outPath   string
 }
@@ -663,6 +664,7 @@ flag dozens by chance).`, termbase.DefaultDiffThreshold),
 	}
 	fl := cmd.Flags()
 	fl.Float64Var(&o.threshold, "threshold", termbase.DefaultDiffThreshold, "|G²| a change in frequency must reach")
+	fl.IntVar(&o.minFreq, "min-freq", 2, "list new and gone terms seen at least this often in the run that has them")
 	fl.StringVar(&o.to, "to", "text", "output format: text, tsv, jsonl")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file instead of standard output")
 	return cmd
@@ -675,6 +677,9 @@ func (o *termbaseDiffOptions) validate(cmd *cobra.Command) error {
 	if !(o.threshold >= 0) {
 		return usageError("--threshold %g: want a number of at least 0", o.threshold)
 	}
+	if err := checkRange("min-freq", int64(o.minFreq), 1, -1); err != nil {
+		return err
+	}
 	to, err := outputFormat(cmd, o.to, o.outPath, []string{"text", "tsv", "jsonl"})
 	o.to = to
 	return err
@@ -686,7 +691,7 @@ func (o *termbaseDiffOptions) run(a, b string) error {
 		return err
 	}
 	defer s.Close()
-	rows, err := s.Diff(a, b, o.threshold)
+	rows, err := s.Diff(a, b, o.threshold, o.minFreq)
 	if err != nil {
 		return exitError{1, err.Error()}
 	}

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 
 	"github.com/spf13/cobra"
@@ -32,12 +33,31 @@ func (o *termsTermbase) used() bool {
 }
 
 // validate settles the termbase file (flag or environment) when one is
-// wanted; --new and --record need one.
+// wanted (--new and --record need one), and opens it, so that a file that
+// is not a termbase, or a --record label that is taken, stops the run
+// before any input is read.
 func (o *termsTermbase) validate() error {
 	if !o.used() {
 		return nil
 	}
-	return o.tf.validate()
+	if err := o.tf.validate(); err != nil {
+		return err
+	}
+	return o.tf.withStore(func(s *termbase.Store) error {
+		if o.record == "" {
+			return nil
+		}
+		runs, err := s.Runs()
+		if err != nil {
+			return err
+		}
+		for _, r := range runs {
+			if r.Label == o.record {
+				return fmt.Errorf("--record %s: %s has a run with this label already (see termbase runs)", o.record, s.Path())
+			}
+		}
+		return nil
+	})
 }
 
 // apply labels every candidate from the termbase (one in-memory index,

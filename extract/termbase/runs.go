@@ -375,9 +375,10 @@ type DiffRow struct {
 // the run's size rose or fell with |G²| ≥ threshold (Dunning 1993,
 // "Accurate methods for the statistics of surprise and coincidence", over
 // the 2×2 table of the term's count against the other words of each run).
-// Rows come in the order new, gone, rose, fell; within a kind by |G²|
-// (new and gone by frequency), then term.
-func (s *Store) Diff(label1, label2 string, threshold float64) ([]DiffRow, error) {
+// New and gone terms are listed when seen at least minFreq times in the
+// run that has them. Rows come in the order new, gone, rose, fell; within
+// a kind by |G²| (new and gone by frequency), then term.
+func (s *Store) Diff(label1, label2 string, threshold float64, minFreq int) ([]DiffRow, error) {
 	r1, t1, err := s.RunTerms(label1)
 	if err != nil {
 		return nil, err
@@ -386,10 +387,10 @@ func (s *Store) Diff(label1, label2 string, threshold float64) ([]DiffRow, error
 	if err != nil {
 		return nil, err
 	}
-	return diff(r1, t1, r2, t2, threshold), nil
+	return diff(r1, t1, r2, t2, threshold, minFreq), nil
 }
 
-func diff(r1 Run, t1 []RunTerm, r2 Run, t2 []RunTerm, threshold float64) []DiffRow {
+func diff(r1 Run, t1 []RunTerm, r2 Run, t2 []RunTerm, threshold float64, minFreq int) []DiffRow {
 	n1, n2 := float64(r1.Tokens), float64(r2.Tokens)
 	per := func(f int, n float64) float64 {
 		if n <= 0 {
@@ -410,6 +411,8 @@ func diff(r1 Run, t1 []RunTerm, r2 Run, t2 []RunTerm, threshold float64) []DiffR
 		row := DiffRow{Term: x.Term, Freq1: old.Freq, Freq2: x.Freq, Per1: per(old.Freq, n1), Per2: per(x.Freq, n2)}
 		row.G2 = termstat.Contrast{Study: float64(x.Freq), Reference: float64(old.Freq), StudySize: math.Max(n2, float64(x.Freq)), ReferenceSize: math.Max(n1, float64(old.Freq))}.G2()
 		switch {
+		case !ok && x.Freq < minFreq:
+			continue
 		case !ok:
 			row.Kind = "new"
 		case row.G2 >= threshold:
@@ -422,7 +425,7 @@ func diff(r1 Run, t1 []RunTerm, r2 Run, t2 []RunTerm, threshold float64) []DiffR
 		rows = append(rows, row)
 	}
 	for _, x := range t1 {
-		if seen[Key(x.Term)] {
+		if seen[Key(x.Term)] || x.Freq < minFreq {
 			continue
 		}
 		row := DiffRow{Term: x.Term, Kind: "gone", Freq1: x.Freq, Per1: per(x.Freq, n1)}
