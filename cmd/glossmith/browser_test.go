@@ -18,7 +18,7 @@ import (
 
 // findChromium returns the browser the page tests drive. Without one they
 // skip, except under CI=true, where .ci/run installs Debian's chromium.
-func findChromium(t *testing.T) string {
+func findChromium(t testing.TB) string {
 	t.Helper()
 	for _, name := range []string{"chromium", "chromium-browser", "google-chrome"} {
 		if p, err := exec.LookPath(name); err == nil {
@@ -60,7 +60,7 @@ func (w *pageWatch) console(m chromedp.ConsoleMessage) {
 	}
 }
 
-func (w *pageWatch) check(t *testing.T) {
+func (w *pageWatch) check(t testing.TB) {
 	t.Helper()
 	w.mu.Lock()
 	defer w.mu.Unlock()
@@ -70,7 +70,7 @@ func (w *pageWatch) check(t *testing.T) {
 
 // newBrowser starts a headless chromium with an empty profile and the flags
 // this machine needs, and returns a tab's context, watched by w.
-func newBrowser(t *testing.T, w *pageWatch) context.Context {
+func newBrowser(t testing.TB, w *pageWatch) context.Context {
 	t.Helper()
 	exe := findChromium(t)
 	opts := []chromedp.ExecAllocatorOption{

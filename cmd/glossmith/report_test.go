@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/csv"
 	"fmt"
+	"glossmith/internal/testenv"
 	"os"
 	"path/filepath"
 	"strings"
@@ -69,7 +70,20 @@ func TestReportInBrowser(t *testing.T) {
 	require.NoError(t, err)
 	got, err := csv.NewReader(strings.NewReader(string(b))).ReadAll()
 	require.NoError(t, err)
-	assert.Equal(t, [][]string{{"term", "status", "note"}, {"dosing pump panel", "preferred", remark}}, got)
+	assert.Equal(t, [][]string{{"term", "decision", "comment"}, {"dosing pump panel", "accept", remark}}, got)
 	screenshot(ctx, dir, "report.png")
 	w.check(t)
+}
+
+// The report of the wind-energy texts of the ACTER gold data (some 2,800
+// candidates) stays small enough to send by mail: at most 3 MB.
+func TestReportSizeWind(t *testing.T) {
+	texts := testenv.SharedDir(t, "data/term-gold-en/wind/texts")
+	report := filepath.Join(t.TempDir(), "wind.html")
+	r := run(t, "", "terms", "-q", "-o", report, texts)
+	require.Equal(t, 0, r.code, r.stderr)
+	fi, err := os.Stat(report)
+	require.NoError(t, err)
+	assert.LessOrEqual(t, fi.Size(), int64(3_000_000), "report size")
+	t.Logf("wind report: %d bytes", fi.Size())
 }

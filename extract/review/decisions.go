@@ -23,6 +23,7 @@ type Decision struct {
 	Entry      string            `json:"entry,omitempty"`     // the preferred term of the entry it belongs to, when another
 	Preferred  string            `json:"preferred,omitempty"` // the form chosen as preferred
 	Forms      map[string]string `json:"forms,omitempty"`     // form → admitted, deprecated or preferred
+	Concept    []string          `json:"concept,omitempty"`   // the other terms of its entry (one concept)
 	Definition string            `json:"definition,omitempty"`
 	Note       string            `json:"note,omitempty"`
 	POS        string            `json:"pos,omitempty"`

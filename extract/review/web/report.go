@@ -7,7 +7,6 @@ import (
 	"encoding/json"
 	"errors"
 	"io"
-	"strings"
 	"text/template"
 
 	"glossmith/extract/review"
@@ -86,7 +85,3 @@ func WriteReport(w io.Writer, ds *review.Dataset) error {
 		"Data":       string(body),
 	})
 }
-
-// CSVHeader is the header of the remarks file the report downloads; the
-// columns are the ones `termbase import` matches by name.
-var CSVHeader = strings.Join([]string{"term", "status", "note"}, ",")

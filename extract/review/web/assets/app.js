@@ -75,12 +75,13 @@
         return Promise.resolve(Object.assign(reply([h[0]]), { undone: true }));
       },
       csv: () => {
-        // The header names columns `termbase import` matches by name.
-        const rows = [['term', 'status', 'note']];
-        const status = { accepted: 'preferred', rejected: 'rejected', deferred: 'candidate' };
+        // The columns of a review sheet that `termbase import` reads back as
+        // decisions: term, decision (accept, reject, defer), comment.
+        const rows = [['term', 'decision', 'comment']];
+        const verdict = { accepted: 'accept', rejected: 'reject', deferred: 'defer' };
         data.cands.forEach(c => {
           const r = remarks[c.id];
-          if (r && (r.status || r.note)) rows.push([c.term, status[r.status] || '', r.note || '']);
+          if (r && (r.status || r.note)) rows.push([c.term, verdict[r.status] || '', r.note || '']);
         });
         return rows.map(row => row.map(csvCell).join(',')).join('\r\n') + '\r\n';
       }
@@ -263,7 +264,8 @@
     kids.push(el('h2', null, [el('span', { id: 'gs-term', text: c.term }), statusChip(dec)]));
     kids.push(el('div', { class: 'gs-facts', text:
       'rank ' + c.rank + ' · ' + c.freq + '× in ' + c.docs + ' document(s) · score ' + fmt(c.score, 2) +
-      ' · ' + c.words + ' word(s) · ' + c.pos + (dec.entry ? ' · variant of “' + dec.entry + '”' : '') }));
+      ' · ' + c.words + ' word(s) · ' + c.pos + (dec.entry ? ' · variant of “' + dec.entry + '”' : '') +
+      (dec.concept && dec.concept.length ? ' · one concept with ' + dec.concept.map(t => '“' + t + '”').join(', ') : '') }));
     kids.push(actionBar());
     if (!S.src.live) kids.push(remarkBox(i));
     if (S.src.live) {
@@ -696,7 +698,12 @@
       build();
       renderCounter();
       applyView();
-      document.body.dataset.ready = 'yes';
+      // Ready once the first frame with the table is drawn; the time since
+      // the navigation began is kept for the first-paint benchmark.
+      requestAnimationFrame(() => setTimeout(() => {
+        window.gsReadyAt = performance.now();
+        document.body.dataset.ready = 'yes';
+      }, 0));
     }).catch(e => {
       const app = document.getElementById('app');
       app.textContent = 'Could not load the candidates: ' + (e && e.message || e);

@@ -1,0 +1,272 @@
+package main
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"net/http"
+	"net/url"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"glossmith/extract/termbase"
+)
+
+// reviewServer is a running `glossmith review`.
+type reviewServer struct {
+	cmd    *exec.Cmd
+	url    string // with the token
+	origin string // scheme://host:port
+	token  string
+	stderr *strings.Builder
+}
+
+func startReview(t *testing.T, tbPath string, inputs ...string) *reviewServer {
+	t.Helper()
+	args := append([]string{"review", "-q", "--termbase", tbPath}, inputs...)
+	cmd := exec.Command(binary, args...)
+	cmd.Dir = "../.."
+	stdout, err := cmd.StdoutPipe()
+	require.NoError(t, err)
+	var stderr strings.Builder
+	cmd.Stderr = &stderr
+	require.NoError(t, cmd.Start())
+	lines := make(chan string, 1)
+	go func() {
+		sc := bufio.NewScanner(stdout)
+		if sc.Scan() {
+			lines <- sc.Text()
+		}
+		close(lines)
+		io.Copy(io.Discard, stdout)
+	}()
+	s := &reviewServer{cmd: cmd, stderr: &stderr}
+	t.Cleanup(func() { s.stop(t) })
+	select {
+	case line, ok := <-lines:
+		require.True(t, ok, "review printed no address; stderr: %s", stderr.String())
+		s.url = line
+	case <-time.After(60 * time.Second):
+		t.Fatalf("review printed no address in a minute; stderr: %s", stderr.String())
+	}
+	u, err := url.Parse(s.url)
+	require.NoError(t, err, "first line of stdout: %q", s.url)
+	s.origin, s.token = u.Scheme+"://"+u.Host, u.Query().Get("t")
+	require.Len(t, s.token, 48, "the address carries the token")
+	return s
+}
+
+// stop sends Ctrl-C and waits for a clean exit.
+func (s *reviewServer) stop(t *testing.T) {
+	if s.cmd == nil {
+		return
+	}
+	cmd := s.cmd
+	s.cmd = nil
+	_ = cmd.Process.Signal(syscall.SIGINT)
+	done := make(chan error, 1)
+	go func() { done <- cmd.Wait() }()
+	select {
+	case err := <-done:
+		assert.NoError(t, err, "review after Ctrl-C; stderr: %s", s.stderr.String())
+	case <-time.After(20 * time.Second):
+		cmd.Process.Kill()
+		t.Errorf("review did not stop on Ctrl-C")
+	}
+}
+
+// The review page on the demo corpus with a new termbase: decisions by
+// click and by key, a merge, an undo, a definition, a reload and a
+// restart; what the termbase holds afterwards; the checks on every
+// request; document text that looks like markup shown as text.
+func TestReviewPageInBrowser(t *testing.T) {
+	tbPath := filepath.Join(t.TempDir(), "review.gtb")
+	shots := t.TempDir()
+	inputs := []string{"testdata/demo", "testdata/review/markup-in-text.txt"}
+	srv := startReview(t, tbPath, inputs...)
+	w := &pageWatch{allow: func(u string) bool { return strings.HasPrefix(u, srv.origin+"/") }}
+	ctx := newBrowser(t, w)
+
+	ready := chromedp.WaitVisible(chromedp.CSS(`body[data-ready="yes"]`))
+	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate(srv.url), ready))
+	loc, err := chromedp.Run(ctx, chromedp.Location())
+	require.NoError(t, err)
+	assert.NotContains(t, loc, srv.token, "the token leaves the address bar for the cookie")
+
+	// Accept by click, reject by key, accept by key, defer by click.
+	steps := []struct{ term, how, want string }{
+		{"irrigation zone", "#gs-do-accept", "accepted"},
+		{"climate controller", "n", "rejected"},
+		{"root-zone temperature", "y", "accepted"},
+		{"drip emitter", "#gs-do-defer", "deferred"},
+	}
+	for _, s := range steps {
+		act := chromedp.KeyEvent(s.how)
+		if strings.HasPrefix(s.how, "#") {
+			act = chromedp.Click(chromedp.CSS(s.how))
+		}
+		require.NoError(t, chromedp.Do(ctx, showTerm(s.term), act,
+			chromedp.WaitVisible(rowXPath(s.term)+fmt.Sprintf(`/td[3]/span[text()=%q]`, s.want))),
+			"%s by %s", s.term, s.how)
+	}
+	counter, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-counter")))
+	require.NoError(t, err)
+	assert.True(t, strings.HasPrefix(counter, "4 / "), "reviewed counter: %q", counter)
+
+	// Merge "dripper" with "emitter" by key (g, a few letters, Enter);
+	// undo it by key; merge again by the button.
+	mergeWith := func(open chromedp.Action[chromedp.Void]) chromedp.Action[chromedp.Void] {
+		return chromedp.Steps(open, chromedp.WaitVisible(chromedp.ID("gs-ask")),
+			chromedp.SendKeys(chromedp.ID("gs-ask"), "emitter"),
+			chromedp.WaitVisible(`//ol[@id="gs-choices"]/li[1][starts-with(text(), "emitter (")]`),
+			chromedp.KeyEvent("\r"),
+			chromedp.WaitNotPresent(chromedp.ID("gs-ask")))
+	}
+	require.NoError(t, chromedp.Do(ctx, showTerm("dripper"), mergeWith(chromedp.KeyEvent("g"))), "merge by key")
+	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("z"), chromedp.WaitVisible(`//div[@id="gs-toast"][text()="undone"]`)), "undo by key")
+	require.NoError(t, chromedp.Do(ctx, mergeWith(chromedp.Click(chromedp.ID("gs-do-merge")))), "merge by the button")
+	// A definition through its dialog.
+	const def = "Emitter that drips water onto one plant."
+	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("e"), chromedp.WaitVisible(chromedp.ID("gs-ask")),
+		chromedp.SendKeys(chromedp.ID("gs-ask"), def),
+		chromedp.Click(chromedp.ID("gs-ask-ok")),
+		chromedp.WaitVisible(fmt.Sprintf(`//dl[@class="gs-notes"]/dd[text()=%q]`, def))), "definition")
+	// The whole table with a term in the detail view, for docs/review.png.
+	require.NoError(t, chromedp.Do(ctx,
+		chromedp.Evaluate[chromedp.Void](`(() => { const q = document.getElementById('gs-q'); q.value = ''; q.dispatchEvent(new Event('input')); q.blur(); })()`),
+		chromedp.Click(rowXPath("solenoid valve")), chromedp.WaitVisible(`//h2/span[@id="gs-term"][text()="solenoid valve"]`)))
+	screenshot(ctx, shots, "review.png")
+
+	// After a reload the page shows what the termbase holds.
+	require.NoError(t, chromedp.Do(ctx, chromedp.Reload(), ready))
+	for _, s := range steps {
+		require.NoError(t, chromedp.Do(ctx, showTerm(s.term)))
+		st, err := rowStatus(ctx, s.term)
+		require.NoError(t, err)
+		assert.Equal(t, s.want, st, "%s after a reload", s.term)
+	}
+
+	// Document text that looks like markup is shown as text and runs nothing.
+	require.NoError(t, chromedp.Do(ctx, showTerm("dosing pump panel"), chromedp.WaitVisible(chromedp.CSS("#gs-kwic .gs-line"))))
+	kwic, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-kwic")))
+	require.NoError(t, err)
+	injected, err := chromedp.Run(ctx, chromedp.Evaluate[string](`String(window.gsInjected)`))
+	require.NoError(t, err)
+	elems, err := chromedp.Run(ctx, chromedp.Evaluate[int](`document.querySelectorAll('#gs-detail img, #gs-detail script').length`))
+	require.NoError(t, err)
+	assert.Equal(t, "undefined", injected, "a document's markup ran")
+	assert.Zero(t, elems, "a document's markup became elements")
+	assert.Contains(t, kwic, "<script>window.gsInjected = 1</script>")
+	assert.Contains(t, kwic, `<img src=x onerror="window.gsInjected = 2">`)
+	w.check(t)
+
+	checkRequests(t, srv)
+
+	// Stopped, the termbase holds the decisions.
+	srv.stop(t)
+	tb, err := termbase.Open(tbPath)
+	require.NoError(t, err)
+	find := func(text string) (*termbase.Entry, *termbase.Term) {
+		es, err := tb.Lookup(text)
+		require.NoError(t, err)
+		for _, e := range es {
+			for _, x := range e.Terms {
+				if x.Text == text {
+					return e, x
+				}
+			}
+		}
+		t.Errorf("%q is not in the termbase", text)
+		return &termbase.Entry{}, &termbase.Term{}
+	}
+	_, x := find("irrigation zone")
+	assert.Equal(t, termbase.Preferred, x.Status)
+	_, x = find("climate controller")
+	assert.Equal(t, termbase.Rejected, x.Status)
+	_, x = find("root-zone temperature")
+	assert.Equal(t, termbase.Preferred, x.Status)
+	_, x = find("drip emitter")
+	assert.True(t, x.Status == termbase.Candidate && x.Deferred, "drip emitter deferred: %s %v", x.Status, x.Deferred)
+	e1, _ := find("dripper")
+	e2, _ := find("emitter")
+	assert.True(t, e1.ID != 0 && e1.ID == e2.ID, "merged candidates are one entry: %d, %d", e1.ID, e2.ID)
+	assert.Equal(t, def, e1.Definition)
+	require.NoError(t, tb.Close())
+
+	// Restarted on the same termbase, the page shows them again.
+	srv2 := startReview(t, tbPath, inputs...)
+	w.mu.Lock()
+	w.allow = func(u string) bool { return strings.HasPrefix(u, srv2.origin+"/") }
+	w.mu.Unlock()
+	require.NoError(t, chromedp.Do(ctx, chromedp.Navigate(srv2.url), ready))
+	for _, s := range steps {
+		require.NoError(t, chromedp.Do(ctx, showTerm(s.term)))
+		st, err := rowStatus(ctx, s.term)
+		require.NoError(t, err)
+		assert.Equal(t, s.want, st, "%s after a restart", s.term)
+	}
+	require.NoError(t, chromedp.Do(ctx, showTerm("emitter")))
+	facts, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(".gs-facts")))
+	require.NoError(t, err)
+	assert.Contains(t, facts, "one concept with “dripper”", "the merge after a restart")
+	w.check(t)
+	t.Logf("screenshots in %s", shots)
+}
+
+// checkRequests sends requests a browser page of another site, or another
+// program, could send, and checks each is refused — and that the right
+// ones pass.
+func checkRequests(t *testing.T, srv *reviewServer) {
+	client := &http.Client{CheckRedirect: func(*http.Request, []*http.Request) error { return http.ErrUseLastResponse }}
+	port := srv.origin[strings.LastIndex(srv.origin, ":"):]
+	act := `{"id":0,"kind":"note","text":"x"}`
+	for _, c := range []struct {
+		what                                        string
+		method, path, host, cookie, token, ct, body string
+		want                                        int
+	}{
+		{"page without the token", "GET", "/", "", "", "", "", "", 403},
+		{"data without the token", "GET", "/api/data", "", "", "", "", "", 403},
+		{"a wrong token in the address", "GET", "/?t=00", "", "", "", "", "", 403},
+		{"a wrong cookie", "GET", "/api/data", "", "ab" + srv.token[2:], "", "", "", 403},
+		{"a foreign Host (DNS rebinding)", "GET", "/api/data", "attacker.example" + port, srv.token, "", "", "", 421},
+		{"the loopback address on another port", "GET", "/api/data", "127.0.0.1:1", srv.token, "", "", "", 421},
+		{"a change by GET", "GET", "/api/act", "", srv.token, "", "", "", 405},
+		{"a change without the token header", "POST", "/api/act", "", srv.token, "", "application/json", act, 403},
+		{"a change with the header but no cookie", "POST", "/api/act", "", "", srv.token, "application/json", act, 403},
+		{"a change as a form post", "POST", "/api/act", "", srv.token, srv.token, "application/x-www-form-urlencoded", act, 415},
+		{"a body over the limit", "POST", "/api/act", "", srv.token, srv.token, "application/json", `{"id":0,"kind":"note","text":"` + strings.Repeat("x", 70<<10) + `"}`, 400},
+		{"a file-system path", "GET", "/etc/passwd", "", srv.token, "", "", "", 404},
+		{"a path out of the root, cleaned (then 404)", "GET", "/api/../../etc/passwd", "", srv.token, "", "", "", 307},
+		{"the embedded folder", "GET", "/assets/app.js", "", srv.token, "", "", "", 404},
+		{"with the token: the data", "GET", "/api/data", "", srv.token, "", "", "", 200},
+		{"localhost names the loopback", "GET", "/api/data", "localhost" + port, srv.token, "", "", "", 200},
+	} {
+		req, err := http.NewRequest(c.method, srv.origin+c.path, strings.NewReader(c.body))
+		require.NoError(t, err)
+		if c.host != "" {
+			req.Host = c.host
+		}
+		if c.cookie != "" {
+			req.AddCookie(&http.Cookie{Name: "glossmith_review", Value: c.cookie})
+		}
+		if c.token != "" {
+			req.Header.Set("X-Glossmith-Token", c.token)
+		}
+		if c.ct != "" {
+			req.Header.Set("Content-Type", c.ct)
+		}
+		resp, err := client.Do(req)
+		require.NoError(t, err)
+		resp.Body.Close()
+		assert.Equal(t, c.want, resp.StatusCode, c.what)
+	}
+}

@@ -1,0 +1,172 @@
+// Package tbstore lets the review page keep its decisions in a termbase:
+// it is review.Store over termbase.Store, one termbase change (one
+// transaction, one line of its change log) per action.
+package tbstore
+
+import (
+	"fmt"
+
+	"glossmith/extract/review"
+	"glossmith/extract/termbase"
+)
+
+// Store is a termbase seen as a review.Store. The statuses are the
+// termbase's own labels (termbase.Index), so the page and `terms
+// --termbase` call a candidate the same.
+type Store struct {
+	tb    *termbase.Store
+	forms map[string][]string // a candidate's surface forms, for the labels
+}
+
+// New returns the review store of tb for the candidates of ds.
+func New(tb *termbase.Store, ds *review.Dataset) *Store {
+	s := &Store{tb: tb, forms: make(map[string][]string, len(ds.Candidates))}
+	for i, c := range ds.Candidates {
+		var fs []string
+		for _, v := range ds.Details[i].Variants {
+			fs = append(fs, v.Form)
+		}
+		s.forms[c.Term] = fs
+	}
+	return s
+}
+
+// smallLookup is the number of candidates up to which Lookup reads their
+// entries one by one rather than the whole termbase.
+const smallLookup = 16
+
+// Lookup returns the decisions on the named candidates.
+func (s *Store) Lookup(names []string) (map[string]review.Decision, error) {
+	var entries []*termbase.Entry
+	if len(names) > smallLookup {
+		all, err := s.tb.Entries()
+		if err != nil {
+			return nil, err
+		}
+		entries = all
+	} else {
+		seen := map[int64]bool{}
+		for _, n := range names {
+			for _, f := range append([]string{n}, s.forms[n]...) {
+				es, err := s.tb.Lookup(f)
+				if err != nil {
+					return nil, err
+				}
+				for _, e := range es {
+					if !seen[e.ID] {
+						seen[e.ID] = true
+						entries = append(entries, e)
+					}
+				}
+			}
+		}
+	}
+	ix := termbase.NewIndex(entries, s.tb.Lang)
+	byKey := map[string]*termbase.Entry{}
+	termOf := map[string]*termbase.Term{}
+	for _, e := range entries {
+		for _, t := range e.Terms {
+			if t.Lang != s.tb.Lang {
+				continue
+			}
+			if _, ok := byKey[t.Key]; !ok {
+				byKey[t.Key], termOf[t.Key] = e, t
+			}
+			for _, f := range t.Forms {
+				if k := termbase.Key(f); byKey[k] == nil {
+					byKey[k] = e
+				}
+			}
+		}
+	}
+	out := map[string]review.Decision{}
+	for _, n := range names {
+		label, entry := ix.Label(n, s.forms[n])
+		k := termbase.Key(n)
+		e, t := byKey[k], termOf[k]
+		if e == nil && entry != "" {
+			for _, f := range s.forms[n] {
+				if e = byKey[termbase.Key(f)]; e != nil {
+					break
+				}
+			}
+		}
+		if e == nil {
+			continue
+		}
+		d := review.Decision{Status: review.Status(label), Definition: e.Definition, Forms: map[string]string{}}
+		if t != nil && t.Deferred && label == termbase.LabelNew {
+			d.Status = review.Deferred
+		}
+		if p := e.Preferred(s.tb.Lang); p != nil {
+			d.Preferred = p.Text
+			if entry != "" && termbase.Key(p.Text) != k {
+				d.Entry = p.Text
+			}
+		}
+		for _, x := range e.Terms {
+			if x.Lang != s.tb.Lang {
+				continue
+			}
+			if x.Status != termbase.Candidate {
+				d.Forms[x.Text] = string(x.Status)
+			}
+			if x.Key != k {
+				d.Concept = append(d.Concept, x.Text)
+			}
+		}
+		if len(e.Notes) > 0 {
+			d.Note = e.Notes[len(e.Notes)-1]
+		}
+		if t != nil {
+			d.POS = t.POS
+		}
+		out[n] = d
+	}
+	return out, nil
+}
+
+// Apply records one action as one termbase change.
+func (s *Store) Apply(a review.Action) error {
+	if err := a.Check(); err != nil {
+		return err
+	}
+	var err error
+	switch a.Kind {
+	case review.Accept:
+		_, err = s.tb.Decide(termbase.Preferred, s.proposal(a.Term))
+	case review.Reject:
+		_, err = s.tb.Decide(termbase.Rejected, s.proposal(a.Term))
+	case review.Defer:
+		_, err = s.tb.Decide(termbase.Candidate, s.proposal(a.Term))
+	case review.Prefer:
+		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Preferred)
+	case review.Admit:
+		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Admitted)
+	case review.Deprecate:
+		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Deprecated)
+	case review.Merge:
+		_, err = s.tb.Merge(a.Term, a.Other)
+	case review.Definition:
+		_, err = s.tb.SetDefinition(a.Term, a.Text, "")
+	case review.Note:
+		_, err = s.tb.SetNote(a.Term, a.Text)
+	case review.SetPOS:
+		_, err = s.tb.SetPOS(a.Term, a.Text)
+	default:
+		err = fmt.Errorf("unknown action %q", a.Kind)
+	}
+	return err
+}
+
+// proposal is a decided candidate with its surface forms, so that the
+// termbase knows them as forms of the term.
+func (s *Store) proposal(term string) termbase.Proposal {
+	return termbase.Proposal{Text: term, Forms: s.forms[term]}
+}
+
+// Undo takes back the termbase's latest change.
+func (s *Store) Undo() (bool, error) {
+	done, err := s.tb.Undo(1)
+	return len(done) > 0, err
+}
