@@ -80,8 +80,9 @@ func newTermsCmd() *cobra.Command {
 		Use:   "terms [flags] INPUT...",
 		Short: "Rank term candidates with their variants, counts, measures and contexts",
 		Long: `Finds term candidates with the stock "terms" rules (or --rules), groups their
-variants under a canonical form (head lemmatized, case folded except acronyms
-and names, hyphen/space/no-space spellings unified), measures them and ranks
+variants under a canonical form (head lemmatized, case folded except acronyms,
+units, mixed-case words and names, hyphen/space/no-space spellings unified),
+measures them and ranks
 them, best first.
 
 Measures (each a column, each a --sort key):
@@ -89,10 +90,12 @@ Measures (each a column, each a --sort key):
   docs       documents the candidate occurs in
   dp         Gries' deviation of proportions over documents (0 = evenly spread)
   cvalue     C-value over nested candidates (Frantzi et al. 2000), log2(|a|+1) weight
-  keyness    mean signed log-likelihood of the words against the reference
-             (Rayson and Garside 2000); the reference is the tagger's training
-             treebank unless --reference names documents
-  weirdness  geometric mean weirdness ratio of the words (Ahmad et al. 1999)
+  keyness    signed log-likelihood keyness (Rayson and Garside 2000) of the
+             candidate's least specific word (lowest weirdness) against the
+             reference: the tagger's training treebank unless --reference
+             names documents
+  weirdness  smoothed weirdness ratio (Ahmad et al. 1999) of that same least
+             specific word
   score      the combined ranking score (see README)
 
 The default list ends where the score falls below the cut-off; --all prints
@@ -126,8 +129,8 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
 	fl.IntVar(&o.contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
 	fl.StringArrayVar(&o.stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")
-	fl.StringVar(&o.include, "include", "", "keep only candidates that the pattern matches whole")
-	fl.StringVar(&o.exclude, "exclude", "", "leave out candidates that the pattern matches whole")
+	fl.StringVar(&o.include, "include", "", "list only candidates that the pattern matches whole (in most occurrences); counts stay those of all candidates")
+	fl.StringVar(&o.exclude, "exclude", "", "leave out of the list candidates that the pattern matches whole (in most occurrences)")
 	fl.BoolVar(&o.all, "all", false, "list every candidate, not only those above the score cut-off")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many terms (0: no limit)")
 	o.tb.register(cmd)

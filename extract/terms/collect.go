@@ -28,8 +28,11 @@ type Options struct {
 	// Stop holds lower-cased words: a candidate that begins or ends with one
 	// of them, or that is one of them, is dropped.
 	Stop map[string]bool
-	// Keep, when set, decides on each candidate occurrence from its tokens
-	// (the include and exclude patterns of the command line).
+	// Keep, when set, is asked about each candidate occurrence from its
+	// tokens (the include and exclude patterns of the command line). It
+	// filters whole candidates, not occurrences: a candidate is listed when
+	// Keep accepts more than half of its occurrences, and its counts,
+	// contexts and measures are those of all of them.
 	Keep func(toks []doc.Token) bool
 }
 
@@ -92,6 +95,7 @@ type wordCount struct {
 type docCand struct {
 	key      string // group key: lower-cased, hyphens and spaces removed
 	freq     int32
+	kept     int32 // occurrences Options.Keep accepts
 	spells   int32 // first spelling in DocCounts.spells, -1 for none
 	canons   int32 // first canonical form in DocCounts.canons, -1 for none
 	nctx     int32
@@ -369,9 +373,6 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 	if c.opt.Stop != nil && cw.stopped(c.opt.Stop) {
 		return
 	}
-	if c.opt.Keep != nil && !c.opt.Keep(toks[i:j]) {
-		return
-	}
 	gi, ok := sc.groupIndex[string(cw.key)]
 	if !ok {
 		gi = int32(len(dc.cands))
@@ -381,6 +382,9 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 	}
 	g := &dc.cands[gi]
 	g.freq++
+	if c.opt.Keep == nil || c.opt.Keep(toks[i:j]) {
+		g.kept++
+	}
 	surface, inBuf := sc.surface(i, j)
 	dc.addSpelling(g, surface, inBuf)
 	dc.addCanonical(sc, g, i, j)

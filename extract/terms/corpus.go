@@ -83,6 +83,7 @@ type docFreq struct{ doc, n int32 }
 type group struct {
 	key      string
 	freq     int
+	kept     int // occurrences Options.Keep accepts (see Corpus.Terms)
 	perDoc   []docFreq
 	variants []spelling  // few per group: slices beat maps (see docCand)
 	canon    []canonical // in order of first occurrence
@@ -219,7 +220,7 @@ func (c *Corpus) newGroup(dc *DocCounts, x *docCand, di int) *group {
 		s, all = all[:n], all[n:]
 		return s
 	}
-	g := &group{key: next(len(x.key)), freq: int(x.freq)}
+	g := &group{key: next(len(x.key)), freq: int(x.freq), kept: int(x.kept)}
 	g.perDoc = append(g.first.perDoc[:0], docFreq{int32(di), x.freq})
 	g.variants = g.first.variants[:0]
 	for k := x.spells; k >= 0; k = dc.spells[k].next {
@@ -242,6 +243,7 @@ func (c *Corpus) newGroup(dc *DocCounts, x *docCand, di int) *group {
 // merge adds the counts in document di of a candidate to its group.
 func (c *Corpus) merge(g *group, dc *DocCounts, x *docCand, di int) {
 	g.freq += int(x.freq)
+	g.kept += int(x.kept)
 	g.perDoc = append(g.perDoc, docFreq{int32(di), x.freq})
 	for k := x.spells; k >= 0; k = dc.spells[k].next {
 		v := &dc.spells[k]
@@ -357,6 +359,7 @@ type Term struct {
 	key    string
 	words  []string
 	keys   []string
+	kept   int // occurrences Options.Keep accepted
 }
 
 // canonical picks a group's display form: the most frequent canonical
@@ -424,7 +427,9 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 			out[i].CValue = cv[i].Score
 		}
 	}
-	return out
+	// Options.Keep filters whole candidates, once every measure is known:
+	// a candidate stays when it accepted most of its occurrences.
+	return slices.DeleteFunc(out, func(t *Term) bool { return 2*t.kept <= t.Freq })
 }
 
 // parallelTermsFrom is the number of candidates from which Terms spreads
@@ -457,7 +462,7 @@ func (c *Corpus) term(k string, spread *docSpread, memo []float64, ref Reference
 	g := c.groups[k]
 	cn := g.canonical()
 	words := cn.words()
-	t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words}
+	t := &Term{Term: cn.text, Words: len(words), POS: cn.pos, Freq: g.freq, Docs: len(g.perDoc), key: k, words: words, kept: g.kept}
 	for _, v := range g.variants {
 		t.Variants = append(t.Variants, Variant{v.text, v.n})
 	}

@@ -44,6 +44,7 @@ func capitalHead(cn *canonical) bool {
 // absorb adds the counts of group o to g.
 func (g *group) absorb(o *group) {
 	g.freq += o.freq
+	g.kept += o.kept
 	merged := make([]docFreq, 0, len(g.perDoc)+len(o.perDoc))
 	i, j := 0, 0
 	for i < len(g.perDoc) || j < len(o.perDoc) {

@@ -5,24 +5,13 @@ import (
 	"sort"
 	"strings"
 	"testing"
-
-	"glossmith/tagger/doc"
-	"glossmith/tagger/tokenize"
 )
 
 // extractTexts runs the default extraction over small texts, one document
 // each, with the real tokenizer and tagger.
 func extractTexts(t *testing.T, texts ...string) []*Term {
 	t.Helper()
-	m, col := defaultSetup(t)
-	c := NewCorpus(3)
-	for i, text := range texts {
-		d := &doc.Document{Name: string(rune('a' + i)), Text: text}
-		tokenize.Document(d)
-		m.TagDocument(d)
-		c.Add(col.Collect(d))
-	}
-	return c.Terms(modelRef{m})
+	return extractWith(t, Options{}, texts...)
 }
 
 func find(ts []*Term, term string) *Term {
