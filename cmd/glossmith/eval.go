@@ -76,6 +76,10 @@ func (o *evalTaggingOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
+	if len(gold) == 0 {
+		// No table of zeros: there is nothing to measure.
+		return exitError{1, "no sentences with gold tags to evaluate on"}
+	}
 	rep := hmm.Evaluate(m, gold)
 	w := bufio.NewWriter(os.Stdout)
 	if o.to == "json" {
@@ -89,7 +93,7 @@ func (o *evalTaggingOptions) run(args []string) error {
 		return exitError{1, fmt.Sprintf("writing the report: %v", err)}
 	}
 	if bad > 0 {
-		return exitError{1, fmt.Sprintf("%d malformed sentence(s) left out", bad)}
+		return exitError{1, fmt.Sprintf("%d malformed or untagged sentence(s) left out", bad)}
 	}
 	return nil
 }

@@ -91,6 +91,9 @@ func (o *trainOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
+	if len(sents) == 0 {
+		return exitError{1, "no annotated sentences to train on"}
+	}
 	opt := hmm.TrainOptions{Method: o.method, Epochs: o.epochs, Source: strings.Join(baseNames(args), ", ")}
 	if o.dev != "" {
 		d, b, err := readConllu([]string{o.dev})
@@ -126,13 +129,14 @@ func (o *trainOptions) run(args []string) error {
 		return err
 	}
 	if bad > 0 {
-		return exitError{1, fmt.Sprintf("%d malformed sentence(s) left out of training", bad)}
+		return exitError{1, fmt.Sprintf("%d malformed or untagged sentence(s) left out of training", bad)}
 	}
 	return nil
 }
 
-// readConllu reads CoNLL-U files, reporting malformed sentences (which are
-// left out) on standard error and counting them.
+// readConllu reads gold CoNLL-U files, reporting malformed sentences and
+// sentences without valid gold tags (hmm.CheckGold), which are left out,
+// on standard error and counting them.
 func readConllu(paths []string) ([]*conllu.Sentence, int, error) {
 	var all []*conllu.Sentence
 	bad := 0
@@ -151,7 +155,14 @@ func readConllu(paths []string) ([]*conllu.Sentence, int, error) {
 		} else if err != nil {
 			return nil, 0, err
 		}
-		all = append(all, s...)
+		for _, st := range s {
+			if err := hmm.CheckGold(st, p); err != nil {
+				fmt.Fprintln(os.Stderr, "error:", err)
+				bad++
+				continue
+			}
+			all = append(all, st)
+		}
 	}
 	return all, bad, nil
 }

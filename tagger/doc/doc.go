@@ -40,6 +40,14 @@ type Token struct {
 	XPOS  string
 }
 
+// UPOSTags are the 17 Universal Dependencies part-of-speech tags
+// (universaldependencies.org/u/pos/), in the order of that page: the
+// values a token's UPOS may take.
+var UPOSTags = []string{
+	"ADJ", "ADP", "ADV", "AUX", "CCONJ", "DET", "INTJ", "NOUN", "NUM",
+	"PART", "PRON", "PROPN", "PUNCT", "SCONJ", "SYM", "VERB", "X",
+}
+
 // MaxText is the largest Document.Text, in bytes, that token offsets can
 // address. Readers refuse larger documents with an error (their default
 // cap is far lower); tokenizing a longer text stops at this length.

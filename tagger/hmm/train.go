@@ -7,8 +7,10 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"unicode"
 
 	"glossmith/tagger/conllu"
+	"glossmith/tagger/doc"
 	"glossmith/tagger/lemma"
 )
 
@@ -138,6 +140,33 @@ func Train(sents []*conllu.Sentence, opt TrainOptions) (*Model, error) {
 	return m, nil
 }
 
+// CheckGold reports the first reason a sentence cannot be training or
+// evaluation data: a token with neither UPOS nor XPOS, a UPOS that is not
+// one of the 17 Universal Dependencies tags (doc.UPOSTags), or an XPOS
+// that is not one word of printable characters (a model keeps a state's
+// tags as one tab-separated name). file, when not empty, starts the
+// message, which names the token's line.
+func CheckGold(s *conllu.Sentence, file string) error {
+	where := func(t *doc.Token) string {
+		if file == "" {
+			return fmt.Sprintf("line %d", t.Line)
+		}
+		return fmt.Sprintf("%s:%d", file, t.Line)
+	}
+	for i := range s.Tokens {
+		t := &s.Tokens[i]
+		switch {
+		case t.UPOS == "" && t.XPOS == "":
+			return fmt.Errorf("%s: token %q has neither UPOS nor XPOS", where(t), t.Form)
+		case t.UPOS != "" && !slices.Contains(doc.UPOSTags, t.UPOS):
+			return fmt.Errorf("%s: token %q: UPOS %q is not a Universal Dependencies tag (%s)", where(t), t.Form, t.UPOS, strings.Join(doc.UPOSTags, " "))
+		case strings.IndexFunc(t.XPOS, func(r rune) bool { return unicode.IsSpace(r) || !unicode.IsPrint(r) }) >= 0:
+			return fmt.Errorf("%s: token %q: XPOS %q has a space or a control character", where(t), t.Form, t.XPOS)
+		}
+	}
+	return nil
+}
+
 // goldTags returns the XPOS and UPOS a training token stands for: a
 // missing XPOS is taken from UPOS, so treebanks without fine tags work.
 func goldTags(x, u string) (string, string) {
@@ -159,10 +188,10 @@ func newBase(sents []*conllu.Sentence, opt *TrainOptions) (*Model, [][]uint8, er
 	names := map[string]bool{}
 	var examples []lemma.Example
 	for _, s := range sents {
+		if err := CheckGold(s, ""); err != nil {
+			return nil, nil, err
+		}
 		for _, t := range s.Tokens {
-			if t.UPOS == "" && t.XPOS == "" {
-				return nil, nil, fmt.Errorf("line %d: token %q has neither UPOS nor XPOS", t.Line, t.Form)
-			}
 			x, u := goldTags(t.XPOS, t.UPOS)
 			names[m.stateName(x, u)] = true
 			examples = append(examples, lemma.Example{Form: t.Form, Lemma: t.Lemma, UPOS: u, XPOS: x})

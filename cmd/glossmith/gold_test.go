@@ -1,0 +1,83 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// writeTemp writes a file into a fresh directory and returns its path.
+func writeTemp(t *testing.T, name, content string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), name)
+	require.NoError(t, os.WriteFile(p, []byte(content), 0o644))
+	return p
+}
+
+// conlluRows builds a CoNLL-U sentence of the given (form, UPOS, XPOS)
+// rows; "_" leaves a column empty.
+func conlluRows(id string, rows ...[3]string) string {
+	var b strings.Builder
+	b.WriteString("# sent_id = " + id + "\n")
+	for i, r := range rows {
+		b.WriteString(strings.Join([]string{strconv.Itoa(i + 1), r[0], strings.ToLower(r[0]), r[1], r[2], "_", "0", "root", "_", "_"}, "\t") + "\n")
+	}
+	return b.String() + "\n"
+}
+
+// eval tagging on input without gold tags — plain text, or CoNLL-U whose
+// tag columns are empty — prints its errors, no table, and fails.
+func TestEvalTaggingWithoutGoldTags(t *testing.T) {
+	text := writeTemp(t, "notes.txt", "The valve opens at dawn.\nThe vent closes at noon.\n")
+	untagged := writeTemp(t, "untagged.conllu",
+		conlluRows("1", [3]string{"Valves", "_", "_"}, [3]string{"open", "_", "_"}))
+	for _, p := range []string{text, untagged} {
+		r := run(t, "", "eval", "tagging", p)
+		assert.Equal(t, 1, r.code, "exit status for %s", p)
+		assert.Empty(t, r.stdout, "no report for %s", p)
+		assert.Contains(t, r.stderr, p+":")
+		assert.Contains(t, r.stderr, "no sentences with gold tags")
+	}
+	r := run(t, "", "eval", "tagging", untagged)
+	assert.Contains(t, r.stderr, untagged+`:2: token "Valves" has neither UPOS nor XPOS`)
+}
+
+// train names the file and line of an untagged token and of a tag that is
+// not one, leaves those sentences out, trains on the rest and exits 1.
+func TestTrainRefusesBadTagsByFileAndLine(t *testing.T) {
+	var good strings.Builder
+	for i := 0; i < 5; i++ {
+		good.WriteString(conlluRows("g"+strconv.Itoa(i), [3]string{"Valves", "NOUN", "NNS"}, [3]string{"open", "VERB", "VBP"}, [3]string{".", "PUNCT", "."}))
+	}
+	bad := conlluRows("b1", [3]string{"Vents", "NOUN", "NNS"}, [3]string{"close", "_", "_"}) +
+		conlluRows("b2", [3]string{"Pumps", "NOUNS", "NNS"}, [3]string{"run", "VERB", "VBP"})
+	in := writeTemp(t, "train.conllu", good.String()+bad)
+	out := filepath.Join(t.TempDir(), "m.glsm")
+	r := run(t, "", "train", "-q", "--method", "hmm", "-o", out, in)
+	assert.Equal(t, 1, r.code)
+	lines := strings.Count(good.String(), "\n")
+	assert.Contains(t, r.stderr, in+":"+strconv.Itoa(lines+3)+`: token "close" has neither UPOS nor XPOS`)
+	assert.Contains(t, r.stderr, in+":"+strconv.Itoa(lines+6)+`: token "Pumps": UPOS "NOUNS" is not a Universal Dependencies tag`)
+	assert.Contains(t, r.stderr, "2 malformed or untagged sentence(s) left out of training")
+	_, err := os.Stat(out)
+	assert.NoError(t, err, "the model of the good sentences is written")
+
+	// Nothing left to train on: no model.
+	only := writeTemp(t, "bad.conllu", bad)
+	out2 := filepath.Join(t.TempDir(), "none.glsm")
+	r = run(t, "", "train", "-q", "-o", out2, only)
+	assert.Equal(t, 1, r.code)
+	assert.Contains(t, r.stderr, "no annotated sentences to train on")
+	_, err = os.Stat(out2)
+	assert.True(t, os.IsNotExist(err), "no model file")
+
+	// The method is checked before any input is read.
+	r = run(t, "", "train", "--method", "bogus", "-o", out2, "/nonexistent/input.conllu")
+	assert.Equal(t, 2, r.code)
+	assert.Contains(t, r.stderr, `--method "bogus"`)
+}
