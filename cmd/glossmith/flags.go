@@ -58,7 +58,7 @@ func checkWorkers(cmd *cobra.Command, workers int) error {
 // extFormats maps output file extensions to the format they imply.
 var extFormats = map[string]string{
 	".tbx": "tbx", ".csv": "csv", ".tsv": "tsv", ".jsonl": "jsonl", ".json": "json",
-	".conllu": "conllu", ".html": "html", ".htm": "html", ".xlsx": "xlsx",
+	".conllu": "conllu", ".html": "html", ".htm": "html", ".xlsx": "xlsx", ".sarif": "sarif",
 }
 
 // outputFormat settles --to against the extension of -o: an extension

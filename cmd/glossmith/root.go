@@ -70,5 +70,6 @@ exit status is 1 when anything was skipped.`,
 	}
 	root.SetHelpCommand(newHelpCmd())
 	root.AddCommand(newTagCmd(), newTermsCmd(), newTermbaseCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd(), newReviewCmd())
+	root.AddCommand(newCheckCmd())
 	return root
 }

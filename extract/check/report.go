@@ -140,7 +140,36 @@ func (r *Report) Findings() []Finding {
 	var out []Finding
 	for _, fs := range perDoc {
 		sortFindings(fs)
-		out = append(out, fs...)
+		out = append(out, dropCovering(fs)...)
 	}
 	return out
 }
+
+// dropCovering leaves out the mixed findings that contain another finding
+// of the document: "heating set-point" against "heating set point" is the
+// variation of the "set point" group it contains, reported there.
+func dropCovering(fs []Finding) []Finding {
+	out := fs[:0]
+	for i := range fs {
+		f := &fs[i]
+		covers := false
+		for j := range fs {
+			o := &fs[j]
+			if f.Kind != KindMixed || i == j || o.Line > f.EndLine {
+				continue
+			}
+			if before(f.Line, f.Column, o.Line, o.Column) && before(o.EndLine, o.EndColumn, f.EndLine, f.EndColumn) &&
+				(f.Line != o.Line || f.Column != o.Column || f.EndLine != o.EndLine || f.EndColumn != o.EndColumn) {
+				covers = true
+				break
+			}
+		}
+		if !covers {
+			out = append(out, *f)
+		}
+	}
+	return out
+}
+
+// before reports whether position (l1, c1) is at or before (l2, c2).
+func before(l1, c1, l2, c2 int) bool { return l1 < l2 || l1 == l2 && c1 <= c2 }

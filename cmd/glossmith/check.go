@@ -1,0 +1,224 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"glossmith/extract/check"
+	"glossmith/extract/termbase"
+	"glossmith/pattern"
+	"glossmith/tagger/doc"
+)
+
+// checkOptions are the flags of the check command.
+type checkOptions struct {
+	in       inputFlags
+	termbase string
+	lang     string
+	variants bool
+	to       string
+	outPath  string
+	failOn   string
+	baseline string
+	color    string
+
+	failLevel check.Level     // the --fail-on, parsed by validate
+	base      *check.Baseline // the --baseline, read by validate
+}
+
+func newCheckCmd() *cobra.Command {
+	o := &checkOptions{}
+	cmd := &cobra.Command{
+		Use:   "check [flags] INPUT...",
+		Short: "Check documents against the termbase: deprecated terms, other spellings, mixed spellings",
+		Long: `Reports every use of a deprecated or forbidden term of the termbase, and of a
+spelling of a term other than its preferred form: hyphen, space or closed
+spellings ("setpoint" for "set point"), the case of a term whose case matters
+("plc" for "PLC"), and inflected forms ("magnet valves" for the deprecated
+"magnet valve"). With --variants, also every variant group (grouped as the
+terms command groups them) spelled more than one way, with its counts in each
+document and in all, and the majority spelling to use.
+
+Levels: deprecated and forbidden terms are errors, other spellings warnings,
+mixed spellings notes. The exit status is 0 without findings at or above
+--fail-on, 1 with some (or when an input could not be read), 2 on a usage
+error.
+
+Terms in code (code blocks, inline code, HTML code and pre elements), URLs,
+e-mail addresses and file paths are not reported. A line holding
+"glossmith:skip-next-line" — in Markdown and HTML as a comment,
+<!-- glossmith:skip-next-line --> — silences the next line that has text.
+
+Positions are 1-based lines and columns in characters: those of the file for
+Markdown and plain text, those of the extracted text for HTML, DOCX and PDF.`,
+		Example: `  glossmith check --termbase pumps.termbase manuals/
+  glossmith check --variants manuals/
+  glossmith check --termbase pumps.termbase --to sarif -o check.sarif manuals/
+  glossmith check --termbase pumps.termbase --baseline check.sarif --fail-on warning manuals/`,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := o.validate(cmd, args); err != nil {
+				return err
+			}
+			return o.run(args)
+		},
+	}
+	o.register(cmd)
+	return cmd
+}
+
+func (o *checkOptions) register(cmd *cobra.Command) {
+	o.in.register(cmd, true)
+	fl := cmd.Flags()
+	fl.StringVar(&o.termbase, "termbase", os.Getenv("GLOSSMITH_TERMBASE"), "the termbase to check against (default: $GLOSSMITH_TERMBASE)")
+	fl.StringVar(&o.lang, "lang", "", "check only the termbase's terms of this language (default: every language)")
+	fl.BoolVar(&o.variants, "variants", false, "also report variant groups spelled more than one way (needs no termbase)")
+	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(check.Formats, ", ")+" (default: from the -o extension, else text)")
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
+	fl.StringVar(&o.failOn, "fail-on", "error", "exit 1 on a finding of this level or above: error, warning, note")
+	fl.StringVar(&o.baseline, "baseline", "", "a result of an earlier check (JSON Lines or SARIF): report only findings it does not hold")
+	fl.StringVar(&o.color, "color", "auto", "colour the levels: auto (on a terminal, unless NO_COLOR is set or TERM=dumb), always, never")
+	completeChoices(cmd, "to", check.Formats)
+	completeChoices(cmd, "fail-on", failLevels)
+	completeChoices(cmd, "color", colorModes)
+}
+
+// failLevels are the values of --fail-on.
+var failLevels = []string{"error", "warning", "note"}
+
+// validate checks every flag value, and reads the baseline, before any
+// input is read.
+func (o *checkOptions) validate(cmd *cobra.Command, args []string) error {
+	if err := o.in.validate(cmd); err != nil {
+		return err
+	}
+	to, err := outputFormat(cmd, o.to, o.outPath, check.Formats)
+	if err != nil {
+		return err
+	}
+	o.to = to
+	if err := checkChoice("fail-on", o.failOn, failLevels); err != nil {
+		return err
+	}
+	o.failLevel, _ = check.ParseLevel(o.failOn)
+	if err := checkChoice("color", o.color, colorModes); err != nil {
+		return err
+	}
+	if o.termbase == "" && !o.variants {
+		return usageError("nothing to check against: give --termbase FILE (or set GLOSSMITH_TERMBASE), --variants, or both")
+	}
+	if o.termbase != "" {
+		// Opening a termbase creates a missing one: a checked termbase must exist.
+		if fi, err := os.Stat(o.termbase); err != nil || fi.IsDir() {
+			return usageError("--termbase %s: no termbase file there (glossmith termbase import creates one)", o.termbase)
+		}
+	}
+	if o.baseline != "" {
+		f, err := os.Open(o.baseline)
+		if err != nil {
+			return usageError("--baseline: %v", err)
+		}
+		defer f.Close()
+		if o.base, err = check.ReadBaseline(f, o.baseline); err != nil {
+			return usageError("--baseline: %v", err)
+		}
+	}
+	return needInputs(args)
+}
+
+func (o *checkOptions) run(args []string) error {
+	var opt check.Options
+	if o.termbase != "" {
+		tb, err := termbase.Open(o.termbase)
+		if err != nil {
+			return err
+		}
+		entries, err := tb.Entries()
+		tb.Close()
+		if err != nil {
+			return err
+		}
+		opt.Glossary = check.Compile(check.FromTermbase(entries, o.lang))
+	}
+	if o.variants {
+		m, err := pattern.CompileStock("terms")
+		if err != nil {
+			return err
+		}
+		opt.Candidates = m
+	}
+	model, err := loadModel(o.in.model)
+	if err != nil {
+		return err
+	}
+	rep := check.NewReport(opt.Glossary)
+	o.in.reuseTokens = true // results hold strings and positions, not tokens
+	st, runErr := runDocs(&o.in, args, model,
+		func(d *doc.Document) *check.DocResult { return check.Check(d, readSource(d), opt) },
+		func(_ *doc.Document, r *check.DocResult) { rep.Add(r) })
+	if st.Documents == 0 {
+		return runErr
+	}
+	fs := rep.Findings()
+	known := 0
+	if o.base != nil {
+		fs, known = o.base.New(fs)
+	}
+	out, err := openOutput(o.outPath)
+	if err != nil {
+		return err
+	}
+	wopt := check.WriteOptions{Color: o.to == "text" && useColor(o.color, out.toTerminal()), Version: versionString()}
+	if err := out.commit(check.Write(out, o.to, fs, wopt)); err != nil {
+		return err
+	}
+	failing := 0
+	var byLevel [3]int
+	for i := range fs {
+		lv := fs[i].Level()
+		byLevel[lv]++
+		if lv >= o.failLevel {
+			failing++
+		}
+	}
+	if !o.in.quiet {
+		msg := fmt.Sprintf("check: %d finding(s) in %d document(s): %d error(s), %d warning(s), %d note(s)",
+			len(fs), st.Documents, byLevel[check.Error], byLevel[check.Warning], byLevel[check.Note])
+		if rep.Suppressed > 0 {
+			msg += fmt.Sprintf("; %d left out in code, addresses or silenced lines", rep.Suppressed)
+		}
+		if o.base != nil {
+			msg += fmt.Sprintf("; %d already in the baseline", known)
+		}
+		fmt.Fprintln(os.Stderr, msg)
+	}
+	if runErr != nil {
+		return runErr
+	}
+	if failing > 0 {
+		return exitError{code: 1}
+	}
+	return nil
+}
+
+// readSource returns the bytes of the file a document was read from, from
+// which the check takes Markdown columns, inline code and skip comments;
+// nil for standard input or a file that cannot be read again (the text's
+// own columns are used then).
+func readSource(d *doc.Document) []byte {
+	switch d.Format {
+	case "md", "txt", "html":
+	default:
+		return nil
+	}
+	if d.Name == "-" {
+		return nil
+	}
+	b, err := os.ReadFile(d.Name)
+	if err != nil {
+		return nil
+	}
+	return b
+}

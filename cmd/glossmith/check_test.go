@@ -1,0 +1,176 @@
+package main
+
+import (
+	"bufio"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"glossmith/extract/termbase"
+)
+
+// pumpsDir is the check's planted test corpus (an invented maker of solar
+// water pumps), relative to the repository root where run starts.
+const pumpsDir = "extract/check/testdata/pumps"
+
+// pumpsTermbase stores the corpus's glossary (glossary.tsv: entry, term,
+// status, pos) in a new termbase and returns its path; "forbidden" terms
+// are stored as rejected terms of their entry.
+func pumpsTermbase(t *testing.T) string {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join("../..", pumpsDir, "glossary.tsv"))
+	require.NoError(t, err)
+	byID := map[string]*termbase.Entry{}
+	var entries []*termbase.Entry
+	for i, line := range strings.Split(strings.TrimSpace(string(data)), "\n") {
+		if i == 0 {
+			continue
+		}
+		c := strings.Split(line, "\t")
+		e := byID[c[0]]
+		if e == nil {
+			e = &termbase.Entry{ExtID: c[0]}
+			byID[c[0]] = e
+			entries = append(entries, e)
+		}
+		st := termbase.Status(c[2])
+		if st == "forbidden" {
+			st = termbase.Rejected
+		}
+		e.Terms = append(e.Terms, &termbase.Term{Text: c[1], Status: st, POS: c[3], Lang: "en"})
+	}
+	path := filepath.Join(t.TempDir(), "pumps.termbase")
+	s, err := termbase.Open(path)
+	require.NoError(t, err)
+	_, err = s.Import("test", entries)
+	require.NoError(t, err)
+	require.NoError(t, s.Close())
+	return path
+}
+
+func pumpsInputs() []string {
+	return []string{pumpsDir + "/installation-guide.md", pumpsDir + "/field-notes.txt", pumpsDir + "/service-bulletin.html"}
+}
+
+func TestCheckCommand(t *testing.T) {
+	tb := pumpsTermbase(t)
+	r := run(t, "", append([]string{"check", "--termbase", tb}, pumpsInputs()...)...)
+	assert.Equal(t, 1, r.code, r.stderr)
+	lines := strings.Split(strings.TrimSuffix(r.stdout, "\n"), "\n")
+	assert.Len(t, lines, 21)
+	line := regexp.MustCompile(`^[^:]+:\d+:\d+: (error|warning|note): `)
+	for _, l := range lines {
+		assert.Regexp(t, line, l)
+	}
+	assert.Contains(t, r.stdout, pumpsDir+`/installation-guide.md:7:33: error: "magnet valve" is a deprecated term: use "solenoid valve"`)
+	assert.Contains(t, r.stderr, "21 finding(s) in 3 document(s): 10 error(s), 11 warning(s), 0 note(s)")
+	assert.NotContains(t, r.stdout, "\x1b[", "no colour off a terminal")
+
+	r = run(t, "", "check", "--termbase", tb, "--color", "always", pumpsDir+"/field-notes.txt")
+	assert.Contains(t, r.stdout, "\x1b[31merror\x1b[0m")
+}
+
+func TestCheckFailOn(t *testing.T) {
+	tb := pumpsTermbase(t)
+	// Spellings only: warnings, below the default --fail-on error.
+	text := "Adjust the setpoint of the pump inverter.\n"
+	for _, tc := range []struct {
+		failOn string
+		code   int
+	}{{"", 0}, {"error", 0}, {"warning", 1}, {"note", 1}} {
+		args := []string{"check", "--termbase", tb, "--from", "txt", "-q"}
+		if tc.failOn != "" {
+			args = append(args, "--fail-on", tc.failOn)
+		}
+		r := run(t, text, append(args, "-")...)
+		assert.Equal(t, tc.code, r.code, "--fail-on %q: %s", tc.failOn, r.stderr)
+		assert.Contains(t, r.stdout, `-:1:12: warning: "setpoint" is a spelling of "set point"`)
+	}
+	r := run(t, "The pump inverter is fine.\n", "check", "--termbase", tb, "--fail-on", "note", "-")
+	assert.Equal(t, 0, r.code, r.stderr)
+	assert.Empty(t, r.stdout)
+}
+
+func TestCheckFormatsAndBaseline(t *testing.T) {
+	tb := pumpsTermbase(t)
+	dir := t.TempDir()
+	for _, name := range []string{"base.jsonl", "base.sarif"} {
+		out := filepath.Join(dir, name)
+		r := run(t, "", append([]string{"check", "--termbase", tb, "-q", "-o", out}, pumpsInputs()...)...)
+		require.Equal(t, 1, r.code, r.stderr)
+		data, err := os.ReadFile(out)
+		require.NoError(t, err)
+		if strings.HasSuffix(name, ".jsonl") {
+			sc := bufio.NewScanner(strings.NewReader(string(data)))
+			n := 0
+			for sc.Scan() {
+				var rec map[string]any
+				require.NoError(t, json.Unmarshal(sc.Bytes(), &rec))
+				assert.Contains(t, []any{"deprecated", "spelling"}, rec["kind"])
+				n++
+			}
+			assert.Equal(t, 21, n)
+		} else {
+			var log struct {
+				Version string
+				Runs    []struct{ Results []json.RawMessage }
+			}
+			require.NoError(t, json.Unmarshal(data, &log))
+			assert.Equal(t, "2.1.0", log.Version)
+			require.Len(t, log.Runs, 1)
+			assert.Len(t, log.Runs[0].Results, 21)
+		}
+		// The same documents against their own result: nothing new.
+		r = run(t, "", append([]string{"check", "--termbase", tb, "--baseline", out}, pumpsInputs()...)...)
+		assert.Equal(t, 0, r.code, r.stderr)
+		assert.Empty(t, r.stdout)
+		assert.Contains(t, r.stderr, "21 already in the baseline")
+	}
+	// One more use than the baseline holds is new.
+	extra := filepath.Join(dir, "more.txt")
+	require.NoError(t, os.WriteFile(extra, []byte("Fit the magnet valve.\n"), 0o644))
+	r := run(t, "", "check", "--termbase", tb, "-q", "--baseline", filepath.Join(dir, "base.jsonl"), extra)
+	assert.Equal(t, 1, r.code)
+	assert.Contains(t, r.stdout, `more.txt:1:9: error: "magnet valve"`)
+}
+
+func TestCheckUsageErrors(t *testing.T) {
+	tb := pumpsTermbase(t)
+	bad := filepath.Join(t.TempDir(), "bad.jsonl")
+	require.NoError(t, os.WriteFile(bad, []byte("not json\n"), 0o644))
+	for _, args := range [][]string{
+		{"check", pumpsDir},
+		{"check", "--termbase", filepath.Join(t.TempDir(), "none.termbase"), pumpsDir},
+		{"check", "--termbase", tb, "--fail-on", "fatal", pumpsDir},
+		{"check", "--termbase", tb, "--to", "xml", pumpsDir},
+		{"check", "--termbase", tb, "-o", "x.tbx", pumpsDir},
+		{"check", "--termbase", tb, "--baseline", bad, pumpsDir},
+		{"check", "--termbase", tb},
+	} {
+		r := run(t, "", args...)
+		assert.Equal(t, 2, r.code, "%v: %s", args, r.stderr)
+		assert.Empty(t, r.stdout, "%v", args)
+	}
+}
+
+func TestCheckVariantsDemo(t *testing.T) {
+	r := run(t, "", "check", "--variants", "testdata/demo")
+	assert.Equal(t, 0, r.code, "mixed spellings are notes, below --fail-on error: %s", r.stderr)
+	assert.Regexp(t, `(?m)^testdata/demo/[^:]+:\d+:\d+: note: "setpoint" is one of 3 spellings of a term: .* use "set point"$`, r.stdout)
+	r = run(t, "", "check", "--variants", "--fail-on", "note", "-q", "testdata/demo")
+	assert.Equal(t, 1, r.code)
+}
+
+func TestCheckBadInputGoesOn(t *testing.T) {
+	tb := pumpsTermbase(t)
+	r := run(t, "", "check", "--termbase", tb, "-q", "no-such-file.md", pumpsDir+"/field-notes.txt")
+	assert.Equal(t, 1, r.code)
+	assert.Contains(t, r.stderr, "no-such-file.md")
+	assert.Contains(t, r.stdout, "field-notes.txt:3:53: error:")
+}
