@@ -72,7 +72,7 @@ Markdown and plain text, those of the extracted text for HTML, DOCX and PDF.`,
 func (o *checkOptions) register(cmd *cobra.Command) {
 	o.in.register(cmd, true)
 	fl := cmd.Flags()
-	fl.StringVar(&o.termbase, "termbase", os.Getenv("GLOSSMITH_TERMBASE"), "the termbase to check against (default: $GLOSSMITH_TERMBASE)")
+	fl.StringVar(&o.termbase, "termbase", "", "the termbase to check against (default: $"+termbaseEnv+")")
 	fl.StringVar(&o.lang, "lang", "", "check only the termbase's terms of this language (default: every language)")
 	fl.BoolVar(&o.variants, "variants", false, "also report variant groups spelled more than one way (needs no termbase)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(check.Formats, ", ")+" (default: from the -o extension, else text)")
@@ -106,13 +106,16 @@ func (o *checkOptions) validate(cmd *cobra.Command, args []string) error {
 	if err := checkChoice("color", o.color, colorModes); err != nil {
 		return err
 	}
+	if o.termbase == "" {
+		o.termbase = os.Getenv(termbaseEnv)
+	}
 	if o.termbase == "" && !o.variants {
-		return usageError("nothing to check against: give --termbase FILE (or set GLOSSMITH_TERMBASE), --variants, or both")
+		return usageError("nothing to check against: give --termbase FILE (or set %s), --variants, or both", termbaseEnv)
 	}
 	if o.termbase != "" {
 		// Opening a termbase creates a missing one: a checked termbase must exist.
 		if fi, err := os.Stat(o.termbase); err != nil || fi.IsDir() {
-			return usageError("--termbase %s: no termbase file there (glossmith termbase import creates one)", o.termbase)
+			return usageError("--termbase %s: no termbase file there (glossmith termbase --termbase FILE import creates one)", o.termbase)
 		}
 	}
 	if o.baseline != "" {
