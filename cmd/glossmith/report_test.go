@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/csv"
 	"fmt"
+	"glossmith/extract/termbase"
 	"glossmith/internal/testenv"
 	"os"
 	"path/filepath"
@@ -73,6 +74,20 @@ func TestReportInBrowser(t *testing.T) {
 	assert.Equal(t, [][]string{{"term", "decision", "comment"}, {"dosing pump panel", "accept", remark}}, got)
 	screenshot(ctx, dir, "report.png")
 	w.check(t)
+
+	// termbase import reads the remarks back as decisions.
+	csvPath := filepath.Join(dir, "remarks.csv")
+	require.NoError(t, os.WriteFile(csvPath, b, 0o644))
+	tbPath := filepath.Join(dir, "expert.gtb")
+	imp := run(t, "", "termbase", "import", "--termbase", tbPath, csvPath)
+	require.Equal(t, 0, imp.code, imp.stderr)
+	tb, err := termbase.Open(tbPath)
+	require.NoError(t, err)
+	defer tb.Close()
+	es, err := tb.Lookup("dosing pump panel")
+	require.NoError(t, err)
+	require.Len(t, es, 1, "the remark's term is in the termbase")
+	assert.Equal(t, termbase.Preferred, es[0].Terms[0].Status)
 }
 
 // The report of the wind-energy texts of the ACTER gold data (some 2,800

@@ -26,13 +26,14 @@ import (
 
 // reviewOptions are the flags of the review command.
 type reviewOptions struct {
-	in      inputFlags
-	tb      termbaseFlags
-	port    int
-	listen  string
-	open    bool
-	minFreq int
-	all     bool
+	in       inputFlags
+	tb       termbaseFlags
+	runLabel string
+	port     int
+	listen   string
+	open     bool
+	minFreq  int
+	all      bool
 }
 
 // reviewContexts is how many example sentences per candidate the review
@@ -42,7 +43,7 @@ const reviewContexts = 12
 func newReviewCmd() *cobra.Command {
 	o := &reviewOptions{}
 	cmd := &cobra.Command{
-		Use:   "review --termbase FILE [flags] INPUT...",
+		Use:   "review --termbase FILE [flags] INPUT... | --run LABEL",
 		Short: "Review term candidates in the browser, saving each decision to a termbase",
 		Long: `Extracts the term candidates of the inputs (as "terms" lists them), serves a
 review page on this computer only, and prints its address on the first line of
@@ -52,6 +53,7 @@ accept, reject, defer, preferred form, admitted or deprecated variant, merge,
 definition, note, part of speech, undo — is saved to the termbase at once.
 Ctrl-C stops the server.`,
 		Example: `  glossmith review --termbase climate.gtb testdata/demo
+  glossmith review --termbase climate.gtb --run v2
   glossmith review --termbase climate.gtb --open --port 8714 manuals/`,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := o.validate(cmd, args); err != nil {
@@ -63,6 +65,7 @@ Ctrl-C stops the server.`,
 	o.in.register(cmd, true)
 	fl := cmd.Flags()
 	o.tb.register(fl)
+	fl.StringVar(&o.runLabel, "run", "", "review the candidates of this recorded run (terms --record LABEL) instead of reading inputs")
 	fl.IntVar(&o.port, "port", 0, "port to listen on (default: a free one)")
 	fl.StringVar(&o.listen, "listen", "", "listen on this address (host:port) instead of 127.0.0.1 — anyone who can reach it and has the address may read the documents")
 	fl.BoolVar(&o.open, "open", false, "open the page in the default browser")
@@ -93,6 +96,12 @@ func (o *reviewOptions) validate(cmd *cobra.Command, args []string) error {
 	if err := checkRange("min-freq", int64(o.minFreq), 1, -1); err != nil {
 		return err
 	}
+	if o.runLabel != "" {
+		if len(args) > 0 {
+			return usageError("--run %q reviews a recorded run: name no inputs with it", o.runLabel)
+		}
+		return nil
+	}
 	return needInputs(args)
 }
 
@@ -110,8 +119,13 @@ func (o *reviewOptions) run(ctx context.Context, args []string, stdout, stderr i
 		return err
 	}
 	defer tb.Close()
-	ds, runErr := extractForReview(&o.in, args, reviewContexts, terms.RankOptions{MinFreq: o.minFreq, All: o.all})
-	if ds == nil {
+	var ds *review.Dataset
+	var runErr error
+	if o.runLabel != "" {
+		if ds, err = tbstore.FromRun(tb, o.runLabel); err != nil {
+			return exitError{1, err.Error()}
+		}
+	} else if ds, runErr = extractForReview(&o.in, args, reviewContexts, terms.RankOptions{MinFreq: o.minFreq, All: o.all}); ds == nil {
 		return runErr
 	}
 	if runErr != nil {

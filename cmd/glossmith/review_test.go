@@ -2,9 +2,11 @@ package main
 
 import (
 	"bufio"
+	"encoding/json"
 	"fmt"
 	"io"
 	"net/http"
+	"net/http/cookiejar"
 	"net/url"
 	"os/exec"
 	"path/filepath"
@@ -120,6 +122,15 @@ func TestReviewPageInBrowser(t *testing.T) {
 	counter, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-counter")))
 	require.NoError(t, err)
 	assert.True(t, strings.HasPrefix(counter, "4 / "), "reviewed counter: %q", counter)
+
+	// "?" lists the keys; Escape closes the list.
+	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("?"), chromedp.WaitVisible(chromedp.ID("gs-help"))))
+	keys, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-help")))
+	require.NoError(t, err)
+	for _, k := range []string{"accept", "reject", "defer", "preferred form", "admitted", "deprecated", "merge", "definition", "note", "part of speech", "undo"} {
+		assert.Contains(t, keys, k, "the key list")
+	}
+	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("\x1b"), chromedp.WaitNotPresent(chromedp.ID("gs-help"))))
 
 	// Merge "dripper" with "emitter" by key (g, a few letters, Enter);
 	// undo it by key; merge again by the button.
@@ -269,4 +280,36 @@ func checkRequests(t *testing.T, srv *reviewServer) {
 		resp.Body.Close()
 		assert.Equal(t, c.want, resp.StatusCode, c.what)
 	}
+}
+
+// --run reviews a run recorded with terms --record: its candidates, as
+// the page's data, without reading the documents again.
+func TestReviewRecordedRun(t *testing.T) {
+	tbPath := filepath.Join(t.TempDir(), "runs.gtb")
+	rec := run(t, "", "terms", "-q", "--termbase", tbPath, "--record", "v1", "--to", "tsv", "testdata/demo")
+	require.Equal(t, 0, rec.code, rec.stderr)
+	bad := run(t, "", "review", "--termbase", tbPath, "--run", "v1", "testdata/demo")
+	assert.Equal(t, 2, bad.code, "--run with inputs: %s", bad.stderr)
+	srv := startReview(t, tbPath, "--run", "v1")
+	jar, err := cookiejar.New(nil)
+	require.NoError(t, err)
+	c := &http.Client{Jar: jar}
+	resp, err := c.Get(srv.url)
+	require.NoError(t, err)
+	resp.Body.Close()
+	resp, err = c.Get(srv.origin + "/api/data")
+	require.NoError(t, err)
+	defer resp.Body.Close()
+	var data struct {
+		Source string `json:"source"`
+		Cands  []struct {
+			Term string `json:"term"`
+			Freq int    `json:"freq"`
+		} `json:"cands"`
+	}
+	require.NoError(t, json.NewDecoder(resp.Body).Decode(&data))
+	assert.Contains(t, data.Source, `run "v1"`)
+	require.NotEmpty(t, data.Cands)
+	assert.Equal(t, "valve", data.Cands[0].Term, "the most frequent candidate first")
+	assert.Equal(t, 135, data.Cands[0].Freq)
 }

@@ -142,10 +142,17 @@ func lowerWords(t *terms.Term) []string {
 // words, lower-cased, are a contiguous run of A's. Candidates are a few
 // words long, so every run of every candidate is looked up in a map.
 func nest(ranked []*terms.Term, details []Detail) {
-	byWords := make(map[string]int, len(ranked))
 	words := make([][]string, len(ranked))
 	for i, t := range ranked {
 		words[i] = lowerWords(t)
+	}
+	nestWords(words, details)
+}
+
+// nestWords is nest over each candidate's lower-cased words.
+func nestWords(words [][]string, details []Detail) {
+	byWords := make(map[string]int, len(words))
+	for i := range words {
 		k := strings.Join(words[i], " ")
 		if _, dup := byWords[k]; !dup {
 			byWords[k] = i
@@ -220,4 +227,45 @@ func addCollocates(ranked []*terms.Term, details []Detail, pairs *colloc.Counter
 			}
 		}
 	}
+}
+
+// Listed is a candidate as a recorded run keeps it: totals, forms and a
+// few contexts, no measures and no counts per document.
+type Listed struct {
+	Term     string
+	POS      string
+	Freq     int
+	Docs     int
+	Variants []terms.Variant
+	Contexts []terms.Context
+}
+
+// FromList makes the dataset of candidates recorded earlier, in the order
+// given (ranked 1, 2, …). The documents are those the contexts name.
+func FromList(source string, list []Listed) *Dataset {
+	ds := &Dataset{Source: source, Candidates: make([]Candidate, len(list)), Details: make([]Detail, len(list))}
+	docIdx := map[string]int{}
+	words := make([][]string, len(list))
+	for i, c := range list {
+		ws := strings.Fields(c.Term)
+		ds.Candidates[i] = Candidate{ID: i, Rank: i + 1, Term: c.Term, POS: c.POS, Words: len(ws), Freq: c.Freq, Docs: c.Docs}
+		for k, w := range ws {
+			ws[k] = strings.ToLower(w)
+		}
+		words[i] = ws
+		d := &ds.Details[i]
+		d.Variants = c.Variants
+		for _, cx := range c.Contexts {
+			di, ok := docIdx[cx.Doc]
+			if !ok {
+				di = len(ds.Docs)
+				docIdx[cx.Doc] = di
+				ds.Docs = append(ds.Docs, cx.Doc)
+				ds.DocSizes = append(ds.DocSizes, 0)
+			}
+			d.Contexts = append(d.Contexts, Context{Doc: di, Line: cx.Line, Text: cx.Text})
+		}
+	}
+	nestWords(words, ds.Details)
+	return ds
 }

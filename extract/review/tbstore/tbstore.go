@@ -8,6 +8,7 @@ import (
 
 	"glossmith/extract/review"
 	"glossmith/extract/termbase"
+	"glossmith/extract/terms"
 )
 
 // Store is a termbase seen as a review.Store. The statuses are the
@@ -169,4 +170,28 @@ func (s *Store) proposal(term string) termbase.Proposal {
 func (s *Store) Undo() (bool, error) {
 	done, err := s.tb.Undo(1)
 	return len(done) > 0, err
+}
+
+// FromRun is the review dataset of a run recorded in the termbase
+// (`terms --record LABEL`): its candidates, most frequent first, with
+// their forms and contexts.
+func FromRun(tb *termbase.Store, label string) (*review.Dataset, error) {
+	run, rts, err := tb.RunTerms(label)
+	if err != nil {
+		return nil, err
+	}
+	list := make([]review.Listed, len(rts))
+	for i, rt := range rts {
+		l := review.Listed{Term: rt.Term, POS: rt.POS, Freq: rt.Freq, Docs: rt.Docs}
+		for _, f := range rt.Forms {
+			l.Variants = append(l.Variants, terms.Variant{Form: f.Text, Count: f.Count})
+		}
+		for _, c := range rt.Contexts {
+			l.Contexts = append(l.Contexts, terms.Context{Doc: c.Doc, Line: c.Line, Text: c.Text})
+		}
+		list[i] = l
+	}
+	src := fmt.Sprintf("run %q of %s: %d candidates from %d document(s), %d words", run.Label,
+		run.Time.Format("2 January 2006 15:04"), len(list), run.Documents, run.Tokens)
+	return review.FromList(src, list), nil
 }

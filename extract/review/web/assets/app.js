@@ -321,6 +321,7 @@
   // of each bar names the document.
   function spreadChart(d) {
     const docs = S.data.docs, n = docs.length;
+    if (!d.perDoc || !d.perDoc.length) return el('div', { class: 'gs-empty', text: 'no counts per document (a recorded run keeps totals only)' });
     const counts = new Array(n).fill(0);
     (d.perDoc || []).forEach(p => { counts[p[0]] = p[1]; });
     const top = Math.max(1, ...counts);
@@ -463,9 +464,9 @@
   function actions() {
     const live = S.src.live;
     const list = [
-      { id: 'accept', key: 'y', button: 'Accept', cls: 'yes', help: 'accept the candidate as a term and go to the next', run: decide('accept', true) },
+      { id: 'accept', key: 'y', button: 'Accept', cls: 'yes', help: 'accept the candidate as a term, go to the next', run: decide('accept', true) },
       { id: 'reject', key: 'n', button: 'Reject', cls: 'no', help: 'reject the candidate and go to the next', run: decide('reject', true) },
-      { id: 'defer', key: 'w', button: 'Defer', help: 'put the decision off (wait) and go to the next', run: decide('defer', true) }
+      { id: 'defer', key: 'w', button: 'Defer', help: 'defer: put the decision off (wait), go to the next', run: decide('defer', true) }
     ];
     if (live) {
       list.push(
@@ -480,7 +481,7 @@
       list.push({ id: 'note', key: 'o', help: 'write a remark on the term', run: () => { const t = document.getElementById('gs-remark'); if (t) t.focus(); } });
     }
     list.push(
-      { id: 'undo', key: 'z', button: 'Undo', help: 'take back the latest change', run: undo },
+      { id: 'undo', key: 'z', button: 'Undo', help: 'undo: take back the latest change', run: undo },
       { id: 'down', key: '↓', help: 'next candidate', run: () => move(1) },
       { id: 'up', key: '↑', help: 'previous candidate', run: () => move(-1) },
       { id: 'next', key: ']', help: 'next page', run: () => turn(1) },
