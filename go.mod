@@ -3,6 +3,7 @@ module glossmith
 go 1.26.0
 
 require (
+	github.com/alecthomas/participle/v2 v2.1.4
 	github.com/chromedp/cdproto v0.160.1
 	github.com/chromedp/chromedp v0.23.1
 	github.com/santhosh-tekuri/jsonschema/v6 v6.0.3

@@ -5,6 +5,8 @@ import (
 	"strings"
 	"unicode"
 
+	"github.com/alecthomas/participle/v2/lexer"
+
 	"glossmith/internal/suggest"
 )
 
@@ -108,12 +110,249 @@ func wordTest(p Pos, kind TestKind, w string) *Test {
 	return &Test{Pos: p, Kind: kind, Value: w}
 }
 
+// converter turns participle's parse tree of one run of statements into
+// the AST and appends it to f. Positions in the tree are offsets in the
+// text handed to the parser, which starts at byte base of f's source.
+type converter struct {
+	f    *File
+	base int
+	errs *ErrorList
+}
+
+func (c *converter) pos(off int) Pos { return c.f.lines.pos(off) }
+
+// at returns the source offset of a position in the parsed text.
+func (c *converter) at(p lexer.Position) int { return c.base + p.Offset }
+
+func (c *converter) errorf(off int, format string, args ...any) {
+	c.f.lines.errorf(c.errs, off, format, args...)
+}
+
+func (c *converter) file(pf *pFile) {
+	for _, st := range pf.Stmts {
+		switch {
+		case st.Use != nil:
+			c.use(st.Use)
+		case st.Example != nil:
+			c.example(st.Example)
+		case st.Rule != nil:
+			c.rule(st.Rule)
+		}
+	}
+}
+
+func (c *converter) use(pu *pUse) {
+	u := &Use{Pos: c.pos(c.at(pu.Pos))}
+	if pu.Path != nil {
+		s, ok := unquote(pu.Path.Value)
+		if !ok || strings.HasPrefix(pu.Path.Value, "'") {
+			c.errorf(c.at(pu.Path.Pos), "use takes a file name in double quotes or `stock NAME`")
+			return
+		}
+		u.Path = s
+	} else {
+		u.Stock = pu.Stock.Value
+	}
+	c.f.Uses = append(c.f.Uses, u)
+}
+
+func (c *converter) example(pe *pExample) {
+	ex := &Example{Pos: c.pos(c.at(pe.Pos)), Expect: pe.Kind == "expect", Rule: pe.Rule}
+	var raw string
+	var rawOff int
+	if pe.Field != nil { // expect rule:"text", without a space after the colon
+		i := strings.IndexByte(pe.Field.Value, ':')
+		ex.Rule, raw, rawOff = pe.Field.Value[:i], pe.Field.Value[i+1:], c.at(pe.Field.Pos)+i+1
+	} else {
+		raw, rawOff = pe.Text.Value, c.at(pe.Text.Pos)
+	}
+	if !strings.HasPrefix(raw, `"`) {
+		c.errorf(rawOff, "an example's text goes in double quotes")
+		return
+	}
+	text, span, msg := parseExampleText(raw[1:len(raw)-1], ex.Expect)
+	if msg != "" {
+		c.errorf(rawOff, "%s", msg)
+		return
+	}
+	ex.Text, ex.Span = text, span
+	c.f.Examples = append(c.f.Examples, ex)
+}
+
+func (c *converter) rule(pr *pRule) {
+	off := c.at(pr.Pos)
+	r := &Rule{Name: pr.Name, Pos: c.pos(off)}
+	r.Expr = c.alt(pr.Body)
+	r.End = c.pos(c.at(pr.EndPos))
+	if reserved[r.Name] {
+		c.errorf(off, "%q is a reserved word and cannot name a rule", r.Name)
+	} else if IsUPOS(r.Name) {
+		c.errorf(off, "%s is a UPOS tag and cannot name a rule", r.Name)
+	}
+	r.Doc = c.f.docAbove(r.Pos.Line)
+	c.f.Rules = append(c.f.Rules, r)
+}
+
+// Positions are computed as a node starts, in the order of the source,
+// which keeps lineTable.pos from counting a long line again.
+
+func (c *converter) alt(pa *pAlt) Node {
+	if len(pa.Seqs) == 1 {
+		return c.seq(pa.Seqs[0])
+	}
+	a := &Alt{Pos: c.pos(c.at(pa.Pos))}
+	for _, s := range pa.Seqs {
+		a.Alts = append(a.Alts, c.seq(s))
+	}
+	return a
+}
+
+func (c *converter) seq(ps *pSeq) Node {
+	if len(ps.Elems) == 1 {
+		return c.elem(ps.Elems[0])
+	}
+	s := &Seq{Pos: c.pos(c.at(ps.Pos))}
+	for _, e := range ps.Elems {
+		s.Items = append(s.Items, c.elem(e))
+	}
+	return s
+}
+
+// elem converts [ Label ] Conj [ Quant ].
+func (c *converter) elem(pe *pElem) Node {
+	var labelPos Pos
+	if pe.Label != "" {
+		labelPos = c.pos(c.at(pe.Pos))
+	}
+	n := c.conj(pe.Conj)
+	if q := pe.Quant; q != nil {
+		n = c.quant(q, n)
+	}
+	if pe.Label != "" {
+		if _, ok := n.(*Anchor); ok {
+			c.errorf(c.at(pe.Pos), "a label cannot name an anchor (^ or $): it covers no token")
+		}
+		n = &Label{Pos: labelPos, Name: pe.Label[1:], Sub: n}
+	}
+	return n
+}
+
+func (c *converter) quant(q *pQuant, n Node) Node {
+	off := c.at(q.Pos)
+	if _, ok := n.(*Anchor); ok {
+		c.errorf(off, "an anchor (^ or $) cannot be repeated")
+	}
+	r := &Repeat{Pos: c.pos(off), Sub: n}
+	switch q.Op {
+	case "?":
+		r.Min, r.Max = 0, 1
+	case "*":
+		r.Min, r.Max = 0, -1
+	case "+":
+		r.Min, r.Max = 1, -1
+	default: // {n}, {n,}, {n,m}
+		r.Min = c.count(q.Min, off)
+		switch {
+		case !q.Comma:
+			r.Max = r.Min
+		case q.Max == "":
+			r.Max = -1
+		default:
+			r.Max = c.count(q.Max, off)
+			if r.Max < r.Min {
+				c.errorf(off, "bad repetition {%s,%s}: the upper bound is below the lower one", q.Min, q.Max)
+			}
+		}
+	}
+	return r
+}
+
+func (c *converter) count(s string, off int) int {
+	n := 0
+	for _, d := range []byte(s) {
+		n = n*10 + int(d-'0')
+		if n > MaxRepeat {
+			c.errorf(off, "bad repetition count %s: at most %d", s, MaxRepeat)
+			return MaxRepeat
+		}
+	}
+	return n
+}
+
+func (c *converter) conj(pc *pConj) Node {
+	if len(pc.Terms) == 1 {
+		return c.not(pc.Terms[0])
+	}
+	a := &And{Pos: c.pos(c.at(pc.Pos))}
+	for _, t := range pc.Terms {
+		a.Subs = append(a.Subs, c.not(t))
+	}
+	return a
+}
+
+// not converts { "!" } Atom: one Not node per "!".
+func (c *converter) not(pn *pNot) Node {
+	var pos Pos
+	if len(pn.Bangs) > 0 {
+		pos = c.pos(c.at(pn.Pos))
+	}
+	n := c.atom(pn.Atom)
+	for range pn.Bangs {
+		n = &Not{Pos: pos, Sub: n}
+	}
+	return n
+}
+
+func (c *converter) atom(pa *pAtom) Node {
+	off := c.at(pa.Pos)
+	switch {
+	case pa.Group != nil:
+		return c.alt(pa.Group)
+	case pa.Field != "":
+		return c.field(off, pa.Field)
+	}
+	pos := c.pos(off)
+	switch {
+	case pa.Regex != "":
+		return c.regexTest(off, WordRe, pa.Regex[1:len(pa.Regex)-1])
+	case pa.Str != "" || pa.Raw != "":
+		raw, kind := pa.Str, Word
+		if raw == "" {
+			raw, kind = pa.Raw, WordExact
+		}
+		s, _ := unquote(raw)
+		words := strings.Fields(s)
+		if len(words) == 0 {
+			c.errorf(off, "empty word: a quoted word needs at least one character")
+			return &Test{Pos: pos, Kind: Any}
+		}
+		if len(words) == 1 {
+			return wordTest(pos, kind, words[0])
+		}
+		// A quoted string with spaces is a sequence of words: "in order to".
+		seq := &Seq{Pos: pos}
+		for _, w := range words {
+			seq.Items = append(seq.Items, wordTest(pos, kind, w))
+		}
+		return seq
+	case pa.Begin:
+		return &Anchor{Pos: pos}
+	case pa.End:
+		return &Anchor{Pos: pos, End: true}
+	case pa.Ident == "_":
+		return &Test{Pos: pos, Kind: Any}
+	case IsUPOS(pa.Ident):
+		return &Test{Pos: pos, Kind: UPOS, Value: pa.Ident}
+	}
+	return &Ref{Pos: pos, Name: pa.Ident}
+}
+
 // field turns a field token (xpos:NNS, lemma:/^valv/, …) into its test.
-func (p *parser) field(t token) Node {
-	pos := p.pos(t.off)
-	i := strings.IndexByte(t.text, ':')
-	key, val := t.text[:i], t.text[i+1:]
-	vpos := t.off + i + 1
+func (c *converter) field(off int, text string) Node {
+	pos := c.pos(off)
+	i := strings.IndexByte(text, ':')
+	key, val := text[:i], text[i+1:]
+	vpos := off + i + 1
 	isRe := strings.HasPrefix(val, "/")
 	if isRe {
 		val = val[1 : len(val)-1]
@@ -121,26 +360,26 @@ func (p *parser) field(t token) Node {
 		val, _ = unquote(val)
 	}
 	if !isRe && val == "" {
-		p.errorf(vpos, "%s: needs a value", key)
+		c.errorf(vpos, "%s: needs a value", key)
 		return &Test{Pos: pos, Kind: Any}
 	}
 	switch key {
 	case "xpos":
 		if isRe {
-			return p.regexTest(vpos, XPOSRe, val)
+			return c.regexTest(vpos, XPOSRe, val)
 		}
 		return &Test{Pos: pos, Kind: XPOS, Value: val}
 	case "lemma":
 		if isRe {
-			return p.regexTest(vpos, LemmaRe, val)
+			return c.regexTest(vpos, LemmaRe, val)
 		}
 		return &Test{Pos: pos, Kind: Lemma, Value: strings.ToLower(val)}
 	case "chars":
 		if isRe {
-			return p.regexTest(vpos, CharsRe, val)
+			return c.regexTest(vpos, CharsRe, val)
 		}
 		if msg := checkChars(val); msg != "" {
-			p.errorf(vpos, "chars:%s %s", val, msg)
+			c.errorf(vpos, "chars:%s %s", val, msg)
 			return &Test{Pos: pos, Kind: Any}
 		}
 		return &Test{Pos: pos, Kind: Chars, Value: val}
@@ -150,7 +389,7 @@ func (p *parser) field(t token) Node {
 			kind = Ends
 		}
 		if isRe {
-			p.errorf(vpos, "%s: takes plain letters, not a regular expression (use /…/ for the word instead)", key)
+			c.errorf(vpos, "%s: takes plain letters, not a regular expression (use /…/ for the word instead)", key)
 		}
 		return &Test{Pos: pos, Kind: kind, Value: strings.ToLower(val)}
 	}
@@ -162,19 +401,19 @@ func (p *parser) field(t token) Node {
 	} else {
 		msg += " (known: " + strings.Join(fieldNames(), ", ") + ")"
 	}
-	p.errorf(t.off, "%s", msg)
+	c.errorf(off, "%s", msg)
 	return &Test{Pos: pos, Kind: Any}
 }
 
-func (p *parser) regexTest(off int, kind TestKind, expr string) Node {
+func (c *converter) regexTest(off int, kind TestKind, expr string) Node {
 	re, err := regexp.Compile(expr)
 	if err != nil {
 		msg := err.Error()
 		msg = strings.TrimPrefix(msg, "error parsing regexp: ")
-		p.errorf(off, "bad regular expression /%s/: %s", expr, msg)
-		return &Test{Pos: p.pos(off), Kind: Any}
+		c.errorf(off, "bad regular expression /%s/: %s", expr, msg)
+		return &Test{Pos: c.pos(off), Kind: Any}
 	}
-	return &Test{Pos: p.pos(off), Kind: kind, Value: expr, Re: re}
+	return &Test{Pos: c.pos(off), Kind: kind, Value: expr, Re: re}
 }
 
 // unquote removes the quotes of a "…" or '…' token and resolves backslash

@@ -541,28 +541,29 @@ func ParsePattern(src string, base *RuleSet) (*RuleSet, error) {
 	if strings.ContainsAny(src, "\n\r") {
 		return nil, ErrorList{{Pos: start, Msg: "a pattern is one line", Source: firstLine(src)}}
 	}
-	p := &parser{f: f, sc: scanner{src: src}, pattern: true}
-	r := &Rule{Name: PatternRule, Pos: start}
-	off, msg, ok := p.try(func() {
-		if p.peek().kind == tEOF {
-			p.fail(0, "empty pattern: give a rule body, as in 'ADJ* NOUN'")
-		}
-		r.Expr = p.alt(0)
-		if t := p.next(); t.kind != tEOF {
-			p.unexpected(t, "")
-		}
-	})
-	if !ok {
-		f.lines.errorf(&p.errs, off, "%s", msg)
-		p.errs.Sort()
-		return nil, p.errs
+	var errs ErrorList
+	if strings.TrimSpace(src) == "" {
+		errs.Add(start, src, "empty pattern: give a rule body, as in 'ADJ* NOUN'")
+		return nil, errs
 	}
+	r := &Rule{Name: PatternRule, Pos: start}
+	if off, msg := checkNesting(f.Name, src); msg != "" {
+		f.lines.errorf(&errs, off, "%s", msg)
+		return nil, errs
+	}
+	pp, err := patternParser.ParseString(f.Name, src)
+	if err != nil {
+		f.lines.errorf(&errs, errorOffset(err, len(src)), "%s", parseMessage(err, true))
+		return nil, errs
+	}
+	c := converter{f: f, errs: &errs}
+	r.Expr = c.alt(pp.Body)
 	r.End = f.lines.pos(len(src))
 	f.Rules = []*Rule{r}
-	f.checkLocal(&p.errs)
-	if len(p.errs) > 0 {
-		p.errs.Sort()
-		return nil, p.errs
+	f.checkLocal(&errs)
+	if len(errs) > 0 {
+		errs.Sort()
+		return nil, errs
 	}
 	l := newLoader()
 	if base != nil {

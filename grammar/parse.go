@@ -1,11 +1,15 @@
 package grammar
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"os"
 	"regexp"
 	"strings"
+
+	"github.com/alecthomas/participle/v2"
+	"github.com/alecthomas/participle/v2/lexer"
 )
 
 // File is one parsed rule file.
@@ -104,446 +108,334 @@ func readRuleFile(path string) ([]byte, error) {
 // maxParseErrors bounds the syntax errors reported for one file.
 const maxParseErrors = 50
 
+// The rule language's tokens. Comments and white space are dropped before
+// the grammar sees the tokens. Field tokens carry key, colon and value in
+// one, so that `xpos:NN` and `xpos: NN` cannot be confused.
+var gsrLexer = lexer.MustSimple([]lexer.SimpleRule{
+	{Name: "Comment", Pattern: `#[^\n]*`},
+	{Name: "Whitespace", Pattern: `[ \t\r\n]+`},
+	// A chars: value may hold '+' (a run of one class, as in chars:Aa+).
+	{Name: "CharsField", Pattern: `chars:(?:/(?:\\.|[^/\\\n])*/|"(?:\\.|[^"\\\n])*"|'(?:\\.|[^'\\\n])*'|[^\s;|&()!{}*?#"'/@\[\]]+)`},
+	{Name: "Field", Pattern: `[A-Za-z_][A-Za-z0-9_]*:(?:/(?:\\.|[^/\\\n])*/|"(?:\\.|[^"\\\n])*"|'(?:\\.|[^'\\\n])*'|[^\s;|&()!{}*+?#"'/@\[\]]+)`},
+	{Name: "Ident", Pattern: `[A-Za-z_][A-Za-z0-9_]*`},
+	{Name: "Label", Pattern: `@[A-Za-z_][A-Za-z0-9_]*`},
+	{Name: "String", Pattern: `"(?:\\.|[^"\\\n])*"`},
+	{Name: "Raw", Pattern: `'(?:\\.|[^'\\\n])*'`},
+	{Name: "Regex", Pattern: `/(?:\\.|[^/\\\n])*/`},
+	{Name: "Number", Pattern: `[0-9]+`},
+	{Name: "Punct", Pattern: `[|&!?*+(){},:;^$=]`},
+	// Anything else becomes a Bad token, so that the parser (not the lexer)
+	// reports it with a clear message.
+	{Name: "Unterminated", Pattern: `["'/][^\n]*`},
+	{Name: "Bad", Pattern: `.`},
+})
+
+// The grammar, as participle structs; convert.go turns a parsed statement
+// into the AST of ast.go.
+type pFile struct {
+	Stmts []*pStmt `parser:"@@*"`
+}
+
+type pStmt struct {
+	Use     *pUse     `parser:"@@"`
+	Example *pExample `parser:"| @@"`
+	Rule    *pRule    `parser:"| @@"`
+}
+
+type pUse struct {
+	Pos   lexer.Position
+	Stock *pToken `parser:"\"use\" ( \"stock\" @@"`
+	Path  *pStr   `parser:"| @@ ) \";\"?"`
+}
+
+// pToken captures one name with its position.
+type pToken struct {
+	Pos   lexer.Position
+	Value string `parser:"@Ident"`
+}
+
+// pStr captures one quoted string with its position.
+type pStr struct {
+	Pos   lexer.Position
+	Value string `parser:"@(String | Raw)"`
+}
+
+type pExample struct {
+	Pos   lexer.Position
+	Kind  string  `parser:"@(\"expect\" | \"reject\")"`
+	Rule  string  `parser:"( @Ident \":\""`
+	Text  *pStr   `parser:"@@"`
+	Field *pField `parser:"| @@ ) \";\""`
+}
+
+type pField struct {
+	Pos   lexer.Position
+	Value string `parser:"@(Field | CharsField)"`
+}
+
+type pRule struct {
+	Pos    lexer.Position
+	EndPos lexer.Position // just past the ';'
+	Name   string         `parser:"@Ident \"=\""`
+	Body   *pAlt          `parser:"@@ \";\""`
+}
+
+// pPattern is a rule body on its own, as given on the command line.
+type pPattern struct {
+	Body *pAlt `parser:"@@"`
+}
+
+type pAlt struct {
+	Pos  lexer.Position
+	Seqs []*pSeq `parser:"@@ ( \"|\" @@ )*"`
+}
+
+type pSeq struct {
+	Pos   lexer.Position
+	Elems []*pElem `parser:"@@+"`
+}
+
+type pElem struct {
+	Pos   lexer.Position
+	Label string  `parser:"@Label?"`
+	Conj  *pConj  `parser:"@@"`
+	Quant *pQuant `parser:"@@?"`
+}
+
+type pQuant struct {
+	Pos   lexer.Position
+	Op    string `parser:"(  @(\"?\" | \"*\" | \"+\")"`
+	Min   string `parser:"| \"{\" @Number"`
+	Comma bool   `parser:"@\",\"?"`
+	Max   string `parser:"@Number? \"}\" )"`
+}
+
+type pConj struct {
+	Pos   lexer.Position
+	Terms []*pNot `parser:"@@ ( \"&\" @@ )*"`
+}
+
+type pNot struct {
+	Pos   lexer.Position
+	Bangs []string `parser:"@\"!\"*"`
+	Atom  *pAtom   `parser:"@@"`
+}
+
+type pAtom struct {
+	Pos   lexer.Position
+	Group *pAlt  `parser:"\"(\" @@ \")\""`
+	Field string `parser:"| @(Field | CharsField)"`
+	Regex string `parser:"| @Regex"`
+	Str   string `parser:"| @String"`
+	Raw   string `parser:"| @Raw"`
+	Begin bool   `parser:"| @\"^\""`
+	End   bool   `parser:"| @\"$\""`
+	Ident string `parser:"| @Ident"`
+}
+
+var (
+	fileParser = participle.MustBuild[pFile](
+		participle.Lexer(gsrLexer),
+		participle.Elide("Comment", "Whitespace"),
+	)
+	patternParser = participle.MustBuild[pPattern](
+		participle.Lexer(gsrLexer),
+		participle.Elide("Comment", "Whitespace"),
+	)
+)
+
 // ParseString parses src as a rule file called name. Syntax errors do not
 // stop the parse: the statement in error is skipped up to its `;` (or the
 // next line that starts a statement) and parsing goes on, so that one run
 // reports every broken statement. The error, if not nil, is an ErrorList.
 //
-// The parser is a hand-written recursive descent over a scanner that reads
-// each byte once; with nesting bounded by MaxNesting its time is linear in
-// the size of src.
+// The file is handed to the participle parser one statement at a time (up
+// to and including the next `;` outside comments, strings and regular
+// expressions, or up to the next line that starts a statement), and each statement's nesting of ( and ! is checked against
+// MaxNesting before it is parsed, so the time and memory of a parse are
+// linear in the size of src whatever it holds.
 func ParseString(name, src string) (*File, error) {
 	f := &File{Name: name, Src: src, lines: newLineTable(name, src)}
-	p := &parser{f: f, sc: scanner{src: src}}
+	var errs ErrorList
+	from := 0
 	if strings.HasPrefix(src, "\ufeff") { // a byte order mark, as some editors write
-		p.sc.off = len("\ufeff")
+		from = len("\ufeff")
 	}
+	// Lines that begin a statement bound a run of statements too, so that
+	// an unterminated string, which hides its line's `;`, costs one line.
+	starts := statementStart.FindAllStringIndex(src, -1)
 	syntaxErrors := 0
-	for p.peek().kind != tEOF {
-		off, msg, ok := p.statement()
+	for from < len(src) {
+		for len(starts) > 0 && starts[0][0] <= from {
+			starts = starts[1:]
+		}
+		end, cut := len(src), false
+		if len(starts) > 0 {
+			end, cut = starts[0][0], true
+		}
+		if semi := nextSemicolon(src[:end], from); semi >= 0 {
+			end, cut = semi+1, false
+		}
+		off, msg, ok := f.parseStatements(src[from:end], from, &errs)
+		if !ok && cut && off == end {
+			// A rule whose `;` is missing runs into the next line's
+			// statement: parse on to the next `;`, so that the error
+			// points where the parser meets the next statement.
+			end = len(src)
+			if semi := nextSemicolon(src, from); semi >= 0 {
+				end = semi + 1
+			}
+			off, msg, ok = f.parseStatements(src[from:end], from, &errs)
+		}
 		if ok {
+			from = end
 			continue
 		}
-		f.lines.errorf(&p.errs, off, "%s", msg)
+		f.lines.errorf(&errs, off, "%s", msg)
 		syntaxErrors++
 		next := resumeAfter(src, off)
 		if next < 0 || syntaxErrors >= maxParseErrors {
 			break
 		}
-		p.sc.off, p.ahead = next, nil
+		from = next
 	}
-	f.checkLocal(&p.errs)
-	p.errs.Sort()
-	return f, p.errs.Err()
+	f.checkLocal(&errs)
+	errs.Sort()
+	return f, errs.Err()
 }
 
-// parser builds the syntax tree of one file straight from the tokens.
-type parser struct {
-	f     *File
-	sc    scanner
-	ahead []token // tokens read ahead, at most two
-	errs  ErrorList
-	// stmt collects the errors of the statement being read; they are kept
-	// only if the statement is read to its end (a syntax error drops the
-	// statement and them).
-	stmt ErrorList
-	// pattern is set when the source is one rule body given on the
-	// command line, which messages call a pattern.
-	pattern bool
-}
-
-// syntaxError stops the statement being read; statement recovers it.
-type syntaxError struct {
-	off int
-	msg string
-}
-
-func (p *parser) peek() token { return p.peekN(0) }
-
-func (p *parser) peekN(n int) token {
-	for len(p.ahead) <= n {
-		p.ahead = append(p.ahead, p.sc.next())
+// parseStatements parses chunk, the statements of f's source from offset
+// base on, and adds them to f. On a syntax error it adds nothing and
+// returns the error's offset in the source and its message.
+func (f *File) parseStatements(chunk string, base int, errs *ErrorList) (off int, msg string, ok bool) {
+	if off, msg := checkNesting(f.Name, chunk); msg != "" {
+		return base + off, msg, false
 	}
-	return p.ahead[n]
-}
-
-func (p *parser) next() token {
-	t := p.peek()
-	p.ahead = p.ahead[1:]
-	return t
-}
-
-func (p *parser) fail(off int, format string, args ...any) {
-	panic(syntaxError{off, fmt.Sprintf(format, args...)})
-}
-
-// unexpected stops the statement at t, naming what was expected (a
-// punctuation character) when there is one thing to name.
-func (p *parser) unexpected(t token, expected string) {
-	p.fail(t.off, "%s", unexpectedMessage(t, expected, p.pattern))
-}
-
-// expect reads the punctuation character want or stops the statement.
-func (p *parser) expect(want string) token {
-	t := p.next()
-	if t.kind != tPunct || t.text != want {
-		p.unexpected(t, want)
+	pf, err := fileParser.ParseString(f.Name, chunk)
+	if err != nil {
+		return base + errorOffset(err, len(chunk)), parseMessage(err, false), false
 	}
-	return t
-}
-
-// errorf records a problem that does not stop the statement.
-func (p *parser) errorf(off int, format string, args ...any) {
-	p.f.lines.errorf(&p.stmt, off, format, args...)
-}
-
-func (p *parser) pos(off int) Pos { return p.f.lines.pos(off) }
-
-// statement reads one statement; on a syntax error it returns the offset
-// and message with ok false.
-func (p *parser) statement() (off int, msg string, ok bool) {
-	return p.try(p.readStatement)
-}
-
-// try runs read, which reads one statement, and catches its syntax error.
-// The statement's other errors are kept only when it is read whole.
-func (p *parser) try(read func()) (off int, msg string, ok bool) {
-	p.stmt = p.stmt[:0]
-	defer func() {
-		if r := recover(); r != nil {
-			se, isSyntax := r.(syntaxError)
-			if !isSyntax {
-				panic(r)
-			}
-			off, msg, ok = se.off, se.msg, false
-		}
-	}()
-	read()
-	p.errs = append(p.errs, p.stmt...)
+	c := converter{f: f, base: base, errs: errs}
+	c.file(pf)
 	return 0, "", true
 }
 
-func (p *parser) readStatement() {
-	t := p.next()
-	isRule := p.peek().kind == tPunct && p.peek().text == "="
-	switch {
-	case t.kind == tIdent && t.text == "use" && !isRule:
-		p.use(t)
-	case t.kind == tIdent && (t.text == "expect" || t.text == "reject") && !isRule:
-		p.example(t)
-	case t.kind == tIdent && isRule:
-		p.rule(t)
-	default:
-		p.unexpected(t, "")
+// checkNesting returns the offset and message of the first ( or ! in src
+// that nests deeper than MaxNesting, or "" when there is none. Each ! is a
+// level for the atom that follows it, each ( a level up to its ). The
+// check runs on the tokens, before the parser, whose recursion it bounds.
+func checkNesting(name, src string) (int, string) {
+	lx, err := gsrLexer.LexString(name, src)
+	if err != nil {
+		return 0, ""
 	}
-}
-
-func (p *parser) use(kw token) {
-	u := &Use{Pos: p.pos(kw.off)}
-	t := p.next()
-	switch {
-	case t.kind == tIdent && t.text == "stock":
-		name := p.next()
-		if name.kind != tIdent {
-			p.unexpected(name, "")
+	depth, bangs := 0, 0
+	var open []int // the bangs before each open (
+	for {
+		t, err := lx.Next()
+		if err != nil || t.EOF() {
+			return 0, ""
 		}
-		u.Stock = name.text
-	case t.kind == tString || t.kind == tRaw:
-		s, ok := unquote(t.text)
-		if !ok || t.kind == tRaw {
-			p.errorf(t.off, "use takes a file name in double quotes or `stock NAME`")
-			u = nil
-		} else {
-			u.Path = s
-		}
-	default:
-		p.unexpected(t, "")
-	}
-	if n := p.peek(); n.kind == tPunct && n.text == ";" {
-		p.next()
-	}
-	if u != nil {
-		p.f.Uses = append(p.f.Uses, u)
-	}
-}
-
-func (p *parser) example(kw token) {
-	ex := &Example{Pos: p.pos(kw.off), Expect: kw.text == "expect"}
-	var raw string
-	var rawOff int
-	switch t := p.next(); t.kind {
-	case tField: // expect rule:"text", without a space after the colon
-		i := strings.IndexByte(t.text, ':')
-		ex.Rule, raw, rawOff = t.text[:i], t.text[i+1:], t.off+i+1
-	case tIdent:
-		ex.Rule = t.text
-		p.expect(":")
-		s := p.next()
-		if s.kind != tString && s.kind != tRaw {
-			p.unexpected(s, "")
-		}
-		raw, rawOff = s.text, s.off
-	default:
-		p.unexpected(t, "")
-	}
-	p.expect(";")
-	if !strings.HasPrefix(raw, `"`) {
-		p.errorf(rawOff, "an example's text goes in double quotes")
-		return
-	}
-	text, span, msg := parseExampleText(raw[1:len(raw)-1], ex.Expect)
-	if msg != "" {
-		p.errorf(rawOff, "%s", msg)
-		return
-	}
-	ex.Text, ex.Span = text, span
-	p.f.Examples = append(p.f.Examples, ex)
-}
-
-func (p *parser) rule(name token) {
-	p.next() // =
-	r := &Rule{Name: name.text, Pos: p.pos(name.off)}
-	r.Expr = p.alt(0)
-	end := p.expect(";")
-	r.End = p.pos(end.off + 1)
-	if reserved[r.Name] {
-		p.errorf(name.off, "%q is a reserved word and cannot name a rule", r.Name)
-	} else if IsUPOS(r.Name) {
-		p.errorf(name.off, "%s is a UPOS tag and cannot name a rule", r.Name)
-	}
-	r.Doc = p.f.docAbove(r.Pos.Line)
-	p.f.Rules = append(p.f.Rules, r)
-}
-
-// startsElement reports whether t can begin an element of a sequence.
-func startsElement(t token) bool {
-	switch t.kind {
-	case tIdent, tField, tLabel, tString, tRaw, tRegex, tUnterminated:
-		return true
-	case tPunct:
-		return t.text == "(" || t.text == "!" || t.text == "^" || t.text == "$"
-	}
-	return false
-}
-
-func isPunct(t token, s string) bool { return t.kind == tPunct && t.text == s }
-
-// Positions are computed as soon as a node starts, in the order of the
-// source, which keeps lineTable.pos from counting a long line again.
-
-// operands reads item { sep item }: the one item, or join of them all.
-func (p *parser) operands(sep string, depth int, item func(int) Node, join func(Pos, []Node) Node) Node {
-	pos := p.pos(p.peek().off)
-	items := []Node{item(depth)}
-	for isPunct(p.peek(), sep) {
-		p.next()
-		items = append(items, item(depth))
-	}
-	if len(items) == 1 {
-		return items[0]
-	}
-	return join(pos, items)
-}
-
-// alt reads Seq { "|" Seq }; depth is the nesting of ( and ! around it.
-func (p *parser) alt(depth int) Node {
-	return p.operands("|", depth, p.seq, func(pos Pos, alts []Node) Node { return &Alt{Pos: pos, Alts: alts} })
-}
-
-func (p *parser) seq(depth int) Node {
-	pos := p.pos(p.peek().off)
-	first := p.element(depth)
-	if !startsElement(p.peek()) {
-		return first
-	}
-	s := &Seq{Pos: pos, Items: []Node{first}}
-	for startsElement(p.peek()) {
-		s.Items = append(s.Items, p.element(depth))
-	}
-	return s
-}
-
-// element reads [ Label ] Conj [ Quant ].
-func (p *parser) element(depth int) Node {
-	var label token
-	var labelPos Pos
-	if t := p.peek(); t.kind == tLabel {
-		label, labelPos = p.next(), p.pos(t.off)
-		if n := p.peek(); !startsElement(n) || n.kind == tLabel {
-			p.fail(label.off, "a label must be followed by the element it names, as in @node NOUN")
-		}
-	}
-	n := p.conj(depth)
-	if q := p.peek(); q.kind == tPunct && strings.Contains("?*+{", q.text) {
-		n = p.quant(n)
-	}
-	if label.kind == tLabel {
-		if _, ok := n.(*Anchor); ok {
-			p.errorf(label.off, "a label cannot name an anchor (^ or $): it covers no token")
-		}
-		n = &Label{Pos: labelPos, Name: label.text[1:], Sub: n}
-	}
-	return n
-}
-
-func (p *parser) quant(n Node) Node {
-	q := p.next()
-	if _, ok := n.(*Anchor); ok {
-		p.errorf(q.off, "an anchor (^ or $) cannot be repeated")
-	}
-	r := &Repeat{Pos: p.pos(q.off), Sub: n}
-	switch q.text {
-	case "?":
-		r.Min, r.Max = 0, 1
-	case "*":
-		r.Min, r.Max = 0, -1
-	case "+":
-		r.Min, r.Max = 1, -1
-	default: // {
-		lo := p.next()
-		if lo.kind != tNumber {
-			p.unexpected(lo, "")
-		}
-		r.Min, r.Max = p.count(lo.text, q.off), -1
-		hi := ""
-		if isPunct(p.peek(), ",") {
-			p.next()
-			if t := p.peek(); t.kind == tNumber {
-				hi = p.next().text
-				r.Max = p.count(hi, q.off)
+		switch t.Value {
+		case "!":
+			bangs++
+			if depth+bangs > MaxNesting {
+				return t.Pos.Offset, nestingMessage
 			}
-		} else {
-			r.Max = r.Min
-		}
-		p.expect("}")
-		if hi != "" && r.Max < r.Min {
-			p.errorf(q.off, "bad repetition {%s,%s}: the upper bound is below the lower one", lo.text, hi)
-		}
-	}
-	return r
-}
-
-func (p *parser) count(s string, off int) int {
-	n := 0
-	for _, c := range []byte(s) {
-		n = n*10 + int(c-'0')
-		if n > MaxRepeat {
-			p.errorf(off, "bad repetition count %s: at most %d", s, MaxRepeat)
-			return MaxRepeat
-		}
-	}
-	return n
-}
-
-// conj reads Not { "&" Not }.
-func (p *parser) conj(depth int) Node {
-	return p.operands("&", depth, p.not, func(pos Pos, subs []Node) Node { return &And{Pos: pos, Subs: subs} })
-}
-
-// not reads { "!" } Atom; each ! is a level of nesting.
-func (p *parser) not(depth int) Node {
-	pos := p.pos(p.peek().off)
-	bangs := 0
-	for isPunct(p.peek(), "!") {
-		t := p.next()
-		if bangs++; depth+bangs > MaxNesting {
-			p.fail(t.off, "nested too deeply: more than %d levels of ( and !", MaxNesting)
-		}
-	}
-	n := p.atom(depth + bangs)
-	for range bangs {
-		n = &Not{Pos: pos, Sub: n}
-	}
-	return n
-}
-
-func (p *parser) atom(depth int) Node {
-	t := p.next()
-	pos := p.pos(t.off)
-	switch t.kind {
-	case tPunct:
-		switch t.text {
+			continue
 		case "(":
-			if depth+1 > MaxNesting {
-				p.fail(t.off, "nested too deeply: more than %d levels of ( and !", MaxNesting)
+			depth += bangs + 1
+			open = append(open, bangs)
+			bangs = 0
+			if depth > MaxNesting {
+				return t.Pos.Offset, nestingMessage
 			}
-			n := p.alt(depth + 1)
-			p.expect(")")
-			return n
-		case "^":
-			return &Anchor{Pos: pos}
-		case "$":
-			return &Anchor{Pos: pos, End: true}
+			continue
+		case ")":
+			if n := len(open); n > 0 {
+				depth -= open[n-1] + 1
+				open = open[:n-1]
+			}
 		}
-	case tField:
-		return p.field(t)
-	case tRegex:
-		return p.regexTest(t.off, WordRe, t.text[1:len(t.text)-1])
-	case tString, tRaw:
-		kind := Word
-		if t.kind == tRaw {
-			kind = WordExact
+		if t.Type != gsrSymbols["Comment"] && t.Type != gsrSymbols["Whitespace"] {
+			bangs = 0
 		}
-		s, _ := unquote(t.text)
-		words := strings.Fields(s)
-		if len(words) == 0 {
-			p.errorf(t.off, "empty word: a quoted word needs at least one character")
-			return &Test{Pos: pos, Kind: Any}
-		}
-		if len(words) == 1 {
-			return wordTest(pos, kind, words[0])
-		}
-		// A quoted string with spaces is a sequence of words: "in order to".
-		seq := &Seq{Pos: pos}
-		for _, w := range words {
-			seq.Items = append(seq.Items, wordTest(pos, kind, w))
-		}
-		return seq
-	case tIdent:
-		switch {
-		case t.text == "_":
-			return &Test{Pos: pos, Kind: Any}
-		case IsUPOS(t.text):
-			return &Test{Pos: pos, Kind: UPOS, Value: t.text}
-		}
-		return &Ref{Pos: pos, Name: t.text}
 	}
-	p.unexpected(t, "")
-	return nil
 }
 
-// unexpectedMessage says what is wrong at an unexpected token in words for
-// people who write rules, not grammars.
-func unexpectedMessage(t token, expected string, pattern bool) string {
+var gsrSymbols = gsrLexer.Symbols()
+
+var nestingMessage = fmt.Sprintf("nested too deeply: more than %d levels of ( and !", MaxNesting)
+
+// errorOffset returns where participle's error err points, in the text it
+// parsed (of length n when it names no position).
+func errorOffset(err error, n int) int {
+	var pe participle.Error
+	if errors.As(err, &pe) {
+		p := pe.Position()
+		if p.Offset > 0 || p.Line > 0 {
+			return p.Offset
+		}
+	}
+	return n
+}
+
+// parseMessage turns participle's message into one for people who write
+// rules, not grammars; pattern is set for a rule body given on the command
+// line, which messages call a pattern.
+func parseMessage(err error, pattern bool) string {
+	var ut *participle.UnexpectedTokenError
+	if errors.As(err, &ut) {
+		tok := ut.Unexpected
+		// Name what was expected only when it is one plain symbol.
+		exp := ""
+		if m := expectedRe.FindStringSubmatch(ut.Message()); m != nil {
+			exp = m[1]
+		}
+		return unexpectedMessage(tok, exp, pattern)
+	}
+	var pe participle.Error
+	if errors.As(err, &pe) {
+		return strings.TrimPrefix(pe.Message(), "lexer: ")
+	}
+	return err.Error()
+}
+
+var expectedRe = regexp.MustCompile(`\(expected "([^"\s]+)"\)$`)
+
+// unexpectedMessage says what is wrong at an unexpected token t, where
+// expected names the one punctuation character that would have fitted
+// ("" when there is not one).
+func unexpectedMessage(t lexer.Token, expected string, pattern bool) string {
 	exp := ""
 	if expected != "" {
 		exp = " (expected '" + expected + "')"
 	}
 	switch {
-	case t.kind == tEOF && pattern:
+	case t.EOF() && pattern:
 		return "unexpected end of pattern" + exp
-	case t.kind == tEOF:
+	case t.EOF():
 		if expected != "" && expected != ";" {
 			return "unexpected end of file" + exp
 		}
 		return "unexpected end of file: is the ';' after the last rule missing?"
-	case pattern && t.kind == tPunct && (t.text == "=" || t.text == ";"):
-		return "unexpected " + quoteToken(t.text) + ": a pattern is one rule body, as in 'ADJ* NOUN'"
-	case t.kind == tPunct && t.text == "=":
+	case pattern && (t.Value == "=" || t.Value == ";"):
+		return "unexpected " + quoteToken(t.Value) + ": a pattern is one rule body, as in 'ADJ* NOUN'"
+	case t.Value == "=":
 		return "unexpected '=': is the ';' at the end of the rule above missing?"
-	case t.kind == tUnterminated:
-		if t.text[0] == '/' {
+	case t.Type == gsrSymbols["Unterminated"]:
+		if t.Value[0] == '/' {
 			return "unterminated regular expression: missing closing '/'"
 		}
-		return "unterminated string: missing closing " + string(t.text[0])
-	case t.kind == tBad:
-		return "unexpected character " + quoteToken(t.text)
-	case t.kind == tLabel:
+		return "unterminated string: missing closing " + string(t.Value[0])
+	case t.Type == gsrSymbols["Bad"]:
+		return "unexpected character " + quoteToken(t.Value)
+	case t.Type == gsrSymbols["Label"]:
 		return "a label must be followed by the element it names, as in @node NOUN"
-	case t.kind == tPunct && t.text == ";" && expected == "":
+	case t.Value == ";" && expected == "":
 		return "unexpected ';': something is missing before it"
 	}
-	return "unexpected " + quoteToken(t.text) + exp
+	return "unexpected " + quoteToken(t.Value) + exp
 }
 
 func quoteToken(s string) string {
