@@ -83,7 +83,7 @@ func outputFormat(cmd *cobra.Command, to, outPath string, valid []string) (strin
 	if err := checkChoice("to", to, valid); err != nil {
 		return "", err
 	}
-	if implied != to {
+	if implied != to && !(implied == "tbx" && strings.HasPrefix(to, "tbx-")) { // .tbx holds every TBX dialect
 		return "", usageError("--to %s contradicts -o %s (a .%s file); change one of them", to, outPath, implied)
 	}
 	return to, nil

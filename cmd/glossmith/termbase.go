@@ -534,8 +534,15 @@ func (o *termbaseListOptions) run() error {
 	for _, l := range tabular.Align(rows, []bool{true}) {
 		bw.WriteString(l + "\n")
 	}
-	fmt.Fprintf(bw, "%d entries\n", len(keep))
+	fmt.Fprintf(bw, "%d %s\n", len(keep), plural(len(keep), "entry", "entries"))
 	return out.commit(bw.Flush())
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
 }
 
 func termStatusName(t *termbase.Term) string {

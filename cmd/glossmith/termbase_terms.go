@@ -14,6 +14,7 @@ import (
 // termsTermbase are the termbase flags of terms: label the candidates
 // from a termbase, keep only undecided ones, record the run.
 type termsTermbase struct {
+	store   *termbase.Store // opened by validate, closed by apply
 	tf      termbaseFlags
 	onlyNew bool
 	record  string
@@ -43,33 +44,34 @@ func (o *termsTermbase) validate() error {
 	if err := o.tf.validate(); err != nil {
 		return err
 	}
-	return o.tf.withStore(func(s *termbase.Store) error {
-		if o.record == "" {
-			return nil
-		}
+	s, err := o.tf.open()
+	if err != nil {
+		return err
+	}
+	if o.record != "" {
 		runs, err := s.Runs()
 		if err != nil {
-			return err
+			s.Close()
+			return exitError{1, err.Error()}
 		}
 		for _, r := range runs {
 			if r.Label == o.record {
-				return fmt.Errorf("--record %s: %s has a run with this label already (see termbase runs)", o.record, s.Path())
+				s.Close()
+				return exitError{1, fmt.Sprintf("--record %s: %s has a run with this label already (see termbase runs)", o.record, s.Path())}
 			}
 		}
-		return nil
-	})
+	}
+	o.store = s
+	return nil
 }
 
 // apply labels every candidate from the termbase (one in-memory index,
 // built once), records the run when asked, and keeps only the new ones
 // under --new. run describes the run for --record.
 func (o *termsTermbase) apply(cands []*terms.Term, run termbase.Run) ([]*terms.Term, error) {
-	if !o.used() {
+	s := o.store
+	if s == nil {
 		return cands, nil
-	}
-	s, err := o.tf.open()
-	if err != nil {
-		return nil, err
 	}
 	defer s.Close()
 	entries, err := s.Entries()

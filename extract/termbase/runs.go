@@ -235,7 +235,8 @@ var ErrRunExists = errors.New("a run with this label is recorded already")
 
 // RecordRun stores a run of term extraction with its candidates' counts
 // and contexts, as one change. Stored terms whose key is a candidate's
-// gain the surface forms and contexts the run saw.
+// gain the surface forms and contexts the run saw, and its part of speech
+// when they have none.
 func (s *Store) RecordRun(run Run, cands []RunTerm) (Change, error) {
 	if run.Label == "" {
 		return Change{}, errors.New("termbase: a run needs a label")
@@ -281,14 +282,30 @@ func (s *Store) RecordRun(run Run, cands []RunTerm) (Change, error) {
 			return t.s.errf(err)
 		}
 		for _, e := range entries {
+			ownTerms := map[string]bool{}
+			for _, x := range e.Terms {
+				ownTerms[x.Key] = true
+			}
 			for _, x := range e.Terms {
 				c := byKey[x.Key]
 				if c == nil {
 					continue
 				}
+				// A form that is a term of the entry itself (a spelling
+				// with its own status) is not one of this term's forms.
 				var forms []string
 				for _, f := range c.Forms {
-					forms = append(forms, f.Text)
+					if k := Key(f.Text); k == x.Key || !ownTerms[k] {
+						forms = append(forms, f.Text)
+					}
+				}
+				if x.POS == "" && c.POS != "" {
+					n := *x
+					n.POS = c.POS
+					n.Forms, n.Contexts = nil, nil
+					if err := t.setTerm(x, &n); err != nil {
+						return err
+					}
 				}
 				if err := t.addSeen(x, forms, c.Contexts); err != nil {
 					return err

@@ -1,6 +1,7 @@
 package termio
 
 import (
+	"glossmith/extract/tbx"
 	"glossmith/extract/termbase"
 	"glossmith/extract/terms"
 )
@@ -29,11 +30,12 @@ func OnlyNew(cands []*terms.Term) []*terms.Term {
 	return out
 }
 
-// RunTerms turns candidates into what a recorded run keeps of them.
+// RunTerms turns candidates into what a recorded run keeps of them; the
+// part of speech is the TBX-Basic one of the candidate's head.
 func RunTerms(cands []*terms.Term) []termbase.RunTerm {
 	out := make([]termbase.RunTerm, len(cands))
 	for i, t := range cands {
-		r := termbase.RunTerm{Term: t.Term, POS: t.POS, Freq: t.Freq, Docs: t.Docs}
+		r := termbase.RunTerm{Term: t.Term, POS: tbx.BasicPOS(t.POS), Freq: t.Freq, Docs: t.Docs}
 		for _, v := range t.Variants {
 			r.Forms = append(r.Forms, termbase.Form{Text: v.Form, Count: v.Count})
 		}
