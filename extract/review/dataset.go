@@ -84,6 +84,12 @@ func Build(corpus *terms.Corpus, ranked []*terms.Term, pairs *colloc.Counter, co
 	ds := &Dataset{Source: source, Docs: corpus.DocNames(), DocSizes: corpus.DocSizes()}
 	ds.Candidates = make([]Candidate, len(ranked))
 	ds.Details = make([]Detail, len(ranked))
+	docIndex := make(map[string]int, len(ds.Docs))
+	for i, d := range ds.Docs {
+		if _, dup := docIndex[d]; !dup {
+			docIndex[d] = i
+		}
+	}
 	for i, t := range ranked {
 		ds.Candidates[i] = Candidate{ID: i, Rank: t.Rank, Term: t.Term, POS: t.POS, Words: t.Words, Freq: t.Freq,
 			Docs: t.Docs, Score: finite(t.Score), Keyness: finite(t.Keyness), Weirdness: finite(t.Weirdness),
@@ -97,7 +103,11 @@ func Build(corpus *terms.Corpus, ranked []*terms.Term, pairs *colloc.Counter, co
 			if contexts > 0 && k >= contexts {
 				break
 			}
-			d.Contexts = append(d.Contexts, Context{Doc: docIndex(ds.Docs, cx.Doc), Line: cx.Line, Text: cx.Text})
+			di, ok := docIndex[cx.Doc]
+			if !ok {
+				di = -1
+			}
+			d.Contexts = append(d.Contexts, Context{Doc: di, Line: cx.Line, Text: cx.Text})
 		}
 	}
 	nest(ranked, ds.Details)
@@ -114,15 +124,6 @@ func finite(x float64) float64 {
 		return 0
 	}
 	return x
-}
-
-func docIndex(docs []string, name string) int {
-	for i, d := range docs {
-		if d == name {
-			return i
-		}
-	}
-	return -1
 }
 
 // lowerWords returns a candidate's words lower-cased.

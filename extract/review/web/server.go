@@ -20,11 +20,11 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
-	"fmt"
 	"html/template"
 	"io"
 	"net"
 	"net/http"
+	"reflect"
 	"strconv"
 	"sync"
 
@@ -419,7 +419,7 @@ func (s *Server) undo(w http.ResponseWriter, r *http.Request) {
 	}
 	ch := change{Changed: map[int]review.Decision{}, Undone: undone}
 	for i, d := range s.decisions {
-		if fmt.Sprint(d) != fmt.Sprint(old[i]) {
+		if !reflect.DeepEqual(d, old[i]) {
 			ch.Changed[i] = d
 		}
 	}
