@@ -203,10 +203,10 @@ func (o *findOptions) run(args []string) error {
 		}
 		return hits
 	}
-	// Hits are written as each document is reduced, in input order; on
-	// standard output each document's lines are flushed at once, so that a
-	// reader (a terminal, "head") sees them while the search goes on, and
-	// a closed pipe ends the run at the next document with hits.
+	// Hits are written as each document is reduced, in input order, and
+	// each document's lines are flushed at once: a reader (a terminal,
+	// "head") sees them while the search goes on, and a closed pipe or a
+	// full disk ends the run at the next document with hits.
 	written := 0
 	var werr error
 	st, runErr := runDocs(&o.in, args, model, mapFn, func(_ *doc.Document, hits []concord.Hit) {
@@ -219,7 +219,7 @@ func (o *findOptions) run(args []string) error {
 		}
 		written += len(hits)
 		werr = hw.Write(hits)
-		if werr == nil && out.file == nil {
+		if werr == nil {
 			werr = hw.Flush()
 		}
 		if werr != nil {

@@ -170,3 +170,18 @@ func TestSignalLeavesNoTemporaryFile(t *testing.T) {
 		assert.Empty(t, ents, "after %v", sig)
 	}
 }
+
+// A failed write stops the reading: tag and find on a full disk end
+// before the named pipe that follows 20 documents.
+func TestFullDiskStopsReading(t *testing.T) {
+	if _, err := os.Stat("/dev/full"); err != nil {
+		t.Skip("no /dev/full on this system")
+	}
+	inputs := append(copies(t, 20), fifoInput(t))
+	for _, args := range [][]string{{"tag", "--workers", "1"}, {"find", "--workers", "1", "--to", "tsv", "NOUN"}} {
+		r, finished := runBounded(t, "", 2*time.Minute, append(append(args, "-o", "/dev/full"), inputs...)...)
+		require.True(t, finished, "%v went on reading after a failed write", args)
+		assert.NotEqual(t, 0, r.code)
+		assert.Contains(t, r.stderr, "no space left")
+	}
+}

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -91,9 +92,15 @@ func (o *tagOptions) run(args []string) error {
 	}
 	var werr error
 	o.in.reuseTokens = true // each document is written out before the next
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	o.in.ctx = ctx // a failed write (a full disk) stops reading
 	st, runErr := runDocs(&o.in, args, tagger, nil, func(d *doc.Document, _ struct{}) {
 		if werr == nil {
 			werr = w.Write(d)
+		}
+		if werr != nil {
+			cancel()
 		}
 	})
 	if err := w.Flush(); err != nil && werr == nil {
