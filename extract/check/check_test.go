@@ -49,6 +49,7 @@ func pumpGlossary() Glossary {
 		{ID: "e3", Forms: []Form{{Text: "PLC", Status: Preferred, POS: "noun", CaseSensitive: true}}},
 		{ID: "e4", Forms: []Form{{Text: "dry-run protection", Status: Preferred}, {Text: "dry running guard", Status: Forbidden}}},
 		{ID: "e5", Forms: []Form{{Text: "flow rate", Status: Preferred, POS: "noun"}}},
+		{ID: "e6", Forms: []Form{{Text: "power-up", Status: Preferred, POS: "noun"}}},
 	}}
 }
 
@@ -75,6 +76,14 @@ func TestClassify(t *testing.T) {
 		{"The dry running guard trips.", "dry running guard", KindDeprecated, "dry-run protection", "e4"},
 		{"The dry run protection trips.", "dry run protection", KindSpelling, "dry-run protection", "e4"},
 		{"Read the flowrate here.", "flowrate", KindSpelling, "flow rate", "e5"},
+		// A dash whose lemma is "-" is no hyphen inside a term.
+		{"Fault 3 – Solenoid valve sticks.", "", 0, "", ""},
+		// A wrong lemma of a word before the head ("solenoid" taken for a
+		// verb) does not make a spelling.
+		{"It opens the fogging and solenoid valves accordingly.", "", 0, "", ""},
+		// A verb is no use of a noun term.
+		{"Before you power up the pump, read this.", "", 0, "", ""},
+		{"Wait for the power up of the pump.", "power up", KindSpelling, "power-up", "e6"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.text, func(t *testing.T) {

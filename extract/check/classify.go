@@ -20,7 +20,11 @@ import (
 func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding {
 	head := &toks[sp.j-1]
 	surface := foldSpace(d.Text[toks[sp.i].Start:head.End])
-	lemmas := ""
+	// The text with its head word lemmatized ("magnet valves" → "magnet
+	// valve"), and with every word lemmatized ("angles of attack"), made
+	// when the text as written is no form: a wrong lemma of another word
+	// ("solenoid" → "solenoy" when taken for a verb) spoils only the second.
+	headLemma, lemmas := "", ""
 	lemmasMade := false
 	var bad, spell, worse *formRef
 	caseOnly := false
@@ -33,9 +37,9 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 		want := m.folded[r.entry][r.form]
 		exact := same(surface, want, f.CaseSensitive)
 		if !exact && !lemmasMade {
-			lemmas, lemmasMade = lemmaSurface(toks[sp.i:sp.j]), true
+			headLemma, lemmas, lemmasMade = lemmaSurface(toks[sp.i:sp.j], true), lemmaSurface(toks[sp.i:sp.j], false), true
 		}
-		exact = exact || same(lemmas, want, f.CaseSensitive)
+		exact = exact || same(headLemma, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive)
 		switch {
 		case exact && f.Status.allowed():
 			return nil
@@ -91,10 +95,11 @@ func same(text, form string, caseSensitive bool) bool {
 	return strings.EqualFold(text, form)
 }
 
-// lemmaSurface writes tokens as they stand but with each word replaced by
-// its lemma, kept in the case the word was written in where the lemma is a
-// prefix of it ("PLCs" → "PLC", "magnet valves" → "magnet valve").
-func lemmaSurface(toks []doc.Token) string {
+// lemmaSurface writes tokens as they stand but with their words (only the
+// last one when headOnly) replaced by their lemmas, kept in the case the
+// word was written in where the lemma is a prefix of it ("PLCs" → "PLC",
+// "magnet valves" → "magnet valve").
+func lemmaSurface(toks []doc.Token, headOnly bool) string {
 	var b strings.Builder
 	for k := range toks {
 		t := &toks[k]
@@ -102,7 +107,7 @@ func lemmaSurface(toks []doc.Token) string {
 			b.WriteByte(' ')
 		}
 		w := t.Form
-		if l := t.Lemma; l != "" && l != w {
+		if l := t.Lemma; l != "" && l != w && (!headOnly || k == len(toks)-1) {
 			if len(l) <= len(w) && strings.EqualFold(w[:len(l)], l) {
 				w = w[:len(l)]
 			} else {
@@ -119,21 +124,24 @@ func lemmaSurface(toks []doc.Token) string {
 
 // posFits reports whether a head word tagged upos can be the head of a term
 // of the glossary's part of speech pos. Only a function word contradicts a
-// noun, verb, adjective or adverb: the tagger takes a rare noun for a verb
-// or an adjective often enough ("both magnet valves" came out VERB) that
-// content-word tags cannot veto, and an untagged word fits anything.
+// noun, verb, adjective or adverb, and an adverb a noun ("before you power
+// up" is no use of the noun "power-up"): the tagger takes a rare noun for
+// a verb or an adjective often enough ("both magnet valves" came out VERB)
+// that content-word tags cannot veto, and an untagged word fits anything.
 func posFits(pos, upos string) bool {
 	if pos == "" || upos == "" {
 		return true
 	}
 	switch upos {
-	case "ADP", "DET", "PRON", "CCONJ", "SCONJ", "PART", "INTJ":
+	case "ADP", "DET", "PRON", "CCONJ", "SCONJ", "PART", "INTJ", "ADV":
 	default:
 		return true
 	}
 	switch strings.ToLower(pos) {
-	case "noun", "n", "propn", "proper noun", "propernoun", "verb", "v", "adjective", "adj", "a", "adverb", "adv":
+	case "noun", "n", "propn", "proper noun", "propernoun":
 		return false
+	case "verb", "v", "adjective", "adj", "a", "adverb", "adv":
+		return upos == "ADV"
 	}
 	return true
 }

@@ -167,7 +167,10 @@ func (m *Matcher) child(n int32, b byte) int32 {
 
 // walk feeds s, keyed as appendKey keys it, to the trie from node n and
 // returns the node reached, or -1.
+// A string with nothing to feed (a dash whose lemma is "-") ends the
+// walk: only a hyphen between two words is passed over, by find.
 func (m *Matcher) walk(n int32, s string, scratch *[]byte) int32 {
+	fed := false
 	for i := 0; i < len(s); i++ {
 		c := s[i]
 		if c >= utf8.RuneSelf {
@@ -176,8 +179,9 @@ func (m *Matcher) walk(n int32, s string, scratch *[]byte) int32 {
 				if n = m.child(n, b); n < 0 {
 					return -1
 				}
+				fed = true
 			}
-			return n
+			break
 		}
 		if c == '-' || c == ' ' {
 			continue
@@ -188,6 +192,10 @@ func (m *Matcher) walk(n int32, s string, scratch *[]byte) int32 {
 		if n = m.child(n, c); n < 0 {
 			return -1
 		}
+		fed = true
+	}
+	if !fed {
+		return -1
 	}
 	return n
 }
