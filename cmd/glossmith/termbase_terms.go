@@ -74,11 +74,11 @@ func (o *termsTermbase) apply(cands []*terms.Term, run termbase.Run) ([]*terms.T
 		return cands, nil
 	}
 	defer s.Close()
-	entries, err := s.Entries()
+	ix, err := s.Index(s.Lang)
 	if err != nil {
 		return nil, exitError{1, err.Error()}
 	}
-	termio.Label(termbase.NewIndex(entries, s.Lang), cands)
+	termio.Label(ix, cands)
 	if o.record != "" {
 		run.Label = o.record
 		if _, err := s.RecordRun(run, termio.RunTerms(cands)); err != nil {

@@ -74,24 +74,11 @@ const MaxContexts = 3
 // language), or failing that its first admitted term, or its first term.
 func (e *Entry) Preferred(lang string) *Term {
 	var best *Term
-	rank := func(s Status) int {
-		switch s {
-		case Preferred:
-			return 0
-		case Admitted:
-			return 1
-		case Candidate:
-			return 2
-		case Deprecated:
-			return 3
-		}
-		return 4
-	}
 	for _, t := range e.Terms {
 		if lang != "" && t.Lang != lang {
 			continue
 		}
-		if best == nil || rank(t.Status) < rank(best.Status) {
+		if best == nil || statusRank(t.Status) < statusRank(best.Status) {
 			best = t
 		}
 	}
@@ -105,6 +92,21 @@ func (e *Entry) Head(lang string) *Term {
 		return t
 	}
 	return e.Preferred("")
+}
+
+// statusRank orders statuses for choosing the term an entry is named by.
+func statusRank(s Status) int {
+	switch s {
+	case Preferred:
+		return 0
+	case Admitted:
+		return 1
+	case Candidate:
+		return 2
+	case Deprecated:
+		return 3
+	}
+	return 4
 }
 
 // Term returns the entry's term with this text in lang, or nil.
@@ -122,6 +124,9 @@ func (e *Entry) Term(lang, text string) *Term {
 // that ("set point", "setpoint") have different keys and are linked by
 // being terms or forms of one entry.
 func Key(s string) string {
+	if isKey(s) {
+		return s
+	}
 	var b strings.Builder
 	b.Grow(len(s))
 	space := false
@@ -137,6 +142,29 @@ func Key(s string) string {
 		b.WriteRune(unicode.ToLower(r))
 	}
 	return b.String()
+}
+
+// isKey reports whether s is its own Key: no upper case, no space other
+// than single blanks between words. Most candidates are, and need no copy.
+func isKey(s string) bool {
+	prevSpace := true
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c >= 0x80:
+			return false // leave the Unicode cases to Key's loop
+		case c == ' ':
+			if prevSpace {
+				return false
+			}
+			prevSpace = true
+		case c == '\t' || c == '\n' || c == '\r' || c == '\v' || c == '\f' || (c >= 'A' && c <= 'Z'):
+			return false
+		default:
+			prevSpace = false
+		}
+	}
+	return !prevSpace || s == ""
 }
 
 // Change is one row of the change log.

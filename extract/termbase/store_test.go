@@ -290,3 +290,34 @@ func TestIndexLabels(t *testing.T) {
 		assert.Equal(t, tc.entry, entry, tc.term)
 	}
 }
+
+// Store.Index gives the labels NewIndex gives over Entries.
+func TestStoreIndexMatchesNewIndex(t *testing.T) {
+	s := openTemp(t)
+	_, err := s.Decide(Preferred, Proposal{Text: "valve", Forms: []string{"valves", "Valve"}})
+	require.NoError(t, err)
+	_, err = s.Edit("set point", Edit{Admitted: []string{"set-point"}, Deprecated: []string{"setpoint"}})
+	require.NoError(t, err)
+	_, err = s.Accept("set point")
+	require.NoError(t, err)
+	_, err = s.Reject("next step")
+	require.NoError(t, err)
+	_, err = s.Defer("drip line")
+	require.NoError(t, err)
+	es, err := s.Entries()
+	require.NoError(t, err)
+	want := NewIndex(es, "en")
+	got, err := s.Index("en")
+	require.NoError(t, err)
+	assert.Equal(t, want, got)
+	assert.Equal(t, 6, got.Len())
+}
+
+func TestKey(t *testing.T) {
+	for in, want := range map[string]string{
+		"set point": "set point", "Set  Point ": "set point", " kPa": "kpa", "": "", "Ventil\u00d6ffnung": "ventilöffnung",
+		"a\tb": "a b", "x ": "x",
+	} {
+		assert.Equal(t, want, Key(in), "%q", in)
+	}
+}
