@@ -3,12 +3,15 @@ package main
 import (
 	"encoding/json"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"glossmith/internal/testenv"
 )
 
 // termsStatus runs terms --to jsonl with the termbase and returns each
@@ -155,4 +158,40 @@ func TestTermbaseErrors(t *testing.T) {
 	r = run(t, "", "termbase", "--termbase", tb, "list", "--status", "prefered")
 	assert.Equal(t, 2, r.code)
 	assert.Contains(t, r.stderr, "preferred")
+}
+
+// terms' TBX output validates against the TBX schemas of
+// ../shared/standards/tbx with jing: TBX-Core against the TBX-Core
+// integrated RELAX NG schema, TBX-Basic against the core structure; an
+// empty list too.
+func TestTermsTBXValidates(t *testing.T) {
+	jing, err := exec.LookPath("jing")
+	if err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatal("jing is not installed (.ci/run installs it)")
+		}
+		t.Skip("jing is not installed: apt-get install jing")
+	}
+	schemas := testenv.SharedDir(t, "standards/tbx")
+	dir := t.TempDir()
+	for _, tc := range []struct{ to, schema, minFreq string }{
+		{"tbx", "TBXcoreStructV03_TBX-Core_integrated.rng", "1"},
+		{"tbx-basic", "TBXcoreStructV03.rng", "1"},
+		{"tbx", "TBXcoreStructV03_TBX-Core_integrated.rng", "100000"},
+	} {
+		out := filepath.Join(dir, tc.to+tc.minFreq+".tbx")
+		r := run(t, "", "terms", "--to", tc.to, "--limit", "40", "--min-freq", tc.minFreq, "-o", out, "testdata/demo")
+		require.Equal(t, 0, r.code, r.stderr)
+		b, err := exec.Command(jing, filepath.Join(schemas, tc.schema), out).CombinedOutput()
+		var problems []string
+		for _, l := range strings.Split(string(b), "\n") {
+			if strings.Contains(l, "error") {
+				problems = append(problems, l)
+			}
+		}
+		assert.Empty(t, problems, "%s (min-freq %s)", tc.to, tc.minFreq)
+		assert.NoError(t, err, string(b))
+		data, _ := os.ReadFile(out)
+		assert.NotContains(t, string(data), "<term>valves</term>", "inflected forms are not terms")
+	}
 }
