@@ -107,6 +107,11 @@ func TestTBXImportExportRoundTrip(t *testing.T) {
 			s := openStore(t)
 			_, err = s.Import(name, imp.Entries)
 			require.NoError(t, err)
+			again, err := ReadFile(filepath.Join(dir, name), "en")
+			require.NoError(t, err)
+			c, err := s.Import(name, again.Entries)
+			require.NoError(t, err)
+			assert.Zero(t, c.ID, "importing the same file twice changes nothing")
 			es, err := s.Entries()
 			require.NoError(t, err)
 			terms, statuses := 0, map[termbase.Status]int{}
