@@ -123,6 +123,12 @@ func TestReviewPageInBrowser(t *testing.T) {
 	require.NoError(t, err)
 	assert.True(t, strings.HasPrefix(counter, "4 / "), "reviewed counter: %q", counter)
 
+	// A variant admitted by key: v, then its number in the list.
+	require.NoError(t, chromedp.Do(ctx, showTerm("irrigation zone"), chromedp.KeyEvent("v"),
+		chromedp.WaitVisible(`//ol[@id="gs-choices"]/li[2][starts-with(text(), "irrigation zones (")]`),
+		chromedp.KeyEvent("2"),
+		chromedp.WaitVisible(`//table[@class="gs-variants"]//tr[td[1][text()="irrigation zones"]]//span[text()="admitted"]`)), "admit a variant")
+
 	// "?" lists the keys; Escape closes the list.
 	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("?"), chromedp.WaitVisible(chromedp.ID("gs-help"))))
 	keys, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-help")))
@@ -198,8 +204,11 @@ func TestReviewPageInBrowser(t *testing.T) {
 		t.Errorf("%q is not in the termbase", text)
 		return &termbase.Entry{}, &termbase.Term{}
 	}
-	_, x := find("irrigation zone")
+	ez, x := find("irrigation zone")
 	assert.Equal(t, termbase.Preferred, x.Status)
+	ev, x := find("irrigation zones")
+	assert.Equal(t, termbase.Admitted, x.Status, "the admitted variant")
+	assert.Equal(t, ez.ID, ev.ID, "the variant is a term of the same entry")
 	_, x = find("climate controller")
 	assert.Equal(t, termbase.Rejected, x.Status)
 	_, x = find("root-zone temperature")
