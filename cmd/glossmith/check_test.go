@@ -55,7 +55,7 @@ func pumpsTermbase(t *testing.T) string {
 }
 
 func pumpsInputs() []string {
-	return []string{pumpsDir + "/installation-guide.md", pumpsDir + "/field-notes.txt", pumpsDir + "/service-bulletin.html"}
+	return []string{pumpsDir + "/installation-guide.md", pumpsDir + "/field-notes.txt", pumpsDir + "/service-bulletin.html", pumpsDir + "/commissioning-report.docx"}
 }
 
 func TestCheckCommand(t *testing.T) {
@@ -63,13 +63,13 @@ func TestCheckCommand(t *testing.T) {
 	r := run(t, "", append([]string{"check", "--termbase", tb}, pumpsInputs()...)...)
 	assert.Equal(t, 1, r.code, r.stderr)
 	lines := strings.Split(strings.TrimSuffix(r.stdout, "\n"), "\n")
-	assert.Len(t, lines, 21)
+	assert.Len(t, lines, 24)
 	line := regexp.MustCompile(`^[^:]+:\d+:\d+: (error|warning|note): `)
 	for _, l := range lines {
 		assert.Regexp(t, line, l)
 	}
 	assert.Contains(t, r.stdout, pumpsDir+`/installation-guide.md:7:33: error: "magnet valve" is a deprecated term: use "solenoid valve"`)
-	assert.Contains(t, r.stderr, "21 finding(s) in 3 document(s): 10 error(s), 11 warning(s), 0 note(s)")
+	assert.Contains(t, r.stderr, "24 finding(s) in 4 document(s): 12 error(s), 12 warning(s), 0 note(s)")
 	assert.NotContains(t, r.stdout, "\x1b[", "no colour off a terminal")
 
 	r = run(t, "", "check", "--termbase", tb, "--color", "always", pumpsDir+"/field-notes.txt")
@@ -115,7 +115,7 @@ func TestCheckFormatsAndBaseline(t *testing.T) {
 				assert.Contains(t, []any{"deprecated", "spelling"}, rec["kind"])
 				n++
 			}
-			assert.Equal(t, 21, n)
+			assert.Equal(t, 24, n)
 		} else {
 			var log struct {
 				Version string
@@ -124,13 +124,13 @@ func TestCheckFormatsAndBaseline(t *testing.T) {
 			require.NoError(t, json.Unmarshal(data, &log))
 			assert.Equal(t, "2.1.0", log.Version)
 			require.Len(t, log.Runs, 1)
-			assert.Len(t, log.Runs[0].Results, 21)
+			assert.Len(t, log.Runs[0].Results, 24)
 		}
 		// The same documents against their own result: nothing new.
 		r = run(t, "", append([]string{"check", "--termbase", tb, "--baseline", out}, pumpsInputs()...)...)
 		assert.Equal(t, 0, r.code, r.stderr)
 		assert.Empty(t, r.stdout)
-		assert.Contains(t, r.stderr, "21 already in the baseline")
+		assert.Contains(t, r.stderr, "24 already in the baseline")
 	}
 	// One more use than the baseline holds is new.
 	extra := filepath.Join(dir, "more.txt")

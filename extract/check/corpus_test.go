@@ -92,7 +92,9 @@ func nthPosition(t *testing.T, src, text string, n int) (line, col, end int) {
 }
 
 // TestPlantedCorpus checks the test corpus of an invented maker of solar
-// water pumps (testdata/pumps: Markdown, HTML, plain text), in which every
+// water pumps (testdata/pumps: Markdown, HTML, plain text, DOCX — built
+// from testdata/commissioning-report.docx.txt by testdata/tools/mkdocx.py
+// of the repository), in which every
 // use the check must report is listed in gold.tsv, and terms also stand in
 // code blocks, inline code, URLs, file paths, an e-mail address, an HTML
 // title and lines silenced by the skip marker, where nothing may be
@@ -107,7 +109,7 @@ func TestPlantedCorpus(t *testing.T) {
 	require.NoError(t, taggerErr)
 	rep := NewReport(m)
 	texts := map[string]string{}
-	for _, name := range []string{"installation-guide.md", "field-notes.txt", "service-bulletin.html"} {
+	for _, name := range []string{"installation-guide.md", "field-notes.txt", "service-bulletin.html", "commissioning-report.docx"} {
 		path := filepath.Join(pumpsDir, name)
 		d, probs := pipeline.Annotate(read.Input{Name: name, Path: path}, read.Options{}, tagger)
 		for _, p := range probs {
