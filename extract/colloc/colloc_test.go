@@ -7,6 +7,9 @@ import (
 
 	"glossmith/extract/measure"
 	"glossmith/tagger/doc"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func toks(spec ...string) []doc.Token {
@@ -34,9 +37,7 @@ func TestMarginalsPerRelation(t *testing.T) {
 
 	m, _ := measure.Lookup("g2")
 	rows := c.Rank(RankOptions{Measure: m})
-	if len(rows) != 4 {
-		t.Fatalf("got %d rows", len(rows))
-	}
+	require.Len(t, rows, 4)
 	byPair := map[string]Row{}
 	for _, r := range rows {
 		byPair[r.Relation+":"+r.W1+" "+r.W2] = r
@@ -46,19 +47,16 @@ func TestMarginalsPerRelation(t *testing.T) {
 		}
 	}
 	fv := byPair["adj_noun:faulty valve"]
-	if fv.F12 != 2 || fv.F1 != 5 || fv.F2 != 7 || fv.N != 10 || fv.Node != "valve" {
-		t.Errorf("faulty valve: %+v", fv)
-	}
+	assert.Equal(t, [4]int64{2, 5, 7, 10}, [4]int64{fv.F12, fv.F1, fv.F2, fv.N}, "faulty valve: f12, f1, f2, n")
+	assert.Equal(t, "valve", fv.Node)
 	rv := byPair["verb_obj:replace valve"]
-	if rv.F12 != 4 || rv.F1 != 4 || rv.F2 != 4 || rv.N != 4 {
-		t.Errorf("replace valve: %+v (marginals must come from verb_obj alone)", rv)
+	assert.Equal(t, [4]int64{4, 4, 4, 4}, [4]int64{rv.F12, rv.F1, rv.F2, rv.N},
+		"replace valve: marginals must come from verb_obj alone")
+	got := c.Rank(RankOptions{Measure: m, Node: "sensor"})
+	if assert.Len(t, got, 1, "node filter") {
+		assert.Equal(t, "faulty", got[0].W1, "node filter")
 	}
-	if got := c.Rank(RankOptions{Measure: m, Node: "sensor"}); len(got) != 1 || got[0].W1 != "faulty" {
-		t.Errorf("node filter: %+v", got)
-	}
-	if got := c.Rank(RankOptions{Measure: m, MinFreq: 4}); len(got) != 2 {
-		t.Errorf("min-freq 4 kept %d rows, want 2", len(got))
-	}
+	assert.Len(t, c.Rank(RankOptions{Measure: m, MinFreq: 4}), 2, "rows of frequency 4 or more")
 }
 
 // Counting in parts and merging gives what counting at once gives, in the

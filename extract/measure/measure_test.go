@@ -5,6 +5,8 @@ import (
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
 )
 
 // The "new companies" example of Manning and Schütze (1999), Foundations of
@@ -18,9 +20,7 @@ func TestManningSchutzeTScore(t *testing.T) {
 	// Manning and Schütze (1999), section 5.3.1: t ≈ 0.999932 for "new
 	// companies", and they conclude that H0 (independence) cannot be rejected at α = 0.005.
 	got := TScore(newCompanies)
-	if math.Abs(got-0.999932) > 5e-7 {
-		t.Errorf("TScore(new companies) = %.9f, Manning and Schütze 5.3.1 print 0.999932", got)
-	}
+	assert.InDelta(t, 0.999932, got, 5e-7, "TScore(new companies); Manning and Schütze 5.3.1 print 0.999932")
 	// The book's own derivation, in probabilities rather than counts:
 	// x̄ = c12/N, μ = P(new)·P(companies) = (c1/N)(c2/N), s² ≈ x̄,
 	// t = (x̄ − μ)/√(s²/N). It is the count form (O11 − E11)/√O11 divided
@@ -29,26 +29,20 @@ func TestManningSchutzeTScore(t *testing.T) {
 	xbar := newCompanies.F12 / n
 	mu := (newCompanies.F1 / n) * (newCompanies.F2 / n)
 	book := (xbar - mu) / math.Sqrt(xbar/n)
-	if math.Abs(got-book) > 1e-12 {
-		t.Errorf("TScore = %.15f, probability form = %.15f", got, book)
-	}
+	assert.InDelta(t, book, got, 1e-12, "TScore against the probability form")
 	// With the exact Bernoulli variance x̄(1−x̄) instead of x̄ the value
 	// would be 0.9999322 — indistinguishable at the book's six decimals, so
 	// the printed value cannot tell the two variants apart; we keep s² = x̄
 	// as the book states it.
 	exact := (xbar - mu) / math.Sqrt(xbar*(1-xbar)/n)
-	if math.Abs(exact-0.999932) > 5e-7 {
-		t.Errorf("exact-variance t = %.9f unexpectedly differs at 6 decimals", exact)
-	}
+	assert.InDelta(t, 0.999932, exact, 5e-7, "exact-variance t at six decimals")
 }
 
 func TestManningSchutzeChiSquare(t *testing.T) {
 	// Manning and Schütze (1999), section 5.3.3: χ² ≈ 1.55 for "new
 	// companies" (below the 3.841 critical value at α = 0.05).
 	got := ChiSquare(newCompanies)
-	if math.Abs(got-1.55) > 0.005 {
-		t.Errorf("ChiSquare(new companies) = %.9f, Manning and Schütze 5.3.3 print 1.55", got)
-	}
+	assert.InDelta(t, 1.55, got, 0.005, "ChiSquare(new companies); Manning and Schütze 5.3.3 print 1.55")
 	// The book's table 5.8 lists 14,287,181 for the
 	// (¬new, ¬companies) cell, which is N − O12 − O21 and so 8 larger than
 	// a table consistent with N (14,287,173). Scoring that table (N + 8)
@@ -71,12 +65,8 @@ func TestManningSchutzePMI(t *testing.T) {
 	// = log2(340658.76) = 18 + log2(1.29951) = 18.3780.
 	tab := Table{F12: 20, F1: 42, F2: 20, N: 14307668}
 	got := PMI(tab)
-	if math.Abs(got-18.38) > 0.005 {
-		t.Errorf("PMI(Ayatollah Ruhollah) = %.9f, Manning and Schütze 5.4 print 18.38", got)
-	}
-	if want := math.Log2(tab.N / 42); math.Abs(got-want) > 1e-12 {
-		t.Errorf("PMI = %.15f, log2(N/42) = %.15f", got, want)
-	}
+	assert.InDelta(t, 18.38, got, 0.005, "PMI(Ayatollah Ruhollah); Manning and Schütze 5.4 print 18.38")
+	assert.InDelta(t, math.Log2(tab.N/42), got, 1e-12, "PMI against log2(N/42)")
 }
 
 // TestHandWorked checks every measure on a small table worked out by hand:

@@ -6,6 +6,9 @@ import (
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func cand(s string, f float64) Candidate { return Candidate{Words: strings.Fields(s), Freq: f} }
@@ -49,15 +52,12 @@ func TestCValueCarcinoma(t *testing.T) {
 		{1549.776, 5, 31},
 	}
 	res, err := CValue(cands, CValueOptions{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for i, w := range want {
-		r := res[i]
-		if math.Abs(r.Score-w.score) > 1e-3 || r.Containers != w.containers || r.ContainerFreq != w.sum {
-			t.Errorf("%q: got %+v, hand-worked score %.6f, P(T)=%d, Σf(b)=%g",
-				strings.Join(cands[i].Words, " "), r, w.score, w.containers, w.sum)
-		}
+		r, name := res[i], strings.Join(cands[i].Words, " ")
+		assert.InDelta(t, w.score, r.Score, 1e-3, "%s: hand-worked C-value", name)
+		assert.Equal(t, w.containers, r.Containers, "%s: P(T)", name)
+		assert.Equal(t, w.sum, r.ContainerFreq, "%s: Σf(b)", name)
 	}
 }
 
@@ -87,9 +87,7 @@ func TestCValueSingleWordsAndRepeats(t *testing.T) {
 		want []float64
 	}{{CValueOptions{}, paper}, {CValueOptions{Weight: Log2LengthPlusOne}, variant}} {
 		res, err := CValue(cands, tc.opt)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for i, w := range tc.want {
 			if math.Abs(res[i].Score-w) > 1e-6 {
 				t.Errorf("weight %d, %q: C-value %.6f, hand-worked %.6f", tc.opt.Weight, strings.Join(cands[i].Words, " "), res[i].Score, w)
@@ -160,9 +158,7 @@ func TestCValueMatchesPairwiseDefinition(t *testing.T) {
 		}
 		opt := CValueOptions{Weight: LengthWeight(trial % 2)}
 		got, err := CValue(cands, opt)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		want := naiveCValue(cands, opt)
 		for i := range cands {
 			if got[i].Containers != want[i].Containers || got[i].ContainerFreq != want[i].ContainerFreq ||
@@ -177,9 +173,7 @@ func TestCValueMatchesPairwiseDefinition(t *testing.T) {
 // "valves", nor "a b" inside "aa b".
 func TestCValueWholeWords(t *testing.T) {
 	res, err := CValue([]Candidate{cand("valves seat", 3), cand("valve", 5), cand("a b", 2), cand("x aa b", 1)}, CValueOptions{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for i, r := range res {
 		if r.Nested() {
 			t.Errorf("candidate %d wrongly nested: %+v", i, r)

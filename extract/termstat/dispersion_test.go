@@ -5,14 +5,14 @@ import (
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 func mustParts(t testing.TB, sizes ...float64) *Parts {
 	t.Helper()
 	p, err := NewParts(sizes)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return p
 }
 
@@ -56,13 +56,9 @@ func TestDPSkewed(t *testing.T) {
 func checkDP(t *testing.T, p *Parts, freqs []float64, wantDP, wantNorm float64) {
 	t.Helper()
 	dp, err := p.DP(freqs)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	norm, err := p.DPNorm(freqs)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if math.Abs(dp-wantDP) > 1e-6 || math.Abs(norm-wantNorm) > 1e-6 {
 		t.Errorf("freqs %v: DP = %.9f, DPnorm = %.9f; hand-worked %.6f, %.6f", freqs, dp, norm, wantDP, wantNorm)
 	}

@@ -4,6 +4,8 @@ import (
 	"math"
 	"slices"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 func TestCombineMeanRank(t *testing.T) {
@@ -11,9 +13,7 @@ func TestCombineMeanRank(t *testing.T) {
 	// Column 2 = [1, 1, 5]: 5 has rank 0 → 1; the tied 1s share ranks 1 and
 	// 2, mean 1.5 → 1 − 1.5/2 = 0.25. Means: 0.625, 0.125, 0.75.
 	got, err := Combine([][]float64{{3, 1, 2}, {1, 1, 5}}, MeanRank)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	want := []float64{0.625, 0.125, 0.75}
 	for i := range want {
 		if math.Abs(got[i]-want[i]) > 1e-15 {
@@ -30,9 +30,7 @@ func TestCombineMeanZ(t *testing.T) {
 	// −1.224745, 0, 1.224745. A constant column contributes 0; the mean of
 	// the two columns halves the z-scores.
 	got, err := Combine([][]float64{{1, 2, 3}, {7, 7, 7}}, MeanZ)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	want := []float64{-0.612372, 0, 0.612372}
 	for i := range want {
 		if math.Abs(got[i]-want[i]) > 1e-6 {

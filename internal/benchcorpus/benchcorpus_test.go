@@ -7,14 +7,15 @@ import (
 	"testing"
 
 	"glossmith/internal/testenv"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func demoParagraphs(t *testing.T) []string {
 	t.Helper()
 	paras, err := LoadParagraphs(testenv.Demo(t))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return paras
 }
 
@@ -23,14 +24,11 @@ func TestSameSeedSameCorpus(t *testing.T) {
 	opt := Options{DocSize: 2000, Rare: 0.05, Seed: 3}
 	a, b := NewGenerator(paras, opt), NewGenerator(paras, opt)
 	for i := range 20 {
-		if da, db := a.Document(), b.Document(); da != db {
-			t.Fatalf("document %d differs between two generators with seed 3", i)
-		}
+		require.Equal(t, a.Document(), b.Document(), "document %d of two generators with seed 3", i)
 	}
 	opt.Seed = 4
-	if NewGenerator(paras, opt).Document() == NewGenerator(paras, Options{DocSize: 2000, Rare: 0.05, Seed: 3}).Document() {
-		t.Error("seeds 3 and 4 give the same first document")
-	}
+	assert.NotEqual(t, NewGenerator(paras, Options{DocSize: 2000, Rare: 0.05, Seed: 3}).Document(),
+		NewGenerator(paras, opt).Document(), "first documents of seeds 3 and 4")
 }
 
 func TestDocumentsAreDrawnFromTheSources(t *testing.T) {
@@ -75,9 +73,7 @@ func TestWrite(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "corpus")
 	g := NewGenerator(demoParagraphs(t), Options{Size: 20000, DocSize: 3000, Seed: 1})
 	docs, n, err := g.Write(dir)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	files, _ := filepath.Glob(filepath.Join(dir, "doc-*.txt"))
 	if len(files) != docs || docs < 2 || n < 20000 {
 		t.Fatalf("%d documents (%d files), %d bytes", docs, len(files), n)
@@ -85,9 +81,7 @@ func TestWrite(t *testing.T) {
 	var total int64
 	for _, f := range files {
 		fi, err := os.Stat(f)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		total += fi.Size()
 	}
 	if total != n {

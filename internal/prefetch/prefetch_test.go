@@ -3,6 +3,9 @@ package prefetch
 import (
 	"testing"
 	"unsafe"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // TestNeverFaults hands the kernel what callers may: addresses past the
@@ -12,13 +15,10 @@ func TestNeverFaults(t *testing.T) {
 	small := make([]int16, 3)
 	var l List
 	l.AddBytes(unsafe.Pointer(&small[0]), 64*Max*2)
-	if l.Len() != Max || l.at[1]-l.at[0] != lineSize {
-		t.Fatalf("AddBytes gave %d lines, %d bytes apart", l.Len(), l.at[1]-l.at[0])
-	}
+	require.Equal(t, Max, l.Len(), "AddBytes stops at Max lines")
+	require.Equal(t, uintptr(lineSize), l.at[1]-l.at[0], "lines one line size apart")
 	l.Start()
-	if l.Len() != 0 {
-		t.Fatalf("Start left %d lines", l.Len())
-	}
+	require.Zero(t, l.Len(), "Start empties the list")
 	l.Add(nil)
 	l.Add(unsafe.Pointer(&small[2]))
 	l.Start()
@@ -31,9 +31,7 @@ func TestAddStopsWhenFull(t *testing.T) {
 	for range Max + 5 {
 		l.Add(unsafe.Pointer(&x))
 	}
-	if l.Len() != Max {
-		t.Fatalf("%d addresses, want %d", l.Len(), Max)
-	}
+	assert.Equal(t, Max, l.Len())
 }
 
 // TestAddBytesCoversEveryLine checks that an object straddling lines gets
@@ -44,7 +42,7 @@ func TestAddBytesCoversEveryLine(t *testing.T) {
 	off := int(base - uintptr(unsafe.Pointer(&buf[0])))
 	var l List
 	l.AddBytes(unsafe.Pointer(&buf[off+40]), 100)
-	if l.Len() != 3 || l.at[0] != base || l.at[2] != base+2*lineSize {
-		t.Fatalf("got %d lines from %#x, want 3 from %#x", l.Len(), l.at[0], base)
-	}
+	require.Equal(t, 3, l.Len())
+	assert.Equal(t, base, l.at[0], "first line")
+	assert.Equal(t, base+2*lineSize, l.at[2], "third line")
 }

@@ -5,15 +5,15 @@ import (
 	"encoding/binary"
 	"hash/crc32"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // Files of format version 1 stored the payload uncompressed; they are still
 // read, and decode to the same model as the version 2 file.
 func TestReadVersion1(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var e enc
 	m.encodePayload(&e)
 	var v1 bytes.Buffer
@@ -27,12 +27,8 @@ func TestReadVersion1(t *testing.T) {
 		t.Fatalf("version 1 file refused: %v", err)
 	}
 	var a, b bytes.Buffer
-	if err := m.Save(&a); err != nil {
-		t.Fatal(err)
-	}
-	if err := old.Save(&b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, m.Save(&a))
+	require.NoError(t, old.Save(&b))
 	if !bytes.Equal(a.Bytes(), b.Bytes()) {
 		t.Fatal("the version 1 file decodes to a different model")
 	}

@@ -13,6 +13,9 @@ import (
 	"glossmith/internal/testenv"
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // The accuracy checks read UD English EWT 2.15 (Silveira et al. 2014,
@@ -108,9 +111,7 @@ func mostFrequentTag(train, gold []*conllu.Sentence) float64 {
 func TestDefaultModelAccuracy(t *testing.T) {
 	train, _, test := ewt(t)
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if m.Info().Method != MethodPerceptron {
 		t.Fatalf("default model method %q, want %q", m.Info().Method, MethodPerceptron)
 	}
@@ -166,13 +167,12 @@ func TestGenerativeAccuracy(t *testing.T) {
 // the treebank it came from.
 func TestDefaultModelInfo(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	in := m.Info()
-	if !strings.Contains(in.Source, "EWT") || in.States == 0 || in.Features == 0 || in.UPOSTags != 17 {
-		t.Errorf("unexpected model info %+v", in)
-	}
+	assert.Contains(t, in.Source, "EWT")
+	assert.NotZero(t, in.States)
+	assert.NotZero(t, in.Features)
+	assert.Equal(t, 17, in.UPOSTags, "UPOS tags of UD v2")
 	// Reference counts are those of the training file the model names
 	// (tagger/model/build trains on en_ewt-ud-train.conllu), counted here
 	// again: its tokens, and the forms of "the" in any case.
@@ -186,12 +186,9 @@ func TestDefaultModelInfo(t *testing.T) {
 			}
 		}
 	}
-	if m.RefSize() != tokens || m.RefFreq("The") != the {
-		t.Errorf("RefFreq(the)=%d RefSize=%d; the training file has %d and %d", m.RefFreq("the"), m.RefSize(), the, tokens)
-	}
-	if m.RefLemmaFreq("be") <= m.RefFreq("is") {
-		t.Errorf("lemma count of be (%d) should exceed the form count of is (%d)", m.RefLemmaFreq("be"), m.RefFreq("is"))
-	}
+	assert.Equal(t, tokens, m.RefSize(), "tokens of the training file")
+	assert.Equal(t, the, m.RefFreq("The"), `"the" in any case in the training file`)
+	assert.Greater(t, m.RefLemmaFreq("be"), m.RefFreq("is"), "the lemma be counts more than the form is")
 }
 
 // small is a slice of the treebank for quick training tests.
@@ -205,13 +202,9 @@ func TestTrainingIsDeterministic(t *testing.T) {
 		var files [2][]byte
 		for i := range files {
 			m, err := Train(small(t), TrainOptions{Method: method, Epochs: 2})
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			var b bytes.Buffer
-			if err := m.Save(&b); err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, m.Save(&b))
 			files[i] = b.Bytes()
 		}
 		if !bytes.Equal(files[0], files[1]) {
@@ -225,17 +218,11 @@ func TestSaveLoadRoundTrip(t *testing.T) {
 	for _, method := range []string{MethodHMM, MethodPerceptron} {
 		for _, tagset := range []string{TagsetJoint, TagsetXPOS} {
 			m, err := Train(small(t), TrainOptions{Method: method, Tagset: tagset, Epochs: 2})
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			path := filepath.Join(t.TempDir(), "m.glsm")
 			var b bytes.Buffer
-			if err := m.Save(&b); err != nil {
-				t.Fatal(err)
-			}
-			if err := os.WriteFile(path, b.Bytes(), 0o644); err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, m.Save(&b))
+			require.NoError(t, os.WriteFile(path, b.Bytes(), 0o644))
 			m2, err := Load(path)
 			if err != nil {
 				t.Fatalf("%s/%s: %v", method, tagset, err)
@@ -258,13 +245,9 @@ func TestSaveLoadRoundTrip(t *testing.T) {
 
 func TestLoadRefusesBadFiles(t *testing.T) {
 	m, err := Train(small(t)[:300], TrainOptions{Method: MethodHMM})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b bytes.Buffer
-	if err := m.Save(&b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, m.Save(&b))
 	good := b.Bytes()
 	newer := bytes.Clone(good)
 	newer[len(fileMagic)] = fileVersion + 1
@@ -284,25 +267,19 @@ func TestLoadRefusesBadFiles(t *testing.T) {
 	}
 	for _, c := range cases {
 		path := filepath.Join(t.TempDir(), "bad.glsm")
-		if err := os.WriteFile(path, c.data, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(path, c.data, 0o644))
 		_, err := Load(path)
-		if err == nil {
-			t.Errorf("%s: loaded without error", c.name)
+		if !assert.Error(t, err, c.name) {
 			continue
 		}
-		if !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), path) {
-			t.Errorf("%s: error %q should name the file and say %q", c.name, err, c.want)
-		}
+		assert.Contains(t, err.Error(), c.want, c.name)
+		assert.Contains(t, err.Error(), path, c.name)
 	}
 }
 
 func TestTagFillsTokensAndKeepsPretagged(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	words := strings.Fields("Check the pressure sensors and clean the filter housing .")
 	s := &doc.Sentence{}
 	for _, w := range words {
@@ -423,9 +400,7 @@ func BenchmarkTrainPerceptron(b *testing.B) {
 // covers after the header).
 func payloadOf(t testing.TB, m *Model) []byte {
 	var b bytes.Buffer
-	if err := m.Save(&b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, m.Save(&b))
 	return b.Bytes()[headerSize : b.Len()-4]
 }
 
@@ -434,9 +409,7 @@ func payloadOf(t testing.TB, m *Model) []byte {
 func TestDecodeDamagedPayload(t *testing.T) {
 	for _, method := range []string{MethodHMM, MethodPerceptron} {
 		m, err := Train(small(t)[:200], TrainOptions{Method: method, Epochs: 1})
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		p := payloadOf(t, m)
 		rng := uint64(1)
 		for i := 0; i < 300; i++ {

@@ -4,6 +4,8 @@ import (
 	"testing"
 
 	"glossmith/tagger/doc"
+
+	"github.com/stretchr/testify/require"
 )
 
 // Regular plurals of words the treebank barely knows must not follow the
@@ -11,9 +13,7 @@ import (
 // plain reading wins when the treebank attests it as a lemma.
 func TestUnknownPluralLemma(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for form, want := range map[string]string{"valves": "valve", "boxes": "box", "emitters": "emitter"} {
 		s := doc.Sentence{Tokens: []doc.Token{{Form: "The"}, {Form: form}, {Form: "failed"}, {Form: "."}}}
 		m.Tag(&s)

@@ -10,6 +10,8 @@ import (
 
 	"glossmith/tagger/doc"
 	"glossmith/tagger/model"
+
+	"github.com/stretchr/testify/require"
 )
 
 // buildLatticeRef is the straightforward scoring of every token from its
@@ -87,9 +89,7 @@ func (p *perceptron) weight(r int32, t uint8) float32 {
 func TestViewsMatchPlainScoring(t *testing.T) {
 	_, dev, _ := ewt(t)
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := m.perc
 	fast, plain := newWorkspace(), newWorkspace()
 	toks := 0
@@ -191,9 +191,7 @@ func TestConcurrentTaggingBuildsViewsSafely(t *testing.T) {
 	dev = dev[:min(len(dev), 600)]
 	fresh := func() *Model {
 		m, err := Decode(model.EnglishEWT)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		return m
 	}
 	tagAll := func(m *Model) []string {
@@ -236,9 +234,7 @@ func TestConcurrentTaggingBuildsViewsSafely(t *testing.T) {
 func TestRankedTransitionsDecodeAlike(t *testing.T) {
 	_, dev, _ := ewt(t)
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if m.trans.rank == nil {
 		t.Fatal("the default model's transitions are not ranked")
 	}
@@ -307,9 +303,7 @@ func TestInSteps(t *testing.T) {
 // slot, must get their own lemmas.
 func TestMemoLemmaFollowsState(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	l := newWorkspace()
 	toks := []doc.Token{{Form: "Glorbs"}, {Form: "flimbles"}}
 	m.perc.buildLattice(m, l, toks)
@@ -345,9 +339,7 @@ func TestMemoLemmaFollowsState(t *testing.T) {
 func TestLemmaMemos(t *testing.T) {
 	_, dev, _ := ewt(t)
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	unseen, unknown := 0, 0
 	for pass := 0; pass < 2; pass++ {
 		for _, cs := range dev {
@@ -389,9 +381,7 @@ func TestLemmaMemos(t *testing.T) {
 // memory).
 func TestCacheKeepsNoDocumentText(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	text := "the flimbles glorbed the wumbles and more wumbles glorbed"
 	var toks []doc.Token
 	for start := 0; start < len(text); {
@@ -471,13 +461,9 @@ func FuzzViewsMatchPlainScoring(f *testing.F) {
 // lattice must score as a fresh one does.
 func TestCacheFollowsWeights(t *testing.T) {
 	m1, err := Decode(model.EnglishEWT)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	m2, err := Decode(model.EnglishEWT)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for i := range m2.perc.cells {
 		m2.perc.cells[i].q = -m2.perc.cells[i].q // other weights, same rows
 	}
@@ -500,9 +486,7 @@ func TestCacheFollowsWeights(t *testing.T) {
 // key that is there.
 func TestRowFindsEveryKey(t *testing.T) {
 	m, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := m.perc
 	for i, k := range p.keys {
 		if r := p.row(k); r != int32(i) {

@@ -20,6 +20,8 @@ import (
 	"glossmith/tagger/hmm"
 	"glossmith/tagger/pipeline"
 	"glossmith/tagger/read"
+
+	"github.com/stretchr/testify/require"
 )
 
 var (
@@ -54,9 +56,7 @@ func init() {
 func smallDocs(t *testing.T, n int) string {
 	t.Helper()
 	paras, err := benchcorpus.LoadParagraphs(testenv.Demo(t))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	g := benchcorpus.NewGenerator(paras, benchcorpus.Options{DocSize: 700, Rare: 0.02, Seed: 7})
 	dir := t.TempDir()
 	for i := range n {
@@ -67,9 +67,7 @@ func smallDocs(t *testing.T, n int) string {
 		case 9:
 			text = "\x00\x01\x02 binary \x00"
 		}
-		if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("d%04d.txt", i)), []byte(text), 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(filepath.Join(dir, fmt.Sprintf("d%04d.txt", i)), []byte(text), 0o644))
 	}
 	return dir
 }
@@ -120,9 +118,7 @@ func TestRunSameForAnyWorkerCount(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			want := annotated(t, c.args, 1, false)
-			if !strings.Contains(want, "\t") {
-				t.Fatal("no tokens delivered")
-			}
+			require.Contains(t, want, "\t", "no tokens delivered")
 			for _, w := range workerCounts {
 				for _, reuse := range []bool{false, true} {
 					if w == 1 && !reuse {
@@ -221,9 +217,7 @@ func termList(t *testing.T, args []string, workers int) string {
 func termListReusing(t *testing.T, args []string, workers int, reuse bool) string {
 	t.Helper()
 	m, err := pattern.CompileStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	col := terms.NewCollector(m, terms.Options{Contexts: 3})
 	corpus := terms.NewCorpus(3)
 	pipeline.Run(args, pipeline.Options{Tagger: tagger(t), Workers: workers, ReuseTokens: reuse}, col.Collect,
@@ -234,13 +228,9 @@ func termListReusing(t *testing.T, args []string, workers int, reuse bool) strin
 			}
 		})
 	ranked, err := terms.Rank(corpus.Terms(&terms.Counts{Words: map[string]int{"the": 1000}, Total: 100000}), terms.RankOptions{All: true})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var buf bytes.Buffer
-	if err := terms.Write(&buf, "jsonl", ranked, terms.WriteOptions{Contexts: 3}); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, terms.Write(&buf, "jsonl", ranked, terms.WriteOptions{Contexts: 3}))
 	return buf.String()
 }
 
@@ -249,9 +239,7 @@ func termListReusing(t *testing.T, args []string, workers int, reuse bool) strin
 func pairList(t *testing.T, args []string, workers int) string {
 	t.Helper()
 	m, err := pattern.CompileStock("pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	total := colloc.NewCounter()
 	pipeline.Run(args, pipeline.Options{Tagger: tagger(t), Workers: workers},
 		func(d *doc.Document) *colloc.Counter {
@@ -269,13 +257,9 @@ func pairList(t *testing.T, args []string, workers int) string {
 		},
 		func(_ *doc.Document, c *colloc.Counter) { total.Merge(c) })
 	ms, err := measure.Lookup("g2")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var buf bytes.Buffer
-	if err := colloc.Write(&buf, "tsv", total.Rank(colloc.RankOptions{Measure: ms}), ms.Name); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, colloc.Write(&buf, "tsv", total.Rank(colloc.RankOptions{Measure: ms}), ms.Name))
 	return buf.String()
 }
 
