@@ -14,9 +14,7 @@ import (
 func parseRule(t *testing.T, body string) string {
 	t.Helper()
 	f, err := ParseString("t.gsr", "r = "+body+" ;")
-	if err != nil {
-		t.Fatalf("%s: %v", body, err)
-	}
+	require.NoError(t, err, body)
 	return Format(f.Rules[0].Expr)
 }
 
@@ -47,9 +45,7 @@ func TestPrecedence(t *testing.T) {
 		`a & b & c`:                    `(a & b & c)`,
 		`"a\"b" 'it\'s'`:               `("a\"b" 'it\'s')`,
 	} {
-		if got := parseRule(t, in); got != want {
-			t.Errorf("%s\n got %s\nwant %s", in, got, want)
-		}
+		assert.Equal(t, want, parseRule(t, in), in)
 	}
 }
 
@@ -70,53 +66,44 @@ reject valve_part: "The valve opened." ;
 expect valve_part:"the [valve \[1\] body]" ;
 `
 	f, err := ParseString("valves.gsr", src)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(f.Uses) != 2 || f.Uses[0].Path != "units.gsr" || f.Uses[1].Stock != "terms" || f.Uses[1].Pos.Line != 3 {
-		t.Errorf("uses = %+v %+v", f.Uses[0], f.Uses[1])
-	}
-	if len(f.Rules) != 2 {
-		t.Fatalf("rules = %d", len(f.Rules))
-	}
-	if r := f.Rules[0]; r.Name != "valve_part" || r.Doc != "A valve part: \"valve body\", \"valve seat\".\nSecond line of the doc." || r.Pos.Line != 7 || r.Pos.Col != 1 {
-		t.Errorf("rule 0 = %q doc %q at %v", r.Name, r.Doc, r.Pos)
-	}
-	if f.Rules[1].Doc != "" {
-		t.Errorf("doc of unrelated = %q", f.Rules[1].Doc)
-	}
-	if len(f.Examples) != 3 {
-		t.Fatalf("examples = %d", len(f.Examples))
-	}
+	require.NoError(t, err)
+	require.Len(t, f.Uses, 2)
+	assert.Equal(t, "units.gsr", f.Uses[0].Path)
+	assert.Equal(t, "terms", f.Uses[1].Stock)
+	assert.Equal(t, 3, f.Uses[1].Pos.Line)
+	require.Len(t, f.Rules, 2)
+	r := f.Rules[0]
+	assert.Equal(t, "valve_part", r.Name)
+	assert.Equal(t, "A valve part: \"valve body\", \"valve seat\".\nSecond line of the doc.", r.Doc)
+	assert.Equal(t, [2]int{7, 1}, [2]int{r.Pos.Line, r.Pos.Col})
+	assert.Equal(t, [2]int{7, 28}, [2]int{r.End.Line, r.End.Col}, "just past the ';'")
+	assert.Empty(t, f.Rules[1].Doc, "a blank line parts a comment from the rule")
+	require.Len(t, f.Examples, 3)
 	e := f.Examples[0]
-	if !e.Expect || e.Rule != "valve_part" || e.Text != "Check the valve seat for grit." || e.Text[e.Span[0]:e.Span[1]] != "valve seat" || e.Pos.Line != 12 {
-		t.Errorf("example 0 = %+v", e)
-	}
-	if e := f.Examples[1]; e.Expect || e.Text != "The valve opened." {
-		t.Errorf("example 1 = %+v", e)
-	}
-	if e := f.Examples[2]; e.Text != "the valve [1] body" || e.Text[e.Span[0]:e.Span[1]] != "valve [1] body" {
-		t.Errorf("example 2 = %+v", e)
-	}
+	assert.True(t, e.Expect)
+	assert.Equal(t, "valve_part", e.Rule)
+	assert.Equal(t, "Check the valve seat for grit.", e.Text)
+	assert.Equal(t, "valve seat", e.Text[e.Span[0]:e.Span[1]])
+	assert.Equal(t, 12, e.Pos.Line)
+	assert.False(t, f.Examples[1].Expect)
+	assert.Equal(t, "The valve opened.", f.Examples[1].Text)
+	e = f.Examples[2]
+	assert.Equal(t, "the valve [1] body", e.Text)
+	assert.Equal(t, "valve [1] body", e.Text[e.Span[0]:e.Span[1]])
 }
 
 // wantErrors checks that src yields exactly the errors listed, each as
 // "line:col: substring of the message".
 func wantErrors(t *testing.T, err error, want ...string) {
 	t.Helper()
-	el, ok := err.(ErrorList)
-	if !ok {
-		t.Fatalf("error %v (%T) is not an ErrorList", err, err)
-	}
-	if len(el) != len(want) {
-		t.Fatalf("got %d errors, want %d:\n%s", len(el), len(want), el.Format())
-	}
+	var el ErrorList
+	require.ErrorAs(t, err, &el)
+	require.Len(t, el, len(want), el.Format())
 	for i, w := range want {
 		pos, msg, _ := strings.Cut(w, ": ")
 		got := el[i]
-		if gp := strings.TrimPrefix(got.Pos.String(), got.Pos.File+":"); gp != pos || !strings.Contains(got.Msg, msg) {
-			t.Errorf("error %d = %s: %s\nwant %s: …%s…", i, gp, got.Msg, pos, msg)
-		}
+		assert.Equal(t, pos, strings.TrimPrefix(got.Pos.String(), got.Pos.File+":"), "error %d: %s", i, got.Msg)
+		assert.Contains(t, got.Msg, msg, "error %d", i)
 	}
 }
 
@@ -166,20 +153,15 @@ n = xpos:/x/ begins:/y/ ;
 
 func TestErrorCaret(t *testing.T) {
 	_, err := ParseString("c.gsr", "term =\tADJ* NUON ;\nx = \"valve ;\n")
-	el := err.(ErrorList)
-	c := el[0].Caret()
-	if c != "x = \"valve ;\n    ^" {
-		t.Errorf("caret:\n%s", c)
-	}
+	var el ErrorList
+	require.ErrorAs(t, err, &el)
+	assert.Equal(t, "x = \"valve ;\n    ^", el[0].Caret())
 	// Unicode before the column: columns count characters.
 	_, err = ParseString("u.gsr", `r = "größe" % ;`)
-	el = err.(ErrorList)
-	if el[0].Pos.Col != 13 || el[0].Caret() != "r = \"größe\" % ;\n            ^" {
-		t.Errorf("pos %v caret:\n%s", el[0].Pos, el[0].Caret())
-	}
-	if !strings.Contains(el.Format(), "u.gsr:1:13: unexpected character '%'\n    r = \"größe\" % ;\n                ^\n") {
-		t.Errorf("Format:\n%s", el.Format())
-	}
+	require.ErrorAs(t, err, &el)
+	assert.Equal(t, 13, el[0].Pos.Col)
+	assert.Equal(t, "r = \"größe\" % ;\n            ^", el[0].Caret())
+	assert.Contains(t, el.Format(), "u.gsr:1:13: unexpected character '%'\n    r = \"größe\" % ;\n                ^\n")
 }
 
 func TestSetErrors(t *testing.T) {
@@ -193,9 +175,7 @@ term = NOUN ;
 expect trem: "the [valve]" ;
 noun_ = noun ;
 `)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	_, err = LoadFiles(f)
 	wantErrors(t, err,
 		"1:18: unknown tag NUON — did you mean \"NOUN\"?",
@@ -213,12 +193,8 @@ func writeFiles(t *testing.T, files map[string]string) string {
 	dir := t.TempDir()
 	for name, src := range files {
 		p := filepath.Join(dir, name)
-		if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.MkdirAll(filepath.Dir(p), 0o755))
+		require.NoError(t, os.WriteFile(p, []byte(src), 0o644))
 	}
 	return dir
 }
@@ -231,21 +207,14 @@ func TestUseResolution(t *testing.T) {
 		"lib/common.gsr": "number = NUM ;\n",
 	})
 	rs, err := Load(filepath.Join(dir, "main.gsr"))
-	if err != nil {
-		t.Fatal(err.(ErrorList).Format())
-	}
+	require.NoError(t, err)
 	names := strings.Join(rs.Names(), " ")
 	// Used files come first, each once (common.gsr is used twice), in the
 	// order of the use statements; stock rules after them.
-	if !strings.HasPrefix(names, "number unit part _modifier") || !strings.HasSuffix(names, "acronym valve_spec") {
-		t.Errorf("rules in order: %s", names)
-	}
-	if len(rs.Files) != 5 {
-		t.Errorf("%d files loaded", len(rs.Files))
-	}
-	if rs.Rule("unit").Pos.File != filepath.Join(dir, "lib/units.gsr") {
-		t.Errorf("unit from %s", rs.Rule("unit").Pos.File)
-	}
+	assert.True(t, strings.HasPrefix(names, "number unit part _modifier"), names)
+	assert.True(t, strings.HasSuffix(names, "acronym valve_spec"), names)
+	assert.Len(t, rs.Files, 5)
+	assert.Equal(t, filepath.Join(dir, "lib/units.gsr"), rs.Rule("unit").Pos.File)
 }
 
 func TestUseErrors(t *testing.T) {
@@ -255,47 +224,37 @@ func TestUseErrors(t *testing.T) {
 		"c.gsr": "use \"a.gsr\"\nuse \"missing.gsr\"\nuse stock term\nc = VERB ;\n",
 	})
 	_, err := Load(filepath.Join(dir, "a.gsr"))
-	el := err.(ErrorList)
-	if len(el) != 3 {
-		t.Fatalf("errors:\n%s", el.Format())
-	}
+	var el ErrorList
+	require.ErrorAs(t, err, &el)
+	require.Len(t, el, 3, el.Format())
 	msgs := el.Format()
 	for _, want := range []string{
 		"c.gsr:1:1: use cycle: " + filepath.Join(dir, "a.gsr") + " → " + filepath.Join(dir, "b.gsr") + " → " + filepath.Join(dir, "c.gsr") + " → " + filepath.Join(dir, "a.gsr"),
 		"c.gsr:2:1: cannot read used file " + filepath.Join(dir, "missing.gsr") + ": no such file or directory",
 		"c.gsr:3:1: no stock rule set \"term\" — did you mean \"terms\"?",
 	} {
-		if !strings.Contains(msgs, want) {
-			t.Errorf("missing %q in\n%s", want, msgs)
-		}
+		assert.Contains(t, msgs, want)
 	}
-	if _, err := Load(filepath.Join(dir, "nope.gsr")); err == nil || !strings.Contains(err.Error(), "nope.gsr") {
-		t.Errorf("missing top file: %v", err)
-	}
-	if rs, err := Load("stock:pairs", "stock:terms"); err != nil || rs.Rule("adj_noun") == nil || rs.Rule("term") == nil {
-		t.Errorf("Load(stock:…) = %v", err)
-	}
+	_, err = Load(filepath.Join(dir, "nope.gsr"))
+	assert.ErrorContains(t, err, "nope.gsr")
+	rs, err := Load("stock:pairs", "stock:terms")
+	require.NoError(t, err)
+	assert.NotNil(t, rs.Rule("adj_noun"))
+	assert.NotNil(t, rs.Rule("term"))
 }
 
 func TestStockSets(t *testing.T) {
 	names := StockNames()
-	if strings.Join(names, " ") != "pairs phrases terms" {
-		t.Fatalf("stock names %v", names)
-	}
+	require.Equal(t, []string{"pairs", "phrases", "terms"}, names)
 	rs, err := LoadStock(names...)
-	if err != nil {
-		t.Fatal(err.(ErrorList).Format())
-	}
+	require.NoError(t, err)
 	for _, r := range rs.Rules {
-		if r.Doc == "" {
-			t.Errorf("%s: stock rule %s has no documentation comment", r.Pos, r.Name)
-		}
+		assert.NotEmpty(t, r.Doc, "%s: stock rule %s has no documentation comment", r.Pos, r.Name)
 	}
 	pairs := map[string]bool{"adj_noun": true, "noun_noun": true, "verb_obj": true, "adv_adj": true, "verb_particle": true, "noun_of_noun": true}
 	for name := range pairs {
 		r := rs.Rule(name)
-		if r == nil {
-			t.Errorf("pairs lacks %s", name)
+		if !assert.NotNil(t, r, "pairs lacks %s", name) {
 			continue
 		}
 		labels := map[string]bool{}
@@ -304,27 +263,21 @@ func TestStockSets(t *testing.T) {
 				labels[l.Name] = true
 			}
 		})
-		if !labels["node"] || !labels["collocate"] || len(labels) != 2 {
-			t.Errorf("%s labels %v, want exactly node and collocate", name, labels)
-		}
+		assert.Equal(t, map[string]bool{"node": true, "collocate": true}, labels, name)
 	}
-	if _, err := Stock("nope"); err == nil {
-		t.Error("Stock(nope) gave no error")
-	}
+	_, err = Stock("nope")
+	assert.Error(t, err)
 }
 
 func TestParsePattern(t *testing.T) {
 	base, err := LoadStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	rs, err := ParsePattern(`term "of" term`, base)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if rs.Rule(PatternRule) == nil || base.Rule(PatternRule) != nil || len(rs.Rules) != len(base.Rules)+1 {
-		t.Errorf("pattern set has %d rules, base %d", len(rs.Rules), len(base.Rules))
-	}
+	require.NoError(t, err)
+	assert.NotNil(t, rs.Rule(PatternRule))
+	assert.Nil(t, base.Rule(PatternRule), "the base set is not changed")
+	assert.Len(t, rs.Rules, len(base.Rules)+1)
+	assert.Equal(t, Pos{File: "pattern", Line: 1, Col: 11, Offset: 10}, rs.Rule(PatternRule).Expr.(*Seq).Items[2].Position(), "positions are the pattern's own")
 	_, err = ParsePattern(`ADJ (NOUN`, nil)
 	wantErrors(t, err, "1:10: unexpected end of pattern (expected ')')")
 	_, err = ParsePattern(`ADJ trm`, base)
@@ -364,24 +317,19 @@ func TestRuleSamples(t *testing.T) {
 }
 
 func TestParseFileMissing(t *testing.T) {
-	if _, err := ParseFile(filepath.Join(t.TempDir(), "none.gsr")); err == nil {
-		t.Error("no error for a missing file")
-	}
+	_, err := ParseFile(filepath.Join(t.TempDir(), "none.gsr"))
+	assert.Error(t, err)
 }
 
 func TestByteOrderMarkAndCRLF(t *testing.T) {
 	f, err := ParseString("bom.gsr", "\ufeff# doc line\r\nterm = ADJ* NOUN ;\r\nbad = NUON ;\r\n")
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(f.Rules) != 2 || f.Rules[0].Doc != "doc line" || f.Rules[1].Pos.Line != 3 {
-		t.Errorf("rules %+v", f.Rules[0])
-	}
+	require.NoError(t, err)
+	require.Len(t, f.Rules, 2)
+	assert.Equal(t, "doc line", f.Rules[0].Doc)
+	assert.Equal(t, 3, f.Rules[1].Pos.Line)
 	_, err = LoadFiles(f)
 	wantErrors(t, err, "3:7: unknown tag NUON")
-	if c := err.(ErrorList)[0].Caret(); c != "bad = NUON ;\n      ^" {
-		t.Errorf("caret %q", c)
-	}
+	assert.Equal(t, "bad = NUON ;\n      ^", err.(ErrorList)[0].Caret())
 }
 
 func TestBareWordSaysQuoteIt(t *testing.T) {

@@ -3,6 +3,8 @@ package pattern
 import (
 	"math/bits"
 	"regexp"
+	"regexp/syntax"
+	"sort"
 	"strings"
 
 	"glossmith/grammar"
@@ -119,6 +121,81 @@ func (m *Matcher) evalField(f int, s string) uint64 {
 		mask &^= 1 << uint(i)
 		if m.atoms[i].test(s) {
 			out |= 1 << uint(i)
+		}
+	}
+	return out
+}
+
+// firstBytes returns, for a regular expression that can only match text
+// starting with one of a known set of bytes at the very start, that set;
+// otherwise nil. It lets the matcher skip the regular expression for most
+// words ("/^[A-Z]{2,6}s?$/" is tried only on words starting with a capital).
+func firstBytes(re *regexp.Regexp) *[256]bool {
+	t, err := syntax.Parse(re.String(), syntax.Perl)
+	if err != nil {
+		return nil
+	}
+	t = t.Simplify()
+	if t.Op != syntax.OpConcat || len(t.Sub) < 2 || t.Sub[0].Op != syntax.OpBeginText {
+		return nil
+	}
+	var set [256]bool
+	if !firstOf(&syntax.Regexp{Op: syntax.OpConcat, Sub: t.Sub[1:]}, &set) {
+		return nil
+	}
+	return &set
+}
+
+// firstOf adds to set every byte a match of t can start with and reports
+// whether t surely consumes at least one character (otherwise the set
+// says nothing).
+func firstOf(t *syntax.Regexp, set *[256]bool) bool {
+	switch t.Op {
+	case syntax.OpLiteral:
+		if len(t.Rune) == 0 || t.Flags&syntax.FoldCase != 0 || t.Rune[0] >= 0x80 {
+			return false
+		}
+		set[t.Rune[0]] = true
+		return true
+	case syntax.OpCharClass:
+		for i := 0; i+1 < len(t.Rune); i += 2 {
+			lo, hi := t.Rune[i], t.Rune[i+1]
+			if hi >= 0x80 {
+				for b := 0xC0; b < 0x100; b++ { // any UTF-8 lead byte
+					set[b] = true
+				}
+				hi = 0x7F
+			}
+			for r := lo; r <= hi; r++ {
+				set[r] = true
+			}
+		}
+		return len(t.Rune) > 0
+	case syntax.OpCapture, syntax.OpPlus:
+		return firstOf(t.Sub[0], set)
+	case syntax.OpRepeat:
+		return t.Min >= 1 && firstOf(t.Sub[0], set)
+	case syntax.OpConcat:
+		return len(t.Sub) > 0 && firstOf(t.Sub[0], set)
+	case syntax.OpAlternate:
+		for _, s := range t.Sub {
+			if !firstOf(s, set) {
+				return false
+			}
+		}
+		return true
+	}
+	return false
+}
+
+// sortedKeys is used for stable set atoms.
+func sortedKeys(items []string) []string {
+	s := append([]string(nil), items...)
+	sort.Strings(s)
+	out := s[:0]
+	for i, x := range s {
+		if i == 0 || x != s[i-1] {
+			out = append(out, x)
 		}
 	}
 	return out

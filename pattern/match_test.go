@@ -2,10 +2,14 @@ package pattern
 
 import (
 	"fmt"
-	"reflect"
+	"maps"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 
 	"glossmith/grammar"
 )
@@ -16,7 +20,7 @@ func render(ms []Match) string {
 		s := fmt.Sprintf("%s[%d,%d)", m.Rule, m.Start, m.End)
 		if m.Slots != nil {
 			var ls []string
-			for _, k := range sortedSlotNames(m.Slots) {
+			for _, k := range slices.Sorted(maps.Keys(m.Slots)) {
 				v := m.Slots[k]
 				ls = append(ls, fmt.Sprintf("%s=%d:%d", k, v[0], v[1]))
 			}
@@ -25,21 +29,6 @@ func render(ms []Match) string {
 		parts = append(parts, s)
 	}
 	return strings.Join(parts, " ")
-}
-
-func sortedSlotNames(m map[string][2]int) []string {
-	var out []string
-	for k := range m {
-		out = append(out, k)
-	}
-	for i := range out {
-		for j := i + 1; j < len(out); j++ {
-			if out[j] < out[i] {
-				out[i], out[j] = out[j], out[i]
-			}
-		}
-	}
-	return out
 }
 
 const greenhouse = "the/DET/DT stainless/ADJ/JJ steel/NOUN/NN valve/NOUN/NN body/NOUN/NN of/ADP/IN the/DET/DT north/ADJ/JJ greenhouse/NOUN/NN cracked/VERB/VBD ./PUNCT/."
@@ -55,9 +44,7 @@ of_term = term "of" DET? term ;
 	// [7,9) "north greenhouse". of_term: [1,9). Sorted by start, then
 	// rule order.
 	want := "term[1,5) of_term[1,9) term[7,9)"
-	if got != want {
-		t.Errorf("got  %s\nwant %s", got, want)
-	}
+	assert.Equal(t, want, got)
 }
 
 func TestFindNestedEverySpan(t *testing.T) {
@@ -65,35 +52,23 @@ func TestFindNestedEverySpan(t *testing.T) {
 	got := render(m.FindNested(toks("stainless/ADJ steel/NOUN valve/NOUN cracked/VERB")))
 	// Every span that ends in a noun and holds only ADJ/NOUN before it.
 	want := "term[0,2) term[0,3) term[1,2) term[1,3) term[2,3)"
-	if got != want {
-		t.Errorf("got  %s\nwant %s", got, want)
-	}
-	if ms := m.FindAll(toks("stainless/ADJ steel/NOUN valve/NOUN cracked/VERB")); render(ms) != "term[0,3)" {
-		t.Errorf("FindAll: %s", render(ms))
-	}
+	assert.Equal(t, want, got)
+	assert.Equal(t, "term[0,3)", render(m.FindAll(toks("stainless/ADJ steel/NOUN valve/NOUN cracked/VERB"))), "FindAll")
 }
 
 func TestNoEmptyMatches(t *testing.T) {
 	m := mustCompile(t, "r = ADJ* ;")
 	got := render(m.FindAll(toks("a/NOUN b/ADJ c/ADJ d/NOUN e/ADJ")))
-	if got != "r[1,3) r[4,5)" {
-		t.Errorf("got %s", got)
-	}
-	if n := m.FindNested(toks("a/NOUN")); n != nil {
-		t.Errorf("nested on no ADJ: %s", render(n))
-	}
+	assert.Equal(t, "r[1,3) r[4,5)", got)
+	assert.Nil(t, m.FindNested(toks("a/NOUN")), "nested on no ADJ")
 }
 
 func TestLabels(t *testing.T) {
 	m := mustCompile(t, `verb_obj = @verb VERB DET? ADJ* @object NOUN ;`)
 	got := render(m.FindAll(toks("we/PRON flushed/VERB the/DET long/ADJ line/NOUN and/CCONJ fixed/VERB valves/NOUN")))
 	want := "verb_obj[1,5){object=4:5,verb=1:2} verb_obj[6,8){object=7:8,verb=6:7}"
-	if got != want {
-		t.Errorf("got  %s\nwant %s", got, want)
-	}
-	if l := m.Labels("verb_obj"); !reflect.DeepEqual(l, []string{"verb", "object"}) {
-		t.Errorf("Labels = %v", l)
-	}
+	assert.Equal(t, want, got)
+	assert.Equal(t, []string{"verb", "object"}, m.Labels("verb_obj"))
 }
 
 func TestLabelChoice(t *testing.T) {
@@ -101,33 +76,21 @@ func TestLabelChoice(t *testing.T) {
 	// second alternative, as @z (ADJ NOUN). The first alternative in
 	// written order wins.
 	m := mustCompile(t, `r = @x ADJ @y NOUN | @z (ADJ NOUN) ;`)
-	if got := render(m.FindAll(toks("a/ADJ b/NOUN"))); got != "r[0,2){x=0:1,y=1:2}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,2){x=0:1,y=1:2}", render(m.FindAll(toks("a/ADJ b/NOUN"))))
 	m = mustCompile(t, `r = @z (ADJ NOUN) | @x ADJ @y NOUN ;`)
-	if got := render(m.FindAll(toks("a/ADJ b/NOUN"))); got != "r[0,2){z=0:2}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,2){z=0:2}", render(m.FindAll(toks("a/ADJ b/NOUN"))))
 	// Greedy repetition: @first takes as many tokens as the span allows.
 	m = mustCompile(t, `r = @first NOUN* @rest NOUN* ;`)
-	if got := render(m.FindAll(toks("a/NOUN b/NOUN c/NOUN"))); got != "r[0,3){first=0:3,rest=3:3}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,3){first=0:3,rest=3:3}", render(m.FindAll(toks("a/NOUN b/NOUN c/NOUN"))))
 	// A label inside a repetition holds the last round.
 	m = mustCompile(t, `r = (@n NOUN ",")+ ;`)
-	if got := render(m.FindAll(toks("a/NOUN ,/PUNCT b/NOUN ,/PUNCT"))); got != "r[0,4){n=2:3}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,4){n=2:3}", render(m.FindAll(toks("a/NOUN ,/PUNCT b/NOUN ,/PUNCT"))))
 	// A label in an alternative not taken is absent.
 	m = mustCompile(t, `r = @a ADJ | @n NOUN ;`)
-	if got := render(m.FindAll(toks("x/NOUN"))); got != "r[0,1){n=0:1}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,1){n=0:1}", render(m.FindAll(toks("x/NOUN"))))
 	// Labels of referenced rules stay inside them.
 	m = mustCompile(t, "np = @node NOUN ; r = @obj np ;", "r")
-	if got := render(m.FindAll(toks("x/NOUN"))); got != "r[0,1){obj=0:1}" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "r[0,1){obj=0:1}", render(m.FindAll(toks("x/NOUN"))))
 }
 
 func TestAnchors(t *testing.T) {
@@ -142,9 +105,7 @@ func TestAnchors(t *testing.T) {
 		{"r = _ (VERB $ | NOUN) ;", "r[2,4)"},
 	} {
 		m := mustCompile(t, c.rule)
-		if got := render(m.FindAll(s)); got != c.want {
-			t.Errorf("%s: got %q, want %q", c.rule, got, c.want)
-		}
+		assert.Equal(t, c.want, render(m.FindAll(s)), c.rule)
 	}
 }
 
@@ -153,12 +114,8 @@ func TestSentenceBoundary(t *testing.T) {
 	// for two nouns in a row must not join "valve" and "Body".
 	m := mustCompile(t, "pair = NOUN NOUN ;")
 	first, second := toks("the/DET valve/NOUN"), toks("body/NOUN cracked/VERB")
-	if got := append(m.FindAll(first), m.FindAll(second)...); len(got) != 0 {
-		t.Errorf("matched across sentences: %s", render(got))
-	}
-	if got := render(m.FindAll(append(first, second...))); got != "pair[1,3)" {
-		t.Errorf("control: got %s", got)
-	}
+	assert.Empty(t, append(m.FindAll(first), m.FindAll(second)...), "matched across sentences")
+	assert.Equal(t, "pair[1,3)", render(m.FindAll(append(first, second...))))
 }
 
 func TestTokenTests(t *testing.T) {
@@ -199,9 +156,7 @@ func TestTokenTests(t *testing.T) {
 		if c.rule == `r = _ ;` || strings.HasPrefix(c.rule, `r = !`) {
 			g = mergeRuns(m.FindAll(s))
 		}
-		if g != c.want {
-			t.Errorf("%s: got %q, want %q", c.rule, g, c.want)
-		}
+		assert.Equal(t, c.want, g, c.rule)
 	}
 }
 
@@ -223,45 +178,33 @@ func mergeRuns(ms []Match) string {
 func TestCompilePattern(t *testing.T) {
 	rs := mustSet(t, "term = ADJ* NOUN ;")
 	m, err := CompilePattern(`term "of" term`, rs)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	got := render(m.FindAll(toks("rate/NOUN of/ADP dry/ADJ air/NOUN")))
-	if got != "pattern[0,4)" {
-		t.Errorf("got %s", got)
-	}
+	assert.Equal(t, "pattern[0,4)", got)
 	_, err = CompilePattern(`term NUON`, rs)
-	el, ok := err.(grammar.ErrorList)
-	if !ok || len(el) != 1 {
-		t.Fatalf("want one error, got %v", err)
-	}
-	if e := el[0]; e.Pos.Line != 1 || e.Pos.Col != 6 || !strings.Contains(e.Msg, `did you mean "NOUN"?`) || e.Source != "term NUON" {
-		t.Errorf("error = %v (source %q)", e, e.Source)
-	}
-	if _, err := CompilePattern(`NOUN (`, nil); err == nil {
-		t.Error("no error for a broken pattern")
-	}
+	var el grammar.ErrorList
+	require.ErrorAs(t, err, &el)
+	require.Len(t, el, 1)
+	e := el[0]
+	assert.Equal(t, [2]int{1, 6}, [2]int{e.Pos.Line, e.Pos.Col})
+	assert.Contains(t, e.Msg, `did you mean "NOUN"?`)
+	assert.Equal(t, "term NUON", e.Source)
+	_, err = CompilePattern(`NOUN (`, nil)
+	assert.Error(t, err, "a broken pattern")
 }
 
 func TestCompileErrors(t *testing.T) {
 	rs := mustSet(t, "term = NOUN ; _helper = ADJ ;")
-	if _, err := Compile(rs, "trem"); err == nil || !strings.Contains(err.Error(), `did you mean "term"?`) {
-		t.Errorf("err = %v", err)
-	}
+	_, err := Compile(rs, "trem")
+	assert.ErrorContains(t, err, `did you mean "term"?`)
 	m, err := Compile(rs)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if got := m.Rules(); !reflect.DeepEqual(got, []string{"term"}) {
-		t.Errorf("default rules = %v (helpers named _… must be left out)", got)
-	}
+	require.NoError(t, err)
+	assert.Equal(t, []string{"term"}, m.Rules(), "helpers named _… are left out")
 }
 
 func TestConcurrentUse(t *testing.T) {
 	m, err := CompileStock("terms")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	corpus := syntheticCorpus(300)
 	want := make([]string, len(corpus))
 	for i, s := range corpus {
@@ -285,15 +228,13 @@ func TestConcurrentUse(t *testing.T) {
 	wg.Wait()
 	close(errs)
 	for e := range errs {
-		t.Error(e)
+		assert.Fail(t, e)
 	}
 }
 
 func TestCacheResetKeepsResults(t *testing.T) {
 	m, err := CompileStock("terms", "pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	corpus := syntheticCorpus(200)
 	var want []string
 	for _, s := range corpus {
@@ -303,31 +244,22 @@ func TestCacheResetKeepsResults(t *testing.T) {
 	maxClasses, maxDFAStates = 2, 2 // drop the caches before almost every sentence
 	m2, _ := CompileStock("terms", "pairs")
 	for i, s := range corpus {
-		if got := render(m2.FindAll(s)); got != want[i] {
-			t.Fatalf("sentence %d: %s != %s", i, got, want[i])
-		}
+		require.Equal(t, want[i], render(m2.FindAll(s)), "sentence %d", i)
 	}
 }
 
 func TestPairsLabels(t *testing.T) {
 	m, err := CompileStock("pairs")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, name := range m.Rules() {
-		if l := m.Labels(name); !reflect.DeepEqual(l, []string{"node", "collocate"}) && !reflect.DeepEqual(l, []string{"collocate", "node"}) {
-			t.Errorf("%s labels %v, want node and collocate", name, l)
-		}
+		assert.ElementsMatch(t, []string{"node", "collocate"}, m.Labels(name), name)
 	}
 	got := render(m.FindNested(toks("flush/VERB/VB the/DET/DT drip/NOUN/NN line/NOUN/NN")))
 	want := "verb_obj[0,3){collocate=2:3,node=0:1} verb_obj[0,4){collocate=3:4,node=0:1} noun_noun[2,4){collocate=2:3,node=3:4}"
-	if got != want {
-		t.Errorf("got  %s\nwant %s", got, want)
-	}
+	assert.Equal(t, want, got)
 }
 
 func TestCompileStockRefusesUnknownSet(t *testing.T) {
-	if _, err := CompileStock("no-such-set"); err == nil {
-		t.Fatal("CompileStock accepted a set that does not exist")
-	}
+	_, err := CompileStock("no-such-set")
+	assert.Error(t, err)
 }
