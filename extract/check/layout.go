@@ -129,7 +129,13 @@ func (l *layout) markSkips(line func(n int) string, lines int) {
 // position returns the 1-based line and column of byte offset off of the
 // text.
 func (l *layout) position(off int) (line, col int) {
-	var r int
+	line, r := l.runeIndex(off)
+	return line, l.column(line, r)
+}
+
+// runeIndex returns the line of byte offset off and the number of runes
+// before it on its line.
+func (l *layout) runeIndex(off int) (line, r int) {
 	if l.lastLine > 0 && off >= l.lastOff && (l.lastLine == len(l.lineStart) || off < l.lineStart[l.lastLine]) {
 		line = l.lastLine
 		r = l.lastRunes + utf8.RuneCountInString(l.d.Text[l.lastOff:off])
@@ -138,17 +144,30 @@ func (l *layout) position(off int) (line, col int) {
 		r = utf8.RuneCountInString(l.d.Text[l.lineStart[line-1]:off])
 	}
 	l.lastOff, l.lastLine, l.lastRunes = off, line, r
-	if m := l.columns(line); m != nil && r < len(m) {
-		return line, m[r] + 1
-	}
-	return line, r + 1
+	return line, r
 }
 
-// span returns the finding's start and end (just past its last character).
+// column turns the rune index r of text line n into a 1-based column.
+func (l *layout) column(n, r int) int {
+	if m := l.columns(n); m != nil && r < len(m) {
+		return m[r] + 1
+	}
+	return r + 1
+}
+
+// span sets the finding's start and end (just past its last character).
+// The end is counted on from the start, so that the spans of a sentence,
+// which come in order of their starts, are counted once.
 func (l *layout) span(f *Finding) {
-	f.Line, f.Column = l.position(f.Start)
+	line, r := l.runeIndex(f.Start)
+	f.Line, f.Column = line, l.column(line, r)
 	_, last := utf8.DecodeLastRuneInString(l.d.Text[:f.End])
-	f.EndLine, f.EndColumn = l.position(f.End - last)
+	endOff := f.End - last
+	if between := l.d.Text[f.Start:endOff]; strings.IndexByte(between, '\n') < 0 {
+		f.EndLine, f.EndColumn = line, l.column(line, r+utf8.RuneCountInString(between))+1
+		return
+	}
+	f.EndLine, f.EndColumn = l.position(endOff)
 	f.EndColumn++
 }
 

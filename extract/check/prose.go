@@ -28,6 +28,9 @@ func inAddress(text string, start, end int) bool {
 		}
 		end += n
 	}
+	if !addressLike(text[start:end]) {
+		return false
+	}
 	w := strings.TrimLeft(text[start:end], "([{<\"'`«“‘")
 	w = strings.TrimRight(w, ")]}>\"'`»”’.,;:!?")
 	switch {
@@ -60,4 +63,21 @@ var fileExtensions = map[string]bool{
 	"cfg": true, "conf": true, "log": true, "sh": true, "py": true, "go": true, "c": true, "h": true,
 	"js": true, "ts": true, "exe": true, "bin": true, "hex": true, "zip": true, "gz": true, "tar": true,
 	"png": true, "jpg": true, "svg": true, "dat": true, "bak": true,
+}
+
+// addressLike reports whether a run of non-space characters has what any
+// address has: a slash, a backslash, an "@", a colon or a dot before its
+// last character. Most words have none, and are passed at once.
+func addressLike(w string) bool {
+	for i := 0; i < len(w); i++ {
+		switch w[i] {
+		case '/', '\\', '@', ':':
+			return true
+		case '.':
+			if i < len(w)-1 {
+				return true
+			}
+		}
+	}
+	return false
 }
