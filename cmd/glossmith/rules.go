@@ -69,6 +69,18 @@ func runRulesCheck(model string, args []string) error {
 			failed += printGrammarErrors(os.Stderr, err)
 			continue
 		}
+		// Compile every rule and check its fine tags against the model
+		// before the examples, so that a rule too large to run or a tag
+		// the model never assigns fails here with file:line:col.
+		problems := pattern.CheckRules(rs)
+		tagErrs, warnings := rs.CheckTags(m.XPOSTags())
+		for _, e := range append(problems, tagErrs...) {
+			printGrammarError(os.Stderr, e)
+		}
+		for _, e := range warnings {
+			printGrammarError(os.Stderr, &grammar.Error{Pos: e.Pos, Msg: "warning: " + e.Msg, Source: e.Source})
+		}
+		failed += len(problems) + len(tagErrs)
 		n, fails := pattern.CheckExamples(rs, analyzer(m))
 		for _, e := range fails {
 			printGrammarError(os.Stderr, e)
