@@ -20,3 +20,20 @@ func TestCanonicalKeepsMeaningfulCase(t *testing.T) {
 		assert.Nil(t, find(ts, lost), "candidate %q", lost)
 	}
 }
+
+// A Latin or Greek plural is one candidate with its singular, and an
+// abbreviation keeps its form.
+func TestClassicalPluralsGrouped(t *testing.T) {
+	ts := extractTexts(t,
+		"Vortices form behind each blade. A vortex forms at the tip. See Fig. 3 for the axes of the rotor.",
+		"The axis of the rotor turns. Two formulae are given; the formula holds.")
+	for _, c := range []struct{ term, plural string }{{"vortex", "Vortices"}, {"axis", "axes"}, {"formula", "formulae"}} {
+		x := find(ts, c.term)
+		if assert.NotNil(t, x, "no candidate %q", c.term) {
+			assert.Contains(t, forms(x), c.plural, "variants of %q", c.term)
+		}
+	}
+	for _, lost := range []string{"vortice", "ax", "figust", "Figust"} {
+		assert.Nil(t, find(ts, lost), "candidate %q", lost)
+	}
+}

@@ -13,6 +13,7 @@ package lemma
 
 import (
 	"bytes"
+	_ "embed"
 	"encoding/binary"
 	"errors"
 	"fmt"
@@ -191,7 +192,10 @@ func makeRule(form, lemma string) rule {
 	return rule{Strip: len(form) - p, Add: lemma[p:]}
 }
 
-// Lemma returns the lemma of form read with the given tags.
+// Lemma returns the lemma of form read with the given tags: the
+// treebank's lemma for a word seen in training that the rules miss, else
+// the lemma of a Latin or Greek plural (see classical.txt), else what the
+// suffix rules give.
 func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 	tag := tagKey(upos, xpos)
 	if m := l.exceptions[tag]; m != nil {
@@ -199,14 +203,57 @@ func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 			return lem
 		}
 	}
+	if lem, ok := classicalLemma(form, upos, xpos); ok {
+		return lem
+	}
 	return l.byRule(form, upos, xpos)
 }
 
-// byRule applies the rule of the longest known suffix of the word.
+//go:embed classical.txt
+var classicalText string
+
+// classical maps Latin and Greek plurals to their lemmas ("vortices" →
+// "vortex", "axes" → "axis"): suffix rules learned from web text turn them
+// into non-words ("vortice", "ax"), which would split a term from its
+// plural. The list is WordNet's, filtered against the treebank
+// (internal/mkclassical).
+var classical = func() map[string]string {
+	m := map[string]string{}
+	for _, line := range strings.Split(classicalText, "\n") {
+		if p, l, ok := strings.Cut(line, " "); ok && !strings.HasPrefix(line, "#") {
+			m[p] = l
+		}
+	}
+	return m
+}()
+
+// classicalLemma returns the lemma of a common noun that is a Latin or
+// Greek plural in classical.
+func classicalLemma(form, upos, xpos string) (string, bool) {
+	if upos != "NOUN" || IsProper(upos, xpos) || form == "" {
+		return "", false
+	}
+	switch form[len(form)-1] { // every plural of the list ends so
+	case 'a', 'e', 'i', 's', 'A', 'E', 'I', 'S':
+	default:
+		return "", false
+	}
+	lem, ok := classical[strings.ToLower(form)]
+	return lem, ok
+}
+
+// byRule applies the rule of the longest known suffix of the word. An
+// abbreviation (a word ending in a period, "Fig.", "approx.") keeps its
+// form: rules learned from other abbreviations would rewrite it ("Aug." →
+// "August" made "Fig." "Figust"); those seen in training have their lemma
+// among the exceptions.
 func (l *Lemmatizer) byRule(form, upos, xpos string) string {
 	norm := form
 	if !IsProper(upos, xpos) {
 		norm = strings.ToLower(form)
+	}
+	if len(norm) > 1 && norm[len(norm)-1] == '.' {
+		return norm
 	}
 	rs := l.rules[tagKey(upos, xpos)]
 	if rs == nil {
