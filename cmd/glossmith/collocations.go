@@ -9,6 +9,7 @@ import (
 
 	"glossmith/extract/colloc"
 	"glossmith/extract/measure"
+	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
 )
@@ -130,9 +131,13 @@ func (o *collocationsOptions) validate(cmd *cobra.Command, args []string) error 
 }
 
 func (o *collocationsOptions) run(args []string) error {
-	var m *pattern.Matcher
+	var (
+		m  *pattern.Matcher
+		rs *grammar.RuleSet
+	)
 	if o.window == 0 {
-		rs, err := o.rules.load("pairs")
+		var err error
+		rs, err = o.rules.load("pairs")
 		if err != nil {
 			return err
 		}
@@ -148,6 +153,11 @@ func (o *collocationsOptions) run(args []string) error {
 	model, err := loadModel(o.in.model)
 	if err != nil {
 		return err
+	}
+	if rs != nil {
+		if err := checkTags(rs, model); err != nil {
+			return err
+		}
 	}
 	count := func(d *doc.Document) *colloc.Counter {
 		c := colloc.NewCounter()

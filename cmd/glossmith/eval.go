@@ -189,12 +189,15 @@ func (o *evalTermsOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
-	_, m, err := o.rules.matcher("terms")
+	rs, m, err := o.rules.matcher("terms")
 	if err != nil {
 		return err
 	}
 	model, err := loadModel(o.in.model)
 	if err != nil {
+		return err
+	}
+	if err := checkTags(rs, model); err != nil {
 		return err
 	}
 	col := terms.NewCollector(m, terms.Options{})

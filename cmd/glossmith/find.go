@@ -130,7 +130,7 @@ func (o *findOptions) validate(cmd *cobra.Command, args []string) error {
 
 // matcher compiles the pattern (the first argument) or the --rule rules,
 // and returns the arguments left: the inputs.
-func (o *findOptions) matcher(args []string) (*pattern.Matcher, []string, error) {
+func (o *findOptions) matcher(args []string) (*pattern.Matcher, *grammar.RuleSet, []string, error) {
 	var (
 		rs  *grammar.RuleSet
 		err error
@@ -138,35 +138,43 @@ func (o *findOptions) matcher(args []string) (*pattern.Matcher, []string, error)
 	if len(o.rules.files) > 0 {
 		if rs, err = grammar.Load(o.rules.files...); err != nil {
 			printGrammarErrors(os.Stderr, err)
-			return nil, nil, exitError{2, "the rules did not load"}
+			return nil, nil, nil, exitError{2, "the rules did not load"}
 		}
 	}
 	var m *pattern.Matcher
 	if len(o.rules.names) > 0 {
 		if rs == nil {
 			if rs, err = grammar.LoadStock(grammar.StockNames()...); err != nil {
-				return nil, nil, err
+				return nil, nil, nil, err
 			}
 		}
 		m, err = pattern.Compile(rs, o.rules.names...)
 	} else {
 		m, err = pattern.CompilePattern(args[0], rs)
+		if err == nil {
+			// The pattern compiled, so it parses: the set with it is
+			// what its fine tags are checked in.
+			rs, err = grammar.ParsePattern(args[0], rs)
+		}
 		args = args[1:]
 	}
 	if err != nil {
 		printGrammarErrors(os.Stderr, err)
-		return nil, nil, exitError{2, "the pattern did not compile"}
+		return nil, nil, nil, exitError{2, "the pattern did not compile"}
 	}
-	return m, args, nil
+	return m, rs, args, nil
 }
 
 func (o *findOptions) run(args []string) error {
-	m, args, err := o.matcher(args)
+	m, rs, args, err := o.matcher(args)
 	if err != nil {
 		return err
 	}
 	model, err := loadModel(o.in.model)
 	if err != nil {
+		return err
+	}
+	if err := checkTags(rs, model); err != nil {
 		return err
 	}
 	find := m.FindAll

@@ -2,7 +2,9 @@ package main
 
 import (
 	"fmt"
+	"os"
 
+	"glossmith/grammar"
 	"glossmith/tagger/hmm"
 )
 
@@ -21,3 +23,26 @@ func loadModel(path string) (*hmm.Model, error) {
 
 // loadTagger is loadModel for commands that only tag.
 func loadTagger(path string) (*hmm.Model, error) { return loadModel(path) }
+
+// checkTags checks the fine-tag tests of rs against the tags the model
+// assigns, before any input is read: a tag the model never assigns
+// (xpos:NNQ) stops the command with exit 2, a regexp over tags that can
+// match none of them is a warning.
+func checkTags(rs *grammar.RuleSet, model *hmm.Model) error {
+	errs, warnings := rs.CheckTags(model.XPOSTags())
+	printTagWarnings(warnings)
+	if len(errs) == 0 {
+		return nil
+	}
+	for _, e := range errs {
+		printGrammarError(os.Stderr, e)
+	}
+	return exitError{2, "the rules name fine tags the model does not assign"}
+}
+
+// printTagWarnings prints CheckTags' warnings on standard error.
+func printTagWarnings(warnings grammar.ErrorList) {
+	for _, e := range warnings {
+		printGrammarError(os.Stderr, &grammar.Error{Pos: e.Pos, Msg: "warning: " + e.Msg, Source: e.Source})
+	}
+}

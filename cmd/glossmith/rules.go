@@ -77,9 +77,7 @@ func runRulesCheck(model string, args []string) error {
 		for _, e := range append(problems, tagErrs...) {
 			printGrammarError(os.Stderr, e)
 		}
-		for _, e := range warnings {
-			printGrammarError(os.Stderr, &grammar.Error{Pos: e.Pos, Msg: "warning: " + e.Msg, Source: e.Source})
-		}
+		printTagWarnings(warnings)
 		failed += len(problems) + len(tagErrs)
 		n, fails := pattern.CheckExamples(rs, analyzer(m))
 		for _, e := range fails {

@@ -194,6 +194,9 @@ func (o *termsOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
+	if err := checkTags(rs, model); err != nil {
+		return err
+	}
 	opt := terms.Options{MaxWords: o.maxWords, Contexts: o.contexts}
 	if opt.Stop, err = readStopLists(o.stopFiles); err != nil {
 		return err
