@@ -1,0 +1,49 @@
+package check
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+	"unicode/utf8"
+
+	"glossmith/tagger/read"
+	"glossmith/tagger/tokenize"
+)
+
+// FuzzCheck runs the check on arbitrary Markdown, HTML and text sources
+// (tokenized, untagged): it must not panic, and every finding must lie
+// inside the text with a position of at least line 1, column 1.
+func FuzzCheck(f *testing.F) {
+	f.Add("Check the **setpoint** of the `magnet valve`.\n<!-- glossmith:skip-next-line -->\nA magnet valve.\n", "md")
+	f.Add("<p>The <code>setpoint</code> &amp; the magnet&nbsp;valve</p><pre>set point</pre>", "html")
+	f.Add("See [magnet valve](x) and &#x41; \\*setpoint\\* ``a ` b``\r\n", "md")
+	f.Add("glossmith:skip-next-line\n\nset-point /etc/set point.conf set–point\n", "txt")
+	m := Compile(Glossary{Entries: []Entry{
+		{ID: "1", Forms: []Form{{Text: "set point"}, {Text: "setpoint", Status: Deprecated}}},
+		{ID: "2", Forms: []Form{{Text: "solenoid valve"}, {Text: "magnet valve", Status: Forbidden}}},
+		{ID: "3", Forms: []Form{{Text: "PLC", CaseSensitive: true}}},
+	}})
+	dir := f.TempDir()
+	f.Fuzz(func(t *testing.T, src, format string) {
+		switch format {
+		case "md", "html", "txt":
+		default:
+			return
+		}
+		path := filepath.Join(dir, "fuzz."+format)
+		if err := os.WriteFile(path, []byte(src), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		d, _ := read.Read(read.Input{Name: path, Path: path}, read.Options{Format: format})
+		if d == nil {
+			return
+		}
+		tokenize.Document(d)
+		res := Check(d, []byte(src), Options{Glossary: m})
+		for _, fd := range res.Findings {
+			if fd.Line < 1 || fd.Column < 1 || fd.EndLine < fd.Line || fd.Start < 0 || fd.End > len(d.Text) || !utf8.ValidString(fd.Text) {
+				t.Fatalf("finding out of range: %+v", fd)
+			}
+		}
+	})
+}
