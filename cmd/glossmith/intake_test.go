@@ -100,3 +100,30 @@ func TestEncodingFlag(t *testing.T) {
 	assert.Equal(t, 2, r.code)
 	assert.Contains(t, r.stderr, `unknown encoding "klingon-8"`)
 }
+
+// "café" typed precomposed and as e + U+0301 is one term (NFC), and a
+// soft hyphen inside a word does not split it.
+func TestNormalizedTerms(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "kiosk.txt")
+	text := "The café kiosk heats the pressure sensor.\nThe cafe\u0301 kiosk reads the pres\u00ADsure sensor.\n"
+	require.NoError(t, os.WriteFile(p, []byte(text), 0o644))
+	r := run(t, "", "terms", "-q", "--to", "tsv", "--min-freq", "1", p)
+	require.Equal(t, 0, r.code, r.stderr)
+	rows, err := readTSV(r.stdout)
+	require.NoError(t, err)
+	freq := map[string]string{}
+	for _, row := range rows[1:] {
+		freq[row[1]] = row[3]
+		assert.NotContains(t, row[1], "\u0301")
+		assert.NotContains(t, row[1], "\u00AD")
+	}
+	assert.Equal(t, "2", freq["café kiosk"], "%v", freq)
+	assert.Equal(t, "2", freq["pressure sensor"], "%v", freq)
+}
+
+func readTSV(s string) ([][]string, error) {
+	cr := csv.NewReader(strings.NewReader(s))
+	cr.Comma = '\t'
+	return cr.ReadAll()
+}

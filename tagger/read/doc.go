@@ -132,6 +132,20 @@
 // A NUL byte in the first 8 KiB marks the file as not text (below); a NUL
 // further in is dropped with a Warning naming the first line that has one.
 //
+// # Normalization
+//
+// The text of every format but conllu (whose forms are kept as given) is
+// put in Unicode Normalization Form C, so that "café" typed with U+00E9
+// and with e + U+0301 is one word, and the invisible format characters
+// are removed before tokenizing: U+00AD SOFT HYPHEN ("pres&shy;sure" is
+// "pressure"), the zero width space, non-joiner, joiner and no-break
+// space, U+2060 WORD JOINER, and the bidirectional marks and controls of
+// UAX #9. Neither touches a line break, so Token.Line stays the line of
+// the file (md, txt) or of the extracted text (the other formats); within
+// a line, an offset after a removed or recomposed character is that many
+// bytes to the left of the file's. Text that needs neither (nearly all)
+// is checked in one pass and not copied.
+//
 // # Bad input
 //
 // An empty or blank file is a Note "no text" and is skipped. Content that

@@ -163,6 +163,9 @@ func isGzipName(name string) bool { return strings.EqualFold(filepath.Ext(name),
 func Read(in Input, opt Options) (*doc.Document, []Problem) {
 	r := &reader{in: in, opt: opt}
 	d := r.read()
+	if d != nil && !d.Pretokenized {
+		d.Text = normalizeText(d.Text)
+	}
 	if d != nil {
 		if !utf8.ValidString(d.Text) { // a reader bug, never the user's fault
 			r.errorf(0, "internal error: extracted text is not valid UTF-8")
