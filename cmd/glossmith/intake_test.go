@@ -6,11 +6,14 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"glossmith/internal/testenv"
 )
 
 // tsvOutputs are the TSV outputs of every command that writes TSV, on the
@@ -126,4 +129,31 @@ func readTSV(s string) ([][]string, error) {
 	cr := csv.NewReader(strings.NewReader(s))
 	cr.Comma = '\t'
 	return cr.ReadAll()
+}
+
+// tag --from conllu --to conllu passes a fully annotated treebank through
+// unchanged (UD English EWT 2.15 test file: multiword tokens, empty nodes,
+// newdoc/newpar, sent_id, every column), and keeps sentence ids unique
+// when two inputs use the same ones.
+func TestTagConlluPassThrough(t *testing.T) {
+	p := filepath.Join(testenv.SharedDir(t, "data/ud-en-ewt"), "en_ewt-ud-test.conllu")
+	src, err := os.ReadFile(p)
+	require.NoError(t, err)
+	r := run(t, "", "tag", "-q", "--from", "conllu", "--to", "conllu", p)
+	require.Equal(t, 0, r.code, r.stderr)
+	assert.True(t, r.stdout == string(src), "the EWT test file does not come back byte for byte")
+
+	dir := t.TempDir()
+	one := "# sent_id = s1\n1\tOpen\t_\t_\t_\t_\t0\troot\t0:root\t_\n2\tthe\t_\t_\t_\t_\t3\tdet\t3:det\t_\n3\tvalve\t_\t_\t_\t_\t1\tobj\t1:obj\tSpaceAfter=No\n4\t.\t_\t_\t_\t_\t1\tpunct\t1:punct\t_\n\n"
+	a, b := filepath.Join(dir, "a.conllu"), filepath.Join(dir, "b.conllu")
+	require.NoError(t, os.WriteFile(a, []byte(one), 0o644))
+	require.NoError(t, os.WriteFile(b, []byte(one), 0o644))
+	r = run(t, "", "tag", "-q", "--workers", "1", "--to", "conllu", a, b)
+	require.Equal(t, 0, r.code, r.stderr)
+	ids := regexp.MustCompile(`(?m)^# sent_id = (.*)$`).FindAllStringSubmatch(r.stdout, -1)
+	require.Len(t, ids, 2)
+	assert.Equal(t, "s1", ids[0][1])
+	assert.Equal(t, b+"-s1", ids[1][1])
+	// the dependency columns stay, the empty tag cells are filled
+	assert.Contains(t, r.stdout, "\tvalve\tvalve\tNOUN\tNN\t_\t1\tobj\t1:obj\tSpaceAfter=No\n")
 }

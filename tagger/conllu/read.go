@@ -81,6 +81,10 @@ const MaxLine = 1 << 20
 
 // Reader reads sentences one at a time from a CoNLL-U stream.
 type Reader struct {
+	// KeepRows keeps each sentence's lines in Sentence.Rows, for writing
+	// the sentence back as given (ReadAllRows sets it).
+	KeepRows bool
+
 	r     *bufio.Reader
 	name  string
 	line  int
@@ -191,6 +195,9 @@ func (r *Reader) readSentence() (s *Sentence, bad bool, err error) {
 		}
 		if s == nil {
 			s = &Sentence{Line: r.line}
+		}
+		if r.KeepRows {
+			s.Rows = append(s.Rows, line)
 		}
 		if !utf8.ValidString(line) {
 			r.errorf(r.line, "invalid UTF-8")
@@ -327,7 +334,18 @@ func spaceAfter(misc string) bool {
 // ReadAll reads every sentence of a stream. The error is an ErrorList of the
 // malformed lines (their sentences are left out) or an I/O error.
 func ReadAll(rd io.Reader, name string) ([]*Sentence, error) {
+	return readAll(NewReader(rd, name))
+}
+
+// ReadAllRows is ReadAll keeping each sentence's lines in Rows, for input
+// that is to be written back as given.
+func ReadAllRows(rd io.Reader, name string) ([]*Sentence, error) {
 	r := NewReader(rd, name)
+	r.KeepRows = true
+	return readAll(r)
+}
+
+func readAll(r *Reader) ([]*Sentence, error) {
 	var out []*Sentence
 	for {
 		s, err := r.Next()

@@ -14,6 +14,7 @@ import (
 type Writer struct {
 	w    *bufio.Writer
 	next int
+	seen map[string]bool // sentence ids written
 }
 
 // NewWriter returns a Writer on w. Call Flush when done.
@@ -22,14 +23,28 @@ func NewWriter(w io.Writer) *Writer { return &Writer{w: bufio.NewWriter(w), next
 // Flush writes any buffered data.
 func (w *Writer) Flush() error { return w.w.Flush() }
 
-// WriteDocument writes one document: a "# newdoc id" line, then for every
+// WriteDocument writes one document. A document read from CoNLL-U goes
+// out as it came in: every comment ("# newdoc", "# newpar", "# sent_id",
+// "# text", any other), multiword-token and empty-node row and every
+// column as given, only the empty ("_") LEMMA, UPOS and XPOS cells filled.
+// Other documents get a "# newdoc id" line, then for every
 // sentence "# sent_id" (the input's id when it had one), "# text" (the
 // sentence as it stands in the document, line breaks folded to spaces),
 // and one row per token with ID, FORM, LEMMA, UPOS, XPOS and MISC filled;
 // FEATS, HEAD, DEPREL and DEPS are "_". Tokens marked FusedNext are written
 // under a multiword-token range line, as UD does for clitics.
+//
+// A sentence id already written through this Writer (two inputs numbering
+// their sentences alike) is prefixed with the document name, so that ids
+// stay unique in the output.
 func (w *Writer) WriteDocument(d *doc.Document) error {
 	bw := w.w
+	if passThrough(d) {
+		for i := range d.Sentences {
+			w.writeRows(bw, d, &d.Sentences[i])
+		}
+		return bw.Flush()
+	}
 	bw.WriteString("# newdoc id = ")
 	bw.WriteString(oneLine(d.Name))
 	bw.WriteByte('\n')
@@ -42,11 +57,11 @@ func (w *Writer) WriteDocument(d *doc.Document) error {
 			bw.WriteString("# newpar\n")
 		}
 		bw.WriteString("# sent_id = ")
-		if s.ID != "" {
-			bw.WriteString(oneLine(s.ID))
-		} else {
-			bw.WriteString(strconv.Itoa(w.next))
+		id := oneLine(s.ID)
+		if id == "" {
+			id = strconv.Itoa(w.next)
 		}
+		bw.WriteString(w.uniqueID(d, id))
 		w.next++
 		bw.WriteString("\n# text = ")
 		bw.WriteString(SentenceText(d, s))

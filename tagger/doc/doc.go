@@ -65,6 +65,11 @@ type Sentence struct {
 	// NewPar marks the first sentence of a paragraph (blank line, heading,
 	// block element or "# newpar").
 	NewPar bool
+	// Rows are the sentence's lines as a CoNLL-U input gave them (comments,
+	// token rows, multiword-token and empty-node rows, without line
+	// breaks), so that CoNLL-U output can pass them through and fill only
+	// the empty annotation cells; nil for sentences cut from text.
+	Rows []string
 }
 
 // Start returns the byte offset of the sentence's first token, or -1 for an

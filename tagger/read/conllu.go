@@ -10,9 +10,10 @@ import (
 
 // conllu reads pre-tokenized CoNLL-U with the conllu package: tokens and
 // sentence breaks as given, annotation columns kept, "_" left empty for the
-// tagger. A malformed sentence is left out with an Error at its line.
+// tagger, each sentence's lines kept for CoNLL-U output to pass through. A
+// malformed sentence is left out with an Error at its line.
 func (r *reader) conllu(text string) *doc.Document {
-	sents, err := conllu.ReadAll(strings.NewReader(text), r.in.Name)
+	sents, err := conllu.ReadAllRows(strings.NewReader(text), r.in.Name)
 	var list conllu.ErrorList
 	switch {
 	case errors.As(err, &list):

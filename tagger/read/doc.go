@@ -109,7 +109,9 @@
 // conllu: the tokens and sentence breaks as given (Document.Pretokenized),
 // read by package conllu; LEMMA, UPOS and XPOS are kept where given and
 // left empty where "_"; a malformed sentence is left out with an Error at
-// its line. Token.Line is the token's row in the file.
+// its line. Each sentence keeps its lines (doc.Sentence.Rows), so that
+// CoNLL-U output passes them through, filling only empty annotation
+// cells. Token.Line is the token's row in the file.
 //
 // # Encodings
 //
