@@ -5,6 +5,9 @@ import (
 	"io"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // row builds one CoNLL-U token line from its ten columns.
@@ -36,26 +39,21 @@ func TestMalformedLinesNameFileAndLine(t *testing.T) {
 			if errors.Is(err, io.EOF) {
 				break
 			}
-			if err != nil {
-				t.Fatalf("%s: %v", c.name, err)
-			}
+			require.NoError(t, err, c.name)
 			got = append(got, s)
 		}
 		errs := r.Errors()
-		if len(errs) != 1 {
-			t.Errorf("%s: %d errors (%v), want 1", c.name, len(errs), errs)
+		if !assert.Len(t, errs, 1, c.name) {
 			continue
 		}
 		e := errs[0]
-		if e.File != "manual.conllu" || e.Line != c.line || !strings.Contains(e.Msg, c.want) {
-			t.Errorf("%s: got %q, want manual.conllu:%d mentioning %q", c.name, e.Error(), c.line, c.want)
-		}
-		if !strings.HasPrefix(e.Error(), "manual.conllu:") {
-			t.Errorf("%s: message %q does not start with file:line", c.name, e.Error())
-		}
+		assert.Equal(t, "manual.conllu", e.File, c.name)
+		assert.Equal(t, c.line, e.Line, c.name)
+		assert.Contains(t, e.Msg, c.want, c.name)
+		assert.True(t, strings.HasPrefix(e.Error(), "manual.conllu:"), "%s: %q does not start with file:line", c.name, e.Error())
 		// The good sentence after the bad one is still read.
-		if len(got) != 1 || got[0].Tokens[0].Form != "Valves" {
-			t.Errorf("%s: sentences after the error: %v", c.name, got)
+		if assert.Len(t, got, 1, c.name) {
+			assert.Equal(t, "Valves", got[0].Tokens[0].Form, c.name)
 		}
 	}
 }
@@ -64,10 +62,10 @@ func TestReadAllReturnsErrorList(t *testing.T) {
 	in := row("1", "Valve", "valve", "NOUN") + "\n" + row("1", "Valves", "valve", "NOUN", "NNS", "_", "0", "root", "_", "_")
 	sents, err := ReadAll(strings.NewReader(in), "x.conllu")
 	var list ErrorList
-	if !errors.As(err, &list) || len(list) != 1 || list[0].Line != 1 {
-		t.Fatalf("err = %v, want one error at line 1", err)
-	}
-	if len(sents) != 1 || sents[0].Tokens[0].UPOS != "NOUN" || sents[0].Tokens[0].XPOS != "NNS" {
-		t.Errorf("sentences = %+v", sents)
-	}
+	require.ErrorAs(t, err, &list)
+	require.Len(t, list, 1)
+	assert.Equal(t, 1, list[0].Line)
+	require.Len(t, sents, 1)
+	assert.Equal(t, "NOUN", sents[0].Tokens[0].UPOS)
+	assert.Equal(t, "NNS", sents[0].Tokens[0].XPOS)
 }

@@ -7,8 +7,10 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"glossmith/internal/testenv"
-	"glossmith/tagger/doc"
 )
 
 // The UD English EWT dev file: every sentence's "# text" must come back
@@ -18,17 +20,11 @@ import (
 func TestRoundTripEWT(t *testing.T) {
 	dir := testenv.SharedDir(t, "data/ud-en-ewt")
 	f, err := os.Open(filepath.Join(dir, "en_ewt-ud-dev.conllu"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	sents, err := ReadAll(f, "en_ewt-ud-dev.conllu")
-	if err != nil {
-		t.Fatalf("reading the treebank: %v", err)
-	}
-	if len(sents) != 2001 { // UD EWT 2.15 dev has 2,001 sentences (../shared/README.md)
-		t.Fatalf("read %d sentences, want 2001", len(sents))
-	}
+	require.NoError(t, err, "reading the treebank")
+	require.Len(t, sents, 2001, "UD EWT 2.15 dev has 2,001 sentences (../shared/README.md)")
 	d := Document("dev", sents)
 	mismatch := 0
 	for i := range d.Sentences {
@@ -51,16 +47,10 @@ func TestRoundTripEWT(t *testing.T) {
 
 	var buf bytes.Buffer
 	w := NewWriter(&buf)
-	if err := w.WriteDocument(d); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.WriteDocument(d))
 	again, err := ReadAll(&buf, "written")
-	if err != nil {
-		t.Fatalf("reading our own output: %v", err)
-	}
-	if len(again) != len(sents) {
-		t.Fatalf("wrote %d sentences, read back %d", len(sents), len(again))
-	}
+	require.NoError(t, err, "reading our own output")
+	require.Len(t, again, len(sents))
 	for i := range sents {
 		a, b := sents[i].Tokens, again[i].Tokens
 		if len(a) != len(b) {
@@ -97,43 +87,32 @@ func TestMalformed(t *testing.T) {
 		"",
 	}, "\n")
 	sents, err := ReadAll(strings.NewReader(src), "bad.conllu")
-	if len(sents) != 2 || sents[0].ID != "a" || sents[1].ID != "d" {
-		t.Fatalf("want the two good sentences a and d, got %d", len(sents))
-	}
-	list, ok := err.(ErrorList)
-	if !ok || len(list) != 2 {
-		t.Fatalf("want 2 errors, got %v", err)
-	}
-	if list[0].Line != 6 || !strings.Contains(list[0].Error(), "bad.conllu:6:") || !strings.Contains(list[0].Msg, "columns") {
-		t.Errorf("column-count error: %v", list[0])
-	}
-	if list[1].Line != 10 || !strings.Contains(list[1].Msg, "bad ID") {
-		t.Errorf("bad-ID error: %v", list[1])
-	}
+	require.Len(t, sents, 2, "the two good sentences a and d")
+	assert.Equal(t, "a", sents[0].ID)
+	assert.Equal(t, "d", sents[1].ID)
+	var list ErrorList
+	require.ErrorAs(t, err, &list)
+	require.Len(t, list, 2)
+	assert.Equal(t, 6, list[0].Line)
+	assert.Contains(t, list[0].Error(), "bad.conllu:6:")
+	assert.Contains(t, list[0].Msg, "columns")
+	assert.Equal(t, 10, list[1].Line)
+	assert.Contains(t, list[1].Msg, "bad ID")
 }
 
 func TestMultiwordToken(t *testing.T) {
 	src := "1-2\tdon't\t_\t_\t_\t_\t_\t_\t_\t_\n1\tdo\tdo\tAUX\tVBP\t_\t_\t_\t_\t_\n2\tn't\tnot\tPART\tRB\t_\t_\t_\t_\t_\n3\tflush\tflush\tVERB\tVB\t_\t_\t_\t_\tSpaceAfter=No\n4\t!\t!\tPUNCT\t.\t_\t_\t_\t_\t_\n\n"
 	sents, err := ReadAll(strings.NewReader(src), "m.conllu")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	d := Document("m", sents)
-	if d.Text != "don't flush!" {
-		t.Fatalf("text %q", d.Text)
-	}
+	require.Equal(t, "don't flush!", d.Text)
 	toks := d.Sentences[0].Tokens
-	if !toks[0].FusedNext || toks[1].FusedNext || d.Text[toks[1].Start:toks[1].End] != "n't" {
-		t.Fatalf("tokens %+v", toks)
-	}
+	assert.True(t, toks[0].FusedNext)
+	assert.False(t, toks[1].FusedNext)
+	assert.Equal(t, "n't", d.Text[toks[1].Start:toks[1].End])
 	var buf bytes.Buffer
 	w := NewWriter(&buf)
-	if err := w.WriteDocument(d); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.WriteDocument(d))
 	want := "1-2\tdon't\t_\t_\t_\t_\t_\t_\t_\t_\n1\tdo\tdo\tAUX\tVBP\t_\t_\t_\t_\t_\n"
-	if !strings.Contains(buf.String(), want) {
-		t.Fatalf("output lacks the range line:\n%s", buf.String())
-	}
-	_ = doc.Token{}
+	assert.Contains(t, buf.String(), want, "the range line")
 }

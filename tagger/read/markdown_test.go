@@ -7,15 +7,14 @@ import (
 	"time"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func md(t *testing.T, src string) string {
 	t.Helper()
 	r := &reader{in: Input{Name: "t.md"}}
 	d := r.markdown(src)
-	if got, want := strings.Count(d.Text, "\n"), strings.Count(normalizeNewlines(src), "\n"); got != want {
-		t.Fatalf("markdown changed the number of lines: %d, want %d\n%q", got, want, d.Text)
-	}
+	require.Equal(t, strings.Count(normalizeNewlines(src), "\n"), strings.Count(d.Text, "\n"), "markdown changed the number of lines:\n%q", d.Text)
 	return d.Text
 }
 
@@ -58,9 +57,7 @@ func TestMarkdownInline(t *testing.T) {
 		{"last line\\", "last line\\"},
 		{"A line break &#10; inside", "A line break   inside"},
 	} {
-		if got := md(t, tc.in); got != tc.want {
-			t.Errorf("%q\n got %q\nwant %q", tc.in, got, tc.want)
-		}
+		assert.Equal(t, tc.want, md(t, tc.in), "%q", tc.in)
 	}
 }
 
@@ -118,9 +115,7 @@ func TestMarkdownBlocks(t *testing.T) {
 			"# A\r\nB\r\n",
 			"A\n" + P + "B\n"},
 	} {
-		if got := md(t, tc.in); got != tc.want {
-			t.Errorf("%s:\n got %q\nwant %q", tc.name, got, tc.want)
-		}
+		assert.Equal(t, tc.want, md(t, tc.in), tc.name)
 	}
 }
 
