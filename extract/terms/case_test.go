@@ -37,3 +37,19 @@ func TestClassicalPluralsGrouped(t *testing.T) {
 		assert.Nil(t, find(ts, lost), "candidate %q", lost)
 	}
 }
+
+// URLs, e-mail addresses and file paths are no candidates, nor are the
+// words the tokenizer cuts a path into; a legal reference like
+// "ECB/2004/11" is no path.
+func TestAddressesAreNoCandidates(t *testing.T) {
+	ts := extractTexts(t,
+		"See https://example.org/docs/valve.html for the valve manual. Mail support@example.com about the pump.",
+		`Edit /etc/glossmith/config.yaml or C:\Users\grower\valve.cfg to set the flow rate. Open www.example.org today. Guideline ECB/2004/11 applies.`)
+	for _, noise := range []string{"https://example.org/docs/valve.html", "support@example.com", "mail support@example.com",
+		"config.yaml", "glossmith", "grower", "user", "valve.cfg", "www.example.org"} {
+		assert.Nil(t, find(ts, noise), "candidate %q", noise)
+	}
+	for _, term := range []string{"valve manual", "flow rate", "pump", "ECB"} {
+		assert.NotNil(t, find(ts, term), "no candidate %q", term)
+	}
+}

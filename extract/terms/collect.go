@@ -154,6 +154,8 @@ type scratch struct {
 	doc        *doc.Document    // the document being counted
 	toks       []doc.Token      // the sentence being counted
 	spans      spanState        // whether unclean is known for the sentence
+	addrKnown  bool             // whether addrBefore is known for the sentence
+	addrBefore []int32          // see hasAddress
 	unclean    []int32          // see surface
 	recent     wordCache        // words of the document by string address
 	isWord     []bool           // per token of the current sentence
@@ -332,7 +334,7 @@ func (c *Collector) Collect(d *doc.Document) *DocCounts {
 	clear(sc.context)
 	for si := range d.Sentences {
 		toks := d.Sentences[si].Tokens
-		sc.toks, sc.spans = toks, spansUnknown
+		sc.toks, sc.spans, sc.addrKnown = toks, spansUnknown, false
 		sc.countWords(dc, toks)
 		// Nested matches come sorted by span, so the same span found by
 		// several rules comes in a row; it counts once. Spans longer than
@@ -363,6 +365,9 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 		return
 	}
 	if j < len(toks) && glued(toks[j-1], toks[j]) && isHyphen(toks[j].Form) {
+		return
+	}
+	if sc.hasAddress(i, j) {
 		return
 	}
 	cw := &sc.cw
@@ -410,6 +415,60 @@ func (sc *scratch) contextOf(dc *DocCounts, si int) int32 {
 	dc.contexts = append(dc.contexts, ctxRef{text: text, line: int32(s.Line())})
 	sc.context[si] = int32(len(dc.contexts))
 	return int32(len(dc.contexts) - 1)
+}
+
+// hasAddress reports whether the span [i, j) of the current sentence
+// has a token of a URL, an e-mail address or a file path
+// (wordshape.IsAddress): such spans are no candidates. The tokens written
+// together (no space between them) are tested as one piece of text, since
+// the tokenizer splits a path at its slashes. addrBefore[k], worked out
+// once per sentence, is the number of such tokens before token k.
+func (sc *scratch) hasAddress(i, j int) bool {
+	if !sc.addrKnown {
+		sc.markAddresses()
+	}
+	return sc.addrBefore[j] != sc.addrBefore[i]
+}
+
+func (sc *scratch) markAddresses() {
+	toks, text := sc.toks, sc.doc.Text
+	if cap(sc.addrBefore) < len(toks)+1 {
+		sc.addrBefore = make([]int32, len(toks)+1, 2*len(toks)+2)
+	}
+	sc.addrBefore = sc.addrBefore[:len(toks)+1]
+	sc.addrBefore[0] = 0
+	n := int32(0)
+	for a := 0; a < len(toks); {
+		b := a + 1 // toks[a:b] are written together
+		for b < len(toks) && !toks[b-1].SpaceAfter && toks[b-1].End == toks[b].Start {
+			b++
+		}
+		piece := toks[a].Form
+		if b > a+1 && int(toks[a].Start) <= int(toks[b-1].End) && int(toks[b-1].End) <= len(text) {
+			piece = text[toks[a].Start:toks[b-1].End]
+		}
+		addr := mayBeAddress(piece) && wordshape.IsAddress(piece)
+		for k := a; k < b; k++ {
+			if addr {
+				n++
+			}
+			sc.addrBefore[k+1] = n
+		}
+		a = b
+	}
+	sc.addrKnown = true
+}
+
+// mayBeAddress is a quick test before wordshape.IsAddress: an address
+// has a slash, a backslash or an at sign, or starts with "www.".
+func mayBeAddress(s string) bool {
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '/', '\\', '@':
+			return true
+		}
+	}
+	return len(s) > 4 && s[3] == '.' && (s[0] == 'w' || s[0] == 'W')
 }
 
 // spanState tells whether the clean parts of the current sentence are

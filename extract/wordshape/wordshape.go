@@ -5,6 +5,7 @@
 package wordshape
 
 import (
+	"strings"
 	"unicode"
 	"unicode/utf8"
 )
@@ -73,4 +74,42 @@ func keepsCaseRunes(s string) bool {
 		prevLetter = unicode.IsLetter(r)
 	}
 	return false
+}
+
+// IsAddress reports whether s, a piece of text without white space, is a
+// URL ("https://…", "www.…"), an e-mail address or a file path ("/etc/x",
+// "C:\dir\file", "docs/setup/a.md"): text to copy, not words of a term.
+// A reference such as "ECB/2004/11" or "and/or" is no path: a relative path
+// needs a file extension.
+func IsAddress(s string) bool {
+	if strings.Contains(s, "://") || len(s) > 4 && strings.EqualFold(s[:4], "www.") {
+		return true
+	}
+	if at := strings.IndexByte(s, '@'); at > 0 {
+		if dot := strings.LastIndexByte(s, '.'); dot > at+1 && dot < len(s)-1 {
+			return true
+		}
+	}
+	switch {
+	case strings.HasPrefix(s, "/") && len(s) > 1, strings.HasPrefix(s, "~/"), strings.HasPrefix(s, "./"), strings.HasPrefix(s, "../"):
+		return true
+	case len(s) > 2 && s[1] == ':' && (s[2] == '\\' || s[2] == '/'): // C:\file
+		return true
+	}
+	sep := strings.LastIndexAny(s, `/\`)
+	if sep <= 0 {
+		return false
+	}
+	// dir/name.ext: an extension of one to five letters or digits.
+	name := s[sep+1:]
+	dot := strings.LastIndexByte(name, '.')
+	if dot <= 0 || len(name)-dot-1 < 1 || len(name)-dot-1 > 5 {
+		return false
+	}
+	for _, c := range []byte(name[dot+1:]) {
+		if !('a' <= c && c <= 'z' || 'A' <= c && c <= 'Z' || '0' <= c && c <= '9') {
+			return false
+		}
+	}
+	return true
 }

@@ -36,3 +36,13 @@ func TestKeepsCase(t *testing.T) {
 		assert.Equal(t, want, KeepsCase(s), "KeepsCase(%q)", s)
 	}
 }
+
+func TestIsAddress(t *testing.T) {
+	for s, want := range map[string]bool{
+		"https://example.org/docs/valve.html": true, "www.example.org": true, "support@example.com": true,
+		"/etc/glossmith/config.yaml": true, `C:\Users\grower\valve.cfg`: true, "docs/setup/valve.md": true, "~/notes": true,
+		"and/or": false, "km/h": false, "ECB/2004/11": false, "(ECB/2014/17)": false, "/": false, "HAWT/HAWTs": false, "valve": false, "e.g.": false, "@home": false, "user@host": false,
+	} {
+		assert.Equal(t, want, IsAddress(s), "IsAddress(%q)", s)
+	}
+}
