@@ -24,12 +24,15 @@ func newTagCmd() *cobra.Command {
 		Use:   "tag [flags] INPUT...",
 		Short: "Tokenize, sentence-split and tag documents",
 		Long: `Tokenizes, sentence-splits and tags documents with the embedded model (or --model),
-filling lemma, UPOS and XPOS. CoNLL-U input whose tag and lemma columns are
-filled is passed through as it is; columns left "_" are filled.
+filling lemma, UPOS and XPOS. CoNLL-U input written as CoNLL-U keeps every
+row, column and comment as given; only lemma, UPOS and XPOS cells left "_"
+are filled (a fully annotated file comes back unchanged), and a sent_id that
+an earlier input already used gets the document name as prefix.
 
 Output formats (--to):
   conllu  CoNLL-U with # sent_id and # text; SpaceAfter=No in MISC
-  tsv     one row per token with a header row
+  tsv     one row per token with a header row; a field holding a tab, quote
+          or line break is quoted as in RFC 4180
   jsonl   one JSON object per sentence with its tokens
   text    one sentence per line as word/TAG pairs (--tagset xpos|upos)`,
 		Example: `  glossmith tag --to conllu testdata/demo
