@@ -204,8 +204,11 @@ func (o *evalTermsOptions) run(args []string) error {
 	corpus := terms.NewCorpus(0)
 	o.in.reuseTokens = true // Collect and Add copy what they keep
 	_, runErr := runDocs(&o.in, args, model, col.Collect, func(_ *doc.Document, dc *terms.DocCounts) { corpus.Add(dc); dc.Release() })
-	if corpus.Documents() == 0 {
-		return runErr
+	if corpus.Documents() == 0 || corpus.Tokens() == 0 {
+		if runErr != nil {
+			return runErr
+		}
+		return exitError{1, "no words read from the inputs: nothing to evaluate"}
 	}
 	ts := corpus.Terms(modelReference{model})
 	full, err := terms.Rank(ts, terms.RankOptions{MinFreq: 1, All: true})

@@ -2,9 +2,11 @@ package terms
 
 import (
 	"bufio"
+	"bytes"
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 )
 
 // Gold is a reference term list: lower-cased surface forms.
@@ -20,6 +22,9 @@ func ReadGold(r io.Reader, name string) (Gold, error) {
 	line := 0
 	for sc.Scan() {
 		line++
+		if !utf8.Valid(sc.Bytes()) || bytes.IndexByte(sc.Bytes(), 0) >= 0 {
+			return nil, fmt.Errorf("%s:%d: not a text file (a NUL byte or invalid UTF-8): want one term per line", name, line)
+		}
 		text := strings.TrimSpace(sc.Text())
 		if text == "" || strings.HasPrefix(text, "#") {
 			continue
