@@ -17,9 +17,10 @@ import (
 	"fmt"
 	"io"
 	"log"
+	"maps"
 	"os"
 	"path/filepath"
-	"sort"
+	"slices"
 	"strings"
 	"unicode"
 
@@ -115,11 +116,7 @@ func count(r io.Reader, name string) (inside, final map[string]int, err error) {
 }
 
 func write(path string, inside, final map[string]int) error {
-	forms := make([]string, 0, len(inside))
-	for a := range inside {
-		forms = append(forms, a)
-	}
-	sort.Strings(forms)
+	forms := slices.Sorted(maps.Keys(inside))
 	tmp, err := os.CreateTemp(filepath.Dir(path), ".abbrev-*.txt")
 	if err != nil {
 		return err
