@@ -5,6 +5,9 @@ import (
 	"sort"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // extractTexts runs the default extraction over small texts, one document
@@ -47,17 +50,10 @@ func TestVariantsGrouped(t *testing.T) {
 			group = x
 		}
 	}
-	if group == nil {
-		t.Fatal("no set point candidate")
-	}
-	got := forms(group)
-	want := []string{"set point", "set points", "set-point", "setpoint"}
-	if strings.Join(got, "|") != strings.Join(want, "|") {
-		t.Errorf("variants %v, want %v", got, want)
-	}
-	if group.Freq != 4 || group.Docs != 2 {
-		t.Errorf("freq %d docs %d, want 4 and 2", group.Freq, group.Docs)
-	}
+	require.NotNil(t, group, "no set point candidate")
+	assert.Equal(t, []string{"set point", "set points", "set-point", "setpoint"}, forms(group))
+	assert.Equal(t, 4, group.Freq)
+	assert.Equal(t, 2, group.Docs)
 }
 
 // The canonical form lemmatizes the head, folds case when a lower-case
@@ -66,26 +62,23 @@ func TestCanonicalForm(t *testing.T) {
 	ts := extractTexts(t,
 		"Drip Emitters\n\nClean the drip emitters weekly. Each drip emitter delivers 2 litres.",
 		"The EC reading rose. Check the EC sensor and the rates of flow at the pump.")
-	if x := find(ts, "drip emitter"); x == nil || !strings.Contains(strings.Join(forms(x), "|"), "Drip Emitters") {
-		t.Errorf("drip emitter: %+v", x)
+	if x := find(ts, "drip emitter"); assert.NotNil(t, x) {
+		assert.Contains(t, forms(x), "Drip Emitters")
 	}
-	if find(ts, "EC") == nil || find(ts, "EC sensor") == nil {
-		t.Errorf("acronym case not kept: %v", names(ts))
-	}
-	if find(ts, "rate of flow") == nil {
-		t.Errorf("no 'rate of flow' (head before 'of' lemmatized): %v", names(ts))
-	}
+	assert.NotNil(t, find(ts, "EC"), "acronym case not kept: %v", names(ts))
+	assert.NotNil(t, find(ts, "EC sensor"), "acronym case not kept: %v", names(ts))
+	assert.NotNil(t, find(ts, "rate of flow"), "head before 'of' lemmatized: %v", names(ts))
 }
 
 // A nested candidate never cuts a hyphenated word: "compensating drip
 // emitter" is not a candidate inside "pressure-compensating drip emitter".
 func TestNoCutHyphen(t *testing.T) {
 	ts := extractTexts(t, "Fit a pressure-compensating drip emitter to each pot.")
-	if find(ts, "compensating drip emitter") != nil || find(ts, "compensating") != nil {
-		t.Errorf("a candidate cuts the hyphenated word: %v", names(ts))
+	for _, cut := range []string{"compensating drip emitter", "compensating"} {
+		assert.Nil(t, find(ts, cut), "a candidate cuts the hyphenated word: %v", names(ts))
 	}
-	if find(ts, "pressure-compensating drip emitter") == nil || find(ts, "drip emitter") == nil {
-		t.Errorf("missing candidates: %v", names(ts))
+	for _, want := range []string{"pressure-compensating drip emitter", "drip emitter"} {
+		assert.NotNil(t, find(ts, want), "missing candidate: %v", names(ts))
 	}
 }
 
@@ -136,20 +129,16 @@ func TestDeterministicOutput(t *testing.T) {
 func TestContexts(t *testing.T) {
 	ts := extractTexts(t, "First line.\nThe pilot port clogs. The pilot port is small.", "A pilot port needs cleaning.")
 	x := find(ts, "pilot port")
-	if x == nil || len(x.Contexts) != 3 {
-		t.Fatalf("pilot port contexts: %+v", x)
-	}
-	if x.Contexts[0].Doc != "a" || x.Contexts[0].Line != 2 || x.Contexts[0].Text != "The pilot port clogs." || x.Contexts[1].Doc != "b" {
-		t.Errorf("contexts %+v", x.Contexts)
-	}
+	require.NotNil(t, x)
+	require.Len(t, x.Contexts, 3)
+	assert.Equal(t, Context{Doc: "a", Line: 2, Text: "The pilot port clogs."}, x.Contexts[0])
+	assert.Equal(t, "b", x.Contexts[1].Doc, "one context per document first")
 }
 
 // Plausible drops symbols, keeps acronyms.
 func TestPlausible(t *testing.T) {
 	for term, want := range map[string]bool{"r": false, "ϕ": false, "cl": false, "EC": true, "valve": true, "3a": false, "drip line": true} {
-		if got := Plausible(&Term{Term: term, Words: len(strings.Fields(term))}); got != want {
-			t.Errorf("Plausible(%q) = %v, want %v", term, got, want)
-		}
+		assert.Equal(t, want, Plausible(&Term{Term: term, Words: len(strings.Fields(term))}), "Plausible(%q)", term)
 	}
 }
 
@@ -158,12 +147,8 @@ func TestCutoff(t *testing.T) {
 	ts := extractTexts(t, "The solenoid valve opens. The solenoid valve closes. It was a good day for everyone.")
 	all, _ := Rank(ts, RankOptions{All: true})
 	def, _ := Rank(ts, RankOptions{})
-	if len(def) >= len(all) {
-		t.Fatalf("cut-off removed nothing: %d of %d", len(def), len(all))
-	}
+	require.Less(t, len(def), len(all), "the cut-off removed nothing")
 	for _, x := range def {
-		if x.Score < Cutoff {
-			t.Errorf("%q scores %.2f below the cut-off", x.Term, x.Score)
-		}
+		assert.GreaterOrEqual(t, x.Score, Cutoff, "%q scores below the cut-off", x.Term)
 	}
 }

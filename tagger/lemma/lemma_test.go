@@ -6,6 +6,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"glossmith/internal/testenv"
 	"glossmith/tagger/conllu"
 )
@@ -32,35 +35,24 @@ func TestRulesGeneralize(t *testing.T) {
 		{"valve", "NOUN", "NN", "valve"}, // tag never seen: word as is
 	}
 	for _, c := range cases {
-		if got := l.Lemma(c.form, c.upos, c.xpos); got != c.want {
-			t.Errorf("Lemma(%q, %s) = %q, want %q", c.form, c.xpos, got, c.want)
-		}
+		assert.Equal(t, c.want, l.Lemma(c.form, c.upos, c.xpos), "Lemma(%q, %s)", c.form, c.xpos)
 	}
 }
 
 func TestMarshalRoundTrip(t *testing.T) {
 	l := Train([]Example{{"valves", "valve", "NOUN", "NNS"}, {"went", "go", "VERB", "VBD"}, {"ran", "run", "VERB", "VBD"}})
 	b, err := l.MarshalBinary()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var l2 Lemmatizer
-	if err := l2.UnmarshalBinary(b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, l2.UnmarshalBinary(b))
 	b2, _ := l2.MarshalBinary()
-	if string(b) != string(b2) {
-		t.Error("re-encoding changed the bytes")
-	}
-	if l2.Lemma("went", "VERB", "VBD") != "go" || l2.Lemma("gaskets", "NOUN", "NNS") != "gasket" {
-		t.Error("decoded lemmatizer differs")
-	}
+	assert.Equal(t, b, b2, "re-encoding changed the bytes")
+	assert.Equal(t, "go", l2.Lemma("went", "VERB", "VBD"), "decoded lemmatizer")
+	assert.Equal(t, "gasket", l2.Lemma("gaskets", "NOUN", "NNS"), "decoded lemmatizer")
 	// Every truncation is an error, never a panic.
 	for n := 0; n < len(b); n++ {
 		var l3 Lemmatizer
-		if err := l3.UnmarshalBinary(b[:n]); err == nil {
-			t.Errorf("truncated to %d of %d bytes: no error", n, len(b))
-		}
+		assert.Error(t, l3.UnmarshalBinary(b[:n]), "truncated to %d of %d bytes", n, len(b))
 	}
 }
 
@@ -71,14 +63,10 @@ func TestEWTGoldTags(t *testing.T) {
 	dir := testenv.SharedDir(t, "data/ud-en-ewt")
 	read := func(name string) []*conllu.Sentence {
 		f, err := os.Open(filepath.Join(dir, name))
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		defer f.Close()
 		s, err := conllu.ReadAll(f, name)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		return s
 	}
 	var ex []Example
@@ -110,7 +98,5 @@ func TestEWTGoldTags(t *testing.T) {
 	}
 	acc := 100 * float64(right) / float64(total)
 	t.Logf("EWT dev with gold tags: lemma %.2f%% (unseen words %.2f%% of %d)", acc, 100*float64(unseenRight)/float64(unseen), unseen)
-	if acc < 98.0 {
-		t.Errorf("lemma accuracy %.2f%% < 98%%", acc)
-	}
+	assert.GreaterOrEqual(t, acc, 98.0, "lemma accuracy (case-insensitive) on EWT dev with gold tags")
 }
