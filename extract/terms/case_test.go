@@ -4,6 +4,7 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Acronyms, units and mixed-case words keep their case in the canonical
@@ -52,4 +53,14 @@ func TestAddressesAreNoCandidates(t *testing.T) {
 	for _, term := range []string{"valve manual", "flow rate", "pump", "ECB"} {
 		assert.NotNil(t, find(ts, term), "no candidate %q", term)
 	}
+}
+
+// A document's first context is a full sentence of reasonable length when
+// it has one, not a heading or a list fragment.
+func TestContextsPreferFullSentences(t *testing.T) {
+	ts := extractTexts(t, "Pilot Port Cleaning\n\n- pilot port\n\nThe pilot port clogs when the water is hard.")
+	x := find(ts, "pilot port")
+	require.NotNil(t, x)
+	require.NotEmpty(t, x.Contexts)
+	assert.Equal(t, "The pilot port clogs when the water is hard.", x.Contexts[0].Text)
 }

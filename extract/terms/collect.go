@@ -8,6 +8,7 @@
 package terms
 
 import (
+	"strings"
 	"sync"
 	"unicode"
 	"unicode/utf8"
@@ -101,6 +102,8 @@ type docCand struct {
 	nctx     int32
 	ctx      [maxDocContexts]int32 // contexts offered, in DocCounts.contexts
 	lastSent int32                 // Sentence.Index of the last context taken
+	// firstGood tells whether ctx[0] is a good context (goodContext).
+	firstGood bool
 }
 
 // docSpelling is a surface form as written, white space folded.
@@ -394,11 +397,51 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 	dc.addSpelling(g, surface, inBuf)
 	dc.addCanonical(sc, g, i, j)
 	// One context per sentence; the corpus keeps the first few overall.
-	if g.nctx < maxDocContexts && (g.nctx == 0 || g.lastSent != int32(s.Index)) {
+	// A full sentence of reasonable length shows the term in use better
+	// than a heading or a list fragment: the first context of a document
+	// (the one the corpus shows first) is a good sentence when the
+	// document has one.
+	switch {
+	case g.nctx > 0 && g.lastSent == int32(s.Index):
+	case g.nctx < maxDocContexts:
 		g.lastSent = int32(s.Index)
 		g.ctx[g.nctx] = sc.contextOf(dc, si)
 		g.nctx++
+		if k := g.nctx - 1; k > 0 && !g.firstGood && goodContext(dc.contexts[g.ctx[k]].text) {
+			g.ctx[0], g.ctx[k] = g.ctx[k], g.ctx[0]
+			g.firstGood = true
+		} else if k == 0 {
+			g.firstGood = goodContext(dc.contexts[g.ctx[0]].text)
+		}
+	case !g.firstGood && goodContext(sc.sentenceText(dc, si)):
+		g.lastSent = int32(s.Index)
+		g.ctx[0] = sc.contextOf(dc, si)
+		g.firstGood = true
 	}
+}
+
+// maxContextLen is the longest sentence preferred as a context, in bytes:
+// longer ones are mostly run-on text that tables and lists turned into one
+// "sentence".
+const maxContextLen = 300
+
+// goodContext reports whether a sentence is a good example: a full
+// sentence (ending in a full stop, a question or exclamation mark, maybe
+// followed by a closing quote or bracket) of at most maxContextLen bytes
+// and more than three words' worth of text, not a heading or a list item.
+func goodContext(text string) bool {
+	t := strings.TrimRight(text, "\"')]”’ ")
+	return len(text) <= maxContextLen && len(t) > 20 && strings.ContainsAny(t[len(t)-1:], ".!?") && strings.Count(t, " ") >= 3
+}
+
+// sentenceText returns the text of the current sentence si as contextOf
+// stores it.
+func (sc *scratch) sentenceText(dc *DocCounts, si int) string {
+	if k := sc.context[si]; k > 0 {
+		return dc.contexts[k-1].text
+	}
+	s, _ := sc.surface(0, len(sc.doc.Sentences[si].Tokens))
+	return s
 }
 
 // contextOf returns the index in dc.contexts of sentence si, adding it on
