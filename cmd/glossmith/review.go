@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"net"
@@ -172,7 +173,15 @@ func serveUntilSignal(ctx context.Context, ln net.Listener, h http.Handler) erro
 	}
 	sctx, cancel := context.WithTimeout(context.Background(), 5*time.Second)
 	defer cancel()
-	return hs.Shutdown(sctx)
+	err := hs.Shutdown(sctx)
+	if errors.Is(err, context.DeadlineExceeded) {
+		// A connection the browser opened ahead of need (a preconnect)
+		// counts as busy until it has been silent for five seconds, so
+		// Shutdown can wait out its deadline with nothing in flight.
+		// Every decision is its own transaction: closing now loses none.
+		return hs.Close()
+	}
+	return err
 }
 
 // openBrowser asks the desktop to open url.
