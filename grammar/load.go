@@ -5,9 +5,11 @@ import (
 	"fmt"
 	"glossmith/internal/suggest"
 	"io/fs"
+	"maps"
 	"os"
 	"path"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -431,12 +433,7 @@ func IsSingleToken(rs *RuleSet, n Node) bool {
 // exponential time).
 func (rs *RuleSet) computeSingle() {
 	rs.single = make(map[string]bool, len(rs.byName))
-	names := make([]string, 0, len(rs.byName))
-	for name := range rs.byName {
-		names = append(names, name)
-	}
-	sort.Strings(names)
-	for _, name := range names {
+	for _, name := range slices.Sorted(maps.Keys(rs.byName)) {
 		rs.isSingle(&Ref{Name: name}, map[string]bool{})
 	}
 }

@@ -45,7 +45,7 @@ func newAtom(t *grammar.Test) *atom {
 }
 
 func newSetAtom(kind grammar.TestKind, items []string) *atom {
-	items = sortedKeys(items)
+	items = sortedUnique(items)
 	a := &atom{kind: kind, set: make(map[string]struct{}, len(items))}
 	a.key = "set:" + kind.String() + ":" + strings.Join(items, "\x00")
 	for _, w := range items {
@@ -188,8 +188,8 @@ func firstOf(t *syntax.Regexp, set *[256]bool) bool {
 	return false
 }
 
-// sortedKeys is used for stable set atoms.
-func sortedKeys(items []string) []string {
+// sortedUnique returns items sorted, each once, for stable set atoms.
+func sortedUnique(items []string) []string {
 	s := append([]string(nil), items...)
 	sort.Strings(s)
 	out := s[:0]

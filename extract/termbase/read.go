@@ -5,7 +5,6 @@ import (
 	"database/sql"
 	"encoding/json"
 	"fmt"
-	"sort"
 	"strings"
 	"time"
 )
@@ -267,16 +266,6 @@ func (s *Store) ChangedSince(t time.Time) (map[int64]bool, error) {
 		m[id] = true
 	}
 	return m, nil
-}
-
-// sortedKeys returns a map's keys in order.
-func sortedKeys[V any](m map[int64]V) []int64 {
-	ks := make([]int64, 0, len(m))
-	for k := range m {
-		ks = append(ks, k)
-	}
-	sort.Slice(ks, func(i, j int) bool { return ks[i] < ks[j] })
-	return ks
 }
 
 // joinQuoted quotes texts for a change summary.

@@ -6,6 +6,8 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"maps"
+	"slices"
 	"time"
 )
 
@@ -53,7 +55,7 @@ func (s *Store) updateUndo(action, summary string, undoes int64, fn func(*Tx) er
 		return Change{}, nil
 	}
 	r := restore{Runs: t.runs}
-	for _, id := range sortedKeys(t.before) {
+	for _, id := range slices.Sorted(maps.Keys(t.before)) {
 		r.Entries = append(r.Entries, restoreEntry{ID: id, Before: t.before[id]})
 	}
 	blob, err := json.Marshal(r)

@@ -17,6 +17,8 @@ import (
 	"encoding/binary"
 	"errors"
 	"fmt"
+	"maps"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -298,24 +300,24 @@ func (l *Lemmatizer) MarshalBinary() ([]byte, error) {
 		b.WriteString(s)
 	}
 	putInt := func(n int) { b.Write(binary.AppendUvarint(nil, uint64(n))) }
-	tags := sortedKeys(l.exceptions)
+	tags := slices.Sorted(maps.Keys(l.exceptions))
 	putInt(len(tags))
 	for _, t := range tags {
 		putStr(t)
 		m := l.exceptions[t]
-		forms := sortedKeys(m)
+		forms := slices.Sorted(maps.Keys(m))
 		putInt(len(forms))
 		for _, f := range forms {
 			putStr(f)
 			putStr(m[f])
 		}
 	}
-	tags = sortedKeys(l.rules)
+	tags = slices.Sorted(maps.Keys(l.rules))
 	putInt(len(tags))
 	for _, t := range tags {
 		putStr(t)
 		m := l.rules[t]
-		sufs := sortedKeys(m)
+		sufs := slices.Sorted(maps.Keys(m))
 		putInt(len(sufs))
 		for _, s := range sufs {
 			putStr(s)
@@ -324,15 +326,6 @@ func (l *Lemmatizer) MarshalBinary() ([]byte, error) {
 		}
 	}
 	return b.Bytes(), nil
-}
-
-func sortedKeys[V any](m map[string]V) []string {
-	ks := make([]string, 0, len(m))
-	for k := range m {
-		ks = append(ks, k)
-	}
-	sort.Strings(ks)
-	return ks
 }
 
 var errShort = errors.New("lemmatizer data truncated")
