@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"golang.org/x/text/language"
 
 	"glossmith/internal/suggest"
 )
@@ -29,6 +30,15 @@ func checkChoice(flag, value string, valid []string) error {
 		msg += "; " + h
 	}
 	return exitError{code: 2, msg: msg}
+}
+
+// checkLangTag refuses a --lang value that is not a well-formed BCP 47
+// language tag (en, en-GB, de-CH), the form xml:lang takes.
+func checkLangTag(tag string) error {
+	if _, err := language.Parse(tag); err != nil || strings.TrimSpace(tag) != tag {
+		return usageError("--lang %q: want a BCP 47 language tag such as en, en-GB or de", tag)
+	}
+	return nil
 }
 
 // checkRange refuses an integer flag outside [lo, hi]; hi < 0 means no

@@ -154,8 +154,8 @@ func (o *termbaseImportOptions) validate(args []string) error {
 	if len(args) == 0 {
 		return usageError("no file to import")
 	}
-	if strings.TrimSpace(o.lang) == "" {
-		return usageError("--lang: give a language tag such as en")
+	if err := checkLangTag(o.lang); err != nil {
+		return err
 	}
 	return nil
 }

@@ -62,6 +62,7 @@ type termsOptions struct {
 	to        string
 	outPath   string
 	bom       bool
+	lang      string
 	sortKey   string
 	minFreq   int
 	maxWords  int
@@ -124,6 +125,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
+	fl.StringVar(&o.lang, "lang", "en", "tbx, tbx-basic: the documents' language (BCP 47), written as xml:lang; the embedded tagging model is English")
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
 	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
 	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
@@ -152,6 +154,9 @@ func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
 		return err
 	}
 	o.to = to
+	if err := checkLangTag(o.lang); err != nil {
+		return err
+	}
 	if err := checkChoice("sort", o.sortKey, terms.SortKeys); err != nil {
 		return err
 	}
@@ -248,7 +253,7 @@ func (o *termsOptions) run(args []string) error {
 		return err
 	}
 	src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
-	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src, BOM: o.bom})); err != nil {
+	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src, BOM: o.bom, Lang: o.lang})); err != nil {
 		return err
 	}
 	return runErr
