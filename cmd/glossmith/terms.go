@@ -63,6 +63,7 @@ type termsOptions struct {
 	outPath   string
 	bom       bool
 	lang      string
+	color     string
 	sortKey   string
 	minFreq   int
 	maxWords  int
@@ -129,7 +130,8 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
 	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
 	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
-	fl.IntVar(&o.contexts, "contexts", 3, "example sentences per term (text output prints them only when this flag is given)")
+	fl.IntVar(&o.contexts, "contexts", 3, "example sentences per term, in every format that has them (text output prints them only when this flag is given)")
+	fl.StringVar(&o.color, "color", "auto", "mark the term in text output's example sentences in bold: auto (on a terminal, unless NO_COLOR is set or TERM=dumb), always, never")
 	fl.StringArrayVar(&o.stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")
 	fl.StringVar(&o.include, "include", "", "list only candidates that the pattern matches whole (in most occurrences); counts stay those of all candidates")
 	fl.StringVar(&o.exclude, "exclude", "", "leave out of the list candidates that the pattern matches whole (in most occurrences)")
@@ -138,6 +140,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	o.tb.register(cmd)
 	completeChoices(cmd, "to", termsFormats)
 	completeChoices(cmd, "sort", terms.SortKeys)
+	completeChoices(cmd, "color", colorModes)
 }
 
 // termsFormats are the output formats of terms: the term list's own, and
@@ -155,6 +158,9 @@ func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
 	}
 	o.to = to
 	if err := checkLangTag(o.lang); err != nil {
+		return err
+	}
+	if err := checkChoice("color", o.color, colorModes); err != nil {
 		return err
 	}
 	if err := checkChoice("sort", o.sortKey, terms.SortKeys); err != nil {
@@ -253,7 +259,7 @@ func (o *termsOptions) run(args []string) error {
 		return err
 	}
 	src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
-	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Source: src, BOM: o.bom, Lang: o.lang})); err != nil {
+	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Highlight: o.to == "text" && useColor(o.color, out.toTerminal()), Source: src, BOM: o.bom, Lang: o.lang})); err != nil {
 		return err
 	}
 	return runErr

@@ -49,6 +49,11 @@ type Context struct {
 	Doc  string `json:"doc"`
 	Line int    `json:"line"`
 	Text string `json:"text"`
+	// Start and End are the character (not byte) offsets in Text of the
+	// first use of the term, End exclusive; both -1 when no spelling of
+	// the term is found whole in Text. The writers fill them (MarkTerm).
+	Start int `json:"start"`
+	End   int `json:"end"`
 }
 
 // DocCounts are what one document contributes: its word counts and its

@@ -28,7 +28,7 @@ func TestWriteTBXEntries(t *testing.T) {
 	b := &Term{Rank: 2, Term: "emitter", POS: "NOUN", Variants: []Variant{{"emitters", 4}}}
 	read := func(ts ...*Term) *tbx.Document {
 		var buf bytes.Buffer
-		require.NoError(t, Write(&buf, "tbx-basic", ts, WriteOptions{Lang: "en-GB"}))
+		require.NoError(t, Write(&buf, "tbx-basic", ts, WriteOptions{Lang: "en-GB", Contexts: 3}))
 		doc, err := tbx.Read(&buf, "out.tbx")
 		require.NoError(t, err)
 		return doc

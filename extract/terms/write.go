@@ -6,6 +6,8 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"glossmith/extract/tbx"
 	"glossmith/internal/tabular"
@@ -16,10 +18,15 @@ var Formats = []string{"text", "tsv", "csv", "jsonl", "tbx", "tbx-basic"}
 
 // WriteOptions tune the writers.
 type WriteOptions struct {
-	Contexts int    // text format: example sentences printed under each term
-	Source   string // TBX header: what the list was made from
-	Lang     string // TBX: the documents' language (BCP 47), "" for English
-	BOM      bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
+	// Contexts is the number of example sentences written per term, in
+	// every format that carries them (text, JSON Lines, TBX).
+	Contexts int
+	// Highlight marks the term in the text format's example sentences
+	// (bold, for a terminal).
+	Highlight bool
+	Source    string // TBX header: what the list was made from
+	Lang      string // TBX: the documents' language (BCP 47), "" for English
+	BOM       bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
 }
 
 // columns are the measure columns of tsv, csv and text output, in order.
@@ -45,6 +52,7 @@ func num(x float64) string {
 
 // Write writes the ranked terms in the named format.
 func Write(w io.Writer, format string, terms []*Term, opt WriteOptions) error {
+	terms = withContexts(terms, opt.Contexts)
 	bw := bufio.NewWriter(w)
 	var err error
 	switch format {
@@ -134,9 +142,108 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 				if k >= opt.Contexts {
 					break
 				}
-				fmt.Fprintf(w, "      %s:%d: %s\n", cx.Doc, cx.Line, cx.Text)
+				text := cx.Text
+				if opt.Highlight {
+					text = highlight(text, cx.Start, cx.End)
+				}
+				fmt.Fprintf(w, "      %s:%d: %s\n", cx.Doc, cx.Line, text)
 			}
 		}
 	}
 	return nil
+}
+
+// withContexts returns terms with at most n contexts each, every one with
+// the term marked (MarkTerm). The terms are copied, not changed.
+func withContexts(terms []*Term, n int) []*Term {
+	out := make([]*Term, len(terms))
+	for i, t := range terms {
+		c := *t
+		c.Contexts = make([]Context, min(n, len(t.Contexts)))
+		for k := range c.Contexts {
+			cx := t.Contexts[k]
+			cx.Start, cx.End = MarkTerm(t, cx.Text)
+			c.Contexts[k] = cx
+		}
+		if len(c.Contexts) == 0 {
+			c.Contexts = nil
+		}
+		out[i] = &c
+	}
+	return out
+}
+
+// MarkTerm returns the character offsets in text of the first use of t:
+// the earliest of its spellings (the canonical form and every surface
+// form) found whole — not inside a longer word — ignoring case, the
+// longest where several start there; -1, -1 when none is.
+func MarkTerm(t *Term, text string) (start, end int) {
+	bs, be := -1, -1
+	try := func(form string) {
+		if form == "" {
+			return
+		}
+		for i := 0; i+len(form) <= len(text); i++ {
+			if bs >= 0 && i > bs {
+				return
+			}
+			if !strings.EqualFold(text[i:i+len(form)], form) || !wordEdge(text, i, i+len(form)) {
+				continue
+			}
+			if bs < 0 || i < bs || i+len(form) > be {
+				bs, be = i, i+len(form)
+			}
+			return
+		}
+	}
+	try(t.Term)
+	for _, v := range t.Variants {
+		try(v.Form)
+	}
+	if bs < 0 {
+		return -1, -1
+	}
+	return utf8.RuneCountInString(text[:bs]), utf8.RuneCountInString(text[:be])
+}
+
+// wordEdge reports whether text[i:j] starts and ends at word boundaries.
+func wordEdge(text string, i, j int) bool {
+	if i > 0 {
+		r, _ := utf8.DecodeLastRuneInString(text[:i])
+		if isWordRune(r) {
+			return false
+		}
+	}
+	if j < len(text) {
+		r, _ := utf8.DecodeRuneInString(text[j:])
+		if isWordRune(r) {
+			return false
+		}
+	}
+	return true
+}
+
+func isWordRune(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) }
+
+// highlight wraps the characters [start, end) of text in bold.
+func highlight(text string, start, end int) string {
+	if start < 0 || end <= start {
+		return text
+	}
+	bs, be := -1, len(text)
+	n := 0
+	for i := range text {
+		if n == start {
+			bs = i
+		}
+		if n == end {
+			be = i
+			break
+		}
+		n++
+	}
+	if bs < 0 {
+		return text
+	}
+	return text[:bs] + "\x1b[1m" + text[bs:be] + "\x1b[22m" + text[be:]
 }
