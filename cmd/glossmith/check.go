@@ -58,12 +58,7 @@ Markdown and plain text, those of the extracted text for HTML, DOCX and PDF.`,
   glossmith check --variants manuals/
   glossmith check --termbase pumps.termbase --to sarif -o check.sarif manuals/
   glossmith check --termbase pumps.termbase --baseline check.sarif --fail-on warning manuals/`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.register(cmd)
 	return cmd
@@ -91,14 +86,9 @@ var failLevels = []string{"error", "warning", "note"}
 // validate checks every flag value, and reads the baseline, before any
 // input is read.
 func (o *checkOptions) validate(cmd *cobra.Command, args []string) error {
-	if err := o.in.validate(cmd); err != nil {
+	if err := o.in.validateWithOutput(cmd, &o.to, o.outPath, check.Formats); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, check.Formats)
-	if err != nil {
-		return err
-	}
-	o.to = to
 	if err := checkChoice("fail-on", o.failOn, failLevels); err != nil {
 		return err
 	}

@@ -55,12 +55,7 @@ Measures (every one is a column; --measure sorts):
   glossmith collocations --relation verb_obj --measure logdice testdata/demo
   glossmith collocations --node valve --to tsv manuals/
   glossmith collocations --window 3 --min-freq 3 notes/`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.register(cmd)
 	return cmd
@@ -94,21 +89,18 @@ const maxWindow = 50
 
 // validate checks every flag value before any input is read.
 func (o *collocationsOptions) validate(cmd *cobra.Command, args []string) error {
-	if err := o.in.validate(cmd); err != nil {
+	if err := o.in.validateWithOutput(cmd, &o.to, o.outPath, colloc.Formats); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, colloc.Formats)
-	if err != nil {
-		return err
-	}
-	o.to = to
 	o.measure = strings.ToLower(o.measure)
 	if err := checkChoice("measure", o.measure, measure.Names()); err != nil {
 		return err
 	}
-	if o.ms, err = measure.Lookup(o.measure); err != nil {
+	ms, err := measure.Lookup(o.measure)
+	if err != nil {
 		return err
 	}
+	o.ms = ms
 	if err := checkChoice("by", o.by, byKeys); err != nil {
 		return err
 	}

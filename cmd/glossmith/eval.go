@@ -146,12 +146,7 @@ lower-cased surface forms of the candidates (their variants) are compared as
 sets with the gold list (one term per line, an optional tab and label after
 it). Prints precision, recall and F1 of the default list, and the best F1 over
 all cut-offs of the full ranking with the rank where it is reached.`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.in.register(cmd, true)
 	o.rules.register(cmd, "terms")

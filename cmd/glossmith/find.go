@@ -54,12 +54,7 @@ lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
   glossmith find --rule verb_obj --rules stock:pairs --to jsonl testdata/demo
   glossmith find --count --by lemma 'NOUN NOUN' testdata/demo
   glossmith find --count '_ _ _' notes.txt              # trigram frequency list`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.register(cmd)
 	return cmd
@@ -95,14 +90,9 @@ const maxWidth = 1000
 
 // validate checks every flag value before any input is read.
 func (o *findOptions) validate(cmd *cobra.Command, args []string) error {
-	if err := o.in.validate(cmd); err != nil {
+	if err := o.in.validateWithOutput(cmd, &o.to, o.outPath, findFormats); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, findFormats)
-	if err != nil {
-		return err
-	}
-	o.to = to
 	for _, c := range []struct {
 		flag, v string
 		valid   []string

@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"io"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -17,6 +18,28 @@ import (
 // message that lists what would be valid.
 func usageError(format string, a ...any) error {
 	return exitError{code: 2, msg: fmt.Sprintf(format, a...)}
+}
+
+// validateThenRun is a command's RunE: validate checks every flag value
+// and argument before run reads any input.
+func validateThenRun(validate func(*cobra.Command, []string) error, run func([]string) error) func(*cobra.Command, []string) error {
+	return func(cmd *cobra.Command, args []string) error {
+		if err := validate(cmd, args); err != nil {
+			return err
+		}
+		return run(args)
+	}
+}
+
+// validateThenWrite is validateThenRun for the commands that only report
+// to the command's output (the termbase group).
+func validateThenWrite(validate func([]string) error, run func(io.Writer, []string) error) func(*cobra.Command, []string) error {
+	return func(cmd *cobra.Command, args []string) error {
+		if err := validate(args); err != nil {
+			return err
+		}
+		return run(cmd.OutOrStdout(), args)
+	}
 }
 
 // checkChoice refuses a value that is not one of valid, naming the valid

@@ -50,6 +50,21 @@ func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
 	}
 }
 
+// validateWithOutput checks the input flags and the output format: --to,
+// or the format -o's extension names (outputFormat), one of formats; the
+// format found is stored in *to.
+func (f *inputFlags) validateWithOutput(cmd *cobra.Command, to *string, outPath string, formats []string) error {
+	if err := f.validate(cmd); err != nil {
+		return err
+	}
+	format, err := outputFormat(cmd, *to, outPath, formats)
+	if err != nil {
+		return err
+	}
+	*to = format
+	return nil
+}
+
 // validate checks the reading flags before any input is read.
 func (f *inputFlags) validate(cmd *cobra.Command) error {
 	if f.from != "" {

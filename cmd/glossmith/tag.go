@@ -39,12 +39,7 @@ Output formats (--to):
   glossmith tag --to text --tagset upos manual.md
   glossmith tag --from conllu --to tsv annotated.conllu
   glossmith tag -o corpus.conllu manuals/`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.register(cmd)
 	return cmd
@@ -65,14 +60,9 @@ func (o *tagOptions) register(cmd *cobra.Command) {
 
 // validate checks every flag value before any input is read.
 func (o *tagOptions) validate(cmd *cobra.Command, args []string) error {
-	if err := o.in.validate(cmd); err != nil {
+	if err := o.in.validateWithOutput(cmd, &o.to, o.outPath, emit.Formats); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, emit.Formats)
-	if err != nil {
-		return err
-	}
-	o.to = to
 	if err := checkChoice("tagset", o.tagset, tagsets); err != nil {
 		return err
 	}

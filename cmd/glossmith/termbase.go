@@ -136,12 +136,7 @@ An entry sharing a term with a stored entry is merged into it, so importing a
 file twice changes nothing. Each file is one change (undo takes it back). Rows
 that cannot be used are reported with their line; the rest is imported and the
 exit status is 1.`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(args); err != nil {
-				return err
-			}
-			return o.run(cmd.OutOrStdout(), args)
-		},
+		RunE: validateThenWrite(o.validate, o.run),
 	}
 	cmd.Flags().StringVar(&o.lang, "lang", "en", "language of terms whose file names none (BCP 47)")
 	return cmd
@@ -225,12 +220,7 @@ func newTermbaseDecideCmd(tf *termbaseFlags, verb string) *cobra.Command {
 		Long: short + `.
 A term not in the termbase becomes a new entry. All the terms are one change.
 --from-file reads one term per line ("#" starts a comment).`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(args); err != nil {
-				return err
-			}
-			return o.run(cmd.OutOrStdout(), args)
-		},
+		RunE: validateThenWrite(o.validate, o.run),
 	}
 	cmd.Flags().StringVar(&o.fromFile, "from-file", "", "read the terms from this file, one per line")
 	return cmd

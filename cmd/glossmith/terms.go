@@ -107,12 +107,7 @@ validated terminology.`,
   glossmith terms --contexts 2 --limit 30 manuals/
   glossmith terms -o glossary.tbx manuals/*.docx
   glossmith terms --reference general-texts/ --sort keyness specs/`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd, args); err != nil {
-				return err
-			}
-			return o.run(args)
-		},
+		RunE: validateThenRun(o.validate, o.run),
 	}
 	o.register(cmd)
 	return cmd
@@ -149,14 +144,9 @@ var termsFormats = append(slices.Clip(terms.Formats), "html")
 
 // validate checks every flag value before any input is read.
 func (o *termsOptions) validate(cmd *cobra.Command, args []string) error {
-	if err := o.in.validate(cmd); err != nil {
+	if err := o.in.validateWithOutput(cmd, &o.to, o.outPath, termsFormats); err != nil {
 		return err
 	}
-	to, err := outputFormat(cmd, o.to, o.outPath, termsFormats)
-	if err != nil {
-		return err
-	}
-	o.to = to
 	if err := checkLangTag(o.lang); err != nil {
 		return err
 	}
