@@ -100,6 +100,9 @@ Measures (each a column, each a --sort key):
              specific word
   score      the combined ranking score (see README)
 
+Other columns: within, the longer candidate this one occurs inside at least
+90% of the time ("drip emitter" for "drip"; a note in TBX), and variants.
+
 The default list ends where the score falls below the cut-off; --all prints
 every candidate. The list is a set of candidates for expert review, not a
 validated terminology.`,

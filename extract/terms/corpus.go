@@ -349,7 +349,12 @@ type Term struct {
 	// reference, with additive smoothing Alpha.
 	Weirdness float64 `json:"weirdness"`
 	// Score is the combined ranking score.
-	Score    float64   `json:"score"`
+	Score float64 `json:"score"`
+	// Within is the longer candidate this one occurs inside at least
+	// WithinPercent % of the time ("drip emitter" for "drip"): ranked as it is,
+	// but a reviewer sees it may be a fragment. The most frequent such
+	// candidate, ties by its words; "" for none.
+	Within   string    `json:"within,omitempty"`
 	Contexts []Context `json:"contexts,omitempty"`
 	// Status and Entry come from a termbase (terms --termbase): new,
 	// accepted, variant, deprecated or rejected, and the preferred term of
@@ -425,11 +430,26 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 	if cv, err := termstat.CValue(dedupe(cands), termstat.CValueOptions{Weight: termstat.Log2LengthPlusOne}); err == nil {
 		for i := range out {
 			out[i].CValue = cv[i].Score
+			if r := cv[i]; r.Nested() && mostlyWithin(cands[r.Top].Freq, cands[i].Freq) {
+				out[i].Within = out[r.Top].Term
+			}
 		}
 	}
 	// Options.Keep filters whole candidates, once every measure is known:
 	// a candidate stays when it accepted most of its occurrences.
 	return slices.DeleteFunc(out, func(t *Term) bool { return 2*t.kept <= t.Freq })
+}
+
+// WithinPercent is the share of a candidate's occurrences, in percent,
+// that must lie inside one longer candidate for Term.Within to name it.
+const WithinPercent = 90
+
+// mostlyWithin reports whether a candidate seen inner times is, at least
+// WithinPercent of the time, inside a longer one seen outer times (each
+// occurrence of the longer one holds one of the shorter). The counts are
+// whole numbers, so the comparison is exact.
+func mostlyWithin(outer, inner float64) bool {
+	return inner > 0 && 100*outer >= WithinPercent*inner
 }
 
 // parallelTermsFrom is the number of candidates from which Terms spreads

@@ -13,7 +13,8 @@ import (
 // one concept entry per candidate, its id derived from the canonical form
 // (stable across runs, whatever the rank); the canonical form and its
 // spelling variants as terms, each with its part of speech; inflected and
-// case-only forms are not terms of their own. Under TBX-Basic the contexts
+// case-only forms are not terms of their own; the longer candidate it
+// mostly occurs in (Term.Within) is a note of the entry. Under TBX-Basic the contexts
 // are context data categories with their document and line as source;
 // under TBX-Core, notes.
 func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) error {
@@ -27,6 +28,9 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		e := tbx.Entry{
 			ID:    tbx.StableID(Key(t.Term)),
 			Notes: []string{fmt.Sprintf("candidate rank %d; score %s; frequency %d in %d document(s)", t.Rank, num(t.Score), t.Freq, t.Docs)},
+		}
+		if t.Within != "" {
+			e.Notes = append(e.Notes, fmt.Sprintf("at least %d%% of its occurrences within the longer candidate %q", WithinPercent, t.Within))
 		}
 		main := tbx.Term{Lang: lang, Text: t.Term, POS: t.POS}
 		for _, cx := range t.Contexts {

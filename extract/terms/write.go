@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode"
@@ -30,7 +31,7 @@ type WriteOptions struct {
 }
 
 // columns are the measure columns of tsv, csv and text output, in order.
-var columns = []string{"rank", "term", "score", "freq", "docs", "words", "keyness", "weirdness", "cvalue", "dp", "variants"}
+var columns = []string{"rank", "term", "score", "freq", "docs", "words", "keyness", "weirdness", "cvalue", "dp", "variants", "within"}
 
 func (t *Term) cells() []string {
 	vs := make([]string, len(t.Variants))
@@ -38,7 +39,7 @@ func (t *Term) cells() []string {
 		vs[i] = v.Form + " (" + strconv.Itoa(v.Count) + ")"
 	}
 	return []string{strconv.Itoa(t.Rank), t.Term, num(t.Score), strconv.Itoa(t.Freq), strconv.Itoa(t.Docs),
-		strconv.Itoa(t.Words), num(t.Keyness), num(t.Weirdness), num(t.CValue), num(t.DP), strings.Join(vs, "; ")}
+		strconv.Itoa(t.Words), num(t.Keyness), num(t.Weirdness), num(t.CValue), num(t.DP), strings.Join(vs, "; "), t.Within}
 }
 
 // num formats a measure with four significant decimals, never NaN or Inf
@@ -111,11 +112,16 @@ func writeJSONL(w *bufio.Writer, terms []*Term) error {
 	return enc.Flush()
 }
 
-// writeText prints an aligned table: rank, term, score, freq, docs and the
-// most frequent other spellings; with Contexts > 0 the example sentences
-// follow each row, indented.
+// writeText prints an aligned table: rank, term, score, freq, docs,
+// keyness, dp, the longer candidate it mostly occurs in (when any term of
+// the list has one) and the most frequent other spellings; with Contexts > 0
+// the example sentences follow each row, indented.
 func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
+	within := hasWithin(terms)
 	head := []string{"#", "term", "score", "freq", "docs", "keyness", "dp", "variants"}
+	if within {
+		head = slices.Insert(head, len(head)-1, "within")
+	}
 	rows := [][]string{head}
 	for _, t := range terms {
 		var other []string
@@ -127,9 +133,13 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		if len(t.Variants) > 3+1 {
 			other = append(other, "…")
 		}
-		rows = append(rows, []string{strconv.Itoa(t.Rank), t.Term, strconv.FormatFloat(t.Score, 'f', 2, 64),
+		row := []string{strconv.Itoa(t.Rank), t.Term, strconv.FormatFloat(t.Score, 'f', 2, 64),
 			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
-			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")})
+			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")}
+		if within {
+			row = slices.Insert(row, len(row)-1, t.Within)
+		}
+		rows = append(rows, row)
 	}
 	if hasStatus(terms) {
 		addStatusColumn(rows, terms)
@@ -151,6 +161,12 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		}
 	}
 	return nil
+}
+
+// hasWithin reports whether a term of the list names a longer candidate
+// it mostly occurs in.
+func hasWithin(terms []*Term) bool {
+	return slices.ContainsFunc(terms, func(t *Term) bool { return t.Within != "" })
 }
 
 // withContexts returns terms with at most n contexts each, every one with

@@ -47,6 +47,12 @@ type CValueResult struct {
 	// ContainerFreq is Σ_{b∈T_a} f(b), the summed frequency of those
 	// longer candidates.
 	ContainerFreq float64
+	// Top is the index of the most frequent of those longer candidates
+	// (ties: the one whose words come first, compared word by word in
+	// byte order), when
+	// Containers > 0: the candidate a nested one mostly occurs in, from the
+	// same pass over the sub-sequences.
+	Top int
 }
 
 // Nested reports whether the candidate occurs inside a longer candidate.
@@ -133,8 +139,12 @@ func CValue(cands []Candidate, opt CValueOptions) ([]CValueResult, error) {
 					continue
 				}
 				lastContainer[a] = b + 1
-				res[a].Containers++
-				res[a].ContainerFreq += c.Freq
+				r := &res[a]
+				if r.Containers == 0 || c.Freq > cands[r.Top].Freq || c.Freq == cands[r.Top].Freq && key < keys[r.Top] {
+					r.Top = b
+				}
+				r.Containers++
+				r.ContainerFreq += c.Freq
 			}
 		}
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"strings"
 	"testing"
 
@@ -59,6 +60,9 @@ func TestCValueCarcinoma(t *testing.T) {
 		assert.Equal(t, w.containers, r.Containers, "%s: P(T)", name)
 		assert.Equal(t, w.sum, r.ContainerFreq, "%s: Σf(b)", name)
 	}
+	// The most frequent container of "basal cell carcinoma" is "cystic
+	// basal cell carcinoma" (f=11, the largest of 5, 11, 7, 5, 3).
+	assert.Equal(t, 1, res[5].Top, "most frequent container")
 }
 
 // TestCValueSingleWordsAndRepeats is a second hand-worked example, with a
@@ -124,6 +128,9 @@ func naiveCValue(cands []Candidate, opt CValueOptions) []CValueResult {
 	for a, ca := range cands {
 		for b, cb := range cands {
 			if a != b && len(cb.Words) > len(ca.Words) && contains(cb.Words, ca.Words) {
+				if top := cands[res[a].Top]; res[a].Containers == 0 || cb.Freq > top.Freq || cb.Freq == top.Freq && slices.Compare(cb.Words, top.Words) < 0 {
+					res[a].Top = b
+				}
 				res[a].Containers++
 				res[a].ContainerFreq += cb.Freq
 			}
@@ -161,7 +168,7 @@ func TestCValueMatchesPairwiseDefinition(t *testing.T) {
 		require.NoError(t, err)
 		want := naiveCValue(cands, opt)
 		for i := range cands {
-			if got[i].Containers != want[i].Containers || got[i].ContainerFreq != want[i].ContainerFreq ||
+			if got[i].Containers != want[i].Containers || got[i].ContainerFreq != want[i].ContainerFreq || got[i].Top != want[i].Top ||
 				math.Abs(got[i].Score-want[i].Score) > 1e-9*math.Max(1, math.Abs(want[i].Score)) {
 				t.Fatalf("trial %d, %q: got %+v, pairwise definition %+v", trial, strings.Join(cands[i].Words, " "), got[i], want[i])
 			}
