@@ -127,7 +127,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.lang, "lang", "en", "tbx, tbx-basic: the documents' language (BCP 47), written as xml:lang; the embedded tagging model is English")
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
 	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")
-	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out candidates longer than this many words")
+	fl.IntVar(&o.maxWords, "max-words", terms.DefaultMaxWords, "leave out phrases longer than this many words, and their parts")
 	fl.IntVar(&o.contexts, "contexts", 3, "example sentences per term, in every format that has them (text output prints them only when this flag is given)")
 	fl.StringVar(&o.color, "color", "auto", "mark the term in text output's example sentences in bold: auto (on a terminal, unless NO_COLOR is set or TERM=dumb), always, never")
 	fl.StringArrayVar(&o.stopFiles, "stop", nil, "stop-word file, one word per line: candidates starting or ending with one are left out (repeatable)")

@@ -39,26 +39,18 @@ func fuzzDocument(data []byte) *doc.Document {
 
 // referenceCounts counts candidates the plain way: every span the rules
 // match (all of them, unbounded), kept when it starts and ends with a word,
-// cuts no hyphenated compound, and has at most maxWords words of at most
-// maxWordTokens tokens each; counted under the lower-cased words without
-// hyphens and spaces (the fuzzed words are their own lemmas).
+// cuts no hyphenated compound, has at most maxWords words of at most
+// maxWordTokens tokens each, and some rule that matches it matches no
+// longer span around it that breaks those limits; counted under the
+// lower-cased words without hyphens and spaces (the fuzzed words are their
+// own lemmas).
 func referenceCounts(m *pattern.Matcher, d *doc.Document, maxWords int) map[string]int {
 	toks := d.Sentences[0].Tokens
 	isWord := func(k int) bool { return toks[k].UPOS != "PUNCT" }
 	joined := func(k int) bool { // token k continues the word of token k-1
 		return k > 0 && glued(toks[k-1], toks[k]) && (isHyphen(toks[k].Form) || isHyphen(toks[k-1].Form))
 	}
-	out := map[string]int{}
-	seen := map[[2]int]bool{}
-	for _, mt := range m.FindNested(toks) {
-		i, j := mt.Start, mt.End
-		if seen[[2]int{i, j}] || !isWord(i) || !isWord(j-1) {
-			continue
-		}
-		seen[[2]int{i, j}] = true
-		if i > 0 && joined(i) || j < len(toks) && joined(j) {
-			continue
-		}
+	tooLong := func(i, j int) bool {
 		words, longest, cur := 0, 0, 0
 		for k := i; k < j; k++ {
 			if k > i && joined(k) {
@@ -68,7 +60,30 @@ func referenceCounts(m *pattern.Matcher, d *doc.Document, maxWords int) map[stri
 			}
 			longest = max(longest, cur)
 		}
-		if words > maxWords || longest > maxWordTokens {
+		return words > maxWords || longest > maxWordTokens
+	}
+	all := m.FindNested(toks)
+	// inside reports whether a span of rule mt.Rule lies inside a
+	// too-long match of the same rule, of at most SpanLimit(maxWords+1)
+	// tokens (the longest the collector looks at).
+	inside := func(mt pattern.Match) bool {
+		for _, o := range all {
+			if o.Rule == mt.Rule && o.Start <= mt.Start && mt.End <= o.End &&
+				o.End-o.Start <= SpanLimit(maxWords+1) && tooLong(o.Start, o.End) {
+				return true
+			}
+		}
+		return false
+	}
+	out := map[string]int{}
+	seen := map[[2]int]bool{}
+	for _, mt := range all {
+		i, j := mt.Start, mt.End
+		if seen[[2]int{i, j}] || !isWord(i) || !isWord(j-1) || inside(mt) {
+			continue
+		}
+		seen[[2]int{i, j}] = true
+		if i > 0 && joined(i) || j < len(toks) && joined(j) || tooLong(i, j) {
 			continue
 		}
 		var key strings.Builder

@@ -38,13 +38,13 @@ func TestWithinNamesTheContainingCandidate(t *testing.T) {
 // alone; with "valve seat" once more on its own, that one is the most
 // frequent.
 func TestWithinTieByText(t *testing.T) {
-	text := strings.Repeat("Replace the solenoid valve seat today. ", 10)
+	text := strings.Repeat("Replace the solenoid valve seat now. ", 10)
 	ts := extractTexts(t, text)
 	v := find(ts, "valve")
 	require.NotNil(t, v, names(ts))
 	require.Equal(t, 10, v.Freq)
 	assert.Equal(t, "solenoid valve", v.Within, "three containers of 10: the first by its words")
-	ts = extractTexts(t, text+"Grease the valve seat today.")
+	ts = extractTexts(t, text+"Grease the valve seat now.")
 	v = find(ts, "valve")
 	require.NotNil(t, v, names(ts))
 	assert.Equal(t, "valve seat", v.Within, "11 in valve seat")
