@@ -7,6 +7,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 
@@ -74,6 +75,58 @@ print(json.dumps(rows))`)
 		require.NoError(t, err)
 		assert.Equal(t, want, rows, "%v", args)
 	}
+}
+
+// pandas.read_csv, the data-frame reader, reads the TSV and CSV output of
+// every command that writes them (the termbase's export and diff from a
+// termbase made here) to the cells an RFC 4180 reader (Go's encoding/csv)
+// reads, header included; the demo's quotation marks are among them.
+func TestTablesReadBackInPandas(t *testing.T) {
+	tb := filepath.Join(t.TempDir(), "glossary.gtb")
+	for _, args := range [][]string{
+		{"termbase", "--termbase", tb, "import", "testdata/demo-glossary.csv"},
+		{"terms", "-q", "--termbase", tb, "--record", "v1", "testdata/demo/gc48-installation-manual.md"},
+		{"terms", "-q", "--termbase", tb, "--record", "v2", "testdata/demo"},
+	} {
+		r := run(t, "", args...)
+		require.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+	}
+	outputs := [][]string{
+		{"termbase", "--termbase", tb, "export", "--to", "tsv"},
+		{"termbase", "--termbase", tb, "export", "--to", "csv"},
+		{"termbase", "--termbase", tb, "diff", "--to", "tsv", "v1", "v2"},
+	}
+	for _, args := range tsvOutputs {
+		outputs = append(outputs, args)
+		if args[0] != "tag" { // tag writes no CSV
+			asCSV := slices.Clone(args)
+			asCSV[slices.Index(asCSV, "--to")+1] = "csv"
+			outputs = append(outputs, asCSV)
+		}
+	}
+	quoted := 0
+	for _, args := range outputs {
+		sep := ","
+		if args[slices.Index(args, "--to")+1] == "tsv" {
+			sep = "\t"
+		}
+		r := run(t, "", args...)
+		require.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+		cr := csv.NewReader(strings.NewReader(r.stdout))
+		cr.Comma = rune(sep[0])
+		want, err := cr.ReadAll()
+		require.NoError(t, err, "%v", args)
+		require.Greater(t, len(want), 1, "%v", args)
+		assert.Equal(t, want, testenv.PandasRows(t, []byte(r.stdout), sep), "%v", args)
+		for _, row := range want {
+			for _, cell := range row {
+				if strings.Contains(cell, `"`) {
+					quoted++
+				}
+			}
+		}
+	}
+	assert.Positive(t, quoted, "fields holding a quotation mark")
 }
 
 func TestCSVLineEndsAndBOM(t *testing.T) {

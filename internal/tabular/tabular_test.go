@@ -10,6 +10,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"glossmith/internal/testenv"
 )
 
 // awkward holds the fields that break naive TSV/CSV writers: a bare quote
@@ -153,4 +155,26 @@ func TestAlign(t *testing.T) {
 		"10  café          7",
 		" 9  drip line   123  x",
 	}, lines)
+}
+
+// pandas.read_csv, the data-frame reader, reads TSV (sep "\t") and CSV
+// (sep ",", CRLF records, with and without a byte-order mark) back to the
+// very fields written — quotes, tabs, commas and line breaks inside fields,
+// an empty field — when told the rule the README documents: RFC 4180
+// quoting, every cell a string (keep_default_na=False).
+func TestTablesReadBackInPandas(t *testing.T) {
+	cases := []struct {
+		name string
+		w    func(*bytes.Buffer) *Writer
+		sep  string
+	}{
+		{"tsv", func(b *bytes.Buffer) *Writer { return NewTSV(b) }, "\t"},
+		{"csv", func(b *bytes.Buffer) *Writer { return NewCSV(b, false) }, ","},
+		{"csv with BOM", func(b *bytes.Buffer) *Writer { return NewCSV(b, true) }, ","},
+	}
+	for _, c := range cases {
+		var out bytes.Buffer
+		s := encode(t, c.w(&out), &out)
+		assert.Equal(t, awkward, testenv.PandasRows(t, []byte(s), c.sep), c.name)
+	}
 }
