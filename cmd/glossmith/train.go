@@ -37,7 +37,9 @@ documents — and writes it to MODEL for --model.
 
 Methods:
   perceptron  trigram Viterbi with weights learned by the averaged structured
-              perceptron (Collins 2002) over rich word features (default)
+              perceptron (Collins 2002) over rich word features, among them
+              the English word classes of WordNet 3.0 that the embedded
+              model carries (default)
   hmm         generative trigram HMM with deleted interpolation and a suffix
               model for unknown words (Brants 2000): fast, less accurate
 
@@ -95,6 +97,9 @@ func (o *trainOptions) run(args []string) error {
 		return exitError{1, "no annotated sentences to train on"}
 	}
 	opt := hmm.TrainOptions{Method: o.method, Epochs: o.epochs, Source: strings.Join(baseNames(args), ", ")}
+	if def, err := hmm.Default(); err == nil {
+		opt.WordClasses = def.WordClasses() // the embedded model's WordNet word classes
+	}
 	if o.dev != "" {
 		d, b, err := readConllu([]string{o.dev})
 		if err != nil {

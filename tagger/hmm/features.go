@@ -5,6 +5,7 @@ import (
 	"unicode/utf8"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/wordnet"
 )
 
 // Feature templates of the perceptron model. Each feature is a 64-bit
@@ -43,6 +44,14 @@ const (
 	fNextShape   // shape at i+1
 	fNextPrefix1 // first byte of the next word, lower-cased
 	fTagWord     // the lower-cased word with the previous tag (pair feature)
+	// Word classes of the lower-cased word in WordNet (package wordnet),
+	// for models that carry the table:
+	fWNSig   // all it says: parts of speech as a lemma, as an inflection, the major one
+	fWNLemma // one part of speech it is listed with
+	fWNInfl  // one part of speech of a base form it inflects
+	fWNMajor // the part of speech of most tagged senses
+	fPrevWN  // WordNet classes (lemma and inflection) of the word at i-1
+	fNextWN  // … at i+1
 )
 
 // pairKey is the key of the feature "word w after tag prev", which scores
@@ -101,7 +110,12 @@ func key2(template int, h1, h2 uint64) uint64 {
 // tokenInfo holds the per-token hashes that neighbouring tokens reuse.
 type tokenInfo struct {
 	lower, suf3, shape, pre1 uint64
+	wn                       wordnet.Classes
+	hasWN                    bool // the model has a word-class table
 }
+
+// wnSig is the value of the neighbours' word-class features.
+func (ti *tokenInfo) wnSig() uint64 { return uint64(ti.wn.Lemma) | uint64(ti.wn.Inflected)<<4 }
 
 var (
 	hStart = hashBytes([]byte("\x00<s>"))
@@ -113,7 +127,7 @@ var (
 // fs.aloneEnd[i] on depend on the token's neighbours or position, those
 // before on the word alone. Tokens marked false in fs.need (when set) get
 // none. It allocates nothing once the scratch buffers have grown.
-func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo) []tokenInfo {
+func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn *wordnet.Table) []tokenInfo {
 	n := len(toks)
 	if cap(info) < n {
 		info = make([]tokenInfo, n)
@@ -121,7 +135,7 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo) []t
 	info = info[:n]
 	buf := fs.buf[:0]
 	for i := range toks {
-		buf = info[i].fill(buf, toks[i].Form)
+		buf = info[i].fill(buf, toks[i].Form, wn)
 	}
 	f := fs.keys[:0]
 	fs.keyOff = append(fs.keyOff[:0], 0)
@@ -165,9 +179,15 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo) []t
 			key2(fPrevWord, p1, ti.lower), key2(fWordNext, ti.lower, n1))
 		if t := at(i - 1); t != nil {
 			f = append(f, key(fPrevSuf3, t.suf3), key(fPrevShape, t.shape))
+			if t.hasWN {
+				f = append(f, key(fPrevWN, t.wnSig()))
+			}
 		}
 		if t := at(i + 1); t != nil {
 			f = append(f, key(fNextSuf3, t.suf3), key(fNextShape, t.shape), key(fNextPrefix1, t.pre1))
+			if t.hasWN {
+				f = append(f, key(fNextWN, t.wnSig()))
+			}
 		}
 		fs.keyOff = append(fs.keyOff, int32(len(f)))
 	}
@@ -176,11 +196,15 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo) []t
 	return info
 }
 
-// fill computes the hashes of a word form; buf is scratch space, returned
-// for reuse.
-func (ti *tokenInfo) fill(buf []byte, form string) []byte {
+// fill computes the hashes of a word form and, when wn is not nil, its
+// classes in WordNet; buf is scratch space, returned for reuse.
+func (ti *tokenInfo) fill(buf []byte, form string, wn *wordnet.Table) []byte {
 	buf = lowerInto(buf[:0], form)
 	ti.lower = hashBytes(buf)
+	ti.wn, ti.hasWN = wordnet.Classes{}, wn != nil
+	if wn != nil {
+		ti.wn = wn.ClassesBytes(buf)
+	}
 	ti.suf3 = hashBytes(buf[max(0, len(buf)-3):])
 	ti.pre1 = hashBytes(buf[:min(1, len(buf))])
 	buf = shapeInto(buf[:0], form)
@@ -192,10 +216,14 @@ func (ti *tokenInfo) fill(buf []byte, form string) []byte {
 // (identity, affixes, shape, character classes) in their fixed order, and
 // reports whether the word begins with an upper-case letter, which the
 // context features need. ti holds the word's hashes (see fill); buf is
-// scratch space, returned for reuse.
+// scratch space, returned for reuse. A model with a word-class table adds
+// the word's classes (ti.wn).
 func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo) ([]uint64, []byte, bool) {
 	buf = lowerInto(buf[:0], form)
 	f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
+	if ti.hasWN {
+		f = appendClassKeys(f, ti.wn)
+	}
 	for k := 1; k <= 5 && k < len(buf); k++ {
 		f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))
 	}
@@ -234,6 +262,25 @@ func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo) ([]uint
 		f = append(f, key(fNoLetter, 0))
 	}
 	return f, buf, upperFirst
+}
+
+// appendClassKeys appends the keys of a word's WordNet classes: one for
+// the whole answer (an unlisted word has one too: function words and
+// names are not in WordNet) and one per part of speech.
+func appendClassKeys(f []uint64, c wordnet.Classes) []uint64 {
+	f = append(f, key(fWNSig, uint64(c.Lemma)|uint64(c.Inflected)<<4|uint64(c.Major)<<8))
+	for p := wordnet.Noun; p <= wordnet.Adv; p <<= 1 {
+		if c.Lemma&p != 0 {
+			f = append(f, key(fWNLemma, uint64(p)))
+		}
+		if c.Inflected&p != 0 {
+			f = append(f, key(fWNInfl, uint64(p)))
+		}
+	}
+	if c.Major != 0 {
+		f = append(f, key(fWNMajor, uint64(c.Major)))
+	}
+	return f
 }
 
 // lowerInto appends the lower-cased form to buf without allocating.

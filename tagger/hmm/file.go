@@ -26,8 +26,10 @@ import (
 //	         with DEFLATE (RFC 1951) at the best compression level
 //	crc      uint32, little endian: CRC-32 (IEEE) of everything before it
 //
-// Version 2 is the same without the size field, version 1 also stores the
-// payload uncompressed; both are still read. Compression keeps the
+// Version 4 adds to the payload the table of WordNet word classes the
+// perceptron's features read (empty when the model has none). Version 3
+// is the same without it, version 2 also without the size field, version
+// 1 also stores the payload uncompressed; all are still read. Compression keeps the
 // treebank's vocabulary, which the model carries for reference counts,
 // out of plain sight in the binary. The size lets a reader inflate into a
 // buffer of exactly that size and refuse a payload that inflates further,
@@ -38,14 +40,14 @@ import (
 // weightStep; the model in memory holds the same rounded values.
 const (
 	fileMagic   = "GLSMTAG\x00"
-	fileVersion = 3
+	fileVersion = 4
 	// headerSize is the header of version 3, headerSizeV2 that of
 	// versions 1 and 2 (no size field).
 	headerSizeV2 = len(fileMagic) + 2 + 8
 	headerSize   = headerSizeV2 + 8
 	// MaxFileSize bounds a model file and MaxPayloadSize its inflated
-	// payload (the README states both): the default model is 1.9 MB and
-	// inflates to 2.3 MB, so the caps leave room for models of treebanks
+	// payload (the README states both): the default model is 2.1 MB and
+	// inflates to 3.4 MB, so the caps leave room for models of treebanks
 	// some thirty times larger while a crafted file or a device such as
 	// /dev/zero cannot make Load or Decode allocate without limit.
 	MaxFileSize    = 64 << 20
@@ -174,7 +176,7 @@ func Decode(data []byte) (*Model, error) {
 		}
 		payload = raw
 	}
-	m, err := decodePayload(payload)
+	m, err := decodePayload(payload, version)
 	if err != nil {
 		return fail("malformed payload: %v", err)
 	}
@@ -212,7 +214,7 @@ func inflate(payload []byte, size int, exact bool) ([]byte, error) {
 // Save writes the model in the format above.
 func (m *Model) Save(w io.Writer) error {
 	var e enc
-	m.encodePayload(&e)
+	m.encodePayload(&e, fileVersion)
 	if len(e.b) > MaxPayloadSize {
 		return fmt.Errorf("tagger model: the model's payload is %d bytes; a model file holds at most %d (%d MiB)", len(e.b), MaxPayloadSize, MaxPayloadSize>>20)
 	}
@@ -318,7 +320,9 @@ func (d *dec) tag(nt int) uint8 {
 	return uint8(v)
 }
 
-func (m *Model) encodePayload(e *enc) {
+// encodePayload writes the payload of a file of the given version (only
+// tests write older ones).
+func (m *Model) encodePayload(e *enc, version int) {
 	e.str(m.method)
 	e.str(m.tagset)
 	e.str(m.source)
@@ -364,6 +368,9 @@ func (m *Model) encodePayload(e *enc) {
 		}
 	}
 	e.uint(uint64(m.refSize))
+	if version >= 4 {
+		e.str(m.wnText)
+	}
 	switch m.method {
 	case MethodHMM:
 		m.gen.encode(e)
@@ -372,7 +379,7 @@ func (m *Model) encodePayload(e *enc) {
 	}
 }
 
-func decodePayload(b []byte) (*Model, error) {
+func decodePayload(b []byte, version uint16) (*Model, error) {
 	d := &dec{b: b}
 	m := &Model{}
 	m.method = d.str()
@@ -457,6 +464,13 @@ func decodePayload(b []byte) (*Model, error) {
 		}
 	}
 	m.refSize = int(d.uint())
+	if version >= 4 {
+		if text := d.str(); d.err == nil && text != "" {
+			if err := m.setWordClasses(text); err != nil {
+				return nil, err
+			}
+		}
+	}
 	if d.err == nil {
 		m.prepareLexicon()
 	}

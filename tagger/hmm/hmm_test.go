@@ -427,7 +427,7 @@ func TestDecodeDamagedPayload(t *testing.T) {
 						t.Fatalf("%s: damaged payload %d panicked: %v\n%s", method, i, r, debug.Stack())
 					}
 				}()
-				decodePayload(q)
+				decodePayload(q, fileVersion)
 			}()
 		}
 	}

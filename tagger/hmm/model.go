@@ -23,11 +23,13 @@
 package hmm
 
 import (
+	"slices"
 	"strings"
 	"sync"
 
 	"glossmith/tagger/doc"
 	"glossmith/tagger/lemma"
+	"glossmith/tagger/wordnet"
 )
 
 // Training methods.
@@ -101,6 +103,12 @@ type Model struct {
 	uposByTag  []string
 
 	lem *lemma.Lemmatizer
+
+	// wn is the table of word classes from WordNet that the perceptron's
+	// features read (nil in models trained without it, and in those of
+	// format versions before 4); wnText is the table as stored.
+	wn     *wordnet.Table
+	wnText string
 
 	// General-language reference counts from the training data.
 	refForm  map[string]int32
@@ -279,7 +287,11 @@ func (m *Model) memoLemma(ws *workspace, i int, st uint8, t *doc.Token) string {
 // "valf", "bleed" → "blee"). So the rule's reading is weighed against the
 // plain ones — the word itself, and for a plural noun or a third-person
 // verb the word less "s" or "es" — and the reading seen most often as a
-// lemma in training wins; the rule's reading stands on a tie.
+// lemma in training wins; the rule's reading stands on a tie. Then, for an
+// inflected form whose reading WordNet does not list as a base form of the
+// word ("closest" → "clos", "smelled" → "smel", "won" → "wo"), WordNet's
+// base forms (exception lists first) take its place, the one seen most
+// often as a lemma in training first.
 func (m *Model) unknownLemma(form, upos, xpos string) string {
 	lem := m.lem.Lemma(form, upos, xpos)
 	if upos == "PROPN" || lem == "" {
@@ -300,7 +312,24 @@ func (m *Model) unknownLemma(form, upos, xpos string) string {
 			}
 		}
 	}
+	if p := inflectedPOS[xpos]; p != 0 && m.wn != nil {
+		if bases := m.wn.Bases(low, p); len(bases) > 0 && !slices.Contains(bases, strings.ToLower(best)) {
+			best, bestN = bases[0], m.refLemma[bases[0]]
+			for _, b := range bases[1:] {
+				try(b)
+			}
+		}
+	}
 	return best
+}
+
+// inflectedPOS maps the Penn tags of inflected forms to the WordNet part of
+// speech whose base forms are their lemmas.
+var inflectedPOS = map[string]wordnet.POS{
+	"NNS": wordnet.Noun,
+	"VBD": wordnet.Verb, "VBG": wordnet.Verb, "VBN": wordnet.Verb, "VBZ": wordnet.Verb,
+	"JJR": wordnet.Adj, "JJS": wordnet.Adj,
+	"RBR": wordnet.Adv, "RBS": wordnet.Adv,
 }
 
 // prepareLexicon precomputes the lemma of every (word, tag) of the

@@ -12,6 +12,7 @@ import (
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
 	"glossmith/tagger/lemma"
+	"glossmith/tagger/wordnet"
 )
 
 // TrainOptions control training. The zero value of a field means its
@@ -65,6 +66,11 @@ type TrainOptions struct {
 	// states. Off by default: it measured 0.1 points worse on EWT dev and
 	// trains four times slower.
 	FactoredTransitions bool
+
+	// WordClasses is a table of word classes written by
+	// wordnet.Generate; the perceptron reads it as features of every word,
+	// and the model stores it. Empty: no such features.
+	WordClasses string
 
 	// HMM suffix model: longest suffix (default 10) and highest frequency
 	// of the words it learns from (default 10), after Brants (2000).
@@ -136,8 +142,28 @@ func Train(sents []*conllu.Sentence, opt TrainOptions) (*Model, error) {
 		}
 		return m, nil
 	}
+	if opt.WordClasses != "" {
+		if err := m.setWordClasses(opt.WordClasses); err != nil {
+			return nil, err
+		}
+	}
 	trainPerceptron(m, sents, gold, &opt)
 	return m, nil
+}
+
+// WordClasses returns the model's table of word classes as stored (see
+// TrainOptions.WordClasses), or "" when it has none.
+func (m *Model) WordClasses() string { return m.wnText }
+
+// setWordClasses parses and keeps a word-class table (see
+// TrainOptions.WordClasses).
+func (m *Model) setWordClasses(text string) error {
+	t, err := wordnet.Parse(text)
+	if err != nil {
+		return err
+	}
+	m.wn, m.wnText = t, text
+	return nil
 }
 
 // CheckGold reports the first reason a sentence cannot be training or

@@ -37,6 +37,8 @@ const (
 	cPrevShape
 	cNextShape
 	cNextPrefix1
+	cPrevWN
+	cNextWN
 	nCtx
 )
 
@@ -105,7 +107,7 @@ type viewBoundary struct {
 func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []uint64, buf []byte) ([]uint64, []byte) {
 	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
-	buf = ti.fill(buf, form)
+	buf = ti.fill(buf, form, p.wn)
 	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti)
 	v.lower = ti.lower
 	v.ctx = [nCtx]int32{
@@ -114,6 +116,10 @@ func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []ui
 		cPrevSuf3: p.row(key(fPrevSuf3, ti.suf3)), cNextSuf3: p.row(key(fNextSuf3, ti.suf3)),
 		cPrevShape: p.row(key(fPrevShape, ti.shape)), cNextShape: p.row(key(fNextShape, ti.shape)),
 		cNextPrefix1: p.row(key(fNextPrefix1, ti.pre1)),
+		cPrevWN:      -1, cNextWN: -1,
+	}
+	if ti.hasWN {
+		v.ctx[cPrevWN], v.ctx[cNextWN] = p.row(key(fPrevWN, ti.wnSig())), p.row(key(fNextWN, ti.wnSig()))
 	}
 	v.alone = alone
 	if alone != nil {
@@ -398,7 +404,7 @@ func (p *perceptron) contextParts(rows []int32, vecs [][]int16, vs []*wordView, 
 		if w.side != nil {
 			vecs = append(vecs, w.side[:p.nt])
 		} else {
-			rows = append(rows, w.ctx[cPrev1], w.ctx[cPrevSuf3], w.ctx[cPrevShape])
+			rows = append(rows, w.ctx[cPrev1], w.ctx[cPrevSuf3], w.ctx[cPrevShape], w.ctx[cPrevWN])
 		}
 	} else {
 		rows = append(rows, p.edge.prev1)
@@ -409,7 +415,7 @@ func (p *perceptron) contextParts(rows []int32, vecs [][]int16, vs []*wordView, 
 		if w.side != nil {
 			vecs = append(vecs, w.side[p.nt:])
 		} else {
-			rows = append(rows, w.ctx[cNext1], w.ctx[cNextSuf3], w.ctx[cNextShape], w.ctx[cNextPrefix1])
+			rows = append(rows, w.ctx[cNext1], w.ctx[cNextSuf3], w.ctx[cNextShape], w.ctx[cNextPrefix1], w.ctx[cNextWN])
 		}
 	} else {
 		rows = append(rows, p.edge.next1)
@@ -430,10 +436,10 @@ func (p *perceptron) contextParts(rows []int32, vecs [][]int16, vs []*wordView, 
 // largest is about 25,000 steps).
 func (p *perceptron) sideVectors(v *wordView) {
 	var prev, next [256]int32
-	for _, c := range [...]int{cPrev1, cPrevSuf3, cPrevShape} {
+	for _, c := range [...]int{cPrev1, cPrevSuf3, cPrevShape, cPrevWN} {
 		p.addRow(&prev, v.ctx[c])
 	}
-	for _, c := range [...]int{cNext1, cNextSuf3, cNextShape, cNextPrefix1} {
+	for _, c := range [...]int{cNext1, cNextSuf3, cNextShape, cNextPrefix1, cNextWN} {
 		p.addRow(&next, v.ctx[c])
 	}
 	both := make([]int16, 2*p.nt)

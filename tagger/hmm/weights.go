@@ -3,6 +3,8 @@ package hmm
 import (
 	"math"
 	"sync/atomic"
+
+	"glossmith/tagger/wordnet"
 )
 
 // perceptron holds the weights of the discriminative model in the form
@@ -12,6 +14,9 @@ import (
 type perceptron struct {
 	dictMin  int32
 	maxCands int
+	// wn is the model's table of WordNet word classes (Model.wn), nil
+	// when it has none: the word-alone features read it.
+	wn *wordnet.Table
 
 	keys     []uint64 // feature keys, sorted; row i belongs to keys[i]
 	rowStart []int32  // weights of row i: cells[rowStart[i]:rowStart[i+1]]
@@ -84,6 +89,7 @@ func (p *perceptron) prepareDict(m *Model) {
 
 // prepare builds what decoding needs beyond the stored weights.
 func (p *perceptron) prepare(m *Model) {
+	p.wn = m.wn
 	p.index()
 	p.prepareDict(m)
 	freq := make([]int64, len(m.tags)+1)

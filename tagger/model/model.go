@@ -9,6 +9,12 @@
 //	go run ./tagger/model/build
 //
 // run from the module root with the treebank at ../shared/data/ud-en-ewt.
+// The model also holds wordnet-classes.tsv, word classes derived from
+// WordNet 3.0 (WordNet 3.0 license, notice in NOTICE.md), which
+//
+//	go run ./tagger/model/lexicon
+//
+// regenerates from Debian's package wordnet-base.
 // (Bootstrapping a tree without the file: create an empty en-ewt.glsm
 // first, so that the packages compile, then run the command above.)
 package model

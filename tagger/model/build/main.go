@@ -34,6 +34,7 @@ func main() {
 	minFeat := flag.Int("minfeat", 0, "minimum feature count (0: default, -1: keep all)")
 	pruneW := flag.Float64("prunew", 0, "drop weights below this magnitude")
 	beam := flag.Float64("beam", 0, "Viterbi beam (0: default, -1: off)")
+	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
 	test := flag.Bool("test", false, "also evaluate on the test set")
 	trainAcc := flag.Bool("trainacc", false, "also evaluate on the first 2000 training sentences")
 	jsonOut := flag.Bool("json", false, "print full reports as JSON")
@@ -54,12 +55,20 @@ func main() {
 	}
 	train := read("en_ewt-ud-train.conllu")
 	dev := read("en_ewt-ud-dev.conllu")
+	var wn []byte
+	if *classes != "" {
+		var err error
+		if wn, err = os.ReadFile(*classes); err != nil {
+			fail(err)
+		}
+	}
 	start := time.Now()
 	m, err := hmm.Train(train, hmm.TrainOptions{
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
 		Source:  "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
 		DictMin: *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
-		Dev: dev,
+		WordClasses: string(wn),
+		Dev:         dev,
 		Progress: func(ep int, u, x float64) {
 			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%% XPOS %.2f%% (%s)\n", ep, u, x, time.Since(start).Round(time.Second))
 		},
