@@ -172,7 +172,8 @@ func TestTermbaseErrors(t *testing.T) {
 // terms' TBX output validates against the TBX schemas of
 // ../shared/standards/tbx with jing: TBX-Core against the TBX-Core
 // integrated RELAX NG schema, TBX-Basic against the core structure; an
-// empty list too.
+// empty list too. The list holds acronyms with and without their full
+// form's line.
 func TestTermsTBXValidates(t *testing.T) {
 	jing, err := exec.LookPath("jing")
 	if err != nil {
@@ -189,7 +190,7 @@ func TestTermsTBXValidates(t *testing.T) {
 		{"tbx", "TBXcoreStructV03_TBX-Core_integrated.rng", "100000"},
 	} {
 		out := filepath.Join(dir, tc.to+tc.minFreq+".tbx")
-		r := run(t, "", "terms", "--to", tc.to, "--limit", "40", "--min-freq", tc.minFreq, "-o", out, "testdata/demo")
+		r := run(t, "", "terms", "--to", tc.to, "--limit", "50", "--min-freq", tc.minFreq, "-o", out, "testdata/demo")
 		require.Equal(t, 0, r.code, r.stderr)
 		b, err := exec.Command(jing, filepath.Join(schemas, tc.schema), out).CombinedOutput()
 		var problems []string
@@ -202,5 +203,10 @@ func TestTermsTBXValidates(t *testing.T) {
 		assert.NoError(t, err, string(b))
 		data, _ := os.ReadFile(out)
 		assert.NotContains(t, string(data), "<term>valves</term>", "inflected forms are not terms")
+		if tc.to == "tbx-basic" {
+			// "vapour pressure deficit (VPD)": one entry, the acronym typed.
+			assert.Contains(t, string(data), `<termNote type="termType">acronym</termNote>`)
+			assert.Equal(t, 1, strings.Count(string(data), "<term>VPD</term>"))
+		}
 	}
 }

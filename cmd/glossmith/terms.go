@@ -100,8 +100,13 @@ Measures (each a column, each a --sort key):
              specific word
   score      the combined ranking score (see README)
 
-Other columns: within, the longer candidate this one occurs inside at least
-90% of the time ("drip emitter" for "drip"; a note in TBX), and variants.
+Other columns: variants; within, the longer candidate this one occurs inside
+at least 90% of the time ("drip emitter" for "drip"; a note in TBX); acronym
+and full_form, where the documents define an acronym ("vapour pressure deficit
+(VPD)", Schwartz and Hearst 2003): the full form's line pools the acronym's
+frequency, documents and spellings and is shown as "vapour pressure deficit
+(VPD)"; the acronym keeps its own line, "VPD (vapour pressure deficit)"; in TBX
+both are one entry, the terms typed fullForm and acronym.
 
 The default list ends where the score falls below the cut-off; --all prints
 every candidate. The list is a set of candidates for expert review, not a

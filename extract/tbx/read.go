@@ -268,6 +268,8 @@ func readSourced(e *Entry, t *Term, n *node, source, lang string, addNote func(s
 		t.POS = v
 	case cat == "administrativeStatus" && t != nil:
 		t.Status = v
+	case cat == "termType" && t != nil && t.Type == "":
+		t.Type = v
 	case cat == "context" && t != nil:
 		t.Contexts = append(t.Contexts, Context{Text: v, Source: source})
 	case cat == "definition" && e != nil:
@@ -288,13 +290,15 @@ func readSourced(e *Entry, t *Term, n *node, source, lang string, addNote func(s
 
 // readGlossmithNote reads back what the TBX-Core writer puts in notes
 // (Core has no data categories): "part of speech: …", "administrative
-// status: …", "context: …". It reports whether the note was one.
+// status: …", "term type: …", "context: …". It reports whether the note was one.
 func readGlossmithNote(t *Term, s string) bool {
 	switch {
 	case strings.HasPrefix(s, notePOS):
 		t.POS = strings.TrimPrefix(s, notePOS)
 	case strings.HasPrefix(s, noteStatus):
 		t.Status = strings.TrimPrefix(s, noteStatus)
+	case strings.HasPrefix(s, noteTermType) && t.Type == "":
+		t.Type = strings.TrimPrefix(s, noteTermType)
 	case strings.HasPrefix(s, noteContext):
 		c, src := splitSource(strings.TrimPrefix(s, noteContext))
 		t.Contexts = append(t.Contexts, Context{Text: c, Source: src})
@@ -332,7 +336,8 @@ const (
 	noteSubject    = "subject field: "
 	noteDefinition = "definition: "
 
-	notePOS     = "part of speech: "
-	noteStatus  = "administrative status: "
-	noteContext = "context: "
+	notePOS      = "part of speech: "
+	noteStatus   = "administrative status: "
+	noteContext  = "context: "
+	noteTermType = "term type: "
 )

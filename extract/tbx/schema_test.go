@@ -126,6 +126,7 @@ func schematronBasicDCA(root *elem) []string {
 		"administrativeStatus": {AdmittedStatus, DeprecatedStatus, SupersededStatus, PreferredStatus},
 		"partOfSpeech":         {"adjective", "noun", "other", "verb", "adverb"},
 		"grammaticalGender":    {"masculine", "feminine", "neuter", "other"},
+		"termType":             {"fullForm", "acronym", "abbreviation", "shortForm", "variant", "phrase"},
 	}
 	levels := map[string][]string{
 		"subjectField":   {"conceptEntry"},

@@ -60,10 +60,14 @@ type Definition struct {
 
 // Term is one term of an entry.
 type Term struct {
-	Lang     string
-	Text     string
-	POS      string // a TBX-Basic part of speech: noun, verb, adjective, adverb, other
-	Status   string // a TBX-Basic administrative status, e.g. preferredTerm-admn-sts; "" for none
+	Lang   string
+	Text   string
+	POS    string // a TBX-Basic part of speech: noun, verb, adjective, adverb, other
+	Status string // a TBX-Basic administrative status, e.g. preferredTerm-admn-sts; "" for none
+	// Type is a TBX-Basic term type: fullForm, acronym, abbreviation,
+	// shortForm, variant or phrase; "" for none. TBX-Basic writes it as the
+	// termType data category, TBX-Core as the note "term type: …".
+	Type     string
 	Contexts []Context
 	Notes    []string
 }

@@ -31,6 +31,10 @@ func sampleDoc(dialect string) *Document {
 			{Lang: "en", Text: "setpoint", POS: "NOUN", Status: AdmittedStatus},
 		}},
 		{ID: StableID("vent"), Terms: []Term{{Lang: "en", Text: "vent", POS: "VERB"}}},
+		{ID: StableID("vapour pressure deficit"), Terms: []Term{
+			{Lang: "en", Text: "vapour pressure deficit", POS: "NOUN NOUN NOUN", Type: "fullForm"},
+			{Lang: "en", Text: "VPD", POS: "PROPN", Type: "acronym"},
+		}},
 	}}
 }
 
@@ -130,6 +134,7 @@ func TestSchematronChecksCanFail(t *testing.T) {
 		{"preferredTerm-admn-sts", "preferred"},
 		{"style=\"dca\"", "style=\"dct\""},
 		{"<descrip type=\"subjectField\">General</descrip>", "<descrip type=\"topic\">General</descrip>"},
+		{"<termNote type=\"partOfSpeech\">noun</termNote>", "<termNote type=\"termType\">acronymn</termNote>"},
 	} {
 		mutated := strings.Replace(string(data), bad.from, bad.to, 1)
 		require.NotEqual(t, string(data), mutated, bad.from)

@@ -139,6 +139,9 @@ func writeTerm(w *bufio.Writer, t *Term, basic bool) {
 		if t.Status != "" {
 			element(w, in3, `termNote type="administrativeStatus"`, t.Status)
 		}
+		if t.Type != "" {
+			element(w, in3, `termNote type="termType"`, t.Type)
+		}
 		for _, c := range t.Contexts {
 			sourced(w, in3, "context", c.Text, c.Source)
 		}
@@ -148,6 +151,9 @@ func writeTerm(w *bufio.Writer, t *Term, basic bool) {
 		}
 		if t.Status != "" {
 			element(w, in3, "note", noteStatus+t.Status)
+		}
+		if t.Type != "" {
+			element(w, in3, "note", noteTermType+t.Type)
 		}
 		for _, c := range t.Contexts {
 			element(w, in3, "note", noteContext+withSource(c.Text, c.Source))

@@ -88,6 +88,10 @@ func FromTBX(doc *tbx.Document) []*termbase.Entry {
 			if x.Lang == "" {
 				x.Lang = doc.Lang
 			}
+			if t.Type != "" {
+				// The termbase has no term type: kept as a note.
+				x.Notes = append(x.Notes, "term type: "+t.Type)
+			}
 			if st, deferred, note, ok := parseStatus(t.Status); ok {
 				x.Status, x.Deferred = st, deferred
 				if note != "" {

@@ -14,6 +14,7 @@ import (
 	"unicode/utf8"
 	"unsafe"
 
+	"glossmith/extract/acronym"
 	"glossmith/extract/wordshape"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -79,11 +80,13 @@ type docTables struct {
 	ends   []int32        // ends of canonical words and keys (see docCanonical)
 	// contexts are the sentences offered as contexts, each once (doc unset).
 	contexts []ctxRef
+	// abbrevs are the short forms the document defines, one per definition.
+	abbrevs []docAbbrev
 }
 
 // empty returns the tables emptied, their room kept.
 func (t *docTables) empty() docTables {
-	return docTables{t.words[:0], t.cands[:0], t.spells[:0], t.canons[:0], t.ends[:0], t.contexts[:0]}
+	return docTables{t.words[:0], t.cands[:0], t.spells[:0], t.canons[:0], t.ends[:0], t.contexts[:0], t.abbrevs[:0]}
 }
 
 // wordCount is how often a word key occurs in a document.
@@ -174,6 +177,8 @@ type scratch struct {
 	wordAt     []int32          // per word token of the sentence: its index in DocCounts.words
 	context    []int32          // per sentence: 1 + its index in DocCounts.contexts, 0 if none
 	cw         canonWriter
+	acronyms   acronym.Finder
+	pairs      []acronym.Pair
 	from       []pattern.Match // the matches from one start (see countFrom)
 	reach      []ruleReach     // how far too-long matches reach (see countFrom)
 	buf        []byte          // a lower-cased word key, a folded span
@@ -207,7 +212,7 @@ func (sc *scratch) settle(dc *DocCounts) {
 		t = &docTables{
 			make([]wordCount, 0, 2*len(dc.words)), make([]docCand, 0, 2*len(dc.cands)),
 			make([]docSpelling, 0, 2*len(dc.spells)), make([]docCanonical, 0, 2*len(dc.canons)),
-			make([]int32, 0, 2*len(dc.ends)), make([]ctxRef, 0, 2*len(dc.contexts)),
+			make([]int32, 0, 2*len(dc.ends)), make([]ctxRef, 0, 2*len(dc.contexts)), nil,
 		}
 	}
 	sc.docTables = *t
@@ -232,6 +237,7 @@ func (dc *DocCounts) Release() {
 	clear(dc.spells)
 	clear(dc.canons)
 	clear(dc.contexts)
+	clear(dc.abbrevs)
 	t := dc.docTables.empty()
 	freeTables.Put(&t)
 	dc.arena.free()
@@ -362,6 +368,7 @@ func (c *Collector) Collect(d *doc.Document) *DocCounts {
 			sc.from = append(sc.from, mt)
 		})
 		c.countFrom(dc, sc, si)
+		c.findAbbrevs(dc, sc, toks)
 	}
 	sc.settle(dc)
 	return dc

@@ -144,6 +144,7 @@ type Corpus struct {
 	order    []string
 	contexts int
 	budget   budget // see budget.go
+	abbrevs  abbrevTable
 
 	// working memory of Add
 	texts []string // copies of the document's context texts, made on first use
@@ -192,6 +193,7 @@ func (c *Corpus) Add(dc *DocCounts) {
 		}
 	}
 	clear(c.texts[:min(len(c.texts), len(dc.contexts))])
+	c.abbrevs.add(dc.abbrevs)
 	c.checkBudget(dc)
 }
 
@@ -354,7 +356,12 @@ type Term struct {
 	// WithinPercent % of the time ("drip emitter" for "drip"): ranked as it is,
 	// but a reviewer sees it may be a fragment. The most frequent such
 	// candidate, ties by its words; "" for none.
-	Within   string    `json:"within,omitempty"`
+	Within string `json:"within,omitempty"`
+	// Acronym is the short form the documents define for this candidate
+	// ("VPD" for "vapour pressure deficit"), FullForm the long form an
+	// acronym stands for; see linkAbbrevs. "" for none.
+	Acronym  string    `json:"acronym,omitempty"`
+	FullForm string    `json:"full_form,omitempty"`
 	Contexts []Context `json:"contexts,omitempty"`
 	// Status and Entry come from a termbase (terms --termbase): new,
 	// accepted, variant, deprecated or rejected, and the preferred term of
@@ -435,6 +442,7 @@ func (c *Corpus) Terms(ref Reference) []*Term {
 			}
 		}
 	}
+	c.linkAbbrevs(out, spread)
 	// Options.Keep filters whole candidates, once every measure is known:
 	// a candidate stays when it accepted most of its occurrences.
 	return slices.DeleteFunc(out, func(t *Term) bool { return 2*t.kept <= t.Freq })
@@ -486,13 +494,7 @@ func (c *Corpus) term(k string, spread *docSpread, memo []float64, ref Reference
 	for _, v := range g.variants {
 		t.Variants = append(t.Variants, Variant{v.text, v.n})
 	}
-	sort.Slice(t.Variants, func(i, j int) bool {
-		a, b := t.Variants[i], t.Variants[j]
-		if a.Count != b.Count {
-			return a.Count > b.Count
-		}
-		return a.Form < b.Form
-	})
+	sortVariants(t.Variants)
 	if spread != nil {
 		t.DP = spread.dp(g.perDoc, memo)
 	}
@@ -504,6 +506,17 @@ func (c *Corpus) term(k string, spread *docSpread, memo []float64, ref Reference
 		lw[i] = strings.ToLower(w)
 	}
 	return t, termstat.Candidate{Words: lw, Freq: float64(g.freq)}, ctxs
+}
+
+// sortVariants orders variants by count, most frequent first, then by form.
+func sortVariants(vs []Variant) {
+	sort.Slice(vs, func(i, j int) bool {
+		a, b := vs[i], vs[j]
+		if a.Count != b.Count {
+			return a.Count > b.Count
+		}
+		return a.Form < b.Form
+	})
 }
 
 // exampleContexts returns a group's main contexts, then spare ones while

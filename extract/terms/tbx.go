@@ -14,7 +14,10 @@ import (
 // (stable across runs, whatever the rank); the canonical form and its
 // spelling variants as terms, each with its part of speech; inflected and
 // case-only forms are not terms of their own; the longer candidate it
-// mostly occurs in (Term.Within) is a note of the entry. Under TBX-Basic the contexts
+// mostly occurs in (Term.Within) is a note of the entry. A full form and
+// the acronym the documents define for it are one entry, its id that of
+// the full form, the terms typed fullForm and acronym; an acronym whose
+// full form is not in the list still gets the full form as a term. Under TBX-Basic the contexts
 // are context data categories with their document and line as source;
 // under TBX-Core, notes.
 func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) error {
@@ -24,26 +27,64 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		lang = "en"
 	}
 	doc.Lang = lang
+	byTerm := make(map[string]*Term, len(terms))
 	for _, t := range terms {
+		byTerm[t.Term] = t
+	}
+	for _, t := range terms {
+		full, short := t, (*Term)(nil)
+		fullText := t.Term
+		switch {
+		case t.FullForm != "":
+			// An acronym whose full form is listed is a term of that entry.
+			if lf := byTerm[t.FullForm]; lf != nil && lf.Acronym == t.Term {
+				continue
+			}
+			full, short, fullText = nil, t, t.FullForm
+		case t.Acronym != "":
+			short = byTerm[t.Acronym]
+		}
 		e := tbx.Entry{
-			ID:    tbx.StableID(Key(t.Term)),
+			ID:    tbx.StableID(Key(fullText)),
 			Notes: []string{fmt.Sprintf("candidate rank %d; score %s; frequency %d in %d document(s)", t.Rank, num(t.Score), t.Freq, t.Docs)},
 		}
 		if t.Within != "" {
 			e.Notes = append(e.Notes, fmt.Sprintf("at least %d%% of its occurrences within the longer candidate %q", WithinPercent, t.Within))
 		}
-		main := tbx.Term{Lang: lang, Text: t.Term, POS: t.POS}
-		for _, cx := range t.Contexts {
-			main.Contexts = append(main.Contexts, tbx.Context{Text: cx.Text, Source: cx.Doc + ", line " + strconv.Itoa(cx.Line)})
+		main := tbx.Term{Lang: lang, Text: fullText}
+		if full != nil {
+			main.POS, main.Contexts = t.POS, tbxContexts(t)
+		}
+		if t.Acronym != "" || t.FullForm != "" {
+			main.Type = "fullForm"
 		}
 		e.Terms = append(e.Terms, main)
-		for _, s := range SpellingVariants(t) {
-			e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: s.Form, POS: t.POS,
-				Notes: []string{fmt.Sprintf("spelling variant; %d occurrence(s)", s.Count)}})
+		if full != nil {
+			for _, s := range SpellingVariants(t) {
+				e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: s.Form, POS: t.POS,
+					Notes: []string{fmt.Sprintf("spelling variant; %d occurrence(s)", s.Count)}})
+			}
+		}
+		switch {
+		case short != nil:
+			e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: short.Term, POS: short.POS, Type: "acronym", Contexts: tbxContexts(short),
+				Notes: []string{fmt.Sprintf("candidate rank %d; frequency %d in %d document(s)", short.Rank, short.Freq, short.Docs)}})
+		case t.Acronym != "":
+			e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: t.Acronym, Type: "acronym"})
 		}
 		doc.Entries = append(doc.Entries, e)
 	}
 	return tbx.Write(w, doc)
+}
+
+// tbxContexts returns a term's contexts with their document and line as
+// source.
+func tbxContexts(t *Term) []tbx.Context {
+	var out []tbx.Context
+	for _, cx := range t.Contexts {
+		out = append(out, tbx.Context{Text: cx.Text, Source: cx.Doc + ", line " + strconv.Itoa(cx.Line)})
+	}
+	return out
 }
 
 // Key is the key a canonical form is known by across runs: lower case,

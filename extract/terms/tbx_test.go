@@ -53,3 +53,31 @@ func TestWriteTBXEntries(t *testing.T) {
 	// An empty list is a valid file with no entries.
 	assert.Empty(t, read().Entries)
 }
+
+// An acronym and its full form are one entry, the full form's, with the
+// terms typed as TBX-Basic allows (fullForm, acronym); an acronym whose full
+// form is not listed still names it as the entry's full form.
+func TestWriteTBXAcronyms(t *testing.T) {
+	vpd := &Term{Rank: 1, Term: "VPD", POS: "PROPN", FullForm: "vapour pressure deficit", Freq: 23, Docs: 7,
+		Contexts: []Context{{Doc: "manual.md", Line: 9, Text: "Keep the VPD low."}}}
+	full := &Term{Rank: 2, Term: "vapour pressure deficit", POS: "NOUN NOUN NOUN", Acronym: "VPD", Freq: 32, Docs: 7}
+	ec := &Term{Rank: 3, Term: "EC", POS: "PROPN", FullForm: "electrical conductivity"}
+	var buf bytes.Buffer
+	require.NoError(t, Write(&buf, "tbx-basic", []*Term{vpd, full, ec}, WriteOptions{Contexts: 3}))
+	doc, err := tbx.Read(&buf, "out.tbx")
+	require.NoError(t, err)
+	require.Len(t, doc.Entries, 2)
+	e := doc.Entries[0]
+	assert.Equal(t, tbx.StableID("vapour pressure deficit"), e.ID)
+	require.Len(t, e.Terms, 2)
+	assert.Equal(t, "vapour pressure deficit", e.Terms[0].Text)
+	assert.Equal(t, "fullForm", e.Terms[0].Type)
+	assert.Equal(t, "VPD", e.Terms[1].Text)
+	assert.Equal(t, "acronym", e.Terms[1].Type)
+	assert.Equal(t, []tbx.Context{{Text: "Keep the VPD low.", Source: "manual.md, line 9"}}, e.Terms[1].Contexts)
+	e = doc.Entries[1]
+	assert.Equal(t, tbx.StableID("electrical conductivity"), e.ID)
+	require.Len(t, e.Terms, 2)
+	assert.Equal(t, []string{"electrical conductivity", "EC"}, []string{e.Terms[0].Text, e.Terms[1].Text})
+	assert.Equal(t, []string{"fullForm", "acronym"}, []string{e.Terms[0].Type, e.Terms[1].Type})
+}

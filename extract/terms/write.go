@@ -31,7 +31,7 @@ type WriteOptions struct {
 }
 
 // columns are the measure columns of tsv, csv and text output, in order.
-var columns = []string{"rank", "term", "score", "freq", "docs", "words", "keyness", "weirdness", "cvalue", "dp", "variants", "within"}
+var columns = []string{"rank", "term", "score", "freq", "docs", "words", "keyness", "weirdness", "cvalue", "dp", "variants", "within", "acronym", "full_form"}
 
 func (t *Term) cells() []string {
 	vs := make([]string, len(t.Variants))
@@ -39,7 +39,7 @@ func (t *Term) cells() []string {
 		vs[i] = v.Form + " (" + strconv.Itoa(v.Count) + ")"
 	}
 	return []string{strconv.Itoa(t.Rank), t.Term, num(t.Score), strconv.Itoa(t.Freq), strconv.Itoa(t.Docs),
-		strconv.Itoa(t.Words), num(t.Keyness), num(t.Weirdness), num(t.CValue), num(t.DP), strings.Join(vs, "; "), t.Within}
+		strconv.Itoa(t.Words), num(t.Keyness), num(t.Weirdness), num(t.CValue), num(t.DP), strings.Join(vs, "; "), t.Within, t.Acronym, t.FullForm}
 }
 
 // num formats a measure with four significant decimals, never NaN or Inf
@@ -112,7 +112,8 @@ func writeJSONL(w *bufio.Writer, terms []*Term) error {
 	return enc.Flush()
 }
 
-// writeText prints an aligned table: rank, term, score, freq, docs,
+// writeText prints an aligned table: rank, term (with its acronym or full
+// form, see displayTerm), score, freq, docs,
 // keyness, dp, the longer candidate it mostly occurs in (when any term of
 // the list has one) and the most frequent other spellings; with Contexts > 0
 // the example sentences follow each row, indented.
@@ -133,7 +134,7 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		if len(t.Variants) > 3+1 {
 			other = append(other, "…")
 		}
-		row := []string{strconv.Itoa(t.Rank), t.Term, strconv.FormatFloat(t.Score, 'f', 2, 64),
+		row := []string{strconv.Itoa(t.Rank), displayTerm(t), strconv.FormatFloat(t.Score, 'f', 2, 64),
 			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
 			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")}
 		if within {
@@ -161,6 +162,19 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		}
 	}
 	return nil
+}
+
+// displayTerm is the term as the text format shows it: with the acronym
+// the documents define for it, "vapour pressure deficit (VPD)", or, for an
+// acronym, its full form, "VPD (vapour pressure deficit)".
+func displayTerm(t *Term) string {
+	switch {
+	case t.Acronym != "":
+		return t.Term + " (" + t.Acronym + ")"
+	case t.FullForm != "":
+		return t.Term + " (" + t.FullForm + ")"
+	}
+	return t.Term
 }
 
 // hasWithin reports whether a term of the list names a longer candidate

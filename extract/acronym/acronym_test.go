@@ -1,0 +1,109 @@
+package acronym
+
+import (
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// pairs returns the pairs of text as "SHORT=LONG" strings.
+func pairs(text string) []string {
+	var out []string
+	for _, p := range Find(text) {
+		out = append(out, text[p.Short.Start:p.Short.End]+"="+text[p.Long.Start:p.Long.End])
+	}
+	return out
+}
+
+// The worked example of Schwartz and Hearst (2003), PSB 8:451–462, in both
+// patterns the paper reads: the letters of "HSF" matched right to left,
+// "S" in "transcription" rather than at the start of "shock", "H" at the
+// start of a word; the long form starts there, so "the" stays out.
+func TestSchwartzHearstExample(t *testing.T) {
+	assert.Equal(t, []string{"HSF=Heat shock transcription factor"}, pairs("Heat shock transcription factor (HSF)"))
+	assert.Equal(t, []string{"HSF=heat shock transcription factor"}, pairs("Binding of the heat shock transcription factor (HSF) to DNA."))
+	assert.Equal(t, []string{"HSF=heat shock transcription factor"}, pairs("The HSF (heat shock transcription factor) binds."))
+}
+
+// The rules of the paper's definition, each on an invented greenhouse
+// sentence: the short form's length and shape, the window of
+// min(|A|+5, 2·|A|) words, the first letter at the start of a word, the
+// long form not holding the short form, text after ", " or "; " left out.
+func TestSchwartzHearstRules(t *testing.T) {
+	for _, c := range []struct {
+		text string
+		want []string
+		why  string
+	}{
+		{"The climate controller calculates the vapour pressure deficit (VPD) every minute.", []string{"VPD=vapour pressure deficit"}, "long form (short form)"},
+		{"Connect the EC-7 sensor for electrical conductivity (EC) to input 3.", []string{"EC=electrical conductivity"}, "two letters"},
+		{"Fit pressure-compensating (PC) drippers.", []string{"PC=pressure-compensating"}, "C after a hyphen"},
+		{"It cuts the emission reductions (ERs) in half.", []string{"ERs=emission reductions"}, "lower-case letters of the short form match too"},
+		{"It shows the vapour pressure deficit (VPD; see table 2).", []string{"VPD=vapour pressure deficit"}, "text after ; left out"},
+		{"It shows the vapour pressure deficit (VPD, in kPa).", []string{"VPD=vapour pressure deficit"}, "text after , left out"},
+		{"Set the VPD (vapour pressure deficit) limit.", []string{"VPD=vapour pressure deficit"}, "short form (long form)"},
+		{"The controller has one Ethernet port (RJ45).", nil, "4 and 5 are not in the long form"},
+		{"Supply 24 V AC (required: 21.6 to 26.4 V AC).", nil, "the long form holds the short form"},
+		{"alpha one two three four beta (AB)", nil, "6 words, over the window of min(2+5, 2·2) = 4"},
+		{"alpha beta gamma (ABG) and alpha one two beta gamma (ABG)", []string{"ABG=alpha beta gamma", "ABG=alpha one two beta gamma"}, "5 words in a window of min(3+5, 2·3) = 6"},
+		{"The multiplexer (PX) switches.", nil, "P inside a word"},
+		{"See valve (A) and valve (12).", nil, "one character; no letter"},
+		{"The long name of it (ABCDEFGHIJK) here.", nil, "11 characters"},
+		{"The deficit (-VPD) here.", nil, "first character not a letter or digit"},
+		{"Open the valve (see below).", nil, "no match"},
+		{"valves (three of them)", nil, "no capital in the short form of short form (long form)"},
+		{"((((VPD", nil, "unbalanced"},
+		{"deficit) (VPD", nil, "unbalanced"},
+	} {
+		assert.Equal(t, c.want, pairs(c.text), "%s: %s", c.why, c.text)
+	}
+}
+
+// Nested parentheses: the inner pair is read.
+func TestNestedParentheses(t *testing.T) {
+	assert.Equal(t, []string{"EC=electrical conductivity"}, pairs("Check (the electrical conductivity (EC) of the drain) daily."))
+}
+
+// Long text before a parenthesis is looked at only as far as a long form
+// can reach, and a long form never starts inside a word cut by that bound.
+func TestBoundedWindow(t *testing.T) {
+	text := strings.Repeat("x", 1000) + "electrical conductivity (EC)"
+	assert.Equal(t, []string(nil), pairs(text), "the word before the window's edge")
+	text = strings.Repeat("x ", 500) + "electrical conductivity (EC)"
+	assert.Equal(t, []string{"EC=electrical conductivity"}, pairs(text))
+}
+
+// Bad input gives no pair and no panic: invalid UTF-8, a window that would
+// start inside a multi-byte character.
+func TestBadInput(t *testing.T) {
+	assert.Empty(t, pairs("\xff\xfe (\xff\xff)"))
+	text := strings.Repeat("é", 400) + " electrical conductivity (EC)"
+	assert.Equal(t, []string{"EC=electrical conductivity"}, pairs(text))
+}
+
+// FuzzFind checks that Find never panics and returns spans inside the
+// text, a short form of 2 to 10 characters before or after its long form.
+func FuzzFind(f *testing.F) {
+	for _, s := range []string{
+		"Heat shock transcription factor (HSF)",
+		"The HSF (heat shock transcription factor) binds.",
+		"vapour pressure deficit (VPD; see table 2)",
+		"((a)(b)) x (", "é (É)", "\xff (\xfe)",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, text string) {
+		var fd Finder
+		for _, p := range fd.Append(nil, text) {
+			for _, sp := range []Span{p.Short, p.Long} {
+				require.True(t, 0 <= sp.Start && sp.Start < sp.End && sp.End <= len(text), "%+v in %q", p, text)
+			}
+			n := utf8.RuneCountInString(text[p.Short.Start:p.Short.End])
+			assert.True(t, n >= 2 && n <= 10, "short form %q", text[p.Short.Start:p.Short.End])
+			assert.True(t, p.Long.End <= p.Short.Start || p.Short.End <= p.Long.Start, "overlap %+v", p)
+		}
+	})
+}
