@@ -7,6 +7,10 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"glossmith/pattern"
+	"glossmith/tagger/doc"
+	"glossmith/tagger/tokenize"
 )
 
 // findBoth returns the candidates a and b, which must be there.
@@ -89,4 +93,31 @@ func TestAcronymWritten(t *testing.T) {
 	assert.True(t, strings.HasSuffix(lines[2], "\tVPD\t"), lines[2])
 	assert.Contains(t, jl.String(), `"full_form":"vapour pressure deficit"`)
 	assert.Contains(t, jl.String(), `"acronym":"VPD"`)
+}
+
+// FuzzCollectAbbrevs runs the collector's acronym step on any text (real
+// tokenizer, no tagger) and on the same tokens with their offsets shuffled:
+// it never panics, and every pair it records names two different keys.
+func FuzzCollectAbbrevs(f *testing.F) {
+	f.Add("The vapour pressure deficit (VPD) rises. Set the EC (electrical conductivity).", uint8(0))
+	f.Add("a (b) ((c)) d) (e", uint8(3))
+	mt, err := pattern.CompileStock("terms")
+	require.NoError(f, err)
+	col := NewCollector(mt, Options{})
+	f.Fuzz(func(t *testing.T, text string, shuffle uint8) {
+		d := &doc.Document{Name: "fuzz", Text: text}
+		tokenize.Document(d)
+		for si := range d.Sentences {
+			toks := d.Sentences[si].Tokens
+			if k := int(shuffle); k > 0 && len(toks) > 1 {
+				a, b := k%len(toks), (k/7)%len(toks)
+				toks[a].Start, toks[b].End = toks[b].End, toks[a].Start
+			}
+		}
+		dc := col.Collect(d)
+		for _, a := range dc.abbrevs {
+			assert.NotEqual(t, a.short, a.long)
+		}
+		dc.Release()
+	})
 }
