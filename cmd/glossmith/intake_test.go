@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -176,6 +177,31 @@ func TestNormalizedTerms(t *testing.T) {
 	}
 	assert.Equal(t, "2", freq["café kiosk"], "%v", freq)
 	assert.Equal(t, "2", freq["pressure sensor"], "%v", freq)
+}
+
+// tag's start and end are byte offsets of the text as read, before
+// normalization: in a UTF-8 file with LF line ends, the file's own, so
+// that each token is found in the file with its soft hyphens, zero-width
+// characters and decomposed accents, and none of those around it.
+func TestTagOffsetsOfTheFile(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "kiosk.txt")
+	text := "The pres\u00ADsure sensor failed.\nThe cafe\u0301 valve\u200B\u200B leaks at \u200Enight\u200F.\n"
+	require.NoError(t, os.WriteFile(p, []byte(text), 0o644))
+	r := run(t, "", "tag", "-q", "--to", "tsv", p)
+	require.Equal(t, 0, r.code, r.stderr)
+	rows, err := readTSV(r.stdout)
+	require.NoError(t, err)
+	require.Equal(t, []string{"form", "start", "end"}, []string{rows[0][3], rows[0][8], rows[0][9]})
+	var got []string
+	for _, row := range rows[1:] {
+		start, err := strconv.Atoi(row[8])
+		require.NoError(t, err)
+		end, err := strconv.Atoi(row[9])
+		require.NoError(t, err)
+		got = append(got, text[start:end])
+	}
+	assert.Equal(t, []string{"The", "pres\u00ADsure", "sensor", "failed", ".", "The", "cafe\u0301", "valve", "leaks", "at", "night", "."}, got)
 }
 
 func readTSV(s string) ([][]string, error) {

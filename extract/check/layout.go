@@ -30,7 +30,8 @@ const SkipMarker = "glossmith:skip-next-line"
 // Markdown the reader deletes markup within a line ("**set point**" is
 // "set point"), so each text line is aligned with its source line, the
 // text's characters found in order in the source outside tags and link
-// targets; elsewhere a column counts the characters of the text line.
+// targets; elsewhere a column counts the characters of the text line as
+// read, those that normalization removed or composed included.
 type layout struct {
 	d         *doc.Document
 	lineStart []int         // byte offset in the text of each line's start
@@ -130,7 +131,7 @@ func (l *layout) markSkips(line func(n int) string, lines int) {
 // text.
 func (l *layout) position(off int) (line, col int) {
 	line, r := l.runeIndex(off)
-	return line, l.column(line, r)
+	return line, l.column(line, r, off)
 }
 
 // runeIndex returns the line of byte offset off and the number of runes
@@ -147,12 +148,15 @@ func (l *layout) runeIndex(off int) (line, r int) {
 	return line, r
 }
 
-// column turns the rune index r of text line n into a 1-based column.
-func (l *layout) column(n, r int) int {
+// column turns the rune index r of text line n, at byte offset off of
+// the text, into a 1-based column: one of the source line found by align,
+// or else one of the text as read, counting the characters normalization
+// removed or composed (doc.Document.ColumnShift).
+func (l *layout) column(n, r, off int) int {
 	if m := l.columns(n); m != nil && r < len(m) {
 		return m[r] + 1
 	}
-	return r + 1
+	return r + 1 + l.d.ColumnShift(l.lineStart[n-1], off)
 }
 
 // span sets the finding's start and end (just past its last character).
@@ -160,11 +164,11 @@ func (l *layout) column(n, r int) int {
 // which come in order of their starts, are counted once.
 func (l *layout) span(f *Finding) {
 	line, r := l.runeIndex(f.Start)
-	f.Line, f.Column = line, l.column(line, r)
+	f.Line, f.Column = line, l.column(line, r, f.Start)
 	_, last := utf8.DecodeLastRuneInString(l.d.Text[:f.End])
 	endOff := f.End - last
 	if between := l.d.Text[f.Start:endOff]; strings.IndexByte(between, '\n') < 0 {
-		f.EndLine, f.EndColumn = line, l.column(line, r+utf8.RuneCountInString(between))+1
+		f.EndLine, f.EndColumn = line, l.column(line, r+utf8.RuneCountInString(between), endOff)+1
 		return
 	}
 	f.EndLine, f.EndColumn = l.position(endOff)

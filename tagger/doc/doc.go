@@ -9,7 +9,11 @@
 // concordance or a glossary context quote the original words.
 package doc
 
-import "math"
+import (
+	"cmp"
+	"math"
+	"slices"
+)
 
 // Token is one word or punctuation mark of a sentence.
 type Token struct {
@@ -122,6 +126,78 @@ type Document struct {
 	// Pretokenized is true when the sentences came with the input (CoNLL-U)
 	// and must not be re-tokenized.
 	Pretokenized bool
+	// Shifts map offsets of Text back to the text as the reader extracted
+	// it, before Unicode normalization removed invisible characters and
+	// composed others (see Shift); nil when normalization changed nothing,
+	// as for ASCII text. ReadOffset, ReadEnd and ColumnShift read them.
+	Shifts []Shift
+}
+
+// Shift is a point of Text from which its offsets stop lining up with the
+// text as read: after a removed soft hyphen, say, every later byte of Text
+// stands one character and two bytes further on in the text as read.
+// Between two shifts (and before the first) the offsets differ by the
+// same amount, so only the points where that amount changes are kept.
+type Shift struct {
+	// At is the offset in Text.
+	At int32
+	// Start is the offset in the text as read of the character at At,
+	// End the offset just past the character before it: they differ when
+	// characters were removed between the two.
+	Start, End int32
+	// Runes is how many characters more the text as read has than Text
+	// before At (Start).
+	Runes int32
+}
+
+// shiftAt returns the last shift at or before offset off of Text, or the
+// zero Shift (offsets the same) when there is none.
+func (d *Document) shiftAt(off int) Shift {
+	k, _ := slices.BinarySearchFunc(d.Shifts, off+1, func(s Shift, x int) int { return cmp.Compare(int(s.At), x) })
+	if k == 0 {
+		return Shift{}
+	}
+	return d.Shifts[k-1]
+}
+
+// ReadOffset returns the offset in the text as read (before
+// normalization) of the character that starts at offset off of Text.
+func (d *Document) ReadOffset(off int) int {
+	if d.Shifts == nil {
+		return off
+	}
+	s := d.shiftAt(off)
+	return int(s.Start) + off - int(s.At)
+}
+
+// ReadEnd returns the offset in the text as read just past the character
+// that ends at offset off of Text: characters removed right after it are
+// not included, as ReadOffset skips those right before a character.
+func (d *Document) ReadEnd(off int) int {
+	if d.Shifts == nil {
+		return off
+	}
+	s := d.shiftAt(off)
+	if int(s.At) == off {
+		return int(s.End)
+	}
+	return int(s.Start) + off - int(s.At)
+}
+
+// ColumnShift returns what turns a column counted in the characters of
+// Text into one of the text as read, for offset off on the line that
+// starts at offset lineStart: the characters normalization removed or
+// composed on that line before off. (Lines are never joined or split by
+// normalization.)
+func (d *Document) ColumnShift(lineStart, off int) int {
+	if d.Shifts == nil {
+		return 0
+	}
+	before := 0
+	if lineStart > 0 { // from the line break on: what was cut at the line's start counts
+		before = int(d.shiftAt(lineStart - 1).Runes)
+	}
+	return int(d.shiftAt(off).Runes) - before
 }
 
 // Tagged reports whether every sentence of the document carries tags, so a

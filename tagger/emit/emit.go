@@ -55,8 +55,10 @@ type tsvWriter struct {
 }
 
 // TSV columns: one row per token; sentence numbers count from 1 within
-// each document, token numbers from 1 within each sentence. Fields are
-// quoted as internal/tabular documents.
+// each document, token numbers from 1 within each sentence; start and end
+// are byte offsets of the text as read, before Unicode normalization (see
+// doc.Document.ReadOffset), as in JSON Lines. Fields are quoted as
+// internal/tabular documents.
 var tsvHeader = []string{"doc", "sentence", "token", "form", "lemma", "upos", "xpos", "line", "start", "end", "space_after"}
 
 func (t *tsvWriter) Write(d *doc.Document) error {
@@ -67,7 +69,8 @@ func (t *tsvWriter) Write(d *doc.Document) error {
 	for si := range d.Sentences {
 		for ti, tok := range d.Sentences[si].Tokens {
 			if err := t.w.Write(d.Name, strconv.Itoa(si+1), strconv.Itoa(ti+1), tok.Form, tok.Lemma, tok.UPOS, tok.XPOS,
-				strconv.Itoa(int(tok.Line)), strconv.Itoa(int(tok.Start)), strconv.Itoa(int(tok.End)), strconv.FormatBool(tok.SpaceAfter)); err != nil {
+				strconv.Itoa(int(tok.Line)), strconv.Itoa(d.ReadOffset(int(tok.Start))), strconv.Itoa(d.ReadEnd(int(tok.End))),
+				strconv.FormatBool(tok.SpaceAfter)); err != nil {
 				return err
 			}
 		}
@@ -104,7 +107,7 @@ func (j *jsonWriter) Write(d *doc.Document) error {
 		js := jsonSentence{Doc: d.Name, Sentence: si + 1, Line: s.Line(), Text: conllu.SentenceText(d, s),
 			Tokens: make([]jsonToken, len(s.Tokens))}
 		for i, t := range s.Tokens {
-			js.Tokens[i] = jsonToken{t.Form, t.Lemma, t.UPOS, t.XPOS, int(t.Start), int(t.End), t.SpaceAfter}
+			js.Tokens[i] = jsonToken{t.Form, t.Lemma, t.UPOS, t.XPOS, d.ReadOffset(int(t.Start)), d.ReadEnd(int(t.End)), t.SpaceAfter}
 		}
 		if err := enc.Encode(js); err != nil {
 			return err

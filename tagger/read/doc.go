@@ -143,10 +143,12 @@
 // "pressure"), the zero width space, non-joiner, joiner and no-break
 // space, U+2060 WORD JOINER, and the bidirectional marks and controls of
 // UAX #9. Neither touches a line break, so Token.Line stays the line of
-// the file (md, txt) or of the extracted text (the other formats); within
-// a line, an offset after a removed or recomposed character is that many
-// bytes to the left of the file's. Text that needs neither (nearly all)
-// is checked in one pass and not copied.
+// the file (md, txt) or of the extracted text (the other formats). Token
+// offsets are of the normalized Text; Document.Shifts map them back to the
+// text as read (ReadOffset, ReadEnd) and give columns that count the
+// removed and composed characters (ColumnShift), recorded only where the
+// offsets stop lining up. Text that needs neither (nearly all) is checked
+// in one pass, not copied, and has no shifts.
 //
 // # Bad input
 //

@@ -5,6 +5,8 @@ import (
 	"unicode/utf8"
 
 	"golang.org/x/text/unicode/norm"
+
+	"glossmith/tagger/doc"
 )
 
 // invisible reports the format characters that are removed from the text
@@ -29,35 +31,135 @@ func invisible(r rune) bool {
 // normalizeText puts text in Unicode Normalization Form C, so that "café"
 // typed with a precomposed é and with e + U+0301 is one word, and removes
 // the invisible format characters. Neither touches a line break, so lines
-// stay the file's; within a line, a column after a removed or composed
-// character moves left by the bytes it lost.
+// stay the file's; the shifts it returns (see doc.Shift) map the offsets
+// of the result back to text, so that columns stay the file's too.
 //
 // Most text is ASCII or already NFC without those characters: it is
 // returned as it is after one scan (a byte loop to the first non-ASCII
-// byte, then norm's quick check), without copying.
-func normalizeText(s string) string {
+// byte, then norm's quick check), without copying, and with no shifts.
+func normalizeText(s string) (string, []doc.Shift) {
 	i := asciiPrefix(s)
 	if i == len(s) {
-		return s
+		return s, nil
 	}
 	i = max(i-1, 0) // the ASCII character before may compose with what follows
 	if !needsNormalizing(s[i:]) {
-		return s
+		return s, nil
 	}
 	var b strings.Builder
 	b.Grow(len(s))
 	b.WriteString(s[:i])
-	rest := s[i:]
+	rest, cuts := s[i:], []cut(nil)
 	if hasInvisible(rest) {
-		rest = strings.Map(func(r rune) rune {
-			if invisible(r) {
-				return -1
-			}
-			return r
-		}, rest)
+		rest, cuts = dropInvisible(rest)
 	}
-	b.WriteString(norm.NFC.String(rest))
-	return b.String()
+	m := shiftMaker{cuts: cuts, base: i}
+	var it norm.Iter
+	it.InitString(norm.NFC, rest)
+	for !it.Done() {
+		p0 := it.Pos()
+		m.cutsAt(p0, b.Len())
+		seg := it.Next()
+		p1 := it.Pos()
+		m.segment(p1, rest[p0:p1], seg, b.Len())
+		b.Write(seg)
+	}
+	m.cutsAt(len(rest), b.Len())
+	return b.String(), m.shifts
+}
+
+// cut is a run of invisible characters dropInvisible removed: at offset
+// at of its result, bytes bytes and runes characters of its input.
+type cut struct{ at, bytes, runes int }
+
+// dropInvisible returns s without its invisible characters, and where
+// they were.
+func dropInvisible(s string) (string, []cut) {
+	var b strings.Builder
+	b.Grow(len(s))
+	var cuts []cut
+	for k := 0; k < len(s); {
+		r, n := utf8.DecodeRuneInString(s[k:])
+		if !invisible(r) {
+			b.WriteString(s[k : k+n])
+			k += n
+			continue
+		}
+		c := cut{at: b.Len()}
+		for k < len(s) {
+			if r, n = utf8.DecodeRuneInString(s[k:]); !invisible(r) {
+				break
+			}
+			c.bytes, c.runes = c.bytes+n, c.runes+1
+			k += n
+		}
+		cuts = append(cuts, c)
+	}
+	return b.String(), cuts
+}
+
+// shiftMaker works out the shifts of normalizeText as it writes its
+// result: the invisible characters cut before NFC, then each NFC segment
+// that came out other than it went in. base is the length of the part
+// copied as it is before either.
+type shiftMaker struct {
+	cuts   []cut // the cuts not accounted for yet
+	base   int
+	cut    int // bytes cut so far
+	runes  int // characters the input had more than the result so far
+	shifts []doc.Shift
+}
+
+// cutsAt accounts for the cuts at offset p of the NFC input, which is
+// offset out of the result: the character there stands after them, the
+// one before it before them.
+func (m *shiftMaker) cutsAt(p, out int) {
+	if len(m.cuts) == 0 || m.cuts[0].at > p {
+		return
+	}
+	end := m.base + p + m.cut
+	for len(m.cuts) > 0 && m.cuts[0].at <= p {
+		m.cut += m.cuts[0].bytes
+		m.runes += m.cuts[0].runes
+		m.cuts = m.cuts[1:]
+	}
+	m.add(doc.Shift{At: int32(out), Start: int32(m.base + p + m.cut), End: int32(end), Runes: int32(m.runes)})
+}
+
+// segment accounts for the NFC segment in, offsets [p0, p1) of the NFC
+// input, that came out as seg at offset out of the result. Cuts inside it
+// (a soft hyphen between a letter and its accent) count as part of it.
+func (m *shiftMaker) segment(p1 int, in string, seg []byte, out int) {
+	inside := len(m.cuts) > 0 && m.cuts[0].at < p1
+	if !inside && in == string(seg) {
+		return
+	}
+	for len(m.cuts) > 0 && m.cuts[0].at < p1 {
+		m.cut += m.cuts[0].bytes
+		m.runes += m.cuts[0].runes
+		m.cuts = m.cuts[1:]
+	}
+	m.runes += utf8.RuneCountInString(in) - utf8.RuneCount(seg)
+	at, start := out+len(seg), m.base+p1+m.cut
+	last := doc.Shift{}
+	if len(m.shifts) > 0 {
+		last = m.shifts[len(m.shifts)-1]
+	}
+	if int(last.Start)+at-int(last.At) == start && int(last.Runes) == m.runes {
+		return // the offsets line up as before: composing marks reordered
+	}
+	m.add(doc.Shift{At: int32(at), Start: int32(start), End: int32(start), Runes: int32(m.runes)})
+}
+
+// add appends a shift; one at the same offset as the last replaces it but
+// keeps its End, the end of the character before.
+func (m *shiftMaker) add(s doc.Shift) {
+	if n := len(m.shifts); n > 0 && m.shifts[n-1].At == s.At {
+		s.End = m.shifts[n-1].End
+		m.shifts[n-1] = s
+		return
+	}
+	m.shifts = append(m.shifts, s)
 }
 
 // asciiPrefix returns the length of the ASCII run at the start of s,

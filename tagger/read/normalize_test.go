@@ -4,11 +4,14 @@ import (
 	"math/rand/v2"
 	"strings"
 	"testing"
+	"unicode/utf8"
 	"unsafe"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"golang.org/x/text/unicode/norm"
+
+	"glossmith/tagger/doc"
 )
 
 func TestNormalizeText(t *testing.T) {
@@ -30,7 +33,9 @@ func TestNormalizeText(t *testing.T) {
 		{"singleton", "5 \u212B", "5 Å"},
 		{"hangul jamo", "\u1100\u1161", "\uAC00"},
 	} {
-		assert.Equal(t, tc.want, normalizeText(tc.in), tc.name)
+		got, shifts := normalizeText(tc.in)
+		assert.Equal(t, tc.want, got, tc.name)
+		checkShifts(t, tc.in, got, shifts)
 	}
 }
 
@@ -38,7 +43,7 @@ func TestNormalizeText(t *testing.T) {
 // characters, then norm.NFC) on random text drawn from scripts and marks
 // that compose.
 func TestNormalizeTextMatchesDefinition(t *testing.T) {
-	pool := []rune("aeouAEnc ßéüÅϕλΩ;·Йカが各각\uF8EF\uF900–—’€→≠\u0300\u0301\u0308\u0338\u00AD\u200B\u202E\u212B\u2000\u1100\u1161\u11A8\u0391\u0301\u3099\u304B\n")
+	pool := []rune("aeouAEnc ßéüÅϕλΩ;·Йカが各각\uF8EF\uF900–—’€→≠\u0300\u0301\u0308\u0338\u00AD\u200B\u202E\u212B\u212A\uFEFF\u2060\u061C\u2000\u1100\u1161\u11A8\u0391\u0301\u3099\u304B\n")
 	rng := rand.New(rand.NewPCG(1, 2))
 	for range 20000 {
 		var b strings.Builder
@@ -52,15 +57,52 @@ func TestNormalizeTextMatchesDefinition(t *testing.T) {
 			}
 			return r
 		}, s))
-		require.Equal(t, want, normalizeText(s), "%+q", s)
+		got, shifts := normalizeText(s)
+		require.Equal(t, want, got, "%+q", s)
+		checkShifts(t, s, got, shifts)
+	}
+}
+
+// checkShifts checks the shifts normalizeText gave for text, normalized
+// from orig, at every character boundary of text that is one of orig too:
+// before an ASCII character and at the end (nothing composes into ASCII
+// but the singleton U+212A KELVIN SIGN, itself a boundary). From there,
+// the text as read, orig[ReadOffset(x):ReadEnd(y)], normalizes to
+// text[x:y] without the invisible characters around it, and a column
+// counted in text plus ColumnShift is the column counted in orig.
+func checkShifts(t *testing.T, orig, text string, shifts []doc.Shift) {
+	t.Helper()
+	d := &doc.Document{Text: text, Shifts: shifts}
+	var at []int
+	for x := 0; x <= len(text); x++ {
+		if x == len(text) || text[x] < utf8.RuneSelf {
+			at = append(at, x)
+		}
+	}
+	for i, x := range at {
+		for _, y := range at[i+1:] {
+			from, to := d.ReadOffset(x), d.ReadEnd(y)
+			require.LessOrEqual(t, from, to, "%+q [%d:%d]", orig, x, y)
+			got, _ := normalizeText(orig[from:to])
+			require.Equal(t, text[x:y], got, "%+q [%d:%d] read as [%d:%d]", orig, x, y, from, to)
+			first, _ := utf8.DecodeRuneInString(orig[from:to])
+			last, _ := utf8.DecodeLastRuneInString(orig[from:to])
+			require.False(t, invisible(first) || invisible(last), "%+q [%d:%d] read as [%d:%d]: invisible characters around", orig, x, y, from, to)
+		}
+		lineStart := strings.LastIndexByte(text[:x], '\n') + 1
+		col := utf8.RuneCountInString(text[lineStart:x]) + d.ColumnShift(lineStart, x)
+		o := d.ReadOffset(x)
+		want := utf8.RuneCountInString(orig[strings.LastIndexByte(orig[:o], '\n')+1 : o])
+		require.Equal(t, want, col, "%+q: column of %d (%d as read)", orig, x, o)
 	}
 }
 
 // Text that needs no change is returned without a copy.
 func TestNormalizeTextNoCopy(t *testing.T) {
 	for _, s := range []string{strings.Repeat("valve ", 100), strings.Repeat("Ventil für 15 °C ", 100)} {
-		got := normalizeText(s)
+		got, shifts := normalizeText(s)
 		assert.Equal(t, unsafe.StringData(s), unsafe.StringData(got))
+		assert.Nil(t, shifts)
 	}
 }
 

@@ -164,7 +164,7 @@ func Read(in Input, opt Options) (*doc.Document, []Problem) {
 	r := &reader{in: in, opt: opt}
 	d := r.read()
 	if d != nil && !d.Pretokenized {
-		d.Text = normalizeText(d.Text)
+		d.Text, d.Shifts = normalizeText(d.Text)
 	}
 	if d != nil {
 		if !utf8.ValidString(d.Text) { // a reader bug, never the user's fault
