@@ -133,3 +133,17 @@ func BenchmarkNormalizeText(b *testing.B) {
 		})
 	}
 }
+
+// FuzzNormalizeShifts checks the shifts of any valid UTF-8 text as
+// checkShifts does (short texts: it looks at every pair of boundaries).
+func FuzzNormalizeShifts(f *testing.F) {
+	f.Add("The pres\u00ADsure at the cafe\u0301.\n\u200Bx")
+	f.Add("e\u00AD\u0301 \u212A \u1100\u1161\u11A8 a\u0338\u0300")
+	f.Fuzz(func(t *testing.T, s string) {
+		if len(s) > 64 || !utf8.ValidString(s) {
+			return
+		}
+		got, shifts := normalizeText(s)
+		checkShifts(t, s, got, shifts)
+	})
+}
