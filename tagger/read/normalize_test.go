@@ -12,6 +12,7 @@ import (
 	"golang.org/x/text/unicode/norm"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/tokenize"
 )
 
 func TestNormalizeText(t *testing.T) {
@@ -117,6 +118,46 @@ func TestReadNormalizes(t *testing.T) {
 		assert.Empty(t, ps)
 		assert.Equal(t, tc.want, d.Text, tc.file)
 	}
+}
+
+// Tokens after a removed or composed character keep the line and column
+// they have in the file (columns in characters, as a person counts them),
+// and their offsets as read find them in it: a soft hyphen, a decomposed
+// accent, several removed marks on one line, CRLF line ends.
+func TestTokenColumnsOfTheFile(t *testing.T) {
+	file := "The pres\u00ADsure sensor failed.\r\nThe cafe\u0301 valve leaks.\r\n" +
+		"\u200BA \u200Ezero\u200F-width\u2060 mark, then the sensor.\r\n"
+	lines := strings.Split(strings.ReplaceAll(file, "\r\n", "\n"), "\n") // the text as read: LF line ends
+	d, ps := readFile(t, "a.txt", file, Options{})
+	require.NotNil(t, d)
+	require.Empty(t, ps)
+	tokenize.Document(d)
+	want := map[string][]int{"sensor": {1, 15, 3, 33}, "valve": {2, 11}, "failed": {1, 22}, "zero": {3, 5}} // counted by hand
+	got := map[string][]int{}
+	for _, s := range d.Sentences {
+		for _, tok := range s.Tokens {
+			if _, ok := want[tok.Form]; !ok {
+				continue
+			}
+			lineStart := strings.LastIndexByte(d.Text[:tok.Start], '\n') + 1
+			col := utf8.RuneCountInString(d.Text[lineStart:tok.Start]) + d.ColumnShift(lineStart, int(tok.Start)) + 1
+			got[tok.Form] = append(got[tok.Form], int(tok.Line), col)
+			// the column is where the word stands in the file's line
+			line := lines[tok.Line-1]
+			assert.Equal(t, utf8.RuneCountInString(line[:d.ReadOffset(int(tok.Start))-lineOffset(lines, int(tok.Line))])+1, col, tok.Form)
+		}
+	}
+	assert.Equal(t, want, got)
+}
+
+// lineOffset returns the offset of line n (1-based) in the text made of
+// lines joined by LF.
+func lineOffset(lines []string, n int) int {
+	off := 0
+	for _, l := range lines[:n-1] {
+		off += len(l) + 1
+	}
+	return off
 }
 
 func BenchmarkNormalizeText(b *testing.B) {
