@@ -11,6 +11,7 @@ import (
 
 	"glossmith/extract/termbase"
 	"glossmith/extract/terms"
+	"glossmith/extract/wordfreq"
 	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -54,6 +55,13 @@ type modelReference struct{ m *hmm.Model }
 func (r modelReference) Freq(w string) int { return r.m.RefLemmaFreq(w) }
 func (r modelReference) Size() int         { return r.m.RefSize() }
 
+// defaultReference is the reference of terms, review and eval terms
+// without --reference: the treebank's lemma counts blended with the
+// embedded general-language table (terms.Blend, package wordfreq).
+func defaultReference(model *hmm.Model) terms.Reference {
+	return terms.Blend(modelReference{model}, wordfreq.General())
+}
+
 // termsOptions are the flags of the terms command.
 type termsOptions struct {
 	in        inputFlags
@@ -94,11 +102,16 @@ Measures (each a column, each a --sort key):
   cvalue     C-value over nested candidates (Frantzi et al. 2000), log2(|a|+1) weight
   keyness    signed log-likelihood keyness (Rayson and Garside 2000) of the
              candidate's least specific word (lowest weirdness) against the
-             reference: the tagger's training treebank unless --reference
+             reference: the tagger's training treebank blended with the
+             built-in general-language table (subtitles), unless --reference
              names documents
   weirdness  smoothed weirdness ratio (Ahmad et al. 1999) of that same least
              specific word
-  score      the combined ranking score (see README)
+  score      ln(1+freq) · (ln(weirdness) · damping + unit): damping demotes
+             document-structure words, those a number or label mostly
+             follows ("Figure 3", "Table 2"); unit is +1.5 for a phrase
+             seen twice or more, -3 for a phrase mostly inside one longer
+             candidate (see README)
 
 Other columns: variants; within, the longer candidate this one occurs inside
 at least 90% of the time ("drip emitter" for "drip"; a note in TBX); acronym
@@ -108,8 +121,8 @@ frequency, documents and spellings and is shown as "vapour pressure deficit
 (VPD)"; the acronym keeps its own line, "VPD (vapour pressure deficit)"; in TBX
 both are one entry, the terms typed fullForm and acronym.
 
-The default list ends where the score falls below the cut-off; --all prints
-every candidate. The list is a set of candidates for expert review, not a
+The default list ends where the score falls below 2.5; --all prints every
+candidate. The list is a set of candidates for expert review, not a
 validated terminology.`,
 		Example: `  glossmith terms testdata/demo
   glossmith terms --contexts 2 --limit 30 manuals/
@@ -125,7 +138,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	o.in.register(cmd, true)
 	o.rules.register(cmd, "terms")
 	fl := cmd.Flags()
-	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
+	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts blended with the built-in subtitle word counts)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
@@ -215,7 +228,7 @@ func (o *termsOptions) run(args []string) error {
 	}
 	// Collect and Add copy what they keep of a document.
 	o.in.reuseTokens = true
-	var ref terms.Reference = modelReference{model}
+	ref := defaultReference(model)
 	var refErr error // a reference input that could not be read: reported, and the run goes on
 	if len(o.reference) > 0 {
 		counts := &terms.Counts{}

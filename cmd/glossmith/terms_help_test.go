@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -9,6 +10,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"glossmith/extract/terms"
 )
 
 // The help of terms and the README's table of measures describe keyness
@@ -38,5 +41,35 @@ func TestTermsHelpDescribesMeasuresAsComputed(t *testing.T) {
 			assert.Regexp(t, `least specific word|same (least specific )?word`, text, "%s on %s", where, m)
 			assert.NotContains(t, text, "mean", "%s on %s", where, m)
 		}
+	}
+}
+
+// The help of terms and the README state the score's constants as
+// extract/terms defines them: the cut-off, the phrase bonus and fragment
+// penalty, and the structure exponent.
+func TestTermsHelpStatesScoreConstants(t *testing.T) {
+	r := run(t, "", "terms", "--help")
+	require.Equal(t, 0, r.code, r.stderr)
+	help := strings.Join(strings.Fields(r.stdout), " ")
+	readme, err := os.ReadFile(filepath.Join("..", "..", "README.md"))
+	require.NoError(t, err)
+	doc := strings.Join(strings.Fields(string(readme)), " ")
+	for _, want := range []string{
+		fmt.Sprintf("falls below %g;", terms.Cutoff),
+		fmt.Sprintf("unit is +%g for a phrase", terms.RepeatedPhraseBonus),
+		fmt.Sprintf("-%g for a phrase mostly inside one longer candidate", terms.FragmentPenalty),
+		"ln(1+freq) · (ln(weirdness) · damping + unit)",
+	} {
+		assert.Contains(t, help, want)
+	}
+	superscript := strings.NewReplacer("0", "⁰", "1", "¹", "2", "²", "3", "³", "4", "⁴", "5", "⁵", "6", "⁶", "7", "⁷", "8", "⁸", "9", "⁹")
+	for _, want := range []string{
+		fmt.Sprintf("falls below **%g**", terms.Cutoff),
+		fmt.Sprintf("it is **+%g**", terms.RepeatedPhraseBonus),
+		fmt.Sprintf("it is **−%g**", terms.FragmentPenalty),
+		"(1 − *s*)" + superscript.Replace(fmt.Sprint(terms.StructureExponent)),
+		"**ln(1 + freq) · (ln(weirdness) · damping + unit)**",
+	} {
+		assert.Contains(t, doc, want)
 	}
 }

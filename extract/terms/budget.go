@@ -59,7 +59,7 @@ const (
 	canonicalBytes = 64
 	docFreqBytes   = 8
 	contextBytes   = 40
-	wordBytes      = 2 * (16 + 8)
+	wordBytes      = 2*(16+8) + 4
 )
 
 // checkBudget is called at the end of Add: it brings the estimate up to

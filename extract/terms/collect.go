@@ -89,10 +89,13 @@ func (t *docTables) empty() docTables {
 	return docTables{t.words[:0], t.cands[:0], t.spells[:0], t.canons[:0], t.ends[:0], t.contexts[:0], t.abbrevs[:0]}
 }
 
-// wordCount is how often a word key occurs in a document.
+// wordCount is how often a word key occurs in a document, and how often
+// the token after it is a label (see isLabel): "Figure 3", "Table 2",
+// "Section 4.1", "Appendix B". 32-bit counts keep the entry at 24 bytes.
 type wordCount struct {
-	word string
-	n    int
+	word    string
+	n       int32
+	labeled int32
 }
 
 // docCand counts one candidate group in one document.
@@ -291,10 +294,16 @@ func (sc *scratch) countWords(dc *DocCounts, toks []doc.Token) {
 			continue
 		}
 		dc.Tokens++
+		// One byte looked at for most tokens: the next one's first.
+		var labeled int32
+		if i+1 < len(toks) && toks[i+1].Form != "" && labelStart[toks[i+1].Form[0]] && isLabel(&toks[i+1]) {
+			labeled = 1
+		}
 		w := wordOf(t)
 		e := sc.recent.entry(w)
 		if e.p == unsafe.StringData(w) && e.n == len(w) {
 			dc.words[e.index].n++
+			dc.words[e.index].labeled += labeled
 			sc.wordAt[i] = e.index
 			continue
 		}
@@ -311,12 +320,55 @@ func (sc *scratch) countWords(dc *DocCounts, toks []doc.Token) {
 		if !ok {
 			e.index = int32(len(dc.words))
 			sc.wordIndex[w] = e.index
-			dc.words = append(dc.words, wordCount{w, 0})
+			dc.words = append(dc.words, wordCount{word: w})
 		}
 		dc.words[e.index].n++
+		dc.words[e.index].labeled += labeled
 		sc.wordAt[i] = e.index
 	}
 }
+
+// isLabel reports whether a token is the kind of label that follows a
+// document-structure word ("Figure 3", "Table 2.1", "Appendix B", "Part
+// IV"): a number, a single capital letter other than the article "A" and
+// the pronoun "I", or a Roman numeral of up to four letters. Words that a
+// label mostly follows name a part of the document rather than a concept
+// of its domain (see structureDamping).
+func isLabel(t *doc.Token) bool {
+	f := t.Form
+	if f == "" {
+		return false
+	}
+	c := f[0]
+	switch {
+	case c >= '0' && c <= '9':
+		return true
+	case len(f) == 1:
+		return c >= 'A' && c <= 'Z' && t.UPOS != "DET" && t.UPOS != "PRON"
+	case len(f) > 4:
+		return false
+	}
+	for i := 0; i < len(f); i++ {
+		switch f[i] {
+		case 'I', 'V', 'X', 'i', 'v', 'x':
+		default:
+			return false
+		}
+	}
+	return true
+}
+
+// labelStart marks the bytes a label may start with (see isLabel).
+var labelStart = func() (t [256]bool) {
+	for c := '0'; c <= '9'; c++ {
+		t[c] = true
+	}
+	for c := 'A'; c <= 'Z'; c++ {
+		t[c] = true
+	}
+	t['i'], t['v'], t['x'] = true, true, true
+	return t
+}()
 
 // wordCache finds the counts of words met recently in a document by the
 // address of their string, without hashing their text: the tagger gives

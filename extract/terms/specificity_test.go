@@ -15,11 +15,11 @@ import (
 func TestSpecificityOfLeastSpecificWord(t *testing.T) {
 	c := NewCorpus(0)
 	for w, n := range map[string]int{"wind": 40, "turbine": 60, "design": 20} {
-		c.words.add(w, n)
+		c.words.add(w, n, 0)
 	}
 	c.words.total = 1000
 	ref := &Counts{Words: map[string]int{"wind": 50, "turbine": 2, "design": 900}, Total: 100_000}
-	ll, weird := c.specificity([]string{"wind", "turbine", "design"}, ref, Alpha)
+	ll, weird, _ := c.specificity([]string{"wind", "turbine", "design"}, ref, Alpha)
 	design := termstat.Contrast{Study: 20, Reference: 900, StudySize: 1000, ReferenceSize: 100_000}
 	assert.InDelta(t, design.SmoothedWeirdness(Alpha), weird, 1e-12)
 	assert.InDelta(t, design.LL(), ll, 1e-12)
