@@ -207,6 +207,8 @@ func TestTermsTBXValidates(t *testing.T) {
 			// "vapour pressure deficit (VPD)": one entry, the acronym typed.
 			assert.Contains(t, string(data), `<termNote type="termType">acronym</termNote>`)
 			assert.Equal(t, 1, strings.Count(string(data), "<term>VPD</term>"))
+			// "drip" is mostly within "drip emitter": a cross-reference.
+			assert.Contains(t, string(data), `<ref type="crossReference" target="`)
 		}
 	}
 }

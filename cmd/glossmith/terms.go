@@ -114,7 +114,8 @@ Measures (each a column, each a --sort key):
              candidate (see README)
 
 Other columns: variants; within, the longer candidate this one occurs inside
-at least 90% of the time ("drip emitter" for "drip"; a note in TBX); acronym
+at least 90% of the time ("drip emitter" for "drip"; in TBX a note, and in
+TBX-Basic a cross-reference when that candidate is listed); acronym
 and full_form, where the documents define an acronym ("vapour pressure deficit
 (VPD)", Schwartz and Hearst 2003): the full form's line pools the acronym's
 frequency, documents and spellings and is shown as "vapour pressure deficit

@@ -276,6 +276,8 @@ func readSourced(e *Entry, t *Term, n *node, source, lang string, addNote func(s
 		e.Definitions = append(e.Definitions, Definition{Lang: lang, Text: v, Source: source})
 	case cat == "subjectField" && e != nil && e.Subject == "":
 		e.Subject = v
+	case cat == "crossReference" && e != nil && n.attr["target"] != "":
+		e.CrossRefs = append(e.CrossRefs, CrossRef{Target: n.attr["target"], Text: v})
 	case cat == "":
 		if v != "" {
 			addNote(with(n.local + ": " + v))
@@ -340,4 +342,6 @@ const (
 	noteStatus   = "administrative status: "
 	noteContext  = "context: "
 	noteTermType = "term type: "
+	// noteCrossRef is a cross-reference written as a note of the entry.
+	noteCrossRef = "see: "
 )

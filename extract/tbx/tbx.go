@@ -48,7 +48,17 @@ type Entry struct {
 	Subject     string
 	Definitions []Definition
 	Notes       []string
-	Terms       []Term
+	// CrossRefs point to other entries of the document (TBX-Basic
+	// crossReference); a target that is no entry's id, and every one under
+	// TBX-Core, is written as the note "see: TEXT".
+	CrossRefs []CrossRef
+	Terms     []Term
+}
+
+// CrossRef is a reference to another entry: its id and the text shown.
+type CrossRef struct {
+	Target string
+	Text   string
 }
 
 // Definition is a definition in one language, with its source.

@@ -43,6 +43,8 @@ func Write(w io.Writer, doc *Document) error {
 		entries = []Entry{{ID: EmptyID, Notes: []string{"This glossary has no entries."}, Terms: []Term{{Lang: lang}}}}
 	}
 	used := map[string]bool{}
+	ids := make([]string, len(entries))
+	kept := map[string]bool{} // ids written as given: what a cross-reference may point to
 	for i, e := range entries {
 		id := e.ID
 		if !isName(id) || used[id] {
@@ -51,14 +53,22 @@ func Write(w io.Writer, doc *Document) error {
 				id += "x"
 			}
 		}
-		used[id] = true
-		writeEntry(bw, &e, id, lang, basic)
+		used[id], ids[i] = true, id
+		if id == e.ID {
+			kept[id] = true
+		}
+	}
+	for i, e := range entries {
+		writeEntry(bw, &e, ids[i], lang, basic, kept)
 	}
 	bw.WriteString("    </body>\n  </text>\n</tbx>\n")
 	return bw.Flush()
 }
 
-func writeEntry(w *bufio.Writer, e *Entry, id, lang string, basic bool) {
+// writeEntry writes one entry; kept holds the ids a cross-reference can
+// point to (a TBX-Basic ref whose target is no entry would not validate: it
+// is written as a note instead, as it is under TBX-Core).
+func writeEntry(w *bufio.Writer, e *Entry, id, lang string, basic bool, kept map[string]bool) {
 	fmt.Fprintf(w, "      <conceptEntry id=\"%s\">\n", attr(id))
 	const in1 = "        "
 	if e.Subject != "" {
@@ -70,6 +80,13 @@ func writeEntry(w *bufio.Writer, e *Entry, id, lang string, basic bool) {
 	}
 	for _, n := range e.Notes {
 		element(w, in1, "note", n)
+	}
+	for _, r := range e.CrossRefs {
+		if basic && kept[r.Target] {
+			element(w, in1, `ref type="crossReference" target="`+attr(r.Target)+`"`, r.Text)
+		} else {
+			element(w, in1, "note", noteCrossRef+r.Text)
+		}
 	}
 	// Languages in order of first appearance, the document's first.
 	langs := []string{}

@@ -66,6 +66,10 @@ func FromTBX(doc *tbx.Document) []*termbase.Entry {
 	out := make([]*termbase.Entry, 0, len(doc.Entries))
 	for _, e := range doc.Entries {
 		n := &termbase.Entry{ExtID: e.ID, Subject: e.Subject, Notes: e.Notes}
+		for _, r := range e.CrossRefs {
+			// The termbase has no cross-references: kept as a note.
+			n.Notes = append(n.Notes, "see: "+r.Text)
+		}
 		def := -1
 		for i, d := range e.Definitions {
 			if def < 0 || (d.Lang == doc.Lang && e.Definitions[def].Lang != doc.Lang) {

@@ -213,14 +213,15 @@ func fillSheet(t *testing.T, data []byte, verdicts map[string][2]string) []byte 
 	return out.Bytes()
 }
 
-// A term type (TBX-Basic termType: the acronym of a full form) has no
-// field in the termbase and is kept as the term's note.
+// A term type (TBX-Basic termType: the acronym of a full form) and a
+// cross-reference have no field in the termbase and are kept as notes.
 func TestTBXTermTypeKeptAsNote(t *testing.T) {
-	es := FromTBX(&tbx.Document{Lang: "en", Entries: []tbx.Entry{{ID: "c1", Terms: []tbx.Term{
+	es := FromTBX(&tbx.Document{Lang: "en", Entries: []tbx.Entry{{ID: "c1", CrossRefs: []tbx.CrossRef{{Target: "c2", Text: "pressure"}}, Terms: []tbx.Term{
 		{Text: "vapour pressure deficit", Type: "fullForm"}, {Text: "VPD", Type: "acronym"},
 	}}}})
 	require.Len(t, es, 1)
 	require.Len(t, es[0].Terms, 2)
 	assert.Contains(t, es[0].Terms[1].Notes, "term type: acronym")
 	assert.Contains(t, es[0].Terms[0].Notes, "term type: fullForm")
+	assert.Contains(t, es[0].Notes, "see: pressure", "a cross-reference too")
 }

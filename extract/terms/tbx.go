@@ -14,7 +14,8 @@ import (
 // (stable across runs, whatever the rank); the canonical form and its
 // spelling variants as terms, each with its part of speech; inflected and
 // case-only forms are not terms of their own; the longer candidate it
-// mostly occurs in (Term.Within) is a note of the entry. A full form and
+// mostly occurs in (Term.Within) is a note of the entry and, under
+// TBX-Basic when it is listed, a cross-reference to its entry. A full form and
 // the acronym the documents define for it are one entry, its id that of
 // the full form, the terms typed fullForm and acronym; an acronym whose
 // full form is not in the list still gets the full form as a term. Under TBX-Basic the contexts
@@ -33,14 +34,14 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 	}
 	for _, t := range terms {
 		full, short := t, (*Term)(nil)
-		fullText := t.Term
+		fullText := entryText(t)
 		switch {
 		case t.FullForm != "":
 			// An acronym whose full form is listed is a term of that entry.
 			if lf := byTerm[t.FullForm]; lf != nil && lf.Acronym == t.Term {
 				continue
 			}
-			full, short, fullText = nil, t, t.FullForm
+			full, short = nil, t
 		case t.Acronym != "":
 			short = byTerm[t.Acronym]
 		}
@@ -50,6 +51,9 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		}
 		if t.Within != "" {
 			e.Notes = append(e.Notes, fmt.Sprintf("at least %d%% of its occurrences within the longer candidate %q", WithinPercent, t.Within))
+			if c := byTerm[t.Within]; c != nil {
+				e.CrossRefs = append(e.CrossRefs, tbx.CrossRef{Target: tbx.StableID(Key(entryText(c))), Text: t.Within})
+			}
 		}
 		main := tbx.Term{Lang: lang, Text: fullText}
 		if full != nil {
@@ -75,6 +79,15 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		doc.Entries = append(doc.Entries, e)
 	}
 	return tbx.Write(w, doc)
+}
+
+// entryText is the text of the term an entry is known by: the full form
+// of an acronym, else the term.
+func entryText(t *Term) string {
+	if t.FullForm != "" {
+		return t.FullForm
+	}
+	return t.Term
 }
 
 // tbxContexts returns a term's contexts with their document and line as

@@ -2,6 +2,7 @@ package terms
 
 import (
 	"bytes"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -80,4 +81,21 @@ func TestWriteTBXAcronyms(t *testing.T) {
 	require.Len(t, e.Terms, 2)
 	assert.Equal(t, []string{"electrical conductivity", "EC"}, []string{e.Terms[0].Text, e.Terms[1].Text})
 	assert.Equal(t, []string{"fullForm", "acronym"}, []string{e.Terms[0].Type, e.Terms[1].Type})
+}
+
+// The longer candidate a term mostly occurs in is a cross-reference to its
+// entry when it is listed, a note either way.
+func TestWriteTBXWithin(t *testing.T) {
+	drip := &Term{Rank: 1, Term: "drip", Within: "drip emitter"}
+	emitter := &Term{Rank: 2, Term: "emitter", Within: "rotary emitter"}
+	de := &Term{Rank: 3, Term: "drip emitter"}
+	var buf bytes.Buffer
+	require.NoError(t, Write(&buf, "tbx-basic", []*Term{drip, emitter, de}, WriteOptions{}))
+	doc, err := tbx.Read(&buf, "out.tbx")
+	require.NoError(t, err)
+	require.Len(t, doc.Entries, 3)
+	assert.Equal(t, []tbx.CrossRef{{Target: tbx.StableID("drip emitter"), Text: "drip emitter"}}, doc.Entries[0].CrossRefs)
+	assert.Equal(t, doc.Entries[2].ID, doc.Entries[0].CrossRefs[0].Target)
+	assert.Empty(t, doc.Entries[1].CrossRefs, "rotary emitter is not listed")
+	assert.Contains(t, strings.Join(doc.Entries[1].Notes, "\n"), "rotary emitter")
 }
