@@ -48,3 +48,17 @@ func Demo(t testing.TB) string {
 	t.Helper()
 	return filepath.Join(Root(t), "testdata", "demo")
 }
+
+// Installed returns path, a file or directory that the Debian package pkg
+// installs. When it is missing the test fails under CI (CI=true), whose
+// .ci/run installs the package, and is skipped elsewhere.
+func Installed(t testing.TB, path, pkg string) string {
+	t.Helper()
+	if _, err := os.Stat(path); err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatalf("%s is missing (Debian package %s, required under CI): %v", path, pkg, err)
+		}
+		t.Skipf("%s is missing; install the Debian package %s (it is required under CI=true)", path, pkg)
+	}
+	return path
+}

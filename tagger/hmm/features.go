@@ -52,6 +52,10 @@ const (
 	fWNMajor // the part of speech of most tagged senses
 	fPrevWN  // WordNet classes (lemma and inflection) of the word at i-1
 	fNextWN  // … at i+1
+	fClass1  // fClass1..fClass1+3: prefixes of the word's learned class path, see classPrefixes
+	_
+	_
+	_
 )
 
 // pairKey is the key of the feature "word w after tag prev", which scores
@@ -163,7 +167,7 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn 
 		}
 		ti := &info[i]
 		var upperFirst bool
-		f, buf, upperFirst = appendAloneKeys(f, buf, toks[i].Form, ti)
+		f, buf, upperFirst = appendAloneKeys(f, buf, toks[i].Form, ti, fs.classes)
 		// Above: features of the word alone; below: of its context.
 		fs.aloneEnd = append(fs.aloneEnd, int32(len(f)))
 		if upperFirst {
@@ -217,12 +221,18 @@ func (ti *tokenInfo) fill(buf []byte, form string, wn *wordnet.Table) []byte {
 // reports whether the word begins with an upper-case letter, which the
 // context features need. ti holds the word's hashes (see fill); buf is
 // scratch space, returned for reuse. A model with a word-class table adds
-// the word's classes (ti.wn).
-func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo) ([]uint64, []byte, bool) {
+// the word's classes (ti.wn); cf, when not nil, adds the word's learned
+// class features.
+func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo, cf *classFeatures) ([]uint64, []byte, bool) {
 	buf = lowerInto(buf[:0], form)
 	f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
 	if ti.hasWN {
 		f = appendClassKeys(f, ti.wn)
+	}
+	if cf != nil {
+		if c := cf.table.Class(buf); c >= 0 {
+			f = append(f, cf.keys[c][:]...)
+		}
 	}
 	for k := 1; k <= 5 && k < len(buf); k++ {
 		f = append(f, key(fSuf1+k-1, hashBytes(buf[len(buf)-k:])))

@@ -99,6 +99,9 @@ type trainSent struct {
 func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
 	nt := len(m.tags)
 	ws := newWorkspace()
+	if opt.LearnedClasses {
+		ws.classes = englishClasses()
+	}
 	rows := trainingRows(m, ws, sents, gold, opt.MinFeatureCount)
 	tr := newTrainer(m, len(rows.keys), opt)
 	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}

@@ -53,6 +53,11 @@ type TrainOptions struct {
 	// (default 0). Negative values disable the pruning.
 	MinFeatureCount int
 	PruneWeight     float64
+	// LearnedClasses adds the features of the words' classes learned
+	// from unlabeled text (package wordclass, the embedded table). The
+	// default model is trained without them: on UD English EWT dev they
+	// did not add to the WordNet classes (see the README).
+	LearnedClasses bool
 
 	// Beam is the state pruning threshold of Viterbi: states scoring more
 	// than Beam below the best state of their position are dropped. The

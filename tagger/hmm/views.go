@@ -108,7 +108,7 @@ func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []ui
 	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
 	buf = ti.fill(buf, form, p.wn)
-	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti)
+	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti, p.classes)
 	v.lower = ti.lower
 	v.ctx = [nCtx]int32{
 		cPrev1: p.row(key(fPrev1, ti.lower)), cNext1: p.row(key(fNext1, ti.lower)),

@@ -30,6 +30,7 @@ func (p *perceptron) buildLatticeRef(m *Model, ws *workspace, toks []doc.Token) 
 		e, ok := m.lookup(&ws.featureScratch, toks[i].Form)
 		ws.need = append(ws.need, !ok || e.count < p.dictMin || p.dict[ws.wid[i]].n > 1)
 	}
+	ws.classes = p.classes
 	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info, m.wn)
 	ws.need = ws.need[:0]
 	nt := len(m.tags)

@@ -45,6 +45,8 @@ type perceptron struct {
 	// the tags, or -1 for a short row (see denseMin).
 	dense  []int32
 	denseW []int16 // weights in steps, as in cells
+	// classes gives the word class features of the tokens (nil: none).
+	classes *classFeatures
 	// id identifies these weights to the workspaces that cache what they
 	// read from them (see weightsIDs); set by prepareViews.
 	id uint64
@@ -91,6 +93,7 @@ func (p *perceptron) prepareDict(m *Model) {
 func (p *perceptron) prepare(m *Model) {
 	p.wn = m.wn
 	p.index()
+	p.classes = p.learnedClasses()
 	p.prepareDict(m)
 	freq := make([]int64, len(m.tags)+1)
 	freq[len(m.tags)] = math.MaxInt64 // the boundary

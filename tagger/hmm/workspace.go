@@ -42,6 +42,8 @@ type featureScratch struct {
 	info     []tokenInfo
 	need     []bool  // tokens that need features (nil or empty: all)
 	wid      []int32 // lexicon index of each token, -1 if unknown
+	// classes gives the word class features (nil: none).
+	classes *classFeatures
 
 	// views[i] is the view of token i: a shared lexicon view, one from
 	// cache (whose word-alone scores live in cacheAlone), or one built

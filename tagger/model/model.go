@@ -26,5 +26,20 @@ import _ "embed"
 //go:embed en-ewt.glsm
 var EnglishEWT []byte
 
+// EnglishWordClasses is the table of word classes learned from unlabeled
+// text (package wordclass parses it) that a model trained with them reads
+// (hmm.TrainOptions.LearnedClasses; the default model is not), made by
+//
+//	go run ./tagger/model/wordclasses
+//
+// It is a derived work of the treebank's training text and of WordNet 3.0's
+// glosses; see NOTICE.md.
+//
+//go:embed en-wordclasses.txt.gz
+var EnglishWordClasses []byte
+
+// WordClassesName is the file name of the word class table, for messages.
+const WordClassesName = "en-wordclasses.txt.gz"
+
 // Name is the file name of the default model, for messages.
 const Name = "en-ewt.glsm"

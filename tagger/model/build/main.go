@@ -35,6 +35,7 @@ func main() {
 	pruneW := flag.Float64("prunew", 0, "drop weights below this magnitude")
 	beam := flag.Float64("beam", 0, "Viterbi beam (0: default, -1: off)")
 	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
+	learned := flag.Bool("learned", false, "also train with the learned word class features (tagger/model/en-wordclasses.txt.gz)")
 	test := flag.Bool("test", false, "also evaluate on the test set")
 	trainAcc := flag.Bool("trainacc", false, "also evaluate on the first 2000 training sentences")
 	jsonOut := flag.Bool("json", false, "print full reports as JSON")
@@ -67,8 +68,9 @@ func main() {
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
 		Source:  "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
 		DictMin: *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
-		WordClasses: string(wn),
-		Dev:         dev,
+		WordClasses:    string(wn),
+		LearnedClasses: *learned,
+		Dev:            dev,
 		Progress: func(ep int, u, x float64) {
 			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%% XPOS %.2f%% (%s)\n", ep, u, x, time.Since(start).Round(time.Second))
 		},
