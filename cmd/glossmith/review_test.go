@@ -238,6 +238,7 @@ func TestReviewPageInBrowser(t *testing.T) {
 	facts, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(".gs-facts")))
 	require.NoError(t, err)
 	assert.Contains(t, facts, "one concept with “dripper”", "the merge after a restart")
+	assert.Contains(t, facts, "mostly within “drip emitter”", "the candidate it mostly occurs in")
 	w.check(t)
 	t.Logf("screenshots in %s", shots)
 }

@@ -40,6 +40,12 @@ type Candidate struct {
 	Weirdness float64 `json:"weird"`
 	CValue    float64 `json:"cval"`
 	DP        float64 `json:"dp"`
+	// Acronym, FullForm and Within are those of terms.Term: the acronym
+	// the documents define for it, the full form it stands for, the
+	// longer candidate it mostly occurs in.
+	Acronym  string `json:"acr,omitempty"`
+	FullForm string `json:"full,omitempty"`
+	Within   string `json:"in,omitempty"`
 }
 
 // Detail is what the detail pane shows of one candidate.
@@ -93,7 +99,7 @@ func Build(corpus *terms.Corpus, ranked []*terms.Term, pairs *colloc.Counter, co
 	for i, t := range ranked {
 		ds.Candidates[i] = Candidate{ID: i, Rank: t.Rank, Term: t.Term, POS: t.POS, Words: t.Words, Freq: t.Freq,
 			Docs: t.Docs, Score: finite(t.Score), Keyness: finite(t.Keyness), Weirdness: finite(t.Weirdness),
-			CValue: finite(t.CValue), DP: finite(t.DP)}
+			CValue: finite(t.CValue), DP: finite(t.DP), Acronym: t.Acronym, FullForm: t.FullForm, Within: t.Within}
 		d := &ds.Details[i]
 		d.Variants = t.Variants
 		for _, dc := range corpus.PerDoc(t) {

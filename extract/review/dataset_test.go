@@ -44,3 +44,14 @@ func TestActionCheck(t *testing.T) {
 		assert.Equal(t, c.ok, c.a.Check() == nil, "%+v", c.a)
 	}
 }
+
+// The page shows a candidate's acronym, full form and the longer
+// candidate it mostly occurs in: they are in its row.
+func TestBuildCarriesAcronymAndWithin(t *testing.T) {
+	ranked := []*terms.Term{{Rank: 1, Term: "drip", Within: "drip emitter"},
+		{Rank: 2, Term: "VPD", FullForm: "vapour pressure deficit"}, {Rank: 3, Term: "vapour pressure deficit", Acronym: "VPD"}}
+	ds := Build(terms.NewCorpus(0), ranked, nil, 0, "demo")
+	assert.Equal(t, "drip emitter", ds.Candidates[0].Within)
+	assert.Equal(t, "vapour pressure deficit", ds.Candidates[1].FullForm)
+	assert.Equal(t, "VPD", ds.Candidates[2].Acronym)
+}

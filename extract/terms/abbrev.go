@@ -156,6 +156,7 @@ func (c *Corpus) linkAbbrevs(out []*Term, spread *docSpread) {
 		st := out[si]
 		lt.Acronym, st.FullForm = st.Term, lt.Term
 		perDoc := sumDocs(c.groups[lt.key].perDoc, c.groups[st.key].perDoc)
+		lt.pooled = st.key
 		lt.Freq += st.Freq
 		lt.kept += st.kept
 		lt.Docs = len(perDoc)

@@ -121,3 +121,24 @@ func FuzzCollectAbbrevs(f *testing.F) {
 		dc.Release()
 	})
 }
+
+// The counts per document of a full form (what the review page draws)
+// are the pooled ones too, and add up to its frequency.
+func TestAcronymPooledPerDoc(t *testing.T) {
+	m, col := defaultSetup(t)
+	c := NewCorpus(3)
+	for i, text := range []string{
+		"The controller calculates the vapour pressure deficit (VPD). Keep the VPD low.",
+		"Check the VPD daily.",
+	} {
+		d := &doc.Document{Name: string(rune('a' + i)), Text: text}
+		tokenize.Document(d)
+		m.TagDocument(d)
+		c.Add(col.Collect(d))
+	}
+	full := find(c.Terms(modelRef{m}), "vapour pressure deficit")
+	require.NotNil(t, full)
+	require.Equal(t, "VPD", full.Acronym)
+	assert.Equal(t, []DocCount{{0, 3}, {1, 1}}, c.PerDoc(full))
+	assert.Equal(t, 4, full.Freq)
+}

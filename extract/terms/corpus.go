@@ -384,6 +384,7 @@ type Term struct {
 	Status string `json:"status,omitempty"`
 	Entry  string `json:"entry,omitempty"`
 	key    string
+	pooled string // group key of the acronym whose counts this one pools (linkAbbrevs)
 	words  []string
 	keys   []string
 	kept   int // occurrences Options.Keep accepted

@@ -15,15 +15,20 @@ func (c *Corpus) DocNames() []string { return c.docs }
 func (c *Corpus) DocSizes() []int { return c.docSize }
 
 // PerDoc returns the candidate's counts per document, in document order,
-// for the spread of a term over the documents (a review page draws it). t
-// must come from this corpus's Terms.
+// for the spread of a term over the documents (a review page draws it);
+// a full form's include the acronym's it pools (see linkAbbrevs). t must
+// come from this corpus's Terms.
 func (c *Corpus) PerDoc(t *Term) []DocCount {
 	g := c.groups[t.key]
 	if g == nil {
 		return nil
 	}
-	out := make([]DocCount, len(g.perDoc))
-	for i, df := range g.perDoc {
+	perDoc := g.perDoc
+	if a := c.groups[t.pooled]; t.pooled != "" && a != nil {
+		perDoc = sumDocs(perDoc, a.perDoc)
+	}
+	out := make([]DocCount, len(perDoc))
+	for i, df := range perDoc {
 		out[i] = DocCount{Doc: int(df.doc), Count: int(df.n)}
 	}
 	return out

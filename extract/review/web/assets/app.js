@@ -265,6 +265,8 @@
     kids.push(el('div', { class: 'gs-facts', text:
       'rank ' + c.rank + ' · ' + c.freq + '× in ' + c.docs + ' document(s) · score ' + fmt(c.score, 2) +
       ' · ' + c.words + ' word(s) · ' + c.pos + (dec.entry ? ' · variant of “' + dec.entry + '”' : '') +
+      (c.acr ? ' · acronym “' + c.acr + '” (its uses counted here)' : '') + (c.full ? ' · acronym of “' + c.full + '”' : '') +
+      (c.in ? ' · mostly within “' + c.in + '”' : '') +
       (dec.concept && dec.concept.length ? ' · one concept with ' + dec.concept.map(t => '“' + t + '”').join(', ') : '') }));
     kids.push(actionBar());
     if (!S.src.live) kids.push(remarkBox(i));
