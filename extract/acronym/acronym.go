@@ -19,9 +19,11 @@
 //     holds it as a word, or has more words (split at white space and
 //     hyphens) than the window.
 //
-// One addition of ours: a short form must hold a capital letter, so that an
+// Two additions of ours: a short form must hold a capital letter, so that an
 // ordinary word in or before a parenthetical remark ("the parliamentary
-// term (parliament)", "valves (three of them)") is not taken for one.
+// term (parliament)", "valves (three of them)") is not taken for one; and a
+// long form must not start with its short form, which makes a nickname or
+// a qualified name ("Angelika (Angel)", "EU27 (EU)") no definition.
 //
 // Find looks at one sentence's text at a time, in one pass over its
 // parentheses: each closing parenthesis pairs with the nearest opening one,
@@ -176,7 +178,8 @@ func (f *Finder) match(text string, sf, window Span, cut bool) (Pair, bool) {
 			n++
 		}
 	}
-	if len(long) < len(short) || containsWord(long, short) || words(long, true) > min(n+5, 2*n) {
+	if len(long) < len(short) || containsWord(long, short) || words(long, true) > min(n+5, 2*n) ||
+		len(long) > len(short) && strings.EqualFold(long[:len(short)], short) {
 		return Pair{}, false
 	}
 	return Pair{Short: sf, Long: lf}, true

@@ -55,6 +55,8 @@ func TestSchwartzHearstRules(t *testing.T) {
 		{"The deficit (-VPD) here.", nil, "first character not a letter or digit"},
 		{"Open the valve (see below).", nil, "no match"},
 		{"valves (three of them)", nil, "no capital in the short form of short form (long form)"},
+		{"The filly Angelika (Angel) won.", nil, "the long form starts with the short form"},
+		{"Valves of the HV25 (HV) series.", nil, "the long form starts with the short form, case aside"},
 		{"((((VPD", nil, "unbalanced"},
 		{"deficit) (VPD", nil, "unbalanced"},
 	} {
