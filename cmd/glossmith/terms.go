@@ -11,7 +11,6 @@ import (
 
 	"glossmith/extract/termbase"
 	"glossmith/extract/terms"
-	"glossmith/extract/wordfreq"
 	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
@@ -55,13 +54,6 @@ type modelReference struct{ m *hmm.Model }
 func (r modelReference) Freq(w string) int { return r.m.RefLemmaFreq(w) }
 func (r modelReference) Size() int         { return r.m.RefSize() }
 
-// defaultReference is the reference of terms, review and eval terms
-// without --reference: the treebank's lemma counts blended with the
-// embedded general-language table (terms.Blend, package wordfreq).
-func defaultReference(model *hmm.Model) terms.Reference {
-	return terms.Blend(modelReference{model}, wordfreq.General())
-}
-
 // termsOptions are the flags of the terms command.
 type termsOptions struct {
 	in        inputFlags
@@ -102,16 +94,15 @@ Measures (each a column, each a --sort key):
   cvalue     C-value over nested candidates (Frantzi et al. 2000), log2(|a|+1) weight
   keyness    signed log-likelihood keyness (Rayson and Garside 2000) of the
              candidate's least specific word (lowest weirdness) against the
-             reference: the tagger's training treebank blended with the
-             built-in general-language table (subtitles), unless --reference
+             reference: the tagger's training treebank unless --reference
              names documents
   weirdness  smoothed weirdness ratio (Ahmad et al. 1999) of that same least
              specific word
-  score      ln(1+freq) · (ln(weirdness) · damping + unit): damping demotes
-             document-structure words, those a number or label mostly
-             follows ("Figure 3", "Table 2"); unit is +1.5 for a phrase
-             seen twice or more, -3 for a phrase mostly inside one longer
-             candidate (see README)
+  score      ln(1+freq) · (ln(weirdness) · damping + unit): damping is 0
+             for document-structure words, those a number or label follows
+             in at least 20% of their uses ("Figure 3", "Table 2"), else 1;
+             unit is +1.5 for a phrase seen twice or more, -3 for a phrase
+             mostly inside one longer candidate (see README)
 
 Other columns: variants; within, the longer candidate this one occurs inside
 at least 90% of the time ("drip emitter" for "drip"; in TBX a note, and in
@@ -139,7 +130,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	o.in.register(cmd, true)
 	o.rules.register(cmd, "terms")
 	fl := cmd.Flags()
-	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts blended with the built-in subtitle word counts)")
+	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
@@ -229,7 +220,7 @@ func (o *termsOptions) run(args []string) error {
 	}
 	// Collect and Add copy what they keep of a document.
 	o.in.reuseTokens = true
-	ref := defaultReference(model)
+	var ref terms.Reference = modelReference{model}
 	var refErr error // a reference input that could not be read: reported, and the run goes on
 	if len(o.reference) > 0 {
 		counts := &terms.Counts{}

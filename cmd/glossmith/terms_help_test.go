@@ -46,7 +46,7 @@ func TestTermsHelpDescribesMeasuresAsComputed(t *testing.T) {
 
 // The help of terms and the README state the score's constants as
 // extract/terms defines them: the cut-off, the phrase bonus and fragment
-// penalty, and the structure exponent.
+// penalty, and the share that makes a structure word.
 func TestTermsHelpStatesScoreConstants(t *testing.T) {
 	r := run(t, "", "terms", "--help")
 	require.Equal(t, 0, r.code, r.stderr)
@@ -58,16 +58,16 @@ func TestTermsHelpStatesScoreConstants(t *testing.T) {
 		fmt.Sprintf("falls below %g;", terms.Cutoff),
 		fmt.Sprintf("unit is +%g for a phrase", terms.RepeatedPhraseBonus),
 		fmt.Sprintf("-%g for a phrase mostly inside one longer candidate", terms.FragmentPenalty),
+		fmt.Sprintf("in at least %g%% of their uses", 100*terms.StructureShare),
 		"ln(1+freq) · (ln(weirdness) · damping + unit)",
 	} {
 		assert.Contains(t, help, want)
 	}
-	superscript := strings.NewReplacer("0", "⁰", "1", "¹", "2", "²", "3", "³", "4", "⁴", "5", "⁵", "6", "⁶", "7", "⁷", "8", "⁸", "9", "⁹")
 	for _, want := range []string{
 		fmt.Sprintf("falls below **%g**", terms.Cutoff),
 		fmt.Sprintf("it is **+%g**", terms.RepeatedPhraseBonus),
 		fmt.Sprintf("it is **−%g**", terms.FragmentPenalty),
-		"(1 − *s*)" + superscript.Replace(fmt.Sprint(terms.StructureExponent)),
+		fmt.Sprintf("in at least **%g %%** of its uses", 100*terms.StructureShare),
 		"**ln(1 + freq) · (ln(weirdness) · damping + unit)**",
 	} {
 		assert.Contains(t, doc, want)

@@ -145,13 +145,13 @@ func Score(t *Term) float64 {
 // place, so that the leave-one-domain-out check (acter_test.go) can vary
 // them; the program never changes them.
 type scoreSettings struct {
-	structureExponent float64 // see structureDamping
-	phraseBonus       float64 // RepeatedPhraseBonus
-	fragmentPenalty   float64 // FragmentPenalty
-	cutoff            float64 // Cutoff
+	structureShare  float64 // StructureShare
+	phraseBonus     float64 // RepeatedPhraseBonus
+	fragmentPenalty float64 // FragmentPenalty
+	cutoff          float64 // Cutoff
 }
 
-var settings = scoreSettings{StructureExponent, RepeatedPhraseBonus, FragmentPenalty, Cutoff}
+var settings = scoreSettings{StructureShare, RepeatedPhraseBonus, FragmentPenalty, Cutoff}
 
 // RepeatedPhraseBonus is added to the domain specificity (ln weirdness)
 // of a candidate of two or more words seen at least twice, unless it is a
