@@ -95,16 +95,44 @@ type trainSent struct {
 // rows (trainingRows), the dense weights (newTrainer), then per epoch
 // and sentence the best path under the current weights (predict) and the
 // update from its errors (update); finishPerceptron turns the averages
-// into the model's weights.
+// into the model's weights. With opt.Shuffles > 1 that many perceptrons
+// learn from differently shuffled sentences and the model takes the mean
+// of their averaged weights (mergeTrainers).
 func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
-	nt := len(m.tags)
 	ws := newWorkspace()
 	if opt.LearnedClasses {
 		ws.classes = englishClasses()
 	}
 	rows := trainingRows(m, ws, sents, gold, opt.MinFeatureCount)
-	tr := newTrainer(m, len(rows.keys), opt)
 	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}
+	trs := make([]*trainer, max(1, opt.Shuffles))
+	for r := range trs {
+		trs[r] = newTrainer(m, len(rows.keys), opt)
+		trs[r].run(m, ws, rows, opt, opt.Seed+uint64(r), len(trs) == 1)
+	}
+	m.epochs = opt.Epochs
+	if len(trs) == 1 {
+		if opt.Progress == nil {
+			finishPerceptron(m, trs[0], rows.keys, rows.counts, opt)
+		}
+		return // (else the last epoch's report finished it)
+	}
+	finishPerceptron(m, mergeTrainers(trs), rows.keys, rows.counts, opt)
+	if opt.Progress != nil {
+		var du, dx float64
+		if len(opt.Dev) > 0 {
+			r := Evaluate(m, opt.Dev)
+			du, dx = r.UPOS.Accuracy, r.XPOS.Accuracy
+		}
+		opt.Progress(opt.Epochs, du, dx)
+	}
+}
+
+// run trains tr for opt.Epochs epochs, shuffling the sentences with seed
+// before each; with report set it passes the dev accuracies after each
+// epoch to opt.Progress (see reportEpoch).
+func (tr *trainer) run(m *Model, ws *workspace, rows *featureRows, opt *TrainOptions, seed uint64, report bool) {
+	nt := tr.nt
 	trans := transitions{t1: nt + 1, layers: tr.layers}
 	if len(tr.layers) == 1 { // the joint states alone: the fast path
 		trans = transitions{t1: nt + 1, tri: tr.layers[0].tri, bi: tr.layers[0].bi}
@@ -113,7 +141,7 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 	for i := range order {
 		order[i] = i
 	}
-	rng := rand.New(rand.NewPCG(opt.Seed, 0x676c6f73736d6974))
+	rng := rand.New(rand.NewPCG(seed, 0x676c6f73736d6974))
 	trainDict := int32(math.MaxInt32) // no tag dictionary while training
 	if opt.TrainDictMin > 0 {
 		trainDict = int32(opt.TrainDictMin)
@@ -126,14 +154,34 @@ func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *Tr
 			tr.predict(m, &ws.lattice, ts, rows.rows, &trans, trainDict)
 			tr.update(ts, ws.tags, rows.rows)
 		}
-		if opt.Progress != nil {
+		if report && opt.Progress != nil {
 			tr.reportEpoch(m, rows, ep, opt)
 		}
 	}
-	if opt.Progress == nil {
-		finishPerceptron(m, tr, rows.keys, rows.counts, opt)
+}
+
+// mergeTrainers returns trs[0] holding, as its weights with no update sums
+// left (so that finishPerceptron's average is the weight itself), the mean
+// of the averaged weights of all of trs.
+func mergeTrainers(trs []*trainer) *trainer {
+	out := trs[0]
+	n := float64(len(trs))
+	mean := func(w []float32, u []float64, part func(*trainer) ([]float32, []float64)) {
+		for i := range w {
+			var sum float64
+			for _, t := range trs {
+				tw, tu := part(t)
+				sum += float64(tw[i]) - tu[i]/t.c
+			}
+			w[i], u[i] = float32(sum/n), 0
+		}
 	}
-	m.epochs = opt.Epochs
+	mean(out.w, out.u, func(t *trainer) ([]float32, []float64) { return t.w, t.u })
+	for k := range out.layers {
+		mean(out.layers[k].tri, out.ulay[k][0], func(t *trainer) ([]float32, []float64) { return t.layers[k].tri, t.ulay[k][0] })
+		mean(out.layers[k].bi, out.ulay[k][1], func(t *trainer) ([]float32, []float64) { return t.layers[k].bi, t.ulay[k][1] })
+	}
+	return out
 }
 
 // tagAt returns the tag of position i of seq, or bound outside it.

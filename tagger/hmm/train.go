@@ -34,6 +34,13 @@ type TrainOptions struct {
 	Progress func(epoch int, devUPOS, devXPOS float64)
 	// Seed of the sentence shuffling between epochs (default 1).
 	Seed uint64
+	// Shuffles is the number of perceptrons trained, each on the
+	// sentences shuffled from its own seed (Seed, Seed+1, …), whose
+	// averaged weights the model averages (default 1). Three, with
+	// PruneWeight 0.5, measured better on UD English EWT dev than one
+	// (UPOS / XPOS 95.55 / 94.86 against 95.51 / 94.80) with fewer weights;
+	// training takes that many times longer.
+	Shuffles int
 
 	// DictMin: when tagging, words seen at least this often in training
 	// may only take tags they were seen with (the tag dictionary); rarer

@@ -32,7 +32,8 @@ func main() {
 	dictMin := flag.Int("dictmin", 0, "tag dictionary threshold (0: default)")
 	cands := flag.Int("cands", 0, "candidates per word outside the tag dictionary (0: default)")
 	minFeat := flag.Int("minfeat", 0, "minimum feature count (0: default, -1: keep all)")
-	pruneW := flag.Float64("prunew", 0, "drop weights below this magnitude")
+	pruneW := flag.Float64("prunew", 0.5, "drop weights below this magnitude (-1: keep all)")
+	shuffles := flag.Int("shuffles", 3, "perceptrons trained on differently shuffled data, their weights averaged")
 	beam := flag.Float64("beam", 0, "Viterbi beam (0: default, -1: off)")
 	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
 	learned := flag.Bool("learned", false, "also train with the learned word class features (tagger/model/en-wordclasses.txt.gz)")
@@ -66,8 +67,9 @@ func main() {
 	start := time.Now()
 	m, err := hmm.Train(train, hmm.TrainOptions{
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
-		Source:  "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
-		DictMin: *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
+		Source:   "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
+		Shuffles: *shuffles,
+		DictMin:  *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
 		WordClasses:    string(wn),
 		LearnedClasses: *learned,
 		Dev:            dev,
