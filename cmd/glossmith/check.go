@@ -154,31 +154,39 @@ func (o *checkOptions) run(args []string) error {
 	if st.Documents == 0 {
 		return runErr
 	}
-	fs := rep.Findings()
+	// The findings are written as the report makes them, one document's at
+	// a time, and counted on the way.
+	fs := rep.All()
 	known := 0
 	if o.base != nil {
-		fs, known = o.base.New(fs)
+		fs = o.base.Filter(fs, &known)
+	}
+	n, failing := 0, 0
+	var byLevel [3]int
+	counted := func(yield func(check.Finding) bool) {
+		for f := range fs {
+			lv := f.Level()
+			n++
+			byLevel[lv]++
+			if lv >= o.failLevel {
+				failing++
+			}
+			if !yield(f) {
+				return
+			}
+		}
 	}
 	out, err := openOutput(o.outPath)
 	if err != nil {
 		return err
 	}
 	wopt := check.WriteOptions{Color: o.to == "text" && useColor(o.color, out.toTerminal()), Version: versionString()}
-	if err := out.commit(check.Write(out, o.to, fs, wopt)); err != nil {
+	if err := out.commit(check.WriteSeq(out, o.to, counted, wopt)); err != nil {
 		return err
-	}
-	failing := 0
-	var byLevel [3]int
-	for i := range fs {
-		lv := fs[i].Level()
-		byLevel[lv]++
-		if lv >= o.failLevel {
-			failing++
-		}
 	}
 	if !o.in.quiet {
 		msg := fmt.Sprintf("check: %d finding(s) in %d document(s): %d error(s), %d warning(s), %d note(s)",
-			len(fs), st.Documents, byLevel[check.Error], byLevel[check.Warning], byLevel[check.Note])
+			n, st.Documents, byLevel[check.Error], byLevel[check.Warning], byLevel[check.Note])
 		if rep.Suppressed > 0 {
 			msg += fmt.Sprintf("; %d left out in code, addresses or silenced lines", rep.Suppressed)
 		}

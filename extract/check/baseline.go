@@ -6,7 +6,10 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"iter"
+	"maps"
 	"net/url"
+	"slices"
 	"strings"
 )
 
@@ -89,18 +92,25 @@ func (b *Baseline) add(key string) {
 // New returns the findings the baseline does not cover, in their order, and
 // how many it did cover.
 func (b *Baseline) New(fs []Finding) (fresh []Finding, known int) {
-	left := make(map[string]int, len(b.counts))
-	for k, n := range b.counts {
-		left[k] = n
-	}
-	for _, f := range fs {
-		k := baselineKey(f.File, f.Kind.String(), f.Text, f.Entry)
-		if left[k] > 0 {
-			left[k]--
-			known++
-			continue
-		}
-		fresh = append(fresh, f)
-	}
+	fresh = slices.Collect(b.Filter(slices.Values(fs), &known))
 	return fresh, known
+}
+
+// Filter yields the findings of fs the baseline does not cover, in their
+// order, and counts in *known those it does.
+func (b *Baseline) Filter(fs iter.Seq[Finding], known *int) iter.Seq[Finding] {
+	return func(yield func(Finding) bool) {
+		left := maps.Clone(b.counts)
+		for f := range fs {
+			k := baselineKey(f.File, f.Kind.String(), f.Text, f.Entry)
+			if left[k] > 0 {
+				left[k]--
+				*known++
+				continue
+			}
+			if !yield(f) {
+				return
+			}
+		}
+	}
 }

@@ -2,13 +2,16 @@ package check
 
 import (
 	"bufio"
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
 	"io"
+	"iter"
 	"net/url"
 	"path/filepath"
+	"slices"
 	"strings"
 )
 
@@ -26,6 +29,13 @@ type WriteOptions struct {
 
 // Write writes findings in a format of Formats.
 func Write(w io.Writer, format string, fs []Finding, opt WriteOptions) error {
+	return WriteSeq(w, format, slices.Values(fs), opt)
+}
+
+// WriteSeq writes findings as they come, in a format of Formats: a report
+// of any size is written holding one finding at a time (a SARIF log too,
+// whose results are written one by one into the log around them).
+func WriteSeq(w io.Writer, format string, fs iter.Seq[Finding], opt WriteOptions) error {
 	bw := bufio.NewWriter(w)
 	var err error
 	switch format {
@@ -53,9 +63,8 @@ const bold, reset = "\x1b[1m", "\x1b[0m"
 // writeText writes one compiler-style line per finding,
 // "file:line:col: level: message", which editors and terminals link to the
 // place.
-func writeText(w *bufio.Writer, fs []Finding, opt WriteOptions) error {
-	for i := range fs {
-		f := &fs[i]
+func writeText(w *bufio.Writer, fs iter.Seq[Finding], opt WriteOptions) error {
+	for f := range fs {
 		lv := f.Level()
 		if opt.Color {
 			fmt.Fprintf(w, "%s%s:%d:%d:%s %s%s%s: %s\n", bold, f.File, f.Line, f.Column, reset, levelColor[lv], lv, reset, f.Message)
@@ -81,11 +90,10 @@ type record struct {
 	Message   string `json:"message"`
 }
 
-func writeJSONL(w *bufio.Writer, fs []Finding) error {
+func writeJSONL(w *bufio.Writer, fs iter.Seq[Finding]) error {
 	enc := json.NewEncoder(w)
 	enc.SetEscapeHTML(false)
-	for i := range fs {
-		f := &fs[i]
+	for f := range fs {
 		if err := enc.Encode(record{f.File, f.Line, f.Column, f.EndLine, f.EndColumn, f.Text, f.Kind.String(),
 			f.Level().String(), f.Preferred, f.Entry, f.Message}); err != nil {
 			return err
@@ -166,7 +174,15 @@ var sarifRules = [...]string{
 // finding in a later version of a file has the same one wherever it moved.
 const fingerprintKey = "glossmith/finding/v1"
 
-func writeSARIF(w *bufio.Writer, fs []Finding, opt WriteOptions) error {
+// sarifIndent is the indent of the results in the log: they are the
+// elements of an array in an object in an array in an object.
+const sarifIndent = "        "
+
+// writeSARIF writes the log as encoding/json writes it indented by two
+// spaces, the results streamed: the log is encoded without results and
+// split where they go, and each result is encoded on its own with the
+// indent it has there.
+func writeSARIF(w *bufio.Writer, fs iter.Seq[Finding], opt WriteOptions) error {
 	run := sarifRun{ColumnKind: "unicodeCodePoints", Results: []sarifResult{}}
 	run.Tool.Driver = sarifDriver{Name: "glossmith", Version: opt.Version}
 	for k, d := range sarifRules {
@@ -174,30 +190,58 @@ func writeSARIF(w *bufio.Writer, fs []Finding, opt WriteOptions) error {
 		r.DefaultConfig.Level = Kind(k).Level().String()
 		run.Tool.Driver.Rules = append(run.Tool.Driver.Rules, r)
 	}
-	for i := range fs {
-		f := &fs[i]
+	var frame bytes.Buffer
+	enc := json.NewEncoder(&frame)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(sarifLog{
+		Schema:  "https://json.schemastore.org/sarif-2.1.0.json",
+		Version: "2.1.0",
+		Runs:    []sarifRun{run},
+	}); err != nil {
+		return err
+	}
+	const results = `"results": [`
+	at := bytes.LastIndex(frame.Bytes(), []byte(results+"]"))
+	if at < 0 {
+		return fmt.Errorf("sarif: no results array in the log") // cannot happen: the run has one
+	}
+	head, tail := frame.Bytes()[:at+len(results)], frame.Bytes()[at+len(results):]
+	w.Write(head)
+	var item bytes.Buffer
+	enc = json.NewEncoder(&item)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent(sarifIndent, "  ")
+	n := 0
+	for f := range fs {
 		var loc sarifLocation
 		p := &loc.PhysicalLocation
 		p.ArtifactLocation.URI = fileURI(f.File)
 		p.Region.StartLine, p.Region.StartColumn = f.Line, f.Column
 		p.Region.EndLine, p.Region.EndColumn = f.EndLine, f.EndColumn
 		p.Region.Snippet.Text = f.Text
-		run.Results = append(run.Results, sarifResult{
+		item.Reset()
+		if err := enc.Encode(sarifResult{
 			RuleID: f.Kind.String(), RuleIndex: int(f.Kind), Level: f.Level().String(),
 			Message:             sarifMessage{f.Message},
 			Locations:           []sarifLocation{loc},
 			PartialFingerprints: map[string]string{fingerprintKey: fingerprint(f.File, f.Kind.String(), f.Text, f.Entry)},
 			Properties:          sarifProperties{f.Text, f.Preferred, f.Entry},
-		})
+		}); err != nil {
+			return err
+		}
+		if n > 0 {
+			w.WriteByte(',')
+		}
+		w.WriteString("\n" + sarifIndent)
+		w.Write(bytes.TrimSuffix(item.Bytes(), []byte("\n")))
+		n++
 	}
-	enc := json.NewEncoder(w)
-	enc.SetEscapeHTML(false)
-	enc.SetIndent("", "  ")
-	return enc.Encode(sarifLog{
-		Schema:  "https://json.schemastore.org/sarif-2.1.0.json",
-		Version: "2.1.0",
-		Runs:    []sarifRun{run},
-	})
+	if n > 0 {
+		w.WriteString("\n" + sarifIndent[2:])
+	}
+	_, err := w.Write(tail)
+	return err
 }
 
 // fileURI writes a document's name as a relative URI reference.

@@ -111,3 +111,38 @@ func TestBaseline(t *testing.T) {
 	_, err := ReadBaseline(strings.NewReader("{\"file\":\"a\",\"kind\":\"spelling\"}\nnot json\n"), "base.jsonl")
 	assert.ErrorContains(t, err, "base.jsonl:2:")
 }
+
+// TestSARIFStreamedAsWhole checks that the log written one result at a
+// time is, byte for byte, the one encoding/json writes for the whole log
+// (indented by two spaces, HTML characters not escaped), with no result,
+// one and several.
+func TestSARIFStreamedAsWhole(t *testing.T) {
+	for _, fs := range [][]Finding{nil, sampleFindings()[:1], sampleFindings()} {
+		var streamed bytes.Buffer
+		require.NoError(t, Write(&streamed, "sarif", fs, WriteOptions{Version: "1.2.3"}))
+		run := sarifRun{ColumnKind: "unicodeCodePoints", Results: []sarifResult{}}
+		run.Tool.Driver = sarifDriver{Name: "glossmith", Version: "1.2.3"}
+		for k, d := range sarifRules {
+			r := sarifRule{ID: Kind(k).String(), ShortDescription: sarifMessage{d}}
+			r.DefaultConfig.Level = Kind(k).Level().String()
+			run.Tool.Driver.Rules = append(run.Tool.Driver.Rules, r)
+		}
+		for _, f := range fs {
+			var loc sarifLocation
+			p := &loc.PhysicalLocation
+			p.ArtifactLocation.URI = fileURI(f.File)
+			p.Region.StartLine, p.Region.StartColumn, p.Region.EndLine, p.Region.EndColumn = f.Line, f.Column, f.EndLine, f.EndColumn
+			p.Region.Snippet.Text = f.Text
+			run.Results = append(run.Results, sarifResult{RuleID: f.Kind.String(), RuleIndex: int(f.Kind), Level: f.Level().String(),
+				Message: sarifMessage{f.Message}, Locations: []sarifLocation{loc},
+				PartialFingerprints: map[string]string{fingerprintKey: fingerprint(f.File, f.Kind.String(), f.Text, f.Entry)},
+				Properties:          sarifProperties{f.Text, f.Preferred, f.Entry}})
+		}
+		var whole bytes.Buffer
+		enc := json.NewEncoder(&whole)
+		enc.SetEscapeHTML(false)
+		enc.SetIndent("", "  ")
+		require.NoError(t, enc.Encode(sarifLog{Schema: "https://json.schemastore.org/sarif-2.1.0.json", Version: "2.1.0", Runs: []sarifRun{run}}))
+		assert.Equal(t, whole.String(), streamed.String(), "%d finding(s)", len(fs))
+	}
+}
