@@ -10,8 +10,11 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/input"
 	"github.com/chromedp/cdproto/network"
 	"github.com/chromedp/chromedp"
+	"github.com/chromedp/chromedp/kb"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -121,15 +124,40 @@ func rowXPath(term string) string {
 	return fmt.Sprintf(`//tbody[@id="gs-rows"]/tr[td[2][text()=%q]]`, term)
 }
 
+// idle waits until the page has no request on its way and has drawn what
+// the answers changed (the page sets body[data-idle] for this): what an
+// action changed on the server is then on the page, whatever the load.
+var idle = chromedp.WaitReady(chromedp.CSS(`body[data-idle="yes"]`))
+
 // showTerm filters the table down to the candidate, selects it and takes
-// the focus from the filter so that keys go to the page.
+// the focus from the filter so that keys go to the page. The click starts
+// the detail request at once, so idle after it means the detail shown is
+// this candidate's, even when the pane showed the same term before.
 func showTerm(term string) chromedp.Action[chromedp.Void] {
 	return chromedp.Steps(
 		chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`(() => { const q = document.getElementById('gs-q'); q.value = %q; q.dispatchEvent(new Event('input')); })()`, term)),
 		chromedp.Click(rowXPath(term)),
+		idle,
 		chromedp.WaitVisible(fmt.Sprintf(`//h2/span[@id="gs-term"][text()=%q]`, term)),
 		chromedp.Evaluate[chromedp.Void](`document.activeElement.blur()`),
 	)
+}
+
+// lateKey types a printable key whose character event comes late after its
+// keydown, as it does when the process sending them is short of CPU: the
+// page must not tell the two apart by time.
+func lateKey(r rune, late time.Duration) chromedp.Action[chromedp.Void] {
+	return chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
+		for i, k := range kb.Encode(r) {
+			if k.Type == kb.KeyChar && i > 0 {
+				time.Sleep(late)
+			}
+			if _, err := cdp.Call(ctx, t, input.DispatchKeyEvent, *k); err != nil {
+				return err
+			}
+		}
+		return nil
+	})
 }
 
 // screenshot saves the page as a PNG in dir, or in $GLOSSMITH_SCREENSHOTS

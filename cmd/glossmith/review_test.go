@@ -140,22 +140,30 @@ func TestReviewPageInBrowser(t *testing.T) {
 	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("\x1b"), chromedp.WaitNotPresent(chromedp.ID("gs-help"))))
 
 	// Merge "dripper" with "emitter" by key (g, a few letters, Enter);
-	// undo it by key; merge again by the button.
+	// undo it by key; merge again by the button. The g's character comes
+	// half a second after its keydown and must not reach the search field.
+	// Each step waits for what the server answered to be on the page.
+	merged := `//div[@class="gs-facts"][contains(text(), "one concept with “emitter”")]`
 	mergeWith := func(open chromedp.Action[chromedp.Void]) chromedp.Action[chromedp.Void] {
 		return chromedp.Steps(open, chromedp.WaitVisible(chromedp.ID("gs-ask")),
 			chromedp.SendKeys(chromedp.ID("gs-ask"), "emitter"),
 			chromedp.WaitVisible(`//ol[@id="gs-choices"]/li[1][starts-with(text(), "emitter (")]`),
 			chromedp.KeyEvent("\r"),
-			chromedp.WaitNotPresent(chromedp.ID("gs-ask")))
+			chromedp.WaitNotPresent(chromedp.ID("gs-ask")),
+			idle, chromedp.WaitVisible(merged))
 	}
-	require.NoError(t, chromedp.Do(ctx, showTerm("dripper"), mergeWith(chromedp.KeyEvent("g"))), "merge by key")
-	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("z"), chromedp.WaitVisible(`//div[@id="gs-toast"][text()="undone"]`)), "undo by key")
+	require.NoError(t, chromedp.Do(ctx, showTerm("dripper"), mergeWith(lateKey('g', 500*time.Millisecond))), "merge by key")
+	// The toast hides itself after a while: its text stays, so the check
+	// does not depend on catching it on screen.
+	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("z"), idle,
+		chromedp.WaitReady(`//div[@id="gs-toast"][text()="undone"]`), chromedp.WaitNotPresent(merged)), "undo by key")
 	require.NoError(t, chromedp.Do(ctx, mergeWith(chromedp.Click(chromedp.ID("gs-do-merge")))), "merge by the button")
-	// A definition through its dialog.
+	// A definition through its dialog, opened by a key whose character
+	// comes late.
 	const def = "Emitter that drips water onto one plant."
-	require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent("e"), chromedp.WaitVisible(chromedp.ID("gs-ask")),
+	require.NoError(t, chromedp.Do(ctx, lateKey('e', 500*time.Millisecond), chromedp.WaitVisible(chromedp.ID("gs-ask")),
 		chromedp.SendKeys(chromedp.ID("gs-ask"), def),
-		chromedp.Click(chromedp.ID("gs-ask-ok")),
+		chromedp.Click(chromedp.ID("gs-ask-ok")), idle,
 		chromedp.WaitVisible(fmt.Sprintf(`//dl[@class="gs-notes"]/dd[text()=%q]`, def))), "definition")
 	// The whole table with a term in the detail view, for docs/review.png.
 	require.NoError(t, chromedp.Do(ctx,

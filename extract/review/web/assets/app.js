@@ -11,21 +11,48 @@
       if (!r.ok) throw new Error((await r.text()).trim() || r.statusText);
       return r.json();
     }
+    function get(url) { return tracked(fetch(url, { credentials: 'same-origin' }).then(check)); }
     function post(url, body) {
-      return fetch(url, {
+      return tracked(fetch(url, {
         method: 'POST', credentials: 'same-origin',
         headers: { 'Content-Type': 'application/json', 'X-Glossmith-Token': token },
         body: JSON.stringify(body)
-      }).then(check);
+      }).then(check));
+    }
+    // Changes reach the server one after another, in the order they were
+    // made: requests in flight at once may arrive in any order, and an undo
+    // must not overtake the merge it is meant to take back.
+    let last = Promise.resolve();
+    function inTurn(send) {
+      const p = last.then(send);
+      last = p.catch(() => {});
+      return p;
     }
     return {
       live: true,
-      load: () => fetch('api/data', { credentials: 'same-origin' }).then(check),
-      detail: id => fetch('api/detail?id=' + id, { credentials: 'same-origin' }).then(check),
-      more: (id, from) => fetch('api/contexts?id=' + id + '&from=' + from, { credentials: 'same-origin' }).then(check),
-      act: a => post('api/act', a),
-      undo: () => post('api/undo', {})
+      load: () => get('api/data'),
+      detail: id => get('api/detail?id=' + id),
+      more: (id, from) => get('api/contexts?id=' + id + '&from=' + from),
+      act: a => inTurn(() => post('api/act', a)),
+      undo: () => inTurn(() => post('api/undo', {}))
     };
+  }
+
+  // The page is idle (body[data-idle="yes"]) when no request is on its way
+  // and the page has drawn what the answers changed. A request counts from
+  // the moment it is made until a task after its answer: the answer's own
+  // handlers (and any request they start) run first, as promise callbacks.
+  // Scripts that drive the page wait for this instead of guessing a delay.
+  let pending = 0;
+  function tracked(p) {
+    setPending(+1);
+    const done = () => setTimeout(() => setPending(-1), 0);
+    p.then(done, done);
+    return p;
+  }
+  function setPending(d) {
+    pending += d;
+    document.body.dataset.idle = pending ? 'no' : 'yes';
   }
 
   // The report keeps the expert's remarks in the browser's storage for this
@@ -501,9 +528,15 @@
   }
 
   const keyName = { ArrowDown: '↓', ArrowUp: '↑' };
-  // opener is the key that last ran an action: a dialog it opened must not
-  // receive that key's character as its first input.
-  let opener = null;
+  // held is the key whose keydown ran an action, until that key comes up: a
+  // dialog the action opened must not receive the key's character. The
+  // character (keypress) follows the keydown as an event of its own, sooner
+  // or later, so it is told apart by the key still being down, not by time.
+  let held = null;
+  document.addEventListener('keydown', e => { if (!e.repeat) held = null; }, true);
+  document.addEventListener('keyup', e => { if (e.key === held) held = null; }, true);
+  document.addEventListener('keypress', e => { if (e.key === held) e.preventDefault(); }, true);
+  window.addEventListener('blur', () => { held = null; });
   function onKey(e) {
     if (e.ctrlKey || e.metaKey || e.altKey) return;
     const ov = document.getElementById('gs-overlay');
@@ -515,7 +548,7 @@
     }
     const k = keyName[e.key] || e.key;
     const a = actions().find(x => x.key === k);
-    if (a) { e.preventDefault(); opener = { key: e.key, at: performance.now() }; a.run(); }
+    if (a) { e.preventDefault(); held = e.key; a.run(); }
   }
 
   // ---- dialogs ----
@@ -579,12 +612,6 @@
         if (e.key === 'Enter' && (e.ctrlKey || !opt.multi)) { e.preventDefault(); done(field.value); }
       }
       document.addEventListener('keydown', keys, true);
-      const op = opener;
-      const swallow = e => {
-        document.removeEventListener('keypress', swallow, true);
-        if (op && e.key === op.key && performance.now() - op.at < 300) e.preventDefault();
-      };
-      document.addEventListener('keypress', swallow, true);
       ov.replaceChildren(box);
       ov.hidden = false;
       if (field) field.focus();
@@ -687,6 +714,7 @@
   }
 
   function start() {
+    setPending(0);
     const inline = document.getElementById('gs-data');
     if (inline) {
       S.src = reportSource(JSON.parse(inline.textContent));
