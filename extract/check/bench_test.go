@@ -3,6 +3,7 @@ package check
 import (
 	"fmt"
 	"os"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -105,6 +106,35 @@ func BenchmarkCheck(b *testing.B) {
 		if found == 0 {
 			b.Fatal("the glossary made from the documents' own terms found nothing in them")
 		}
+	})
+	// report: the heap a report holds once every document's findings are
+	// in it, per finding — what a run keeps until it writes them out
+	// (the documents, which the benchmark holds anyway, not counted).
+	b.Run("report", func(b *testing.B) {
+		var held, findings float64
+		var ms runtime.MemStats
+		for b.Loop() {
+			runtime.GC()
+			runtime.ReadMemStats(&ms)
+			before := ms.HeapAlloc
+			rep, n := NewReport(m), 0
+			for i := range docs {
+				res := Check(docs[i], srcs[i], Options{Glossary: m})
+				n += len(res.Findings)
+				rep.Add(res)
+			}
+			runtime.GC()
+			runtime.ReadMemStats(&ms)
+			held += float64(ms.HeapAlloc) - float64(before)
+			findings += float64(n)
+			runtime.KeepAlive(rep)
+		}
+		if findings == 0 {
+			b.Fatal("no findings to hold")
+		}
+		b.ReportMetric(held/findings, "held-B/finding")
+		b.ReportMetric(findings/float64(b.N), "findings")
+		b.ReportMetric(0, "ns/op")
 	})
 	b.Run("variants", func(b *testing.B) {
 		run(b, func(i int) { Check(docs[i], srcs[i], Options{Candidates: rules}) })
