@@ -42,7 +42,7 @@ type mixedSpelling struct {
 type docUse struct {
 	doc, n                     int32
 	line, col, endLine, endCol int32
-	text                       string
+	text                       int32 // in the report's string table
 }
 
 // NewReport starts a report. g is the glossary the documents were checked
@@ -91,7 +91,7 @@ func (r *Report) Add(res *DocResult) {
 		ms.total += s.n
 		f := &s.first
 		ms.uses = append(ms.uses, docUse{doc: di, n: int32(s.n), line: int32(f.Line), col: int32(f.Column),
-			endLine: int32(f.EndLine), endCol: int32(f.EndColumn), text: strings.Clone(f.Text)})
+			endLine: int32(f.EndLine), endCol: int32(f.EndColumn), text: r.strs.id(f.Text)})
 	}
 }
 
@@ -215,9 +215,9 @@ func (r *Report) mixed() map[int32][]Finding {
 			for _, u := range s.uses {
 				perDoc[u.doc] = append(perDoc[u.doc], Finding{
 					File: r.docs[u.doc], Line: int(u.line), Column: int(u.col), EndLine: int(u.endLine), EndColumn: int(u.endCol),
-					Text: u.text, Kind: KindMixed, Preferred: major.spelling, Entry: major.spelling,
+					Text: r.strs.strs[u.text], Kind: KindMixed, Preferred: major.spelling, Entry: major.spelling,
 					Message: fmt.Sprintf("%q is one of %d spellings of a term: here %s; %s: use %q",
-						u.text, len(g.spellings), strings.Join(here[u.doc], ", "), inAll, major.spelling),
+						r.strs.strs[u.text], len(g.spellings), strings.Join(here[u.doc], ", "), inAll, major.spelling),
 				})
 			}
 		}
