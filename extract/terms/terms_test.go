@@ -127,7 +127,7 @@ func TestDeterministicOutput(t *testing.T) {
 // Contexts carry the document, the line and the sentence, at most one per
 // document first.
 func TestContexts(t *testing.T) {
-	ts := extractTexts(t, "First line.\nThe pilot port clogs. The pilot port is small.", "A pilot port needs cleaning.")
+	ts := extractTexts(t, "First line.\nThe pilot port clogs. The pilot port is small.", "A pilot port can clog.")
 	x := find(ts, "pilot port")
 	require.NotNil(t, x)
 	require.Len(t, x.Contexts, 3)

@@ -19,7 +19,7 @@ func TestEmbeddedClasses(t *testing.T) {
 
 	keys := func(form string, cf *classFeatures) int {
 		var ti tokenInfo
-		buf := ti.fill(nil, form, nil)
+		buf := ti.fill(nil, form, nil, nil)
 		f, _, _ := appendAloneKeys(nil, buf, form, &ti, cf)
 		return len(f)
 	}

@@ -5,6 +5,7 @@ import (
 	"unicode/utf8"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/genfreq"
 	"glossmith/tagger/wordnet"
 )
 
@@ -56,6 +57,11 @@ const (
 	_
 	_
 	_
+	// How common the lower-cased word is in general English (package
+	// genfreq), for models that carry the table:
+	fFreqBand     // frequency band (0: not in the table)
+	fFreqShare    // share of its occurrences written in lower case
+	fFreqShareCap // the same with whether this token begins with a capital
 )
 
 // pairKey is the key of the feature "word w after tag prev", which scores
@@ -116,6 +122,8 @@ type tokenInfo struct {
 	lower, suf3, shape, pre1 uint64
 	wn                       wordnet.Classes
 	hasWN                    bool // the model has a word-class table
+	freq                     genfreq.Code
+	hasFreq                  bool // the model has a general-English table
 }
 
 // wnSig is the value of the neighbours' word-class features.
@@ -131,7 +139,7 @@ var (
 // fs.aloneEnd[i] on depend on the token's neighbours or position, those
 // before on the word alone. Tokens marked false in fs.need (when set) get
 // none. It allocates nothing once the scratch buffers have grown.
-func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn *wordnet.Table) []tokenInfo {
+func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn *wordnet.Table, freq *genfreq.Table) []tokenInfo {
 	n := len(toks)
 	if cap(info) < n {
 		info = make([]tokenInfo, n)
@@ -139,7 +147,7 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn 
 	info = info[:n]
 	buf := fs.buf[:0]
 	for i := range toks {
-		buf = info[i].fill(buf, toks[i].Form, wn)
+		buf = info[i].fill(buf, toks[i].Form, wn, freq)
 	}
 	f := fs.keys[:0]
 	fs.keyOff = append(fs.keyOff[:0], 0)
@@ -201,13 +209,18 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn 
 }
 
 // fill computes the hashes of a word form and, when wn is not nil, its
-// classes in WordNet; buf is scratch space, returned for reuse.
-func (ti *tokenInfo) fill(buf []byte, form string, wn *wordnet.Table) []byte {
+// classes in WordNet, and when freq is not nil its general-English code;
+// buf is scratch space, returned for reuse.
+func (ti *tokenInfo) fill(buf []byte, form string, wn *wordnet.Table, freq *genfreq.Table) []byte {
 	buf = lowerInto(buf[:0], form)
 	ti.lower = hashBytes(buf)
 	ti.wn, ti.hasWN = wordnet.Classes{}, wn != nil
 	if wn != nil {
 		ti.wn = wn.ClassesBytes(buf)
+	}
+	ti.freq, ti.hasFreq = 0, freq != nil
+	if freq != nil {
+		ti.freq = freq.LookupBytes(buf)
 	}
 	ti.suf3 = hashBytes(buf[max(0, len(buf)-3):])
 	ti.pre1 = hashBytes(buf[:min(1, len(buf))])
@@ -228,6 +241,14 @@ func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo, cf *cla
 	f = append(f, key(fBias, 0), key(fForm, hashString(form)), key(fLower, ti.lower), key(fShape, ti.shape))
 	if ti.hasWN {
 		f = appendClassKeys(f, ti.wn)
+	}
+	if ti.hasFreq {
+		var capital uint64
+		if form != "" && 'A' <= form[0] && form[0] <= 'Z' {
+			capital = 1
+		}
+		f = append(f, key(fFreqBand, uint64(ti.freq.Band())), key(fFreqShare, uint64(ti.freq.Share())),
+			key2(fFreqShareCap, uint64(ti.freq.Share()), capital))
 	}
 	if cf != nil {
 		if c := cf.table.Class(buf); c >= 0 {

@@ -26,7 +26,9 @@ import (
 //	         with DEFLATE (RFC 1951) at the best compression level
 //	crc      uint32, little endian: CRC-32 (IEEE) of everything before it
 //
-// Version 4 adds to the payload the table of WordNet word classes the
+// Version 5 adds after it the table of general-English frequency bands
+// (package genfreq; empty when the model has none). Version 4 adds to the
+// payload the table of WordNet word classes the
 // perceptron's features read (empty when the model has none). Version 3
 // is the same without it, version 2 also without the size field, version
 // 1 also stores the payload uncompressed; all are still read. Compression keeps the
@@ -40,7 +42,7 @@ import (
 // weightStep; the model in memory holds the same rounded values.
 const (
 	fileMagic   = "GLSMTAG\x00"
-	fileVersion = 4
+	fileVersion = 5
 	// headerSize is the header of version 3, headerSizeV2 that of
 	// versions 1 and 2 (no size field).
 	headerSizeV2 = len(fileMagic) + 2 + 8
@@ -371,6 +373,9 @@ func (m *Model) encodePayload(e *enc, version int) {
 	if version >= 4 {
 		e.str(m.wnText)
 	}
+	if version >= 5 {
+		e.str(m.freqText)
+	}
 	switch m.method {
 	case MethodHMM:
 		m.gen.encode(e)
@@ -467,6 +472,13 @@ func decodePayload(b []byte, version uint16) (*Model, error) {
 	if version >= 4 {
 		if text := d.str(); d.err == nil && text != "" {
 			if err := m.setWordClasses(text); err != nil {
+				return nil, err
+			}
+		}
+	}
+	if version >= 5 {
+		if text := d.str(); d.err == nil && text != "" {
+			if err := m.setGeneralFrequencies(text); err != nil {
 				return nil, err
 			}
 		}

@@ -11,7 +11,8 @@ import (
 
 // Files of format version 1 stored the payload uncompressed; they are still
 // read, and decode to the same model as the current file, less the table
-// of word classes, which came with version 4.
+// of word classes, which came with version 4, and the general-English
+// table, which came with version 5.
 func TestReadVersion1(t *testing.T) {
 	m, err := Default()
 	require.NoError(t, err)
@@ -28,7 +29,8 @@ func TestReadVersion1(t *testing.T) {
 		t.Fatalf("version 1 file refused: %v", err)
 	}
 	require.Nil(t, old.wn, "a version 1 file holds no word-class table")
-	old.wnText = m.wnText // Save writes the table's text, nothing derived from it
+	require.Nil(t, old.freq, "a version 1 file holds no general-English table")
+	old.wnText, old.freqText = m.wnText, m.freqText // Save writes the tables' text, nothing derived from them
 	var a, b bytes.Buffer
 	require.NoError(t, m.Save(&a))
 	require.NoError(t, old.Save(&b))

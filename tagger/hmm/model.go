@@ -28,6 +28,7 @@ import (
 	"sync"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/genfreq"
 	"glossmith/tagger/lemma"
 	"glossmith/tagger/wordnet"
 )
@@ -109,6 +110,11 @@ type Model struct {
 	// format versions before 4); wnText is the table as stored.
 	wn     *wordnet.Table
 	wnText string
+	// freq is the table of general-English frequency bands the
+	// perceptron's features read (nil in models trained without it and in
+	// those of format versions before 5); freqText is the table as stored.
+	freq     *genfreq.Table
+	freqText string
 
 	// General-language reference counts from the training data.
 	refForm  map[string]int32

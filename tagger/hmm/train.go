@@ -11,6 +11,7 @@ import (
 
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/doc"
+	"glossmith/tagger/genfreq"
 	"glossmith/tagger/lemma"
 	"glossmith/tagger/wordnet"
 )
@@ -83,6 +84,11 @@ type TrainOptions struct {
 	// wordnet.Generate; the perceptron reads it as features of every word,
 	// and the model stores it. Empty: no such features.
 	WordClasses string
+
+	// GeneralFrequencies is a table of general-English frequency bands
+	// written by genfreq.Generate; the perceptron reads it as features of
+	// every word, and the model stores it. Empty: no such features.
+	GeneralFrequencies string
 
 	// HMM suffix model: longest suffix (default 10) and highest frequency
 	// of the words it learns from (default 10), after Brants (2000).
@@ -159,6 +165,11 @@ func Train(sents []*conllu.Sentence, opt TrainOptions) (*Model, error) {
 			return nil, err
 		}
 	}
+	if opt.GeneralFrequencies != "" {
+		if err := m.setGeneralFrequencies(opt.GeneralFrequencies); err != nil {
+			return nil, err
+		}
+	}
 	trainPerceptron(m, sents, gold, &opt)
 	return m, nil
 }
@@ -175,6 +186,17 @@ func (m *Model) setWordClasses(text string) error {
 		return err
 	}
 	m.wn, m.wnText = t, text
+	return nil
+}
+
+// setGeneralFrequencies parses and keeps a table of general-English
+// frequency bands (see TrainOptions.GeneralFrequencies).
+func (m *Model) setGeneralFrequencies(text string) error {
+	t, err := genfreq.Parse(text)
+	if err != nil {
+		return err
+	}
+	m.freq, m.freqText = t, text
 	return nil
 }
 

@@ -107,7 +107,7 @@ type viewBoundary struct {
 func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []uint64, buf []byte) ([]uint64, []byte) {
 	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
-	buf = ti.fill(buf, form, p.wn)
+	buf = ti.fill(buf, form, p.wn, p.freq)
 	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti, p.classes)
 	v.lower = ti.lower
 	v.ctx = [nCtx]int32{

@@ -31,7 +31,7 @@ func (p *perceptron) buildLatticeRef(m *Model, ws *workspace, toks []doc.Token) 
 		ws.need = append(ws.need, !ok || e.count < p.dictMin || p.dict[ws.wid[i]].n > 1)
 	}
 	ws.classes = p.classes
-	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info, m.wn)
+	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info, m.wn, m.freq)
 	ws.need = ws.need[:0]
 	nt := len(m.tags)
 	score := ws.score[:nt]

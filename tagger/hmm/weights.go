@@ -4,6 +4,7 @@ import (
 	"math"
 	"sync/atomic"
 
+	"glossmith/tagger/genfreq"
 	"glossmith/tagger/wordnet"
 )
 
@@ -17,6 +18,9 @@ type perceptron struct {
 	// wn is the model's table of WordNet word classes (Model.wn), nil
 	// when it has none: the word-alone features read it.
 	wn *wordnet.Table
+	// freq is the model's general-English frequency table (Model.freq),
+	// nil when it has none.
+	freq *genfreq.Table
 
 	keys     []uint64 // feature keys, sorted; row i belongs to keys[i]
 	rowStart []int32  // weights of row i: cells[rowStart[i]:rowStart[i+1]]
@@ -91,7 +95,7 @@ func (p *perceptron) prepareDict(m *Model) {
 
 // prepare builds what decoding needs beyond the stored weights.
 func (p *perceptron) prepare(m *Model) {
-	p.wn = m.wn
+	p.wn, p.freq = m.wn, m.freq
 	p.index()
 	p.classes = p.learnedClasses()
 	p.prepareDict(m)

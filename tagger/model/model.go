@@ -14,7 +14,13 @@
 //
 //	go run ./tagger/model/lexicon
 //
-// regenerates from Debian's package wordnet-base.
+// regenerates from Debian's package wordnet-base, and general-en-bands.tsv,
+// general-English frequency bands derived from the SUBTLEX-US word list
+// (ISC license, notice in NOTICE.md), which
+//
+//	go run ./tagger/model/genfreq
+//
+// regenerates from ../shared/data/general-en.
 // (Bootstrapping a tree without the file: create an empty en-ewt.glsm
 // first, so that the packages compile, then run the command above.)
 package model

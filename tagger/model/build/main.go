@@ -36,6 +36,7 @@ func main() {
 	shuffles := flag.Int("shuffles", 3, "perceptrons trained on differently shuffled data, their weights averaged")
 	beam := flag.Float64("beam", 0, "Viterbi beam (0: default, -1: off)")
 	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
+	general := flag.String("general", "tagger/model/general-en-bands.tsv", "general-English frequency table (go run ./tagger/model/genfreq; empty: none)")
 	learned := flag.Bool("learned", false, "also train with the learned word class features (tagger/model/en-wordclasses.txt.gz)")
 	test := flag.Bool("test", false, "also evaluate on the test set")
 	trainAcc := flag.Bool("trainacc", false, "also evaluate on the first 2000 training sentences")
@@ -64,15 +65,23 @@ func main() {
 			fail(err)
 		}
 	}
+	var gf []byte
+	if *general != "" {
+		var err error
+		if gf, err = os.ReadFile(*general); err != nil {
+			fail(err)
+		}
+	}
 	start := time.Now()
 	m, err := hmm.Train(train, hmm.TrainOptions{
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
 		Source:   "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
 		Shuffles: *shuffles,
 		DictMin:  *dictMin, MaxCands: *cands, MinFeatureCount: *minFeat, PruneWeight: *pruneW, Beam: *beam,
-		WordClasses:    string(wn),
-		LearnedClasses: *learned,
-		Dev:            dev,
+		WordClasses:        string(wn),
+		GeneralFrequencies: string(gf),
+		LearnedClasses:     *learned,
+		Dev:                dev,
 		Progress: func(ep int, u, x float64) {
 			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%% XPOS %.2f%% (%s)\n", ep, u, x, time.Since(start).Round(time.Second))
 		},
