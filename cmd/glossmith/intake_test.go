@@ -14,6 +14,9 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"golang.org/x/text/encoding"
+	"golang.org/x/text/encoding/charmap"
+	"golang.org/x/text/encoding/unicode"
 
 	"glossmith/internal/testenv"
 )
@@ -179,29 +182,58 @@ func TestNormalizedTerms(t *testing.T) {
 	assert.Equal(t, "2", freq["pressure sensor"], "%v", freq)
 }
 
-// tag's start and end are byte offsets of the text as read, before
-// normalization: in a UTF-8 file with LF line ends, the file's own, so
-// that each token is found in the file with its soft hyphens, zero-width
-// characters and decomposed accents, and none of those around it.
+// tag's start and end are byte offsets of the file as read: each token is
+// found in the file with its soft hyphens, zero-width characters and
+// decomposed accents, and none of those around it, whatever the line ends,
+// byte-order mark or encoding (the slice decoded as the file is).
 func TestTagOffsetsOfTheFile(t *testing.T) {
-	dir := t.TempDir()
-	p := filepath.Join(dir, "kiosk.txt")
 	text := "The pres\u00ADsure sensor failed.\nThe cafe\u0301 valve\u200B\u200B leaks at \u200Enight\u200F.\n"
-	require.NoError(t, os.WriteFile(p, []byte(text), 0o644))
-	r := run(t, "", "tag", "-q", "--to", "tsv", p)
-	require.Equal(t, 0, r.code, r.stderr)
-	rows, err := readTSV(r.stdout)
-	require.NoError(t, err)
-	require.Equal(t, []string{"form", "start", "end"}, []string{rows[0][3], rows[0][8], rows[0][9]})
-	var got []string
-	for _, row := range rows[1:] {
-		start, err := strconv.Atoi(row[8])
+	want := []string{"The", "pres\u00ADsure", "sensor", "failed", ".", "The", "cafe\u0301", "valve", "leaks", "at", "night", "."}
+	crlf := strings.ReplaceAll(text, "\n", "\r\n")
+	latin1 := "The pres\xADsure sensor failed.\r\nThe caf\xE9 valve leaks at night.\r\n"
+	utf16 := func(order unicode.Endianness, s string) string {
+		b, err := unicode.UTF16(order, unicode.UseBOM).NewEncoder().Bytes([]byte(s))
 		require.NoError(t, err)
-		end, err := strconv.Atoi(row[9])
-		require.NoError(t, err)
-		got = append(got, text[start:end])
+		return string(b)
 	}
-	assert.Equal(t, []string{"The", "pres\u00ADsure", "sensor", "failed", ".", "The", "cafe\u0301", "valve", "leaks", "at", "night", "."}, got)
+	asIs := func(b []byte) string { return string(b) }
+	from := func(e encoding.Encoding) func([]byte) string {
+		return func(b []byte) string {
+			out, err := e.NewDecoder().Bytes(b)
+			require.NoError(t, err)
+			return string(out)
+		}
+	}
+	for _, tc := range []struct {
+		name, file string
+		decode     func([]byte) string
+		want       []string
+	}{
+		{"utf-8, LF", text, asIs, want},
+		{"utf-8, CRLF", crlf, asIs, want},
+		{"utf-8 with byte-order mark", "\uFEFF" + crlf, asIs, want},
+		{"latin-1", latin1, from(charmap.Windows1252), []string{"The", "pres\u00ADsure", "sensor", "failed", ".", "The", "café", "valve", "leaks", "at", "night", "."}},
+		{"utf-16 LE", utf16(unicode.LittleEndian, crlf), from(unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM)), want},
+		{"utf-16 BE", utf16(unicode.BigEndian, text), from(unicode.UTF16(unicode.BigEndian, unicode.IgnoreBOM)), want},
+	} {
+		p := filepath.Join(t.TempDir(), "kiosk.txt")
+		require.NoError(t, os.WriteFile(p, []byte(tc.file), 0o644))
+		r := run(t, "", "tag", "-q", "--to", "tsv", p)
+		require.Equal(t, 0, r.code, r.stderr)
+		rows, err := readTSV(r.stdout)
+		require.NoError(t, err)
+		require.Equal(t, []string{"form", "start", "end"}, []string{rows[0][3], rows[0][8], rows[0][9]})
+		var got []string
+		for _, row := range rows[1:] {
+			start, err := strconv.Atoi(row[8])
+			require.NoError(t, err)
+			end, err := strconv.Atoi(row[9])
+			require.NoError(t, err)
+			require.True(t, 0 <= start && start <= end && end <= len(tc.file), "%s: %v", tc.name, row)
+			got = append(got, tc.decode([]byte(tc.file[start:end])))
+		}
+		assert.Equal(t, tc.want, got, tc.name)
+	}
 }
 
 func readTSV(s string) ([][]string, error) {

@@ -9,6 +9,7 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"golang.org/x/text/encoding/unicode"
 )
 
 // Columns are those of the text as read: characters that normalization
@@ -32,6 +33,22 @@ func TestColumnsOfTheTextAsRead(t *testing.T) {
 		{name: "decomposed, source", file: "c.txt",
 			content: "The cafe\u0301 has a magnet valve.\r\nZero\u200B\u200Bwidth \u200Ethe magnet valve\u200F, a magnet valve.\r\n",
 			lines:   []string{"The cafe\u0301 has a magnet valve.", "Zero\u200B\u200Bwidth \u200Ethe magnet valve\u200F, a magnet valve."}},
+		// The file's bytes as read differ from the text: a byte-order mark,
+		// an "é" of two bytes in UTF-8 and one in Windows-1252, UTF-16
+		// (two bytes a character, four for U+1D706 MATHEMATICAL ITALIC
+		// SMALL LAMDA). Columns count characters, as read.
+		{name: "utf-8 byte-order mark, CRLF", file: "e.txt",
+			content: "\uFEFFThe café has a magnet valve.\r\nThe 𝜆 sensor, a magnet valve.\r\n",
+			lines:   []string{"The café has a magnet valve.", "The 𝜆 sensor, a magnet valve."}},
+		{name: "latin-1 café", file: "f.txt",
+			content: "The caf\xE9 has a magnet valve.\nNa\xEFve caf\xE9s, a magnet valve.\n",
+			lines:   []string{"The café has a magnet valve.", "Naïve cafés, a magnet valve."}},
+		{name: "utf-16 LE, CRLF", file: "g.txt",
+			content: utf16File(t, unicode.LittleEndian, "The café has a magnet valve.\r\nThe 𝜆 sensor, a pres\u00ADsure magnet valve.\r\n"),
+			lines:   []string{"The café has a magnet valve.", "The 𝜆 sensor, a pres\u00ADsure magnet valve."}},
+		{name: "utf-16 BE", file: "h.txt",
+			content: utf16File(t, unicode.BigEndian, "The café has a magnet valve.\nThe 𝜆 sensor, a magnet valve.\n"),
+			lines:   []string{"The café has a magnet valve.", "The 𝜆 sensor, a magnet valve."}},
 		{name: "html", file: "d.html",
 			content: "<p>The pres&shy;sure gauge and the magnet valve.</p>\n<p>The cafe&#x301; has a magnet valve.</p>\n",
 			lines:   []string{"The pres\u00ADsure gauge and the magnet valve.", "The cafe\u0301 has a magnet valve."}},
@@ -60,6 +77,7 @@ func TestColumnsOfTheTextAsRead(t *testing.T) {
 			got = append(got, [2]int{f.Column, f.EndColumn})
 		}
 		assert.Equal(t, want, got, tc.name)
+		require.NotEmpty(t, want, tc.name)
 
 		// SARIF carries the same columns (columnKind unicodeCodePoints).
 		var buf bytes.Buffer
@@ -83,4 +101,12 @@ func TestColumnsOfTheTextAsRead(t *testing.T) {
 			assert.Equal(t, want[k][0], r.Locations[0].PhysicalLocation.Region.StartColumn, tc.name)
 		}
 	}
+}
+
+// utf16File returns text as a UTF-16 file with a byte-order mark.
+func utf16File(t *testing.T, order unicode.Endianness, text string) string {
+	t.Helper()
+	b, err := unicode.UTF16(order, unicode.UseBOM).NewEncoder().Bytes([]byte(text))
+	require.NoError(t, err)
+	return string(b)
 }

@@ -131,6 +131,41 @@ type Document struct {
 	// composed others (see Shift); nil when normalization changed nothing,
 	// as for ASCII text. ReadOffset, ReadEnd and ColumnShift read them.
 	Shifts []Shift
+	// Source maps offsets of the text as the reader extracted it on to
+	// bytes of the file (after gzip), for plain text whose bytes are not
+	// that text: a byte-order mark, CRLF line ends, an encoding other than
+	// UTF-8, bytes replaced or dropped (see SourceRun). Nil when the text
+	// is the file's bytes, and for formats whose text is extracted from
+	// markup. ReadOffset and ReadEnd go through it after Shifts.
+	Source []SourceRun
+}
+
+// SourceRun is a point of the text as read from which its characters
+// stand for the file's bytes at a new place or a new rate: from offset At
+// on, every Width bytes of text are FileWidth bytes of the file, starting
+// at file offset Start (a UTF-16 file: 1 byte of ASCII text for 2 of the
+// file; a Windows-1252 file: 2 bytes of "é" for 1). End is the file offset
+// just past the character before At: Start and End differ where bytes were
+// dropped between the two (a byte-order mark, the CR of a CRLF, a NUL).
+// Width and FileWidth are in lowest terms, so a run of characters of
+// different widths at one rate (UTF-8 read as is) is one run.
+type SourceRun struct {
+	At, Start, End   int32
+	Width, FileWidth uint8
+}
+
+// sourceAt returns the file offset of offset off of the text as read,
+// the start of the character there or (end) the end of the one before.
+func (d *Document) sourceAt(off int, end bool) int {
+	k, _ := slices.BinarySearchFunc(d.Source, off+1, func(s SourceRun, x int) int { return cmp.Compare(int(s.At), x) })
+	if k == 0 {
+		return off
+	}
+	s := d.Source[k-1]
+	if end && int(s.At) == off {
+		return int(s.End)
+	}
+	return int(s.Start) + int(int64(off-int(s.At))*int64(s.FileWidth)/int64(s.Width))
 }
 
 // Shift is a point of Text from which its offsets stop lining up with the
@@ -161,27 +196,36 @@ func (d *Document) shiftAt(off int) Shift {
 }
 
 // ReadOffset returns the offset in the text as read (before
-// normalization) of the character that starts at offset off of Text.
+// normalization; in the file's bytes where Source maps them) of the
+// character that starts at offset off of Text.
 func (d *Document) ReadOffset(off int) int {
-	if d.Shifts == nil {
-		return off
+	if d.Shifts != nil {
+		s := d.shiftAt(off)
+		off = int(s.Start) + off - int(s.At)
 	}
-	s := d.shiftAt(off)
-	return int(s.Start) + off - int(s.At)
+	if d.Source != nil {
+		off = d.sourceAt(off, false)
+	}
+	return off
 }
 
-// ReadEnd returns the offset in the text as read just past the character
-// that ends at offset off of Text: characters removed right after it are
-// not included, as ReadOffset skips those right before a character.
+// ReadEnd returns the offset in the text as read (in the file's bytes
+// where Source maps them) just past the character that ends at offset off
+// of Text: characters removed right after it are not included, as
+// ReadOffset skips those right before a character.
 func (d *Document) ReadEnd(off int) int {
-	if d.Shifts == nil {
-		return off
+	if d.Shifts != nil {
+		s := d.shiftAt(off)
+		if int(s.At) == off {
+			off = int(s.End)
+		} else {
+			off = int(s.Start) + off - int(s.At)
+		}
 	}
-	s := d.shiftAt(off)
-	if int(s.At) == off {
-		return int(s.End)
+	if d.Source != nil {
+		off = d.sourceAt(off, true)
 	}
-	return int(s.Start) + off - int(s.At)
+	return off
 }
 
 // ColumnShift returns what turns a column counted in the characters of

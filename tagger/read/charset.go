@@ -50,6 +50,7 @@ func declaredCharset(data []byte) string {
 // decodeWith decodes data from a named encoding (not UTF-8), reporting
 // bytes that are not valid in it.
 func (r *reader) decodeWith(data []byte, e encoding.Encoding, name, why string) string {
+	r.coding.setEncoding(e)
 	out, err := e.NewDecoder().Bytes(data)
 	if err != nil { // x/text decoders replace bad input rather than fail
 		r.errorf(0, "cannot decode as %s: %v", name, err)
@@ -125,6 +126,7 @@ func looksWindows1252(data []byte) bool {
 
 // readWindows1252 decodes data as Windows-1252 with a note saying so.
 func (r *reader) readWindows1252(data []byte) string {
+	r.coding.setEncoding(charmap.Windows1252)
 	out, _ := charmap.Windows1252.NewDecoder().Bytes(data)
 	r.notef(0, "not valid UTF-8; read as Windows-1252 (use --encoding to name another encoding)")
 	return string(out)
@@ -139,6 +141,7 @@ func (r *reader) dropNUL(s string) string {
 	if i < 0 {
 		return s
 	}
+	r.coding.altered = true
 	line := 1 + strings.Count(s[:i], "\n")
 	n := strings.Count(s, "\x00")
 	r.warnf(line, "%d NUL character(s) dropped (the first on this line)", n)

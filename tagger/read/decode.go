@@ -37,10 +37,13 @@ func (r *reader) decode(data []byte, format string) string {
 func (r *reader) decodeText(data []byte, format string) string {
 	switch {
 	case bytes.HasPrefix(data, bomUTF8):
+		r.coding = coding{altered: true, skip: len(bomUTF8)}
 		return r.decodeUTF8(data[len(bomUTF8):])
 	case bytes.HasPrefix(data, bomUTF16LE):
+		r.coding = coding{altered: true, skip: 2, kind: unitUTF16LE}
 		return r.decodeUTF16(data[2:], false)
 	case bytes.HasPrefix(data, bomUTF16BE):
+		r.coding = coding{altered: true, skip: 2, kind: unitUTF16BE}
 		return r.decodeUTF16(data[2:], true)
 	}
 	if e, name, why := r.chosenEncoding(data, format); e != nil && name != "utf-8" {
@@ -63,6 +66,7 @@ func (r *reader) decodeUTF8(data []byte) string {
 	if utf8.Valid(data) {
 		return string(data)
 	}
+	r.coding.altered = true
 	var b strings.Builder
 	b.Grow(len(data) + 16)
 	w := encodingWarnings{r: r}

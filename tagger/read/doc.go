@@ -148,7 +148,11 @@
 // text as read (ReadOffset, ReadEnd) and give columns that count the
 // removed and composed characters (ColumnShift), recorded only where the
 // offsets stop lining up. Text that needs neither (nearly all) is checked
-// in one pass, not copied, and has no shifts.
+// in one pass, not copied, and has no shifts. For txt, Document.Source
+// maps on from the text as read to the bytes of the file (source.go) when
+// they differ — a byte-order mark, CRLF, another encoding, replaced or
+// dropped bytes, a line left out — so ReadOffset and ReadEnd are offsets
+// of the file; a UTF-8 file with LF line ends costs nothing.
 //
 // # Bad input
 //

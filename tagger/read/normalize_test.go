@@ -127,7 +127,7 @@ func TestReadNormalizes(t *testing.T) {
 func TestTokenColumnsOfTheFile(t *testing.T) {
 	file := "The pres\u00ADsure sensor failed.\r\nThe cafe\u0301 valve leaks.\r\n" +
 		"\u200BA \u200Ezero\u200F-width\u2060 mark, then the sensor.\r\n"
-	lines := strings.Split(strings.ReplaceAll(file, "\r\n", "\n"), "\n") // the text as read: LF line ends
+	lines := strings.Split(file, "\r\n") // the file's lines
 	d, ps := readFile(t, "a.txt", file, Options{})
 	require.NotNil(t, d)
 	require.Empty(t, ps)
@@ -144,18 +144,18 @@ func TestTokenColumnsOfTheFile(t *testing.T) {
 			got[tok.Form] = append(got[tok.Form], int(tok.Line), col)
 			// the column is where the word stands in the file's line
 			line := lines[tok.Line-1]
-			assert.Equal(t, utf8.RuneCountInString(line[:d.ReadOffset(int(tok.Start))-lineOffset(lines, int(tok.Line))])+1, col, tok.Form)
+			assert.Equal(t, utf8.RuneCountInString(line[:d.ReadOffset(int(tok.Start))-crlfLineOffset(lines, int(tok.Line))])+1, col, tok.Form)
 		}
 	}
 	assert.Equal(t, want, got)
 }
 
-// lineOffset returns the offset of line n (1-based) in the text made of
-// lines joined by LF.
-func lineOffset(lines []string, n int) int {
+// crlfLineOffset returns the offset of line n (1-based) in the text made
+// of lines joined by CRLF.
+func crlfLineOffset(lines []string, n int) int {
 	off := 0
 	for _, l := range lines[:n-1] {
-		off += len(l) + 1
+		off += len(l) + 2
 	}
 	return off
 }

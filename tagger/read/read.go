@@ -194,6 +194,7 @@ type reader struct {
 	opt      Options
 	probs    []Problem
 	unpacked bool // the data was decompressed, so the file on disk is not it
+	coding   coding
 }
 
 func (r *reader) add(sev Severity, line int, format string, args ...any) {
@@ -274,7 +275,9 @@ func (r *reader) read() *doc.Document {
 		text := r.decode(data, format)
 		switch format {
 		case FormatText:
-			d = r.text(text)
+			if d = r.text(text); r.coding.altered {
+				d.Source = sourceRuns(data, d.Text, r.coding)
+			}
 		case FormatMarkdown:
 			d = r.markdown(text)
 		case FormatHTML:
@@ -418,7 +421,14 @@ func size(n int64) string {
 // text reads plain text: the text as it is, line breaks normalized to "\n",
 // overlong lines left out.
 func (r *reader) text(s string) *doc.Document {
-	s = r.capLines(normalizeNewlines(s))
+	if strings.Contains(s, "\r") {
+		r.coding.altered = true
+		s = normalizeNewlines(s)
+	}
+	if c := r.capLines(s); c != s {
+		r.coding.altered = true
+		s = c
+	}
 	return &doc.Document{Text: s}
 }
 

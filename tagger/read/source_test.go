@@ -1,0 +1,204 @@
+package read
+
+import (
+	"bytes"
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+	"golang.org/x/text/encoding"
+	"golang.org/x/text/encoding/charmap"
+	"golang.org/x/text/encoding/japanese"
+	"golang.org/x/text/encoding/unicode"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/tokenize"
+)
+
+// sourceText is an invented manual page with what shifts offsets: accents
+// ("é" of "café", "Zürich"), a typographic apostrophe and a euro sign
+// (three bytes in UTF-8, one in Windows-1252), a character outside the
+// Basic Multilingual Plane (four bytes in UTF-8 and in UTF-16), a soft
+// hyphen that normalization removes, and a decomposed accent it composes.
+const sourceText = "The café valve’s set point is 15 °C.\n" +
+	"Zürich greenhouse: pres\u00ADsure 3 bar, cost 40 €.\n" +
+	"\n" +
+	"The 𝜆 sensor and the cafe\u0301 pump.\n"
+
+// slicedFile is a file built from sourceText and how to decode a slice of
+// it again, by a decoder other than the reader's.
+type slicedFile struct {
+	name   string
+	data   []byte
+	opt    Options
+	decode func([]byte) string
+}
+
+func encodedWith(t *testing.T, e encoding.Encoding, s string) []byte {
+	t.Helper()
+	b, err := e.NewEncoder().Bytes([]byte(s))
+	require.NoError(t, err)
+	return b
+}
+
+func decodedWith(e encoding.Encoding) func([]byte) string {
+	return func(b []byte) string {
+		out, _ := e.NewDecoder().Bytes(b)
+		return string(out)
+	}
+}
+
+// perByte decodes UTF-8 with each byte outside a valid sequence as one
+// U+FFFD, as the reader does.
+func perByte(b []byte) string {
+	var out strings.Builder
+	for len(b) > 0 {
+		r, n := utf8.DecodeRune(b)
+		out.WriteRune(r)
+		b = b[n:]
+	}
+	return out.String()
+}
+
+func slicedFiles(t *testing.T) []slicedFile {
+	plain := perByte
+	crlf := strings.ReplaceAll(sourceText, "\n", "\r\n")
+	latin1 := strings.NewReplacer("’", "'", "𝜆", "L", "\u00AD", "", "cafe\u0301", "café").Replace(sourceText) // what Windows-1252 can hold
+	utf16le := unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM)
+	utf16be := unicode.UTF16(unicode.BigEndian, unicode.IgnoreBOM)
+	sjis := strings.NewReplacer("’", "'", "𝜆", "L", "\u00AD", "", "cafe\u0301", "cafe", "é", "e", "ü", "u", "°", "", "€", "円").Replace(sourceText)
+	return []slicedFile{
+		{"utf-8, LF (the file's own offsets)", []byte(sourceText), Options{}, plain},
+		{"CRLF", []byte(crlf), Options{}, plain},
+		{"lone CR", []byte(strings.ReplaceAll(sourceText, "\n", "\r")), Options{}, plain},
+		{"UTF-8 byte-order mark, CRLF", append([]byte("\xEF\xBB\xBF"), crlf...), Options{}, plain},
+		{"Latin-1 (read as Windows-1252)", encodedWith(t, charmap.Windows1252, latin1), Options{}, decodedWith(charmap.Windows1252)},
+		{"Windows-1252 named, CRLF", encodedWith(t, charmap.Windows1252, strings.ReplaceAll(latin1, "\n", "\r\n")), Options{Encoding: "windows-1252"}, decodedWith(charmap.Windows1252)},
+		{"UTF-16 LE with byte-order mark", append([]byte{0xFF, 0xFE}, encodedWith(t, utf16le, crlf)...), Options{}, decodedWith(utf16le)},
+		{"UTF-16 BE with byte-order mark", append([]byte{0xFE, 0xFF}, encodedWith(t, utf16be, sourceText)...), Options{}, decodedWith(utf16be)},
+		{"Shift_JIS named", encodedWith(t, japanese.ShiftJIS, sjis), Options{Encoding: "shift_jis"}, decodedWith(japanese.ShiftJIS)},
+		// a NUL in the first 8 KiB marks a file as binary: this one is further on
+		{"invalid UTF-8 and a NUL", []byte(strings.Replace(crlf, "valve", "va\xFFlve", 1) + strings.Repeat("The vent opens.\r\n", 600) + "The sen\x00sor\x00 reads.\r\n"), Options{}, plain},
+	}
+}
+
+// A token's offsets in tag output point into the file's bytes as read:
+// slicing the file at them and decoding the slice (then putting it in
+// NFC without invisible characters, as the reader does) gives the token.
+func TestOffsetsPointIntoTheFile(t *testing.T) {
+	for _, f := range slicedFiles(t) {
+		d, _ := readFile(t, "a.txt", string(f.data), f.opt)
+		require.NotNil(t, d, f.name)
+		tokenize.Document(d)
+		require.Greater(t, d.TokenCount(), 20, f.name)
+		for _, s := range d.Sentences {
+			for _, tok := range s.Tokens {
+				from, to := d.ReadOffset(int(tok.Start)), d.ReadEnd(int(tok.End))
+				require.True(t, 0 <= from && from <= to && to <= len(f.data), "%s: %q at [%d:%d]", f.name, tok.Form, from, to)
+				got, _ := normalizeText(strings.ReplaceAll(f.decode(f.data[from:to]), "\x00", ""))
+				assert.Equal(t, tok.Form, got, "%s: [%d:%d]", f.name, from, to)
+			}
+		}
+	}
+}
+
+// The plain-text reader maps nothing when the file is the text: UTF-8
+// with LF line ends and no byte-order mark (and then pays nothing).
+func TestNoSourceMapForPlainUTF8(t *testing.T) {
+	d, _ := readFile(t, "a.txt", sourceText, Options{})
+	require.NotNil(t, d)
+	assert.Nil(t, d.Source)
+	d, _ = readFile(t, "a.txt", strings.ReplaceAll(sourceText, "\n", "\r\n"), Options{})
+	require.NotNil(t, d)
+	assert.Len(t, d.Source, strings.Count(sourceText, "\n"), "one run a CRLF")
+}
+
+// An English UTF-16 file needs a run at each change between ASCII and
+// other characters, not one a character.
+func TestSourceMapIsCompact(t *testing.T) {
+	text := strings.Repeat("The drip emitter clogs at 2 bar; the café’s filter does not.\n", 50)
+	data := append([]byte{0xFF, 0xFE}, encodedWith(t, unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM), text)...)
+	d, _ := readFile(t, "a.txt", string(data), Options{})
+	require.NotNil(t, d)
+	assert.LessOrEqual(t, len(d.Source), 4*50+1)
+}
+
+// Bytes dropped at the end of a file (a last line too long to read, NULs)
+// and a capped line in the middle keep the offsets after them right.
+func TestSourceMapAfterLeftOutLines(t *testing.T) {
+	long := strings.Repeat("x", MaxLine+1)
+	data := "valve one\r\n" + long + "\r\nvalve two\r\n" + long
+	d, ps := readFile(t, "a.txt", data, Options{})
+	require.NotNil(t, d)
+	require.NotEmpty(t, ps)
+	tokenize.Document(d)
+	var got []string
+	for _, s := range d.Sentences {
+		for _, tok := range s.Tokens {
+			got = append(got, data[d.ReadOffset(int(tok.Start)):d.ReadEnd(int(tok.End))])
+		}
+	}
+	assert.Equal(t, []string{"valve", "one", "valve", "two"}, got)
+	assert.Equal(t, len(data), d.ReadOffset(len(d.Text)))
+}
+
+// FuzzSourceOffsets reads any bytes as plain text, raw, behind a UTF-8
+// byte-order mark, as UTF-16 and as Windows-1252, and checks every token
+// as TestOffsetsPointIntoTheFile does.
+func FuzzSourceOffsets(f *testing.F) {
+	f.Add([]byte(sourceText), uint8(0))
+	f.Add([]byte("a\r\n\r\rb\x00\r\x00\nc\xFF d"), uint8(1))
+	f.Add([]byte("x\x00y\x00\r\x00\n\x00\x00\xD8z\x00"), uint8(2))
+	f.Add([]byte("caf\xe9\r\n"), uint8(3))
+	f.Fuzz(func(t *testing.T, data []byte, how uint8) {
+		if len(data) > 256 {
+			return
+		}
+		utf16le := unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM)
+		opt := Options{Format: FormatText}
+		decode := perByte
+		switch how % 4 {
+		case 0:
+			if !utf8.Valid(data) && looksWindows1252(data) {
+				decode = decodedWith(charmap.Windows1252) // the reader's fallback
+			}
+		case 1:
+			data = append([]byte("\xEF\xBB\xBF"), data...)
+		case 2:
+			data = append([]byte{0xFF, 0xFE}, data...)
+			decode = decodedWith(utf16le)
+		case 3:
+			opt.Encoding = "windows-1252"
+			decode = decodedWith(charmap.Windows1252)
+		}
+		opt.Stdin = bytes.NewReader(data)
+		d, _ := Read(Input{Name: "-", Path: "-"}, opt)
+		if d == nil {
+			return
+		}
+		checkSource(t, d, data, decode)
+	})
+}
+
+// checkSource checks the tokens of d against data, the file: those that
+// start before an ASCII character and end before one or at the end, for
+// a token may end inside what NFC made of one character (U+2ADC FORKING
+// is U+2ADD U+0338 in NFC, and U+0338 may be a token of its own), and
+// only the ends of such a piece map back to the file.
+func checkSource(t *testing.T, d *doc.Document, data []byte, decode func([]byte) string) {
+	t.Helper()
+	tokenize.Document(d)
+	for _, s := range d.Sentences {
+		for _, tok := range s.Tokens {
+			from, to := d.ReadOffset(int(tok.Start)), d.ReadEnd(int(tok.End))
+			require.True(t, 0 <= from && from <= to && to <= len(data), "%q at [%d:%d] of %q", tok.Form, from, to, data)
+			if d.Text[tok.Start] >= utf8.RuneSelf || int(tok.End) < len(d.Text) && d.Text[tok.End] >= utf8.RuneSelf {
+				continue
+			}
+			got, _ := normalizeText(strings.ReplaceAll(decode(data[from:to]), "\x00", ""))
+			require.Equal(t, tok.Form, got, "%q at [%d:%d] of %q", tok.Form, from, to, data)
+		}
+	}
+}
