@@ -18,7 +18,14 @@ import (
 // candidate's status and entry.
 func termsStatus(t *testing.T, tb string, extra ...string) map[string][2]string {
 	t.Helper()
-	r := run(t, "", append([]string{"terms", "--termbase", tb, "--to", "jsonl", "--all"}, append(extra, "testdata/demo")...)...)
+	return statusOf(t, append([]string{"terms", "--termbase", tb, "--to", "jsonl", "--all"}, append(extra, "testdata/demo")...)...)
+}
+
+// statusOf runs glossmith with args (a terms run writing JSON Lines) and
+// returns each candidate's status and entry.
+func statusOf(t *testing.T, args ...string) map[string][2]string {
+	t.Helper()
+	r := run(t, "", args...)
 	require.Equal(t, 0, r.code, r.stderr)
 	out := map[string][2]string{}
 	for _, line := range strings.Split(strings.TrimSpace(r.stdout), "\n") {
@@ -122,6 +129,36 @@ func TestTermbaseWorkflow(t *testing.T) {
 	require.Equal(t, 0, r.code, r.stderr)
 	r = run(t, "", "termbase", "--termbase", tb, "show", "magnet valve")
 	assert.Equal(t, 1, r.code)
+}
+
+// A candidate linked to an acronym or full form the termbase accepted is
+// labelled as that other term of the concept: with "RMS" accepted, "root
+// zone moisture sensor" is its full form (not a variant, which the
+// acronym's spellings among its forms made it); with the full form
+// accepted, "RMS" is its acronym (not new). An invented manual text.
+func TestTermsLabelsAcronymPairs(t *testing.T) {
+	dir := t.TempDir()
+	docs := filepath.Join(dir, "docs")
+	require.NoError(t, os.Mkdir(docs, 0o755))
+	require.NoError(t, os.WriteFile(filepath.Join(docs, "a.txt"), []byte("The root zone moisture sensor (RMS) reads the water in the substrate. "+
+		"Mount the RMS near the drip emitter.\nCalibrate the RMS each season. The root zone moisture sensor needs a dry reference.\n"), 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(docs, "b.txt"), []byte("Each root zone moisture sensor has a serial number. Replace a faulty RMS at once.\n"), 0o644))
+	for _, tc := range []struct {
+		accept   []string
+		full, rm [2]string
+	}{
+		{[]string{"RMS"}, [2]string{"full form", "RMS"}, [2]string{"accepted", "RMS"}},
+		{[]string{"root zone moisture sensor"}, [2]string{"accepted", "root zone moisture sensor"}, [2]string{"acronym", "root zone moisture sensor"}},
+		{[]string{"root zone moisture sensor", "RMS"}, [2]string{"accepted", "root zone moisture sensor"}, [2]string{"accepted", "RMS"}},
+	} {
+		tb := filepath.Join(dir, strings.Join(tc.accept, "+")+".db")
+		r := run(t, "", append([]string{"termbase", "--termbase", tb, "accept"}, tc.accept...)...)
+		require.Equal(t, 0, r.code, r.stderr)
+		st := statusOf(t, "terms", "--termbase", tb, "--to", "jsonl", "--all", "--max-words", "5", docs)
+		assert.Equal(t, tc.full, st["root zone moisture sensor"], "%v", tc.accept)
+		assert.Equal(t, tc.rm, st["RMS"], "%v", tc.accept)
+		assert.Equal(t, "new", st["drip emitter"][0], "%v", tc.accept)
+	}
 }
 
 func TestTermbaseErrors(t *testing.T) {

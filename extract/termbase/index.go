@@ -7,6 +7,11 @@ const (
 	LabelVariant    = "variant"    // a surface form or spelling of an entry's term
 	LabelDeprecated = "deprecated" // a deprecated term
 	LabelRejected   = "rejected"   // rejected: not a term
+	// A candidate that is not a stored term itself but that the documents
+	// define as the acronym of an accepted term, or whose acronym is one:
+	// the other term of that concept, not a spelling of it.
+	LabelAcronym  = "acronym"
+	LabelFullForm = "full form"
 )
 
 // Index answers "what does the termbase say about this candidate" from

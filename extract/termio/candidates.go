@@ -16,7 +16,30 @@ func Label(ix *termbase.Index, cands []*terms.Term) {
 			forms = append(forms, v.Form)
 		}
 		t.Status, t.Entry = ix.Label(t.Term, forms)
+		labelPair(ix, t)
 	}
+}
+
+// labelPair labels a candidate that the documents link to an acronym or a
+// full form (terms.Term.Acronym, FullForm) the termbase has accepted: the
+// acronym of an accepted full form, the full form of an accepted acronym,
+// with that entry — not new, and not a variant, which it would otherwise
+// be for the acronym's spellings pooled among its forms. A candidate the
+// termbase holds itself, or holds as a form of another entry, keeps its
+// label.
+func labelPair(ix *termbase.Index, t *terms.Term) {
+	partner, label := t.Acronym, termbase.LabelFullForm
+	if partner == "" {
+		partner, label = t.FullForm, termbase.LabelAcronym
+	}
+	if partner == "" || t.Status != termbase.LabelNew && t.Status != termbase.LabelVariant {
+		return
+	}
+	st, entry := ix.Label(partner, nil)
+	if st != termbase.LabelAccepted || t.Status == termbase.LabelVariant && t.Entry != entry {
+		return
+	}
+	t.Status, t.Entry = label, entry
 }
 
 // OnlyNew keeps the candidates without a decision.

@@ -379,8 +379,8 @@ type Term struct {
 	FullForm string    `json:"full_form,omitempty"`
 	Contexts []Context `json:"contexts,omitempty"`
 	// Status and Entry come from a termbase (terms --termbase): new,
-	// accepted, variant, deprecated or rejected, and the preferred term of
-	// the entry it belongs to. Empty without a termbase.
+	// accepted, variant, acronym, full form, deprecated or rejected, and the
+	// preferred term of the entry it belongs to. Empty without a termbase.
 	Status string `json:"status,omitempty"`
 	Entry  string `json:"entry,omitempty"`
 	key    string
