@@ -66,6 +66,36 @@ func TestSchwartzHearstRules(t *testing.T) {
 	}
 }
 
+// Rules that the pairs found in the demo corpus and the ACTER texts called
+// for, each on an invented greenhouse sentence: a wrong pair dropped and,
+// where it helps, the right one beside it kept. The long form must not
+// hold the short form as a word (the paper's rule, now also between
+// punctuation), nor a parenthesis (it would cross another parenthetical),
+// nor start with a function word; a two-character short form must be the
+// initials of a two-word long form, unless it is a prefixed unit symbol
+// beside its name (SI Brochure, 9th edition, table 7).
+func TestPrecisionRules(t *testing.T) {
+	for _, c := range []struct {
+		text string
+		want []string
+		why  string
+	}{
+		{"The fans of the Climate Fan Maker (hereinafter the 'Maker') are quiet.", nil, "the long form holds the short form in quotes"},
+		{"Suppliers: Vent Oy (Finland), Drip Oy (Finland), Fog AB (Sweden).", nil, "the long form holds the short form in parentheses"},
+		{"Log the set point (SP) logging (SPL) daily.", []string{"SP=set point"}, "SPL's long form would cross (SP)"},
+		{"Order the valves for Automatic Irrigation (FAI) now.", nil, "F matched on for"},
+		{"Order the Fog And Mist Irrigation (FAMI) kit.", []string{"FAMI=Fog And Mist Irrigation"}, "a function word inside the long form is fine"},
+		{"It does the tasks given to the EGB under Regulation (EU) No 12/2026.", nil, "U inside a word, three words for two letters"},
+		{"Fit a standard valve (SV) here.", []string{"SV=standard valve"}, "two initials of two words"},
+		{"Each heater draws 4 kilowatt (kW) at full load.", []string{"kW=kilowatt"}, "a unit's symbol and name: not initials, but right"},
+		{"The loop holds 2 megapascals (MPa).", []string{"MPa=megapascals"}, "a unit's symbol and name"},
+		{"Mount the Gutter Alarm (GA) on the wall.", []string{"GA=Gutter Alarm"}, "unit-shaped, but not a prefix's name"},
+		{"Mount the Gutter alarm (GR) on the wall.", nil, "unit-shaped, not initials"},
+	} {
+		assert.Equal(t, c.want, pairs(c.text), "%s: %s", c.why, c.text)
+	}
+}
+
 // Nested parentheses: the inner pair is read.
 func TestNestedParentheses(t *testing.T) {
 	assert.Equal(t, []string{"EC=electrical conductivity"}, pairs("Check (the electrical conductivity (EC) of the drain) daily."))
