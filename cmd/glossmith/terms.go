@@ -101,8 +101,9 @@ Measures (each a column, each a --sort key):
   score      ln(1+freq) · (ln(weirdness) · damping + unit): damping is 0
              for document-structure words, those a number or label follows
              in at least 20% of their uses ("Figure 3", "Table 2"), else 1;
-             unit is +1.5 for a phrase seen twice or more, -3 for a phrase
-             mostly inside one longer candidate (see README)
+             unit is +1.5 for a phrase seen twice or more, -6 for a phrase
+             mostly inside one longer candidate or of more than 3 words
+             (see README)
 
 Other columns: variants; within, the longer candidate this one occurs inside
 at least 90% of the time ("drip emitter" for "drip"; in TBX a note, and in

@@ -57,7 +57,7 @@ func TestTermsHelpStatesScoreConstants(t *testing.T) {
 	for _, want := range []string{
 		fmt.Sprintf("falls below %g;", terms.Cutoff),
 		fmt.Sprintf("unit is +%g for a phrase", terms.RepeatedPhraseBonus),
-		fmt.Sprintf("-%g for a phrase mostly inside one longer candidate", terms.FragmentPenalty),
+		fmt.Sprintf("-%g for a phrase mostly inside one longer candidate or of more than %d words", terms.FragmentPenalty, terms.MaxUnitWords),
 		fmt.Sprintf("in at least %g%% of their uses", 100*terms.StructureShare),
 		"ln(1+freq) · (ln(weirdness) · damping + unit)",
 	} {
@@ -67,6 +67,7 @@ func TestTermsHelpStatesScoreConstants(t *testing.T) {
 		fmt.Sprintf("falls below **%g**", terms.Cutoff),
 		fmt.Sprintf("it is **+%g**", terms.RepeatedPhraseBonus),
 		fmt.Sprintf("it is **−%g**", terms.FragmentPenalty),
+		fmt.Sprintf("more than **%d** words", terms.MaxUnitWords),
 		fmt.Sprintf("in at least **%g %%** of its uses", 100*terms.StructureShare),
 		"**ln(1 + freq) · (ln(weirdness) · damping + unit)**",
 	} {

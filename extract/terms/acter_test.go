@@ -85,7 +85,7 @@ func readDomainGold(t *testing.T, dir, domain string) Gold {
 // corpora", Language Resources and Evaluation 54, 2020), English, terms with
 // named entities, scored the way that work scores: lower-cased surface forms
 // compared as sets. Bounds a little under the figures the README gives
-// (0.431 and 0.422), so that a retrained tagger may move them a little:
+// (0.432 and 0.425), so that a retrained tagger may move them a little:
 // mean best F1 over the three domains ≥ 0.415 with none below 0.36; mean
 // F1 of the default list ≥ 0.40.
 func TestACTERGoldLists(t *testing.T) {
@@ -134,7 +134,7 @@ func TestACTERLeaveOneDomainOut(t *testing.T) {
 	var grid []point
 	for _, e := range []float64{1, 0.5, 0.3, 0.2} { // 1: off
 		for _, b := range []float64{0, 1, 1.5} {
-			for _, p := range []float64{0, 3, 4} {
+			for _, p := range []float64{0, 3, 4, 6} {
 				grid = append(grid, point{e, b, p})
 			}
 		}

@@ -121,7 +121,8 @@ const Cutoff = 2.5
 // twice — a word sequence that comes back is a unit ("money laundering",
 // "riding school") even when its words are each general — and
 // −FragmentPenalty when it is mostly a piece of one longer candidate
-// (Within: "horizontal-axis wind" of "horizontal-axis wind turbine"). A
+// (Within: "horizontal-axis wind" of "horizontal-axis wind turbine") or
+// longer than MaxUnitWords words. A
 // candidate whose words are all more common in general language than in
 // the documents scores below 0 unless it is such a repeated phrase.
 // Candidates that cannot be glossary entries score -Inf-like low values:
@@ -133,7 +134,7 @@ func Score(t *Term) float64 {
 	s := damped(t.Weirdness, t.labelShare)
 	switch {
 	case t.Words < 2:
-	case t.Within != "":
+	case t.Within != "" || t.Words > MaxUnitWords:
 		s -= settings.fragmentPenalty
 	case t.Freq >= 2:
 		s += settings.phraseBonus
@@ -167,7 +168,14 @@ const RepeatedPhraseBonus = 1.5
 // lists, while single words inside a longer term ("drip" in "drip
 // emitter") often are, and keep their score. Chosen leave-one-domain-out
 // (README).
-const FragmentPenalty = 3.0
+const FragmentPenalty = 6.0
+
+// MaxUnitWords is the longest phrase, in words, that the score takes for a
+// unit of its own. Longer candidates (DefaultMaxWords allows four words)
+// take the FragmentPenalty: on the evaluation lists a phrase of four
+// words is rarely a term, and counting it as a candidate serves its parts
+// (see DefaultMaxWords).
+const MaxUnitWords = 3
 
 // unlikely is the score of candidates Plausible rejects: far below any
 // real score, finite so that sorting and printing stay well defined.
