@@ -69,6 +69,12 @@ type Sentence struct {
 	// NewPar marks the first sentence of a paragraph (blank line, heading,
 	// block element or "# newpar").
 	NewPar bool
+	// Heading marks a sentence of a heading or caption, as the document's
+	// markup or layout showed it (Document.Headings). Title case is the
+	// norm there, so a capital says less than in running text: the tagger
+	// weighs such a sentence's capitalized words differently. Sentences
+	// of CoNLL-U input are never headings.
+	Heading bool
 	// Rows are the sentence's lines as a CoNLL-U input gave them (comments,
 	// token rows, multiword-token and empty-node rows, without line
 	// breaks), so that CoNLL-U output can pass them through and fill only
@@ -126,6 +132,13 @@ type Document struct {
 	// Pretokenized is true when the sentences came with the input (CoNLL-U)
 	// and must not be re-tokenized.
 	Pretokenized bool
+	// Headings are the lines of Text that hold headings and captions, as
+	// the reader saw them in the markup (a Markdown "#" heading, an HTML
+	// <h2>, a DOCX paragraph in a heading style) or the layout of plain
+	// text; in line order, not overlapping. The tokenizer marks the
+	// sentences inside them (Sentence.Heading). Lines, not offsets, since
+	// normalization never adds or removes a line break.
+	Headings []LineRange
 	// Shifts map offsets of Text back to the text as the reader extracted
 	// it, before Unicode normalization removed invisible characters and
 	// composed others (see Shift); nil when normalization changed nothing,
@@ -167,6 +180,10 @@ func (d *Document) sourceAt(off int, end bool) int {
 	}
 	return int(s.Start) + int(int64(off-int(s.At))*int64(s.FileWidth)/int64(s.Width))
 }
+
+// LineRange is a run of lines of a document's Text, First to Last, both
+// 1-based and inclusive.
+type LineRange struct{ First, Last int32 }
 
 // Shift is a point of Text from which its offsets stop lining up with the
 // text as read: after a removed soft hyphen, say, every later byte of Text

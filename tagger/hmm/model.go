@@ -30,6 +30,7 @@ import (
 	"glossmith/tagger/doc"
 	"glossmith/tagger/genfreq"
 	"glossmith/tagger/lemma"
+	"glossmith/tagger/titlecase"
 	"glossmith/tagger/wordnet"
 )
 
@@ -205,9 +206,18 @@ func (m *Model) Tag(s *doc.Sentence) {
 	}
 	ws := m.getWorkspace()
 	defer m.pool.Put(ws)
-	m.decode(ws, s.Tokens)
-	for i := range s.Tokens {
-		t := &s.Tokens[i]
+	toks := s.Tokens
+	if s.Heading {
+		// The tagger reads a heading's title-case words as running text
+		// would write them; the tags and lemmas it finds for those forms
+		// go to the tokens as written.
+		if v := (titlecase.Viewer{Freq: m.freq, WordNet: m.wn}).View(ws.heading, s.Tokens); &v[0] != &toks[0] {
+			toks, ws.heading = v, v
+		}
+	}
+	m.decode(ws, toks)
+	for i := range toks {
+		t := &toks[i]
 		st := ws.tags[i]
 		t.XPOS = m.tagX[st]
 		t.UPOS = m.uposOf(t.Form, st)
@@ -218,6 +228,13 @@ func (m *Model) Tag(s *doc.Sentence) {
 		if t.Lemma == "" {
 			t.Lemma = m.memoLemma(ws, i, st, t)
 		}
+	}
+	if &toks[0] != &s.Tokens[0] {
+		for i := range toks {
+			o, v := &s.Tokens[i], &toks[i]
+			o.XPOS, o.UPOS, o.Lemma = v.XPOS, v.UPOS, v.Lemma
+		}
+		clear(toks) // the workspace outlives the document's text
 	}
 }
 

@@ -3,6 +3,8 @@ package hmm
 import (
 	"strings"
 	"sync/atomic"
+
+	"glossmith/tagger/doc"
 )
 
 // workspace is what one goroutine needs to tag a sentence: the Viterbi
@@ -15,6 +17,7 @@ type workspace struct {
 	lattice
 	featureScratch
 	lemmaMemo
+	heading []doc.Token // a heading's tokens as the tagger sees them (Model.Tag)
 }
 
 // newWorkspace returns an empty workspace.

@@ -113,6 +113,23 @@
 // CoNLL-U output passes them through, filling only empty annotation
 // cells. Token.Line is the token's row in the file.
 //
+// # Headings
+//
+// Readers mark the lines of headings and captions (Document.Headings),
+// where title case is the norm, so that the tagger does not take their
+// capitals for names. md: ATX and setext headings. html: h1–h6, caption
+// and figcaption (the title is not read). docx: paragraphs whose style
+// is a heading, title, subtitle or caption style — by its name in
+// word/styles.xml, or its outline level (w:outlineLvl 0–8), itself or
+// through the styles it is based on; without that part, by Word's
+// built-in style IDs ("Heading1") — or that have an outline level of
+// their own; a styles part that cannot be read is a Warning. txt: a
+// single line between a blank line (or the start) and a blank line, of
+// at most 12 words and 120 bytes, not starting with a bullet, not ending
+// in . ! ? : ; or , and written in title case (every word capitalized
+// but the articles, conjunctions and prepositions after the first) or in
+// capitals. pdf and conllu: none.
+//
 // # Encodings
 //
 // Text formats are decoded in this order: a byte order mark (UTF-8,

@@ -15,34 +15,9 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"glossmith/internal/docxtest"
 	"glossmith/internal/testenv"
 )
-
-// makeZip packs name → content pairs, in order, into a zip archive.
-func makeZip(t testing.TB, files ...string) []byte {
-	t.Helper()
-	var b bytes.Buffer
-	w := zip.NewWriter(&b)
-	for i := 0; i+1 < len(files); i += 2 {
-		f, err := w.Create(files[i])
-		require.NoError(t, err)
-		_, err = f.Write([]byte(files[i+1]))
-		require.NoError(t, err)
-	}
-	require.NoError(t, w.Close())
-	return b.Bytes()
-}
-
-const wordHead = `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>
-<w:document xmlns:w="http://schemas.openxmlformats.org/wordprocessingml/2006/main" xmlns:mc="http://schemas.openxmlformats.org/markup-compatibility/2006" xmlns:wps="http://schemas.microsoft.com/office/word/2010/wordprocessingShape"><w:body>`
-const wordTail = `<w:sectPr/></w:body></w:document>`
-
-func docxFile(body string) []string {
-	return []string{
-		"[Content_Types].xml", `<?xml version="1.0"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"/>`,
-		"word/document.xml", wordHead + body + wordTail,
-	}
-}
 
 // The element meanings follow ECMA-376 Part 1 (WordprocessingML):
 // w:p paragraph, w:t text, w:tab, w:br, w:delText deleted text inside a
@@ -57,7 +32,7 @@ func TestDocx(t *testing.T) {
 		`<w:p><w:r><w:fldChar w:fldCharType="begin"/></w:r><w:r><w:instrText xml:space="preserve"> PAGE </w:instrText></w:r><w:r><w:t>Field result</w:t></w:r></w:p>` +
 		`<w:p><w:r><mc:AlternateContent><mc:Choice Requires="wps"><w:drawing><wps:txbx><w:txbxContent><w:p><w:r><w:t>Box text</w:t></w:r></w:p></w:txbxContent></wps:txbx></w:drawing></mc:Choice>` +
 		`<mc:Fallback><w:pict><w:txbxContent><w:p><w:r><w:t>Box text</w:t></w:r></w:p></w:txbxContent></w:pict></mc:Fallback></mc:AlternateContent></w:r></w:p>`
-	d, ps := readFile(t, "manual.docx", string(makeZip(t, docxFile(body)...)), Options{})
+	d, ps := readFile(t, "manual.docx", string(docxtest.Zip(t, docxtest.Files(body)...)), Options{})
 	require.NotNil(t, d, "%v", ps)
 	assert.Empty(t, ps)
 	assert.Equal(t, "docx", d.Format)
@@ -71,12 +46,12 @@ func TestDocxNotADocx(t *testing.T) {
 	assert.Equal(t, Error, ps[0].Severity)
 	assert.Contains(t, ps[0].Msg, "not a .docx file (not a zip archive")
 
-	d, ps = readFile(t, "other.docx", string(makeZip(t, "a.txt", "hello")), Options{})
+	d, ps = readFile(t, "other.docx", string(docxtest.Zip(t, "a.txt", "hello")), Options{})
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
 	assert.Contains(t, ps[0].Msg, "without word/document.xml")
 
-	d, ps = readFile(t, "broken.docx", string(makeZip(t, "word/document.xml", wordHead+"<w:p><w:t>x</w:p>")), Options{})
+	d, ps = readFile(t, "broken.docx", string(docxtest.Zip(t, "word/document.xml", docxtest.Head+"<w:p><w:t>x</w:p>")), Options{})
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
 	assert.Contains(t, ps[0].Msg, "word/document.xml: XML syntax error")
@@ -86,7 +61,7 @@ func TestDocxNotADocx(t *testing.T) {
 // before it is inflated.
 func TestDocxDeclaredTooBig(t *testing.T) {
 	big := "<w:p><w:r><w:t>" + strings.Repeat("valve ", 400_000) + "</w:t></w:r></w:p>" // 2.4 MB
-	data := makeZip(t, docxFile(big)...)
+	data := docxtest.Zip(t, docxtest.Files(big)...)
 	d, ps := readFile(t, "big.docx", string(data), Options{MaxBytes: 1 << 20})
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
@@ -120,7 +95,7 @@ func rawZip(t testing.TB, name string, actual []byte, declared uint64) []byte {
 // inflating more than the cap (archive/zip itself stops at the declared
 // size; the reader's own limit is the second guard).
 func TestDocxZipBombLyingSize(t *testing.T) {
-	actual := []byte(wordHead + strings.Repeat(" ", 8<<20) + wordTail)
+	actual := []byte(docxtest.Head + strings.Repeat(" ", 8<<20) + docxtest.Tail)
 	data := rawZip(t, "word/document.xml", actual, 1024)
 	require.Less(t, len(data), 1<<20)
 	d, ps := readFile(t, "bomb.docx", string(data), Options{MaxBytes: 1 << 20})
@@ -144,18 +119,18 @@ func TestLimitedReader(t *testing.T) {
 	assert.False(t, lr.exceeded)
 
 	// And through docxText: a valid document part larger than the cap.
-	lr = &limitedReader{r: strings.NewReader(wordHead + "<w:p><w:r><w:t>" + strings.Repeat("a", 1000) + "</w:t></w:r></w:p>" + wordTail), n: 500}
-	_, err = docxText(lr)
+	lr = &limitedReader{r: strings.NewReader(docxtest.Head + "<w:p><w:r><w:t>" + strings.Repeat("a", 1000) + "</w:t></w:r></w:p>" + docxtest.Tail), n: 500}
+	_, _, err = docxText(lr, nil)
 	assert.True(t, lr.exceeded)
 	assert.NotNil(t, err)
 }
 
 func TestDocxTooManyEntries(t *testing.T) {
-	files := docxFile("<w:p><w:r><w:t>x</w:t></w:r></w:p>")
+	files := docxtest.Files("<w:p><w:r><w:t>x</w:t></w:r></w:p>")
 	for i := 0; i < MaxZipEntries; i++ {
 		files = append(files, fmt.Sprintf("word/media/e%05d", i), "")
 	}
-	d, ps := readFile(t, "many.docx", string(makeZip(t, files...)), Options{})
+	d, ps := readFile(t, "many.docx", string(docxtest.Zip(t, files...)), Options{})
 	assert.Nil(t, d)
 	require.Len(t, ps, 1)
 	assert.Equal(t, fmt.Sprintf("refused: the archive lists %d entries, more than the %d a .docx may have here", MaxZipEntries+2, MaxZipEntries), ps[0].Msg)

@@ -6,6 +6,7 @@ import (
 	"testing"
 	"unicode/utf8"
 
+	"glossmith/internal/docxtest"
 	"glossmith/tagger/doc"
 )
 
@@ -32,6 +33,12 @@ func fuzzRead(t *testing.T, format string, data []byte) *doc.Document {
 	}
 	if d.Format != format || d.Name != "fuzz" {
 		t.Fatalf("format %q name %q", d.Format, d.Name)
+	}
+	lines := int32(strings.Count(d.Text, "\n") + 1)
+	for i, h := range d.Headings {
+		if h.First < 1 || h.First > h.Last || h.Last > lines || i > 0 && h.First <= d.Headings[i-1].Last {
+			t.Fatalf("heading lines %v out of order or outside 1..%d: %v", h, lines, d.Headings)
+		}
 	}
 	return d
 }
@@ -86,9 +93,9 @@ func FuzzHTML(f *testing.F) {
 
 func FuzzDocx(f *testing.F) {
 	body := `<w:p><w:r><w:t>Solenoid valve</w:t><w:tab/><w:br/></w:r></w:p><w:p><mc:AlternateContent><mc:Choice/><mc:Fallback><w:p><w:t>x</w:t></w:p></mc:Fallback></mc:AlternateContent></w:p>`
-	f.Add(makeZip(f, docxFile(body)...))
-	f.Add(makeZip(f, "word/document.xml", "<w:p><w:t>x"))
-	f.Add(makeZip(f, "a.txt", "hello"))
+	f.Add(docxtest.Zip(f, docxtest.Files(body)...))
+	f.Add(docxtest.Zip(f, "word/document.xml", "<w:p><w:t>x"))
+	f.Add(docxtest.Zip(f, "a.txt", "hello"))
 	f.Add([]byte("PK\x03\x04"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		fuzzRead(t, FormatDocx, data)

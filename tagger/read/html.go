@@ -30,6 +30,13 @@ var htmlBlocks = map[string]bool{
 	"center": true, "option": true, "optgroup": true, "frameset": true,
 }
 
+// htmlHeadings are the elements whose text is a heading or a caption:
+// title case is the norm there. (The title is not read; see htmlDropped.)
+var htmlHeadings = map[string]bool{
+	"h1": true, "h2": true, "h3": true, "h4": true, "h5": true, "h6": true,
+	"caption": true, "figcaption": true,
+}
+
 // html extracts the visible text of an HTML page; see the package comment.
 // The page is parsed into a tree by the HTML5 parsing algorithm
 // (html.Parse), so end tags that HTML lets an author leave out — </li>,
@@ -42,7 +49,8 @@ func (r *reader) html(s string) *doc.Document {
 		// against a stack of unbounded size); such a page is read as a
 		// flat run of tags instead, so that its text is not lost.
 		r.warnf(0, "HTML not parsed as a tree (%v); its text is read tag by tag, so the content of hidden elements may be kept", err)
-		return &doc.Document{Text: htmlFlat(s)}
+		text, heads := htmlFlat(s)
+		return &doc.Document{Text: text, Headings: heads}
 	}
 	var e textEmitter
 	// An explicit stack rather than recursion: a page of a million nested
@@ -60,6 +68,9 @@ func (r *reader) html(s string) *doc.Document {
 		if n.Type == html.ElementNode && f.exit {
 			if htmlBlocks[n.Data] {
 				e.para()
+			}
+			if htmlHeadings[n.Data] {
+				e.headingEnd()
 			}
 			if n.Data == "pre" {
 				pre--
@@ -84,6 +95,9 @@ func (r *reader) html(s string) *doc.Document {
 			if n.Data == "pre" {
 				pre++
 			}
+			if htmlHeadings[n.Data] {
+				e.headingStart()
+			}
 			stack = append(stack, frame{n: n, exit: true})
 		case html.DocumentNode:
 		default: // comments, doctype
@@ -94,13 +108,13 @@ func (r *reader) html(s string) *doc.Document {
 			stack = append(stack, frame{n: c})
 		}
 	}
-	return &doc.Document{Text: e.String()}
+	return &doc.Document{Text: e.String(), Headings: e.headings}
 }
 
 // htmlFlat extracts text from a page without building its tree: the text
 // between tags, less the contents of the dropped elements, blocks as
-// paragraphs.
-func htmlFlat(s string) string {
+// paragraphs, and the lines of the headings.
+func htmlFlat(s string) (string, []doc.LineRange) {
 	z := html.NewTokenizer(strings.NewReader(s))
 	var e textEmitter
 	skip := ""
@@ -109,7 +123,7 @@ func htmlFlat(s string) string {
 		tt := z.Next()
 		switch tt {
 		case html.ErrorToken:
-			return e.String()
+			return e.String(), e.headings
 		case html.TextToken:
 			if skip == "" {
 				e.text(string(z.Text()), pre > 0)
@@ -132,6 +146,14 @@ func htmlFlat(s string) string {
 					pre++
 				} else if tag == "pre" && tt == html.EndTagToken && pre > 0 {
 					pre--
+				}
+			}
+			if skip == "" && htmlHeadings[tag] {
+				switch tt {
+				case html.StartTagToken:
+					e.headingStart()
+				case html.EndTagToken:
+					e.headingEnd()
 				}
 			}
 		}
@@ -162,6 +184,40 @@ type textEmitter struct {
 	pendingPara  bool // a paragraph break is due before the next text
 	pendingSpace bool // a space is due before the next text on this line
 	lineStart    bool
+	breaks       int32 // the line breaks written: the line is breaks+1
+
+	// heading counts the heading elements open; headFirst is the line
+	// of the first text written in the outermost one (0: none yet), and
+	// headings the lines of those finished.
+	heading   int
+	headFirst int32
+	headings  []doc.LineRange
+}
+
+// headingStart and headingEnd bracket the content of a heading element.
+// A heading is a block, so it has lines of its own (see para).
+func (e *textEmitter) headingStart() {
+	if e.heading == 0 {
+		e.headFirst = 0
+	}
+	e.heading++
+}
+
+func (e *textEmitter) headingEnd() {
+	if e.heading == 0 {
+		return // an end tag without its start, read tag by tag
+	}
+	e.heading--
+	if e.heading == 0 && e.headFirst > 0 {
+		e.headings = append(e.headings, doc.LineRange{First: e.headFirst, Last: e.breaks + 1})
+	}
+}
+
+// wrote notes text written on the current line.
+func (e *textEmitter) wrote() {
+	if e.heading > 0 && e.headFirst == 0 {
+		e.headFirst = e.breaks + 1
+	}
 }
 
 func (e *textEmitter) para() {
@@ -176,6 +232,7 @@ func (e *textEmitter) lineBreak() {
 		return
 	}
 	e.b.WriteByte('\n')
+	e.breaks++
 	e.lineStart, e.pendingSpace = true, false
 }
 
@@ -184,8 +241,10 @@ func (e *textEmitter) flushPending() {
 	case e.pendingPara:
 		if !e.lineStart {
 			e.b.WriteByte('\n')
+			e.breaks++
 		}
 		e.b.WriteByte('\n')
+		e.breaks++
 	case e.pendingSpace && !e.lineStart:
 		e.b.WriteByte(' ')
 	}
@@ -202,7 +261,11 @@ func (e *textEmitter) text(s string, pre bool) {
 		}
 		if e.b.Len() > 0 || strings.TrimSpace(s) != "" {
 			e.flushPending()
+			if lead := len(s) - len(strings.TrimLeft(s, " \t\n\f")); lead < len(s) && e.heading > 0 && e.headFirst == 0 {
+				e.headFirst = e.breaks + 1 + int32(strings.Count(s[:lead], "\n"))
+			}
 			e.b.WriteString(s)
+			e.breaks += int32(strings.Count(s, "\n"))
 			e.lineStart = strings.HasSuffix(s, "\n")
 		}
 		return
@@ -215,6 +278,7 @@ func (e *textEmitter) text(s string, pre bool) {
 				word = s[:i]
 			}
 			e.flushPending()
+			e.wrote()
 			e.b.WriteString(word)
 			s = s[len(word):]
 			continue

@@ -55,7 +55,7 @@ func (r *reader) markdown(s string) *doc.Document {
 	}
 	m := &mdText{src: src, lineStart: lineStarts(src)}
 	m.walk(root)
-	return &doc.Document{Text: m.assemble()}
+	return &doc.Document{Text: m.assemble(), Headings: m.headings}
 }
 
 // lineStarts returns the byte offset of the start of each line of src.
@@ -192,6 +192,9 @@ type mdText struct {
 	pieces    []mdPiece
 	newBlock  bool // the next piece starts a block
 	buf       bytes.Buffer
+	// headings are the source lines of the ATX and setext headings, which
+	// are the text's lines too.
+	headings []doc.LineRange
 }
 
 func (m *mdText) lineOf(off int) int {
@@ -296,6 +299,11 @@ func (m *mdText) visit(n ast.Node) bool {
 			}
 		}
 		return false
+	}
+	if h, ok := n.(*ast.Heading); ok && h.Lines().Len() > 0 {
+		lines := h.Lines()
+		first, last := m.lineOf(lines.At(0).Start), m.lineOf(max(lines.At(lines.Len()-1).Stop-1, lines.At(lines.Len()-1).Start))
+		m.headings = append(m.headings, doc.LineRange{First: int32(first + 1), Last: int32(last + 1)})
 	}
 	if n.Type() == ast.TypeBlock {
 		switch n.(type) {

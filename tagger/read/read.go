@@ -165,6 +165,7 @@ func Read(in Input, opt Options) (*doc.Document, []Problem) {
 	d := r.read()
 	if d != nil && !d.Pretokenized {
 		d.Text, d.Shifts = normalizeText(d.Text)
+		d.Headings = withinLines(d.Headings, d.Text)
 	}
 	if d != nil {
 		if !utf8.ValidString(d.Text) { // a reader bug, never the user's fault
@@ -419,7 +420,7 @@ func size(n int64) string {
 }
 
 // text reads plain text: the text as it is, line breaks normalized to "\n",
-// overlong lines left out.
+// overlong lines left out, and the lines that look like headings marked.
 func (r *reader) text(s string) *doc.Document {
 	if strings.Contains(s, "\r") {
 		r.coding.altered = true
@@ -429,7 +430,7 @@ func (r *reader) text(s string) *doc.Document {
 		r.coding.altered = true
 		s = c
 	}
-	return &doc.Document{Text: s}
+	return &doc.Document{Text: s, Headings: textHeadings(s)}
 }
 
 // normalizeNewlines turns CRLF and lone CR into LF, so every reader and the

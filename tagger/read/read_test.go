@@ -14,6 +14,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"glossmith/internal/docxtest"
 	"glossmith/internal/testenv"
 	"glossmith/tagger/doc"
 )
@@ -449,7 +450,7 @@ func TestReadAfterLongerInput(t *testing.T) {
 		d, _ = readFile(t, "long.txt.gz", gz.String(), Options{})
 		require.NotNil(t, d)
 		assert.Equal(t, long, d.Text)
-		docx := makeZip(t, docxFile(`<w:p><w:r><w:t>Solenoid valve</w:t></w:r></w:p>`)...)
+		docx := docxtest.Zip(t, docxtest.Files(`<w:p><w:r><w:t>Solenoid valve</w:t></w:r></w:p>`)...)
 		d, _ = readFile(t, "manual.docx", string(docx), Options{})
 		require.NotNil(t, d)
 		assert.Equal(t, "Solenoid valve", d.Text)

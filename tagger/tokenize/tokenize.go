@@ -32,6 +32,7 @@ func Document(d *doc.Document) {
 		return
 	}
 	d.Sentences = Sentences(d.Text)
+	markHeadings(d.Sentences, d.Headings)
 }
 
 // DocumentReusing is Document with the token array buf (from an earlier
@@ -49,7 +50,30 @@ func DocumentReusing(d *doc.Document, buf []doc.Token) []doc.Token {
 	t := tokenizer{text: d.Text, toks: buf[:0]}
 	t.scan()
 	d.Sentences = t.split()
+	markHeadings(d.Sentences, d.Headings)
 	return t.toks[:0]
+}
+
+// markHeadings sets Heading on the sentences that lie wholly inside one
+// of the line ranges (sorted, as readers give them). The readers end a
+// paragraph before and after a heading, so a sentence is either in one
+// or outside all; one that is not wholly inside is left unmarked.
+func markHeadings(sents []doc.Sentence, heads []doc.LineRange) {
+	h := 0
+	for i := range sents {
+		s := &sents[i]
+		if len(s.Tokens) == 0 {
+			continue
+		}
+		first, last := s.Tokens[0].Line, s.Tokens[len(s.Tokens)-1].Line
+		for h < len(heads) && heads[h].Last < first {
+			h++
+		}
+		if h == len(heads) {
+			return
+		}
+		s.Heading = heads[h].First <= first && last <= heads[h].Last
+	}
 }
 
 // Sentences tokenizes text and splits it into sentences. Token offsets are

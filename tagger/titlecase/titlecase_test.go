@@ -1,0 +1,89 @@
+package titlecase
+
+import (
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/genfreq"
+	"glossmith/tagger/tokenize"
+	"glossmith/tagger/wordnet"
+)
+
+// A small frequency table in genfreq's format: form, band, lower-case
+// share class (4: 80 % or more in lower case, 1: under 20 %), and a small
+// WordNet table in wordnet's (form, parts of speech with counts,
+// exceptions).
+const (
+	freqTable = "cleaning\t4\t4\ncontroller\t2\t4\ndrip\t3\t4\nemitters\t1\t4\nberlin\t4\t1\nthe\t7\t4\nled\t4\t4\nstrip\t3\t4\n" +
+		"i\t7\t1\nreplace\t4\t4\nreplaced\t3\t4\nvalve\t3\t4\nstep\t4\t4\nwhy\t6\t3\nmay\t6\t2\n"
+	wnTable = "sensor\tn2\t\ntensiometer\tn0\t\n"
+)
+
+func viewer(t *testing.T) Viewer {
+	f, err := genfreq.Parse(freqTable)
+	require.NoError(t, err)
+	w, err := wordnet.Parse(wnTable)
+	require.NoError(t, err)
+	return Viewer{Freq: f, WordNet: w}
+}
+
+func tokens(t *testing.T, text string) []doc.Token {
+	sents := tokenize.Sentences(text)
+	require.Len(t, sents, 1, text)
+	return sents[0].Tokens
+}
+
+func forms(toks []doc.Token) string {
+	var fs []string
+	for _, tk := range toks {
+		fs = append(fs, tk.Form)
+	}
+	return strings.Join(fs, " ")
+}
+
+func TestView(t *testing.T) {
+	v := viewer(t)
+	tests := []struct{ heading, want string }{
+		{"Cleaning the Drip Emitters", "Cleaning the drip emitters"},
+		{"CLEANING THE DRIP EMITTERS", "Cleaning the drip emitters"},
+		{"Installing the Aquavent Controller", "Installing the Aquavent controller"}, // an invented name: in neither table
+		{"Calibrating the Tensiometer", "Calibrating the tensiometer"},               // not in the frequency table, in WordNet
+		{"Shipping to Berlin", "Shipping to Berlin"},                                 // mostly capitalized in general English
+		{"Why I Replaced the Valve", "Why I replaced the valve"},                     // "I" is capitalized in general English
+		{"Wiring the LED Strip", "Wiring the LED strip"},                             // capitals in a title-case heading are an acronym
+		{"3.2 Drip Emitters", "3.2 Drip emitters"},                                   // the first word keeps its capital
+		{"Step 3: Replace the Valve", "Step 3 : replace the valve"},
+		{"GC-48 Drip Emitters", "GC - 48 drip emitters"},
+		{"May Sensor", "May sensor"},
+		{"Valve", "Valve"},
+	}
+	for _, tt := range tests {
+		toks := tokens(t, tt.heading)
+		before := forms(toks)
+		got := v.View(nil, toks)
+		assert.Equal(t, tt.want, forms(got), tt.heading)
+		assert.Equal(t, before, forms(toks), "the tokens as read are not changed")
+		if forms(got) == before {
+			assert.Same(t, &toks[0], &got[0], "no copy when nothing changes: %s", tt.heading)
+		}
+	}
+}
+
+func TestViewReusesAndCopies(t *testing.T) {
+	v := viewer(t)
+	toks := tokens(t, "Cleaning the Drip Emitters")
+	buf := make([]doc.Token, 0, 16)
+	got := v.View(buf, toks)
+	assert.Same(t, &buf[:1][0], &got[0], "the buffer is reused")
+	for i := range toks {
+		assert.Equal(t, toks[i].Start, got[i].Start)
+		assert.Equal(t, toks[i].Line, got[i].Line)
+	}
+
+	got = Viewer{}.View(nil, toks)
+	assert.Same(t, &toks[0], &got[0], "without tables a heading is seen as written")
+}
