@@ -31,11 +31,15 @@ type DocResult struct {
 	spellings  []docSpelling
 }
 
-// docSpelling is one spelling of a variant group in a document.
+// docSpelling is one spelling of a variant group in a document: what the
+// report keeps of it, no more (a document has one for nearly every
+// candidate, and they wait in the pipeline for the documents before).
 type docSpelling struct {
 	key, spelling string // group key; spelling as first written, case folded for comparison
 	n             int
-	first         Finding // where it is first used (File, positions, Text)
+	// where it is first used: positions and text as written
+	line, col, endLine, endCol int32
+	text                       string
 }
 
 // Check checks one annotated document. src is its source file as read
@@ -109,7 +113,8 @@ func spellings(d *doc.Document, l *layout, rules *pattern.Matcher) []docSpelling
 			continue
 		}
 		index[k] = len(out)
-		out = append(out, docSpelling{key: u.key, spelling: u.spelling, n: 1, first: f})
+		out = append(out, docSpelling{key: u.key, spelling: u.spelling, n: 1,
+			line: int32(f.Line), col: int32(f.Column), endLine: int32(f.EndLine), endCol: int32(f.EndColumn), text: f.Text})
 	}
 	return out
 }

@@ -17,30 +17,39 @@ type Report struct {
 	// until they are written: a large corpus has hundreds of thousands.
 	findings [][]keptFinding
 	strs     interned
-	groups   map[string]*mixedGroup
-	order    []*mixedGroup
+	// The variant groups (--variants), their spellings over all documents,
+	// and each document's uses of them, kept as compact as the findings:
+	// a large corpus has a use for nearly every candidate of every
+	// document, and only the groups spelled more than one way, known at
+	// the end, make findings.
+	groups    map[string]int32 // group key → index in groupList
+	groupList []mixedGroup     // in order of first use
+	spells    []mixedSpelling
+	uses      [][]docUse // per document
+	scratch   []docUse
 	// Suppressed counts the glossary findings left out (code, addresses,
 	// silenced lines).
 	Suppressed int
 }
 
-// mixedGroup is a variant group's spellings over the documents, in order
-// of first use.
+// mixedGroup is a variant group: its key and its spellings, a list
+// through spells in order of first use.
 type mixedGroup struct {
-	key       string
-	spellings []*mixedSpelling
+	key         string
+	first, last int32 // spells
+	n           int32 // spellings
 }
 
+// mixedSpelling is one spelling of a group over all documents.
 type mixedSpelling struct {
 	spelling, lower string
+	group, next     int32 // next: the group's next spelling, or -1
 	total           int
-	uses            []docUse // per document using it, in input order
 }
 
-// docUse is a spelling's count in one document and its first use there,
-// kept compact: a large corpus has one per candidate and document.
+// docUse is a spelling's count in one document and its first use there.
 type docUse struct {
-	doc, n                     int32
+	spell, n                   int32
 	line, col, endLine, endCol int32
 	text                       int32 // in the report's string table
 }
@@ -49,12 +58,11 @@ type docUse struct {
 // against (nil if none): variant groups whose key is a glossary term's are
 // left to the glossary findings.
 func NewReport(g *Matcher) *Report {
-	return &Report{glossary: g, groups: map[string]*mixedGroup{}}
+	return &Report{glossary: g, groups: map[string]int32{}}
 }
 
 // Add takes one document's result; call it in input order.
 func (r *Report) Add(res *DocResult) {
-	di := int32(len(r.docs))
 	r.docs = append(r.docs, res.Name)
 	sortFindings(res.Findings)
 	var kept []keptFinding
@@ -66,33 +74,45 @@ func (r *Report) Add(res *DocResult) {
 	}
 	r.findings = append(r.findings, kept)
 	r.Suppressed += res.Suppressed
+	uses := r.scratch[:0]
 	for _, s := range res.spellings {
 		if r.glossary != nil && r.glossary.hasKey(s.key) {
 			continue
 		}
-		g := r.groups[s.key]
-		if g == nil {
-			g = &mixedGroup{key: strings.Clone(s.key)}
-			r.groups[g.key] = g
-			r.order = append(r.order, g)
+		gi, ok := r.groups[s.key]
+		if !ok {
+			gi = int32(len(r.groupList))
+			g := mixedGroup{key: strings.Clone(s.key), first: -1, last: -1}
+			r.groupList = append(r.groupList, g)
+			r.groups[g.key] = gi
 		}
+		g := &r.groupList[gi]
 		lower := strings.ToLower(s.spelling)
-		var ms *mixedSpelling
-		for _, x := range g.spellings {
-			if x.lower == lower {
-				ms = x
-				break
+		si := g.first
+		for si >= 0 && r.spells[si].lower != lower {
+			si = r.spells[si].next
+		}
+		if si < 0 {
+			si = int32(len(r.spells))
+			r.spells = append(r.spells, mixedSpelling{spelling: strings.Clone(s.spelling), lower: strings.Clone(lower), group: gi, next: -1})
+			if g.last >= 0 {
+				r.spells[g.last].next = si
+			} else {
+				g.first = si
 			}
+			g.last = si
+			g.n++
 		}
-		if ms == nil {
-			ms = &mixedSpelling{spelling: strings.Clone(s.spelling), lower: strings.Clone(lower)}
-			g.spellings = append(g.spellings, ms)
-		}
-		ms.total += s.n
-		f := &s.first
-		ms.uses = append(ms.uses, docUse{doc: di, n: int32(s.n), line: int32(f.Line), col: int32(f.Column),
-			endLine: int32(f.EndLine), endCol: int32(f.EndColumn), text: r.strs.id(f.Text)})
+		r.spells[si].total += s.n
+		uses = append(uses, docUse{spell: si, n: int32(s.n), line: s.line, col: s.col,
+			endLine: s.endLine, endCol: s.endCol, text: r.strs.id(s.text)})
 	}
+	r.scratch = uses
+	if len(uses) == 0 {
+		r.uses = append(r.uses, nil)
+		return
+	}
+	r.uses = append(r.uses, slices.Clone(uses)) // no room to spare: there is one a document
 }
 
 // hasKey reports whether a form of the glossary has the key (as appendKey
@@ -164,15 +184,14 @@ func (r *Report) Findings() []Finding { return slices.Collect(r.All()) }
 // are made at a time, so that a writer streaming them holds no more.
 func (r *Report) All() iter.Seq[Finding] {
 	return func(yield func(Finding) bool) {
-		mixed := r.mixed()
+		mx := r.mixed()
 		var fs []Finding
 		for di, kept := range r.findings {
 			fs = fs[:0]
 			for k := range kept {
 				fs = append(fs, r.finding(di, &kept[k]))
 			}
-			if m := mixed[int32(di)]; len(m) > 0 {
-				fs = append(fs, m...)
+			if mx.add(r, di, &fs) > 0 {
 				sortFindings(fs)
 				fs = dropCovering(fs)
 			}
@@ -185,44 +204,104 @@ func (r *Report) All() iter.Seq[Finding] {
 	}
 }
 
-// mixed makes the mixed findings of the variant groups spelled more than
-// one way, by document.
-func (r *Report) mixed() map[int32][]Finding {
-	perDoc := map[int32][]Finding{}
-	for _, g := range r.order {
-		if len(g.spellings) < 2 {
-			continue
-		}
-		byTotal := slices.Clone(g.spellings)
-		slices.SortStableFunc(byTotal, func(a, b *mixedSpelling) int { return cmp.Compare(b.total, a.total) })
-		major := byTotal[0]
-		docsUsing := map[int32]bool{}
-		var all []string
-		for _, s := range byTotal {
-			for _, u := range s.uses {
-				docsUsing[u.doc] = true
-			}
-			all = append(all, fmt.Sprintf("%s %d", s.spelling, s.total))
-		}
-		inAll := fmt.Sprintf("in %d document(s) %s", len(docsUsing), strings.Join(all, ", "))
-		here := map[int32][]string{}
-		for _, s := range byTotal {
-			for _, u := range s.uses {
-				here[u.doc] = append(here[u.doc], fmt.Sprintf("%s %d", s.spelling, u.n))
-			}
-		}
-		for _, s := range byTotal[1:] {
-			for _, u := range s.uses {
-				perDoc[u.doc] = append(perDoc[u.doc], Finding{
-					File: r.docs[u.doc], Line: int(u.line), Column: int(u.col), EndLine: int(u.endLine), EndColumn: int(u.endCol),
-					Text: r.strs.strs[u.text], Kind: KindMixed, Preferred: major.spelling, Entry: major.spelling,
-					Message: fmt.Sprintf("%q is one of %d spellings of a term: here %s; %s: use %q",
-						r.strs.strs[u.text], len(g.spellings), strings.Join(here[u.doc], ", "), inAll, major.spelling),
-				})
+// mixedGroups is what the mixed findings need of the variant groups
+// spelled more than one way, worked out once over all documents: each
+// spelling's rank by total (0 the majority; -1 for a group spelled one
+// way) and each such group's summary over all documents.
+type mixedGroups struct {
+	rank  []int32  // by spelling
+	major []int32  // by group: its majority spelling
+	inAll []string // by group: "in N document(s) a 5, b 2"
+	sel   []int    // scratch: indexes into a document's uses
+}
+
+func (r *Report) mixed() *mixedGroups {
+	mx := &mixedGroups{rank: make([]int32, len(r.spells)), major: make([]int32, len(r.groupList)), inAll: make([]string, len(r.groupList))}
+	for i := range mx.rank {
+		mx.rank[i] = -1
+	}
+	docsUsing := make([]int, len(r.groupList))
+	lastDoc := make([]int, len(r.groupList))
+	for gi := range lastDoc {
+		lastDoc[gi] = -1
+	}
+	for di, uses := range r.uses {
+		for _, u := range uses {
+			if gi := r.spells[u.spell].group; lastDoc[gi] != di {
+				lastDoc[gi], docsUsing[gi] = di, docsUsing[gi]+1
 			}
 		}
 	}
-	return perDoc
+	var byTotal []int32
+	for gi := range r.groupList {
+		g := &r.groupList[gi]
+		if g.n < 2 {
+			continue
+		}
+		byTotal = byTotal[:0]
+		for si := g.first; si >= 0; si = r.spells[si].next {
+			byTotal = append(byTotal, si)
+		}
+		slices.SortStableFunc(byTotal, func(a, b int32) int { return cmp.Compare(r.spells[b].total, r.spells[a].total) })
+		all := make([]string, len(byTotal))
+		for k, si := range byTotal {
+			mx.rank[si] = int32(k)
+			all[k] = fmt.Sprintf("%s %d", r.spells[si].spelling, r.spells[si].total)
+		}
+		mx.major[gi] = byTotal[0]
+		mx.inAll[gi] = fmt.Sprintf("in %d document(s) %s", docsUsing[gi], strings.Join(all, ", "))
+	}
+	return mx
+}
+
+// add appends the mixed findings of document di to fs, in order of their
+// groups' first use and, within a group, of the spellings' rank, and
+// returns how many.
+func (mx *mixedGroups) add(r *Report, di int, fs *[]Finding) int {
+	uses := r.uses[di]
+	mx.sel = mx.sel[:0]
+	for k, u := range uses {
+		if mx.rank[u.spell] >= 0 {
+			mx.sel = append(mx.sel, k)
+		}
+	}
+	if len(mx.sel) == 0 {
+		return 0
+	}
+	slices.SortFunc(mx.sel, func(a, b int) int {
+		sa, sb := uses[a].spell, uses[b].spell
+		if c := cmp.Compare(r.spells[sa].group, r.spells[sb].group); c != 0 {
+			return c
+		}
+		return cmp.Compare(mx.rank[sa], mx.rank[sb])
+	})
+	n := 0
+	for i := 0; i < len(mx.sel); {
+		gi := r.spells[uses[mx.sel[i]].spell].group
+		j := i
+		var here []string
+		for ; j < len(mx.sel) && r.spells[uses[mx.sel[j]].spell].group == gi; j++ {
+			u := &uses[mx.sel[j]]
+			here = append(here, fmt.Sprintf("%s %d", r.spells[u.spell].spelling, u.n))
+		}
+		g, major := &r.groupList[gi], r.spells[mx.major[gi]].spelling
+		for _, k := range mx.sel[i:j] {
+			u := &uses[k]
+			if mx.rank[u.spell] == 0 {
+				continue
+			}
+			text := r.strs.strs[u.text]
+			*fs = append(*fs, Finding{
+				File: r.docs[di], Line: int(u.line), Column: int(u.col), EndLine: int(u.endLine), EndColumn: int(u.endCol),
+				Text: text, Kind: KindMixed, Preferred: major, Entry: major,
+				Message: fmt.Sprintf("%q is one of %d spellings of a term: here %s; %s: use %q",
+					text, g.n, strings.Join(here, ", "), mx.inAll[gi], major),
+			})
+			n++
+		}
+		i = j
+	}
+	return n
 }
 
 // dropCovering leaves out the mixed findings that contain another finding
