@@ -13,13 +13,18 @@
 // are mostly common words). Names ("Berlin", mostly capitalized in general
 // English) and words neither table knows — a product's invented name
 // ("Aquavent", "GC-48") — keep their form, and so does the heading's
-// first word, which is capitalized in any sentence.
+// first word, which is capitalized in any sentence, unless it is the
+// heading's only word. A heading in capitals is seen as one in title
+// case would be ("CLEANING THE DRIP EMITTERS": "Cleaning the drip
+// emitters").
 //
 // The view is only what the tagger reads: the tokens' forms stay as
 // written.
 package titlecase
 
 import (
+	"bytes"
+	"strings"
 	"unicode"
 	"unicode/utf8"
 
@@ -44,6 +49,7 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 		return toks
 	}
 	caps := allCaps(toks)
+	alone := words(toks) == 1
 	var buf []byte
 	out, copied := toks, false
 	first := true // no word seen yet: the next one is the sentence's first
@@ -63,10 +69,14 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 		if !ok || !v.common(buf) {
 			continue
 		}
-		if initial {
-			if !caps {
-				continue // capitalized as the first word anyway
-			}
+		switch {
+		case alone:
+			// A heading of one word ("Storm", "Implementation") has no
+			// context that tells a name from a noun; the tagger took 5 of
+			// 15 such common nouns for names, and none in lower case.
+		case initial && !caps:
+			continue // capitalized as the first word anyway
+		case initial:
 			buf = titled(buf)
 		}
 		if !copied {
@@ -77,36 +87,70 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 	return out
 }
 
+// words counts the tokens that start with a letter.
+func words(toks []doc.Token) int {
+	n := 0
+	for i := range toks {
+		if r, _ := utf8.DecodeRuneInString(toks[i].Form); unicode.IsLetter(r) {
+			n++
+		}
+	}
+	return n
+}
+
 // common reports whether general English writes the lower-cased word
 // mostly in lower case: by its share in the frequency table, or, for a
-// word the table lacks, by WordNet listing it.
+// word the table lacks, by WordNet listing it. A hyphenated word the
+// tables lack is common when each of its parts is ("anti-corrosion").
 func (v Viewer) common(lower []byte) bool {
 	if v.Freq != nil {
 		if c := v.Freq.LookupBytes(lower); c != 0 {
 			return c.Share() >= 3 // 50 % or more in lower case
 		}
 	}
-	return v.WordNet != nil && v.WordNet.ClassesBytes(lower).Listed()
+	if v.WordNet != nil && v.WordNet.ClassesBytes(lower).Listed() {
+		return true
+	}
+	if bytes.IndexByte(lower, '-') < 0 {
+		return false
+	}
+	for part := range bytes.SplitSeq(lower, []byte{'-'}) {
+		if !v.common(part) {
+			return false
+		}
+	}
+	return true
 }
 
 // lowered appends the lower case of form to buf and reports whether form
 // is a word that title case or capitals could have given its capitals:
 // letters only, at least two, in title case ("Drip") or — in a heading
-// written in capitals — all in capitals ("DRIP"). Other shapes ("GC-48",
+// written in capitals — all in capitals ("DRIP"); or such words joined
+// by hyphens ("Anti-Corrosion", "ANTI-CORROSION"). Other shapes ("GC-48",
 // "iPhone", "McKinley", a lone "A") are not.
 func lowered(buf []byte, form string, caps bool) ([]byte, bool) {
 	n := 0
-	for i, r := range form {
-		switch {
-		case !unicode.IsLetter(r):
-			return buf, false
-		case i > 0 && !caps && !unicode.IsLower(r), caps && !unicode.IsUpper(r):
+	for part := range strings.SplitSeq(form, "-") {
+		if n > 0 {
+			buf = append(buf, '-')
+		}
+		k := 0
+		for i, r := range part {
+			switch {
+			case !unicode.IsLetter(r):
+				return buf, false
+			case i > 0 && !caps && !unicode.IsLower(r), (i == 0 || caps) && !unicode.IsUpper(r):
+				return buf, false
+			}
+			buf = utf8.AppendRune(buf, unicode.ToLower(r))
+			k++
+		}
+		if k < 2 {
 			return buf, false
 		}
-		buf = utf8.AppendRune(buf, unicode.ToLower(r))
 		n++
 	}
-	return buf, n >= 2
+	return buf, n > 0
 }
 
 // titled gives the first letter of a lower-cased word its capital back.
