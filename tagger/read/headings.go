@@ -102,7 +102,7 @@ func isTextHeading(l string) bool {
 		return false
 	}
 	words := strings.Fields(l)
-	if len(words) > maxHeadingWords || isBulletWord(words[0]) {
+	if len(words) == 0 || len(words) > maxHeadingWords || isBulletWord(words[0]) {
 		return false
 	}
 	return headingCase(words)

@@ -63,6 +63,7 @@ func TestTextHeadings(t *testing.T) {
 		{"too many words", "The Quick Maintenance Guide to All the Valves and Emitters and Sensors and Pipes of the Greenhouse\n\nText.\n", nil},
 		{"a capitalized first word only", "Drip emitters\n\nText.\n", nil},
 		{"digits only", "2024\n\nText.\n", nil},
+		{"a line of no-break spaces (white space to TrimSpace, not blank)", "Text.\n\n\u00A0\u00A0\n\nText.\n", nil},
 		{"two headings", "Maintenance\n\nCleaning the Drip Emitters\n\nText.\n", []string{"Maintenance", "Cleaning the Drip Emitters"}},
 	})
 }
