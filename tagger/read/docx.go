@@ -255,7 +255,8 @@ func docxText(rd io.Reader, styles docxStyles) (string, []doc.LineRange, error) 
 			}
 		}
 	}
-	return strings.TrimRight(b.String(), "\n\t "), mergeRanges(heads), nil
+	text := strings.TrimRight(b.String(), "\n\t ")
+	return text, withinLines(mergeRanges(heads), text), nil
 }
 
 // wordAttr returns the value of the w: attribute local of an element.

@@ -68,8 +68,8 @@ func mergeRanges(rs []doc.LineRange) []doc.LineRange {
 	return out
 }
 
-// withinLines cuts heading ranges to the lines text has: a reader that
-// trims the end of its text may have counted a line break it cut.
+// withinLines cuts heading ranges to the lines text has: the DOCX reader
+// trims the end of its text and may have counted a line break it cut.
 func withinLines(rs []doc.LineRange, text string) []doc.LineRange {
 	if len(rs) == 0 {
 		return rs

@@ -165,7 +165,6 @@ func Read(in Input, opt Options) (*doc.Document, []Problem) {
 	d := r.read()
 	if d != nil && !d.Pretokenized {
 		d.Text, d.Shifts = normalizeText(d.Text)
-		d.Headings = withinLines(d.Headings, d.Text)
 	}
 	if d != nil {
 		if !utf8.ValidString(d.Text) { // a reader bug, never the user's fault
