@@ -3,6 +3,7 @@ package titlecase
 import (
 	"strings"
 	"testing"
+	"unicode"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -92,4 +93,32 @@ func TestViewReusesAndCopies(t *testing.T) {
 
 	got = Viewer{}.View(nil, toks)
 	assert.Same(t, &toks[0], &got[0], "without tables a heading is seen as written")
+}
+
+// The view changes only the case of letters: the same tokens, offsets
+// and lines, each form the same letters up to case.
+func FuzzView(f *testing.F) {
+	f.Add("Cleaning the Drip Emitters")
+	f.Add("CLEANING THE ANTI-CORRUPTION STORM")
+	f.Add("Storm")
+	f.Add("İSTANBUL ǅemal Ǆ-Ǆ")
+	v := Viewer{}
+	f.Fuzz(func(t *testing.T, text string) {
+		if v.Freq == nil {
+			v = viewer(t)
+		}
+		for _, s := range tokenize.Sentences(text) {
+			got := v.View(nil, s.Tokens)
+			require.Len(t, got, len(s.Tokens))
+			for i, tk := range s.Tokens {
+				g := got[i]
+				require.Equal(t, []int32{tk.Start, tk.End, tk.Line}, []int32{g.Start, g.End, g.Line})
+				a, b := []rune(tk.Form), []rune(g.Form)
+				require.Len(t, b, len(a), "%q → %q", tk.Form, g.Form)
+				for k := range a {
+					require.Equal(t, unicode.ToLower(a[k]), unicode.ToLower(b[k]), "%q → %q", tk.Form, g.Form)
+				}
+			}
+		}
+	})
 }
