@@ -60,3 +60,38 @@ func BenchmarkHTML(b *testing.B) {
 		r.html(src)
 	}
 }
+
+// BenchmarkSourceRuns measures the map from a plain-text file's text back
+// to its bytes, which only files that are not UTF-8 with LF line ends pay
+// for: CRLF line ends, UTF-16 and Windows-1252 (an accent in every line).
+func BenchmarkSourceRuns(b *testing.B) {
+	line := "The drip line feeds the café's tomato rows at 2 bar.\r\n"
+	crlf := strings.Repeat(line, 20000)
+	utf16 := []byte{0xFF, 0xFE}
+	for _, r := range crlf {
+		utf16 = append(utf16, byte(r), byte(r>>8))
+	}
+	cp1252 := []byte(strings.ReplaceAll(crlf, "é", "\xE9"))
+	for _, tc := range []struct {
+		name string
+		data []byte
+		c    coding
+	}{
+		{"crlf", []byte(crlf), coding{altered: true}},
+		{"utf-16", utf16, coding{altered: true, skip: 2, kind: unitUTF16LE}},
+		{"windows-1252", cp1252, coding{}},
+	} {
+		r := &reader{in: Input{Name: "a.txt"}}
+		text := r.text(r.decode(tc.data, FormatText))
+		c := r.coding
+		if tc.name != "windows-1252" {
+			c = tc.c
+		}
+		b.Run(tc.name, func(b *testing.B) {
+			b.SetBytes(int64(len(tc.data)))
+			for b.Loop() {
+				sourceRuns(tc.data, text.Text, c)
+			}
+		})
+	}
+}

@@ -71,10 +71,15 @@ func sourceRuns(data []byte, text string, c coding) []doc.SourceRun {
 			int64(r.Start)+int64(t-int(r.At))*int64(r.FileWidth)/int64(r.Width) == int64(s)
 	}
 	for t < len(text) && s < len(data) {
-		if b := data[s]; c.kind != unitUTF16LE && c.kind != unitUTF16BE && c.kind != unitOther &&
-			b < utf8.RuneSelf && b == text[t] && b != '\r' && b != 0 && linesUp(1, 1) {
-			t, s, lastEnd = t+1, s+1, s+1 // ASCII in step: the common case
-			continue
+		// Runs of characters the text has as they are, at the last run's
+		// rate, are passed over a byte or a UTF-16 unit at a time: in
+		// UTF-8 any character but CR and NUL; otherwise ASCII.
+		if k := u.same(data[s:], text[t:]); k > 0 {
+			if w := u.width(); linesUp(1, w) {
+				t, s = t+k, s+k*w
+				lastEnd = s
+				continue
+			}
 		}
 		ch, n := u.next(data[s:])
 		if n == 0 {
@@ -125,6 +130,45 @@ type unitReader struct {
 	kind unitKind
 	dec  *encoding.Decoder
 	buf  [32]byte
+}
+
+// width is how many bytes of the file an ASCII character takes.
+func (u *unitReader) width() int {
+	if u.kind == unitUTF16LE || u.kind == unitUTF16BE {
+		return 2
+	}
+	return 1
+}
+
+// same returns how many bytes of text, from its start, data holds as they
+// are, one byte of text a width of data: characters that need no look at
+// the encoding (in UTF-8, any character but CR and NUL and a byte left
+// out; otherwise ASCII but CR and NUL), ending at a character boundary.
+func (u *unitReader) same(data []byte, text string) int {
+	k := 0
+	switch u.kind {
+	case unitUTF8:
+		for k < len(data) && k < len(text) && data[k] == text[k] && data[k] != '\r' && data[k] != 0 {
+			k++
+		}
+		for k > 0 && k < len(text) && !utf8.RuneStart(text[k]) {
+			k-- // a character cut short: it is looked at by itself
+		}
+	case unitByte:
+		for k < len(data) && k < len(text) && data[k] == text[k] && data[k] < utf8.RuneSelf && data[k] != '\r' && data[k] != 0 {
+			k++
+		}
+	case unitUTF16LE, unitUTF16BE:
+		lo, hi := 0, 1 // the bytes of a unit
+		if u.kind == unitUTF16BE {
+			lo, hi = 1, 0
+		}
+		for 2*k+1 < len(data) && k < len(text) && data[2*k+hi] == 0 && data[2*k+lo] == text[k] &&
+			text[k] < utf8.RuneSelf && text[k] != '\r' && text[k] != 0 {
+			k++
+		}
+	}
+	return k
 }
 
 // next returns the text of the first character of data and the bytes it
