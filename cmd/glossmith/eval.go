@@ -205,7 +205,7 @@ func (o *evalTermsOptions) run(args []string) error {
 		}
 		return exitError{1, "no words read from the inputs: nothing to evaluate"}
 	}
-	ts := corpus.Terms(modelReference{model})
+	ts := corpus.Terms(terms.ModelReference(model))
 	full, err := terms.Rank(ts, terms.RankOptions{MinFreq: 1, All: true})
 	if err != nil {
 		return err

@@ -14,7 +14,6 @@ import (
 	"glossmith/grammar"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
-	"glossmith/tagger/hmm"
 )
 
 // ruleFlags select the rules a command matches with.
@@ -47,12 +46,6 @@ func (r *ruleFlags) matcher(stock string) (*grammar.RuleSet, *pattern.Matcher, e
 	m, err := pattern.Compile(rs, r.names...)
 	return rs, m, err
 }
-
-// modelReference adapts the model's treebank counts as a reference corpus.
-type modelReference struct{ m *hmm.Model }
-
-func (r modelReference) Freq(w string) int { return r.m.RefLemmaFreq(w) }
-func (r modelReference) Size() int         { return r.m.RefSize() }
 
 // termsOptions are the flags of the terms command.
 type termsOptions struct {
@@ -94,7 +87,8 @@ Measures (each a column, each a --sort key):
   cvalue     C-value over nested candidates (Frantzi et al. 2000), log2(|a|+1) weight
   keyness    signed log-likelihood keyness (Rayson and Garside 2000) of the
              candidate's least specific word (lowest weirdness) against the
-             reference: the tagger's training treebank unless --reference
+             reference: the tagger's training treebank pooled with
+             WordNet's sense-tagged Brown corpus counts, unless --reference
              names documents
   weirdness  smoothed weirdness ratio (Ahmad et al. 1999) of that same least
              specific word
@@ -131,7 +125,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	o.in.register(cmd, true)
 	o.rules.register(cmd, "terms")
 	fl := cmd.Flags()
-	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank counts)")
+	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank and WordNet concordance counts)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
@@ -221,7 +215,7 @@ func (o *termsOptions) run(args []string) error {
 	}
 	// Collect and Add copy what they keep of a document.
 	o.in.reuseTokens = true
-	var ref terms.Reference = modelReference{model}
+	var ref terms.Reference = terms.ModelReference(model)
 	var refErr error // a reference input that could not be read: reported, and the run goes on
 	if len(o.reference) > 0 {
 		counts := &terms.Counts{}

@@ -136,7 +136,7 @@ func TestAcronymPooledPerDoc(t *testing.T) {
 		m.TagDocument(d)
 		c.Add(col.Collect(d))
 	}
-	full := find(c.Terms(modelRef{m}), "vapour pressure deficit")
+	full := find(c.Terms(ModelReference(m)), "vapour pressure deficit")
 	require.NotNil(t, full)
 	require.Equal(t, "VPD", full.Acronym)
 	assert.Equal(t, []DocCount{{0, 3}, {1, 1}}, c.PerDoc(full))

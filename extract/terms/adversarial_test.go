@@ -55,7 +55,7 @@ func runAdversarial(t testing.TB, in adversarialInput, k int) ([]*Term, int64) {
 	corpus := NewCorpus(3)
 	st := pipeline.Run([]string{path}, pipeline.Options{Tagger: model, Workers: 1}, col.Collect,
 		func(_ *doc.Document, dc *DocCounts) { corpus.Add(dc); dc.Release() })
-	return corpus.Terms(modelRef{model}), st.Tokens
+	return corpus.Terms(ModelReference(model)), st.Tokens
 }
 
 // TestAdversarialInputsStayLinear runs each input that once took minutes

@@ -62,7 +62,7 @@ func BenchmarkCorpus(b *testing.B) {
 			c := merged() // Terms folds groups: a fresh corpus each time
 			b.StartTimer()
 			cpu0 := benchcorpus.CPUTime()
-			if _, err := Rank(c.Terms(modelRef{model}), RankOptions{}); err != nil {
+			if _, err := Rank(c.Terms(ModelReference(model)), RankOptions{}); err != nil {
 				b.Fatal(err)
 			}
 			cpu += benchcorpus.CPUTime() - cpu0

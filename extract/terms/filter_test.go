@@ -21,7 +21,7 @@ func extractWith(t *testing.T, opt Options, texts ...string) []*Term {
 		m.TagDocument(d)
 		c.Add(col.Collect(d))
 	}
-	return c.Terms(modelRef{m})
+	return c.Terms(ModelReference(m))
 }
 
 // Keep (--include, --exclude) removes whole candidates from the list:

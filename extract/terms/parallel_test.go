@@ -24,7 +24,7 @@ func TestTermsSameInParallel(t *testing.T) {
 	write := func(c *Corpus, from int) [][]byte {
 		defer func(old int) { parallelTermsFrom = old }(parallelTermsFrom)
 		parallelTermsFrom = from
-		ranked, err := Rank(c.Terms(modelRef{model}), RankOptions{All: true})
+		ranked, err := Rank(c.Terms(ModelReference(model)), RankOptions{All: true})
 		if err != nil {
 			t.Fatal(err)
 		}
