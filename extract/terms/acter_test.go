@@ -87,9 +87,9 @@ func readDomainGold(t *testing.T, dir, domain string) Gold {
 // corpora", Language Resources and Evaluation 54, 2020), English, terms with
 // named entities, scored the way that work scores: lower-cased surface forms
 // compared as sets. Bounds a little under the figures the README gives
-// (0.432 and 0.425), so that a retrained tagger may move them a little:
-// mean best F1 over the three domains ≥ 0.415 with none below 0.36; mean
-// F1 of the default list ≥ 0.40.
+// (0.450 and 0.444), so that a retrained tagger may move them a little:
+// mean best F1 over the three domains ≥ 0.435 with none below 0.36; mean
+// F1 of the default list ≥ 0.425.
 func TestACTERGoldLists(t *testing.T) {
 	root := testenv.SharedDir(t, "data/term-gold-en")
 	var sumBest, sumDef float64
@@ -108,11 +108,11 @@ func TestACTERGoldLists(t *testing.T) {
 		sumDef += dflt.F1
 	}
 	t.Logf("mean best F1 %.3f, mean default F1 %.3f", sumBest/3, sumDef/3)
-	if sumBest/3 < 0.415 {
-		t.Errorf("mean best F1 %.3f below 0.415", sumBest/3)
+	if sumBest/3 < 0.435 {
+		t.Errorf("mean best F1 %.3f below 0.435", sumBest/3)
 	}
-	if sumDef/3 < 0.40 {
-		t.Errorf("mean default-list F1 %.3f below 0.40", sumDef/3)
+	if sumDef/3 < 0.425 {
+		t.Errorf("mean default-list F1 %.3f below 0.425", sumDef/3)
 	}
 }
 
@@ -249,6 +249,6 @@ func TestACTERLeaveOneDomainOut(t *testing.T) {
 		}
 	}
 	assert.InDelta(t, defAll(shipped, bestCut), defAll(shipped, shippedCut), 0.002, "the shipped cut-off is not the choice on all three domains")
-	assert.GreaterOrEqual(t, meanBest, 0.415)
-	assert.GreaterOrEqual(t, meanDef, 0.40)
+	assert.GreaterOrEqual(t, meanBest, 0.435)
+	assert.GreaterOrEqual(t, meanDef, 0.425)
 }
