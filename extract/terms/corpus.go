@@ -57,6 +57,20 @@ type wordTable struct {
 	// labeled counts the uses followed by a label (see isLabel).
 	labeled []int32
 	total   int
+	// ref holds each word's reference frequency (see setReference).
+	ref []int32
+}
+
+// setReference looks up every word of the table in the reference once:
+// the candidates' words then take their reference frequency from the
+// table (see specificity) instead of asking the reference again for each
+// candidate they occur in — a binary search of the WordNet table for the
+// default reference.
+func (t *wordTable) setReference(ref Reference) {
+	t.ref = slices.Grow(t.ref[:0], len(t.freq))[:len(t.freq)]
+	for w, i := range t.index {
+		t.ref[i] = int32(min(ref.Freq(w), math.MaxInt32))
+	}
 }
 
 func (t *wordTable) add(w string, n int, labeled int32) {
@@ -73,14 +87,21 @@ func (t *wordTable) add(w string, n int, labeled int32) {
 	t.labeled = append(t.labeled, labeled)
 }
 
-// withLabels returns how often w occurs and the share of its uses that a
-// label follows, with one use added to the count: a word seen once before
-// a number is not yet a document-structure word.
-func (t *wordTable) withLabels(w string) (freq int, labelShare float64) {
-	if i, ok := t.index[w]; ok {
-		return t.freq[i], float64(t.labeled[i]) / float64(t.freq[i]+1)
+// withReference returns how often w occurs, the share of its uses that a
+// label follows, with one use added to the count (a word seen once before
+// a number is not yet a document-structure word), and w's reference
+// frequency as setReference found it; ok is false when there is none (a
+// word not in the table or not looked up).
+func (t *wordTable) withReference(w string) (freq int, labelShare float64, ref int, ok bool) {
+	i, in := t.index[w]
+	if !in {
+		return 0, 0, 0, false
 	}
-	return 0, 0
+	freq, labelShare = t.freq[i], float64(t.labeled[i])/float64(t.freq[i]+1)
+	if int(i) < len(t.ref) {
+		return freq, labelShare, int(t.ref[i]), true
+	}
+	return freq, labelShare, 0, false
 }
 
 func (t *wordTable) get(w string) int {
@@ -437,6 +458,9 @@ func addSpelling(ss []spelling, v spelling) []spelling {
 // set by Rank).
 func (c *Corpus) Terms(ref Reference) []*Term {
 	c.foldCapitalPlurals()
+	if ref != nil {
+		c.words.setReference(ref)
+	}
 	out := make([]*Term, len(c.order))
 	cands := make([]termstat.Candidate, len(c.order))
 	spread := newDocSpread(c.docSize)
@@ -598,8 +622,11 @@ func (c *Corpus) specificity(keys []string, ref Reference, alpha float64) (ll, w
 	}
 	lowest := 0.0
 	for i, key := range keys {
-		n, sh := c.words.withLabels(key)
-		k := termstat.Contrast{Study: float64(n), Reference: float64(ref.Freq(key)),
+		n, sh, rf, ok := c.words.withReference(key)
+		if !ok {
+			rf = ref.Freq(key)
+		}
+		k := termstat.Contrast{Study: float64(n), Reference: float64(rf),
 			StudySize: float64(c.words.total), ReferenceSize: float64(ref.Size())}
 		k.Study = min(k.Study, k.StudySize)
 		k.Reference = min(k.Reference, k.ReferenceSize)
