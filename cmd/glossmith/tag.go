@@ -34,7 +34,11 @@ Output formats (--to):
   tsv     one row per token with a header row; a field holding a tab, quote
           or line break is quoted as in RFC 4180
   jsonl   one JSON object per sentence with its tokens
-  text    one sentence per line as word/TAG pairs (--tagset xpos|upos)`,
+  text    one sentence per line as word/TAG pairs (--tagset xpos|upos)
+
+Sentences of headings and captions are marked: "# heading = yes" in
+CoNLL-U (read back from CoNLL-U input), a heading column (TSV) or field
+(JSON Lines) true or false, a line starting "# " in text.`,
 		Example: `  glossmith tag --to conllu testdata/demo
   glossmith tag --to text --tagset upos manual.md
   glossmith tag --from conllu --to tsv annotated.conllu

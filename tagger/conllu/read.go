@@ -8,6 +8,8 @@
 //
 // Only the columns glossmith uses are interpreted (ID, FORM, LEMMA, UPOS,
 // XPOS and SpaceAfter in MISC); the others are checked for presence only.
+// Of the comments, "sent_id", "text", "newdoc", "newpar" and our own
+// HeadingComment are read; every comment is kept for passing through.
 // Multiword tokens (ID "3-4") are read as their syntactic words, marked with
 // doc.Token.FusedNext; empty nodes (ID "8.1") are skipped.
 package conllu
@@ -293,6 +295,11 @@ func (r *Reader) comment(s *Sentence, line string) {
 		s.ID = val
 	case key == "text" && ok:
 		s.Text = val
+	case key == "heading" && ok:
+		// Only our own value marks a heading: a comment of another
+		// tool that happens to use the key with other values is kept
+		// as a comment and changes nothing.
+		s.Heading = val == "yes"
 	case strings.HasPrefix(key, "newdoc"):
 		s.NewDoc, s.NewPar = true, true
 		s.DocID = val
@@ -364,17 +371,24 @@ func readAll(r *Reader) ([]*Sentence, error) {
 // Its Text is rebuilt from the token forms and their SpaceAfter flags (a
 // multiword token contributes its surface form once), sentences end with a
 // line break and paragraphs ("# newpar", "# newdoc") with a blank line, so
-// that every token's offsets point at its own characters.
+// that every token's offsets point at its own characters. The lines of
+// sentences marked as headings (HeadingComment) are the document's Headings.
 func Document(name string, sents []*Sentence) *doc.Document {
 	d := &doc.Document{Name: name, Format: "conllu", Pretokenized: true}
 	var b strings.Builder
+	line := int32(1) // of Text: every sentence is one line
 	for i, s := range sents {
 		if i > 0 {
 			if s.NewPar {
 				b.WriteString("\n\n")
+				line += 2
 			} else {
 				b.WriteString("\n")
+				line++
 			}
+		}
+		if s.Heading {
+			d.Headings = append(d.Headings, doc.LineRange{First: line, Last: line})
 		}
 		ds := s.Sentence
 		ds.Index = i

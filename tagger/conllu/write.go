@@ -9,6 +9,13 @@ import (
 	"glossmith/tagger/doc"
 )
 
+// HeadingComment is the sentence-level comment that marks a sentence of a
+// heading or caption (doc.Sentence.Heading). UD defines no such comment,
+// and CoNLL-U keeps any "# key = value" line, so other tools pass it on;
+// the Reader sets Sentence.Heading from it, so tagged output read back
+// (to be tagged again, counted or checked) keeps what the markup showed.
+const HeadingComment = "# heading = yes"
+
 // Writer writes documents as CoNLL-U. Sentence ids run on across all
 // documents written through one Writer, so they stay unique in its output.
 type Writer struct {
@@ -30,7 +37,7 @@ func (w *Writer) Flush() error { return w.w.Flush() }
 // Other documents get a "# newdoc id" line, then for every
 // sentence "# sent_id" (the input's id when it had one), "# text" (the
 // sentence as it stands in the document, line breaks folded to spaces),
-// and one row per token with ID, FORM, LEMMA, UPOS, XPOS and MISC filled;
+// HeadingComment for a sentence of a heading or caption, and one row per token with ID, FORM, LEMMA, UPOS, XPOS and MISC filled;
 // FEATS, HEAD, DEPREL and DEPS are "_". Tokens marked FusedNext are written
 // under a multiword-token range line, as UD does for clitics.
 //
@@ -66,6 +73,10 @@ func (w *Writer) WriteDocument(d *doc.Document) error {
 		bw.WriteString("\n# text = ")
 		bw.WriteString(SentenceText(d, s))
 		bw.WriteByte('\n')
+		if s.Heading {
+			bw.WriteString(HeadingComment)
+			bw.WriteByte('\n')
+		}
 		for j := 0; j < len(s.Tokens); j++ {
 			if s.Tokens[j].FusedNext {
 				k := j

@@ -72,8 +72,9 @@ type Sentence struct {
 	// Heading marks a sentence of a heading or caption, as the document's
 	// markup or layout showed it (Document.Headings). Title case is the
 	// norm there, so a capital says less than in running text: the tagger
-	// weighs such a sentence's capitalized words differently. Sentences
-	// of CoNLL-U input are never headings.
+	// weighs such a sentence's capitalized words differently. A sentence
+	// of CoNLL-U input is one when it carries the comment that
+	// `glossmith tag` writes for headings (conllu.HeadingComment).
 	Heading bool
 	// Rows are the sentence's lines as a CoNLL-U input gave them (comments,
 	// token rows, multiword-token and empty-node rows, without line

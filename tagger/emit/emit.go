@@ -1,6 +1,8 @@
 // Package emit writes annotated documents in the formats of `glossmith tag`:
 // CoNLL-U (through package conllu), TSV with a header row, JSON Lines with
-// one object per sentence, and plain text with word/TAG pairs.
+// one object per sentence, and plain text with word/TAG pairs. Every format
+// shows which sentences are headings or captions (doc.Sentence.Heading), so
+// that a reader of the output can set them apart from running text.
 package emit
 
 import (
@@ -58,8 +60,11 @@ type tsvWriter struct {
 // each document, token numbers from 1 within each sentence; start and end
 // are byte offsets of the text as read, before Unicode normalization (see
 // doc.Document.ReadOffset), as in JSON Lines. Fields are quoted as
-// internal/tabular documents.
-var tsvHeader = []string{"doc", "sentence", "token", "form", "lemma", "upos", "xpos", "line", "start", "end", "space_after"}
+// internal/tabular documents. heading, a sentence's as the other formats
+// give it once per sentence, is repeated on each of its rows, as doc and
+// sentence are; it comes last so that the earlier columns keep their
+// places.
+var tsvHeader = []string{"doc", "sentence", "token", "form", "lemma", "upos", "xpos", "line", "start", "end", "space_after", "heading"}
 
 func (t *tsvWriter) Write(d *doc.Document) error {
 	if !t.header {
@@ -67,10 +72,11 @@ func (t *tsvWriter) Write(d *doc.Document) error {
 		t.header = true
 	}
 	for si := range d.Sentences {
+		heading := strconv.FormatBool(d.Sentences[si].Heading)
 		for ti, tok := range d.Sentences[si].Tokens {
 			if err := t.w.Write(d.Name, strconv.Itoa(si+1), strconv.Itoa(ti+1), tok.Form, tok.Lemma, tok.UPOS, tok.XPOS,
 				strconv.Itoa(int(tok.Line)), strconv.Itoa(d.ReadOffset(int(tok.Start))), strconv.Itoa(d.ReadEnd(int(tok.End))),
-				strconv.FormatBool(tok.SpaceAfter)); err != nil {
+				strconv.FormatBool(tok.SpaceAfter), heading); err != nil {
 				return err
 			}
 		}
@@ -92,11 +98,14 @@ type jsonToken struct {
 	SpaceAfter bool   `json:"space_after"`
 }
 
+// jsonSentence is one line of JSON Lines. Every field is always there, as
+// space_after of a token is: heading is false for running text.
 type jsonSentence struct {
 	Doc      string      `json:"doc"`
 	Sentence int         `json:"sentence"`
 	Line     int         `json:"line"`
 	Text     string      `json:"text"`
+	Heading  bool        `json:"heading"`
 	Tokens   []jsonToken `json:"tokens"`
 }
 
@@ -105,7 +114,7 @@ func (j *jsonWriter) Write(d *doc.Document) error {
 	for si := range d.Sentences {
 		s := &d.Sentences[si]
 		js := jsonSentence{Doc: d.Name, Sentence: si + 1, Line: s.Line(), Text: conllu.SentenceText(d, s),
-			Tokens: make([]jsonToken, len(s.Tokens))}
+			Heading: s.Heading, Tokens: make([]jsonToken, len(s.Tokens))}
 		for i, t := range s.Tokens {
 			js.Tokens[i] = jsonToken{t.Form, t.Lemma, t.UPOS, t.XPOS, d.ReadOffset(int(t.Start)), d.ReadEnd(int(t.End)), t.SpaceAfter}
 		}
@@ -123,10 +132,18 @@ type textWriter struct {
 	upos bool
 }
 
-// Write prints one sentence per line as word/TAG pairs separated by spaces;
-// untagged tokens print as the bare word.
+// textHeading starts the line of a heading's sentence in the text format,
+// as a Markdown heading starts: a "#" alone, which no token prints as
+// (every token of tagged output carries its tag, a "#" of the text too).
+const textHeading = "# "
+
+// Write prints one sentence per line as word/TAG pairs separated by spaces,
+// a heading's after textHeading; untagged tokens print as the bare word.
 func (x *textWriter) Write(d *doc.Document) error {
 	for si := range d.Sentences {
+		if d.Sentences[si].Heading {
+			x.w.WriteString(textHeading)
+		}
 		for i, t := range d.Sentences[si].Tokens {
 			if i > 0 {
 				x.w.WriteByte(' ')

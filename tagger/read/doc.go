@@ -128,7 +128,8 @@
 // at most 12 words and 120 bytes, not starting with a bullet, not ending
 // in . ! ? : ; or , and written in title case (every word capitalized
 // but the articles, conjunctions and prepositions after the first) or in
-// capitals. pdf and conllu: none.
+// capitals. conllu: the sentences with the comment "# heading = yes"
+// (conllu.HeadingComment), as `glossmith tag` writes them. pdf: none.
 //
 // # Encodings
 //
