@@ -62,27 +62,7 @@ const (
 	fFreqBand     // frequency band (0: not in the table)
 	fFreqShare    // share of its occurrences written in lower case
 	fFreqShareCap // the same with whether this token begins with a capital
-	// The WordNet classes once more (the value of fPrevWN) for a rare
-	// word, seen fewer than rareCount times in training or not at all.
-	fRareWN
 )
-
-// rareCount is the number of training occurrences below which a word is
-// rare and gets fRareWN. WordNet's classes are the best evidence a word
-// outside the training lexicon has, but their weights are learned mostly
-// from frequent words, whose own identity features answer for them; the
-// conjoined copy learns what the classes say where nothing else does:
-// dev UPOS of unknown words 83.76 / 83.96 / 83.62 → 84.10 / 84.24 /
-// 84.10 (one perceptron, shuffling seeds 1–3; README, "Tagging"). 3 was
-// chosen on dev against 2, 5 and 10.
-const rareCount = 3
-
-// rareWord reports whether a word form is rare in the model's training
-// data (see rareCount): a form outside its lexicon is.
-func (m *Model) rareWord(form string) bool {
-	w, ok := m.lex[form]
-	return !ok || m.words[w].count < rareCount
-}
 
 // pairKey is the key of the feature "word w after tag prev", which scores
 // a (previous tag, tag) state rather than a tag: it lets the word choose
@@ -144,7 +124,6 @@ type tokenInfo struct {
 	hasWN                    bool // the model has a word-class table
 	freq                     genfreq.Code
 	hasFreq                  bool // the model has a general-English table
-	rare                     bool // see rareCount; set by the caller of fill
 }
 
 // wnSig is the value of the neighbours' word-class features.
@@ -158,11 +137,9 @@ var (
 // extractFeatures writes the feature keys of every token into fs.keys,
 // those of token i at fs.keys[fs.keyOff[i]:fs.keyOff[i+1]]; the keys from
 // fs.aloneEnd[i] on depend on the token's neighbours or position, those
-// before on the word alone. m gives the word-class and general-English
-// tables and the training lexicon (see rareCount). Tokens marked false in
-// fs.need (when set) get none. It allocates nothing once the scratch
-// buffers have grown.
-func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, m *Model) []tokenInfo {
+// before on the word alone. Tokens marked false in fs.need (when set) get
+// none. It allocates nothing once the scratch buffers have grown.
+func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, wn *wordnet.Table, freq *genfreq.Table) []tokenInfo {
 	n := len(toks)
 	if cap(info) < n {
 		info = make([]tokenInfo, n)
@@ -170,8 +147,7 @@ func extractFeatures(fs *featureScratch, toks []doc.Token, info []tokenInfo, m *
 	info = info[:n]
 	buf := fs.buf[:0]
 	for i := range toks {
-		buf = info[i].fill(buf, toks[i].Form, m.wn, m.freq)
-		info[i].rare = m.rareWord(toks[i].Form)
+		buf = info[i].fill(buf, toks[i].Form, wn, freq)
 	}
 	f := fs.keys[:0]
 	fs.keyOff = append(fs.keyOff[:0], 0)
@@ -258,7 +234,7 @@ func (ti *tokenInfo) fill(buf []byte, form string, wn *wordnet.Table, freq *genf
 // reports whether the word begins with an upper-case letter, which the
 // context features need. ti holds the word's hashes (see fill); buf is
 // scratch space, returned for reuse. A model with a word-class table adds
-// the word's classes (ti.wn), for a rare word (ti.rare) twice; cf, when not nil, adds the word's learned
+// the word's classes (ti.wn); cf, when not nil, adds the word's learned
 // class features.
 func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo, cf *classFeatures) ([]uint64, []byte, bool) {
 	buf = lowerInto(buf[:0], form)
@@ -315,9 +291,6 @@ func appendAloneKeys(f []uint64, buf []byte, form string, ti *tokenInfo, cf *cla
 	}
 	if !hasLetter {
 		f = append(f, key(fNoLetter, 0))
-	}
-	if ti.rare && ti.hasWN {
-		f = append(f, key(fRareWN, ti.wnSig()))
 	}
 	return f, buf, upperFirst
 }

@@ -212,7 +212,7 @@ func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]ui
 	fs := &ws.featureScratch
 	freq := map[uint64]int32{}
 	for si, s := range sents {
-		fs.info = extractFeatures(fs, s.Tokens, fs.info, m)
+		fs.info = extractFeatures(fs, s.Tokens, fs.info, m.wn, m.freq)
 		for _, k := range fs.keys {
 			freq[k]++
 		}
@@ -237,7 +237,7 @@ func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]ui
 	}
 	fr.data = make([]trainSent, len(sents))
 	for si, s := range sents {
-		fs.info = extractFeatures(fs, s.Tokens, fs.info, m)
+		fs.info = extractFeatures(fs, s.Tokens, fs.info, m.wn, m.freq)
 		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1),
 			lower: make([]uint64, len(s.Tokens))}
 		ts.ids = make([]int32, 0, len(fs.keys))

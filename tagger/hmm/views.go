@@ -101,14 +101,13 @@ type viewBoundary struct {
 	capFirst, capInside        int32
 }
 
-// fillView computes the view of a form, rare or not in training (see
-// rareCount). alone, when not nil, receives the word-alone scores (len =
-// number of tags); keys and buf are scratch space, returned for reuse.
-func (p *perceptron) fillView(v *wordView, form string, rare bool, alone []int32, keys []uint64, buf []byte) ([]uint64, []byte) {
+// fillView computes the view of a form. alone, when not nil, receives the
+// word-alone scores (len = number of tags); keys and buf are scratch
+// space, returned for reuse.
+func (p *perceptron) fillView(v *wordView, form string, alone []int32, keys []uint64, buf []byte) ([]uint64, []byte) {
 	*v = wordView{} // a cache slot may hold another word's view
 	var ti tokenInfo
 	buf = ti.fill(buf, form, p.wn, p.freq)
-	ti.rare = rare
 	keys, buf, v.upperFirst = appendAloneKeys(keys[:0], buf, form, &ti, p.classes)
 	v.lower = ti.lower
 	v.ctx = [nCtx]int32{
@@ -220,7 +219,7 @@ func (p *perceptron) lexView(m *Model, fs *featureScratch, w int32, form string)
 	if e.count < p.dictMin || p.dict[w].n > 1 {
 		alone = make([]int32, p.nt)
 	}
-	fs.keys, fs.buf = p.fillView(v, form, e.count < rareCount, alone, fs.keys, fs.buf)
+	fs.keys, fs.buf = p.fillView(v, form, alone, fs.keys, fs.buf)
 	for b := 0; b <= p.nt; b++ {
 		if r := p.row(pairKey(v.lower, uint8(b))); r >= 0 {
 			v.pairSet[b>>6] |= 1 << (b & 63)
@@ -314,13 +313,13 @@ func (p *perceptron) unknownView(fs *featureScratch, form string) *wordView {
 		k := len(fs.aside)
 		fs.aside = append(fs.aside, wordView{})
 		alone := fs.asideAlone[k*p.nt : (k+1)*p.nt : (k+1)*p.nt]
-		fs.keys, fs.buf = p.fillView(&fs.aside[k], form, true, alone, fs.keys, fs.buf)
+		fs.keys, fs.buf = p.fillView(&fs.aside[k], form, alone, fs.keys, fs.buf)
 		return &fs.aside[k]
 	}
 	c.sentence = fs.sentence
 	alone := fs.cacheAlone[int(slot)*p.nt : int(slot+1)*p.nt : int(slot+1)*p.nt]
 	c.n = uint8(copy(c.form[:], form))
-	fs.keys, fs.buf = p.fillView(&c.view, form, true, alone, fs.keys, fs.buf)
+	fs.keys, fs.buf = p.fillView(&c.view, form, alone, fs.keys, fs.buf)
 	return &c.view
 }
 

@@ -31,7 +31,7 @@ func (p *perceptron) buildLatticeRef(m *Model, ws *workspace, toks []doc.Token) 
 		ws.need = append(ws.need, !ok || e.count < p.dictMin || p.dict[ws.wid[i]].n > 1)
 	}
 	ws.classes = p.classes
-	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info, m)
+	ws.info = extractFeatures(&ws.featureScratch, toks, ws.info, m.wn, m.freq)
 	ws.need = ws.need[:0]
 	nt := len(m.tags)
 	score := ws.score[:nt]
@@ -326,7 +326,7 @@ func TestMemoLemmaFollowsState(t *testing.T) {
 	}
 	// Another word takes over the cache slot: no lemma of the old one.
 	v := l.views[1]
-	m.perc.fillView(v, "wumbles", true, v.alone, nil, nil)
+	m.perc.fillView(v, "wumbles", v.alone, nil, nil)
 	if v.lemmaSet {
 		t.Error("a refilled view kept the lemma of the word before")
 	}
