@@ -67,6 +67,19 @@ func startReview(t *testing.T, tbPath string, inputs ...string) *reviewServer {
 	return s
 }
 
+// client returns an HTTP client holding the session's cookie, as the
+// browser does once it has opened the address.
+func (s *reviewServer) client(t *testing.T) *http.Client {
+	t.Helper()
+	jar, err := cookiejar.New(nil)
+	require.NoError(t, err)
+	c := &http.Client{Jar: jar}
+	resp, err := c.Get(s.url)
+	require.NoError(t, err)
+	resp.Body.Close()
+	return c
+}
+
 // stop sends Ctrl-C and waits for a clean exit.
 func (s *reviewServer) stop(t *testing.T) {
 	if s.cmd == nil {
@@ -123,6 +136,15 @@ func TestReviewPageInBrowser(t *testing.T) {
 	counter, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("gs-counter")))
 	require.NoError(t, err)
 	assert.True(t, strings.HasPrefix(counter, "4 / "), "reviewed counter: %q", counter)
+
+	// Accepting the acronym "VPD" makes its full form's row say so at once,
+	// and the detail view names the entry.
+	require.NoError(t, chromedp.Do(ctx, showTerm("VPD"), chromedp.Click(chromedp.CSS("#gs-do-accept")),
+		chromedp.WaitVisible(rowXPath("VPD")+`/td[3]/span[text()="accepted"]`), idle,
+		chromedp.Evaluate[chromedp.Void](`(() => { const q = document.getElementById('gs-q'); q.value = 'vapour pressure deficit'; q.dispatchEvent(new Event('input')); })()`),
+		chromedp.WaitVisible(rowXPath("vapour pressure deficit")+`/td[3]/span[text()="full form"][@title="full form of VPD"]`),
+		showTerm("vapour pressure deficit"),
+		chromedp.WaitVisible(`//div[@class="gs-facts"][contains(text(), "full form of “VPD”")]`)), "the full form of an accepted acronym")
 
 	// A variant admitted by key: v, then its number in the list.
 	require.NoError(t, chromedp.Do(ctx, showTerm("irrigation zone"), chromedp.KeyEvent("v"),
@@ -310,13 +332,8 @@ func TestReviewRecordedRun(t *testing.T) {
 	bad := run(t, "", "review", "--termbase", tbPath, "--run", "v1", "testdata/demo")
 	assert.Equal(t, 2, bad.code, "--run with inputs: %s", bad.stderr)
 	srv := startReview(t, tbPath, "--run", "v1")
-	jar, err := cookiejar.New(nil)
-	require.NoError(t, err)
-	c := &http.Client{Jar: jar}
-	resp, err := c.Get(srv.url)
-	require.NoError(t, err)
-	resp.Body.Close()
-	resp, err = c.Get(srv.origin + "/api/data")
+	c := srv.client(t)
+	resp, err := c.Get(srv.origin + "/api/data")
 	require.NoError(t, err)
 	defer resp.Body.Close()
 	var data struct {
@@ -338,4 +355,65 @@ func TestReviewRecordedRun(t *testing.T) {
 	}
 	require.NotZero(t, recorded, "valve in the recorded run's output:\n%s", rec.stdout)
 	assert.Equal(t, recorded, data.Cands[0].Freq, "the frequency of the recorded run")
+}
+
+// The page's data labels a candidate linked to an accepted acronym the
+// way terms --termbase does: accepting "RMS" on the page makes "root zone
+// moisture sensor" its full form at once (in the reply to the action, not
+// only after a reload), and not a variant of it.
+func TestReviewLabelsAcronymPairs(t *testing.T) {
+	dir := t.TempDir()
+	docs := acronymDocs(t, dir)
+	tbPath := filepath.Join(dir, "pair.gtb")
+	srv := startReview(t, tbPath, "--all", docs)
+	c := srv.client(t)
+	type decision struct {
+		Status string `json:"status"`
+		Entry  string `json:"entry"`
+	}
+	data := func() (ids map[string]int, decs []decision) {
+		resp, err := c.Get(srv.origin + "/api/data")
+		require.NoError(t, err)
+		defer resp.Body.Close()
+		var d struct {
+			Cands []struct {
+				ID   int    `json:"id"`
+				Term string `json:"term"`
+			} `json:"cands"`
+			Decisions []decision `json:"decisions"`
+		}
+		require.NoError(t, json.NewDecoder(resp.Body).Decode(&d))
+		ids = map[string]int{}
+		for _, x := range d.Cands {
+			ids[x.Term] = x.ID
+		}
+		return ids, d.Decisions
+	}
+	const full, acr = "root zone moisture sensor", "RMS"
+	ids, decs := data()
+	require.Contains(t, ids, full)
+	require.Contains(t, ids, acr)
+	assert.Equal(t, "new", decs[ids[full]].Status)
+
+	req, err := http.NewRequest("POST", srv.origin+"/api/act", strings.NewReader(fmt.Sprintf(`{"id":%d,"kind":"accept"}`, ids[acr])))
+	require.NoError(t, err)
+	req.Header.Set("Content-Type", "application/json")
+	req.Header.Set("X-Glossmith-Token", srv.token)
+	resp, err := c.Do(req)
+	require.NoError(t, err)
+	var ch struct {
+		Changed map[int]decision `json:"changed"`
+	}
+	require.NoError(t, json.NewDecoder(resp.Body).Decode(&ch))
+	resp.Body.Close()
+	require.Equal(t, http.StatusOK, resp.StatusCode)
+	assert.Equal(t, decision{"accepted", ""}, ch.Changed[ids[acr]])
+	assert.Equal(t, decision{"full form", acr}, ch.Changed[ids[full]], "the full form's label in the reply to the accept")
+	_, decs = data()
+	assert.Equal(t, decision{"full form", acr}, decs[ids[full]])
+	srv.stop(t)
+
+	st := statusOf(t, "terms", "--termbase", tbPath, "--to", "jsonl", "--all", docs)
+	assert.Equal(t, [2]string{"full form", acr}, st[full], "terms --termbase on the termbase the page wrote")
+	assert.Equal(t, "accepted", st[acr][0])
 }

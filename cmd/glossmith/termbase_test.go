@@ -138,11 +138,7 @@ func TestTermbaseWorkflow(t *testing.T) {
 // accepted, "RMS" is its acronym (not new). An invented manual text.
 func TestTermsLabelsAcronymPairs(t *testing.T) {
 	dir := t.TempDir()
-	docs := filepath.Join(dir, "docs")
-	require.NoError(t, os.Mkdir(docs, 0o755))
-	require.NoError(t, os.WriteFile(filepath.Join(docs, "a.txt"), []byte("The root zone moisture sensor (RMS) reads the water in the substrate. "+
-		"Mount the RMS near the drip emitter.\nCalibrate the RMS each season. The root zone moisture sensor needs a dry reference.\n"), 0o644))
-	require.NoError(t, os.WriteFile(filepath.Join(docs, "b.txt"), []byte("Each root zone moisture sensor has a serial number. Replace a faulty RMS at once.\n"), 0o644))
+	docs := acronymDocs(t, dir)
 	for _, tc := range []struct {
 		accept   []string
 		full, rm [2]string
@@ -159,6 +155,18 @@ func TestTermsLabelsAcronymPairs(t *testing.T) {
 		assert.Equal(t, tc.rm, st["RMS"], "%v", tc.accept)
 		assert.Equal(t, "new", st["drip emitter"][0], "%v", tc.accept)
 	}
+}
+
+// acronymDocs writes two invented manual texts that define "root zone
+// moisture sensor (RMS)" into dir/docs and returns that folder.
+func acronymDocs(t *testing.T, dir string) string {
+	t.Helper()
+	docs := filepath.Join(dir, "docs")
+	require.NoError(t, os.Mkdir(docs, 0o755))
+	require.NoError(t, os.WriteFile(filepath.Join(docs, "a.txt"), []byte("The root zone moisture sensor (RMS) reads the water in the substrate. "+
+		"Mount the RMS near the drip emitter.\nCalibrate the RMS each season. The root zone moisture sensor needs a dry reference.\n"), 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(docs, "b.txt"), []byte("Each root zone moisture sensor has a serial number. Replace a faulty RMS at once.\n"), 0o644))
+	return docs
 }
 
 func TestTermbaseErrors(t *testing.T) {

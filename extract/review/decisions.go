@@ -7,13 +7,18 @@ type Status string
 
 // The statuses: a candidate without a decision is New; Accepted means the
 // termbase holds it as a preferred or admitted term; Variant that it is a
-// form of another entry's term; Deferred that a reviewer put it off.
+// form of another entry's term; Acronym and FullForm that the documents
+// define it as the acronym of an accepted term, or with an accepted
+// acronym (the other term of that concept); Deferred that a reviewer put
+// it off.
 const (
 	New        Status = "new"
 	Accepted   Status = "accepted"
 	Rejected   Status = "rejected"
 	Deferred   Status = "deferred"
 	Variant    Status = "variant"
+	Acronym    Status = "acronym"
+	FullForm   Status = "full form"
 	Deprecated Status = "deprecated"
 )
 

@@ -7,7 +7,7 @@ import (
 )
 
 // Label sets each candidate's Status and Entry from the index (one map
-// look-up per form; see termbase.Index.Label).
+// look-up per form; see LabelOf).
 func Label(ix *termbase.Index, cands []*terms.Term) {
 	var forms []string
 	for _, t := range cands {
@@ -15,31 +15,36 @@ func Label(ix *termbase.Index, cands []*terms.Term) {
 		for _, v := range t.Variants {
 			forms = append(forms, v.Form)
 		}
-		t.Status, t.Entry = ix.Label(t.Term, forms)
-		labelPair(ix, t)
+		t.Status, t.Entry = LabelOf(ix, t.Term, forms, t.Acronym, t.FullForm)
 	}
 }
 
-// labelPair labels a candidate that the documents link to an acronym or a
-// full form (terms.Term.Acronym, FullForm) the termbase has accepted: the
-// acronym of an accepted full form, the full form of an accepted acronym,
-// with that entry — not new, and not a variant, which it would otherwise
-// be for the acronym's spellings pooled among its forms. A candidate the
-// termbase holds itself, or holds as a form of another entry, keeps its
-// label.
-func labelPair(ix *termbase.Index, t *terms.Term) {
-	partner, label := t.Acronym, termbase.LabelFullForm
+// LabelOf is the label of one candidate — its canonical form term, its
+// surface forms, and the acronym or full form the documents link it to
+// (terms.Term.Acronym, FullForm; "" for none) — and the preferred term of
+// the entry it belongs to. It is the one labelling of candidates: terms
+// --termbase, its HTML report and the review page all call it.
+//
+// It is termbase.Index.Label, except for a candidate linked to an acronym
+// or a full form the termbase has accepted: the acronym of an accepted
+// full form, the full form of an accepted acronym, with that entry — not
+// new, and not a variant, which it would otherwise be for the acronym's
+// spellings pooled among its forms. A candidate the termbase holds
+// itself, or holds as a form of another entry, keeps its label.
+func LabelOf(ix *termbase.Index, term string, forms []string, acronym, fullForm string) (label, entry string) {
+	label, entry = ix.Label(term, forms)
+	partner, pair := acronym, termbase.LabelFullForm
 	if partner == "" {
-		partner, label = t.FullForm, termbase.LabelAcronym
+		partner, pair = fullForm, termbase.LabelAcronym
 	}
-	if partner == "" || t.Status != termbase.LabelNew && t.Status != termbase.LabelVariant {
-		return
+	if partner == "" || label != termbase.LabelNew && label != termbase.LabelVariant {
+		return label, entry
 	}
-	st, entry := ix.Label(partner, nil)
-	if st != termbase.LabelAccepted || t.Status == termbase.LabelVariant && t.Entry != entry {
-		return
+	st, pe := ix.Label(partner, nil)
+	if st != termbase.LabelAccepted || label == termbase.LabelVariant && entry != pe {
+		return label, entry
 	}
-	t.Status, t.Entry = label, entry
+	return pair, pe
 }
 
 // OnlyNew keeps the candidates without a decision.

@@ -8,21 +8,29 @@ import (
 
 	"glossmith/extract/review"
 	"glossmith/extract/termbase"
+	"glossmith/extract/termio"
 	"glossmith/extract/terms"
 )
 
-// Store is a termbase seen as a review.Store. The statuses are the
-// termbase's own labels (termbase.Index), so the page and `terms
-// --termbase` call a candidate the same.
+// Store is a termbase seen as a review.Store. The statuses are those of
+// termio.LabelOf, the labelling `terms --termbase` calls, so the page and
+// terms call a candidate the same.
 type Store struct {
 	tb    *termbase.Store
 	forms map[string][]string // a candidate's surface forms, for the labels
+	pairs map[string]pair     // a candidate's acronym or full form, for the labels
 }
+
+// pair is the acronym and the full form the documents link a candidate to.
+type pair struct{ acronym, fullForm string }
 
 // New returns the review store of tb for the candidates of ds.
 func New(tb *termbase.Store, ds *review.Dataset) *Store {
-	s := &Store{tb: tb, forms: make(map[string][]string, len(ds.Candidates))}
+	s := &Store{tb: tb, forms: make(map[string][]string, len(ds.Candidates)), pairs: map[string]pair{}}
 	for i, c := range ds.Candidates {
+		if c.Acronym != "" || c.FullForm != "" {
+			s.pairs[c.Term] = pair{c.Acronym, c.FullForm}
+		}
 		var fs []string
 		for _, v := range ds.Details[i].Variants {
 			fs = append(fs, v.Form)
@@ -48,7 +56,12 @@ func (s *Store) Lookup(names []string) (map[string]review.Decision, error) {
 	} else {
 		seen := map[int64]bool{}
 		for _, n := range names {
-			for _, f := range append([]string{n}, s.forms[n]...) {
+			// The linked acronym or full form too: its entry may label n.
+			p := s.pairs[n]
+			for _, f := range append([]string{n, p.acronym, p.fullForm}, s.forms[n]...) {
+				if f == "" {
+					continue
+				}
 				es, err := s.tb.Lookup(f)
 				if err != nil {
 					return nil, err
@@ -63,15 +76,22 @@ func (s *Store) Lookup(names []string) (map[string]review.Decision, error) {
 		}
 	}
 	ix := termbase.NewIndex(entries, s.tb.Lang)
+	// A key names the entry holding it as a term before one holding it as
+	// a surface form (as termbase.Index looks them up), whatever order
+	// the entries came in.
 	byKey := map[string]*termbase.Entry{}
 	termOf := map[string]*termbase.Term{}
 	for _, e := range entries {
 		for _, t := range e.Terms {
+			if _, ok := byKey[t.Key]; !ok && t.Lang == s.tb.Lang {
+				byKey[t.Key], termOf[t.Key] = e, t
+			}
+		}
+	}
+	for _, e := range entries {
+		for _, t := range e.Terms {
 			if t.Lang != s.tb.Lang {
 				continue
-			}
-			if _, ok := byKey[t.Key]; !ok {
-				byKey[t.Key], termOf[t.Key] = e, t
 			}
 			for _, f := range t.Forms {
 				if k := termbase.Key(f); byKey[k] == nil {
@@ -82,10 +102,15 @@ func (s *Store) Lookup(names []string) (map[string]review.Decision, error) {
 	}
 	out := map[string]review.Decision{}
 	for _, n := range names {
-		label, entry := ix.Label(n, s.forms[n])
+		p := s.pairs[n]
+		label, entry := termio.LabelOf(ix, n, s.forms[n], p.acronym, p.fullForm)
 		k := termbase.Key(n)
 		e, t := byKey[k], termOf[k]
-		if e == nil && entry != "" {
+		switch {
+		case e != nil || entry == "":
+		case label == termbase.LabelAcronym || label == termbase.LabelFullForm:
+			e = byKey[termbase.Key(entry)] // the entry of the accepted partner
+		default:
 			for _, f := range s.forms[n] {
 				if e = byKey[termbase.Key(f)]; e != nil {
 					break

@@ -9,6 +9,7 @@ import (
 
 	"glossmith/extract/review"
 	"glossmith/extract/termbase"
+	"glossmith/extract/termio"
 	"glossmith/extract/terms"
 )
 
@@ -101,4 +102,75 @@ func TestLookupPathsAgree(t *testing.T) {
 	assert.Equal(t, few["drip line"], lots["drip line"])
 	assert.Equal(t, few["valve body"], lots["valve body"])
 	assert.Equal(t, review.Accepted, lots["drip line"].Status)
+}
+
+// The page labels a candidate linked to an accepted acronym or full form
+// as terms --termbase does (termio.Label over the same candidates): with
+// "RMS" accepted, "root zone moisture sensor" — whose forms hold the
+// acronym's spellings — is its full form, not a variant; with the full
+// form accepted, "RMS" is its acronym, not new. Both Lookup paths. The
+// acronym is an invented one ("root zone moisture sensor (RMS)").
+func TestAcronymPairLabels(t *testing.T) {
+	const full, acr = "root zone moisture sensor", "RMS"
+	cands := []*terms.Term{
+		{Term: full, Acronym: acr, Variants: []terms.Variant{{Form: acr, Count: 3}, {Form: full, Count: 3}}},
+		{Term: acr, FullForm: full, Variants: []terms.Variant{{Form: acr, Count: 3}}},
+		{Term: "drip emitter", Variants: []terms.Variant{{Form: "drip emitter", Count: 1}}},
+	}
+	ds := &review.Dataset{}
+	for i, c := range cands {
+		ds.Candidates = append(ds.Candidates, review.Candidate{ID: i, Term: c.Term, Acronym: c.Acronym, FullForm: c.FullForm})
+		ds.Details = append(ds.Details, review.Detail{Variants: c.Variants})
+	}
+	names := []string{full, acr, "drip emitter"}
+	for _, tc := range []struct {
+		accept    []string
+		full, acr review.Decision // status and entry
+	}{
+		{[]string{acr}, review.Decision{Status: review.FullForm, Entry: acr}, review.Decision{Status: review.Accepted}},
+		{[]string{full}, review.Decision{Status: review.Accepted}, review.Decision{Status: review.Acronym, Entry: full}},
+		{[]string{acr, full}, review.Decision{Status: review.Accepted}, review.Decision{Status: review.Accepted}},
+		// The page accepts a term with its forms, the acronym's spellings
+		// among them: accepting "RMS" afterwards accepts the term it is a
+		// form of (termbase.Store.Accept), and "RMS" stays its acronym.
+		{[]string{full, acr}, review.Decision{Status: review.Accepted}, review.Decision{Status: review.Acronym, Entry: full}},
+	} {
+		tb, err := termbase.Open(filepath.Join(t.TempDir(), "t.gtb"))
+		require.NoError(t, err)
+		s := New(tb, ds)
+		for _, a := range tc.accept {
+			require.NoError(t, s.Apply(review.Action{Kind: review.Accept, Term: a}))
+		}
+		ix, err := tb.Index(tb.Lang)
+		require.NoError(t, err)
+		termio.Label(ix, cands)
+		padded := append(make([]string, 0, smallLookup+len(names)), names...)
+		for len(padded) <= smallLookup {
+			padded = append(padded, "filler")
+		}
+		for _, ask := range [][]string{names, padded} {
+			got, err := s.Lookup(ask)
+			require.NoError(t, err)
+			for _, want := range []struct {
+				term string
+				d    review.Decision
+			}{{full, tc.full}, {acr, tc.acr}} {
+				d := got[want.term]
+				assert.Equal(t, want.d.Status, d.Status, "%s with %v accepted (%d names)", want.term, tc.accept, len(ask))
+				assert.Equal(t, want.d.Entry, d.Entry, "%s with %v accepted (%d names)", want.term, tc.accept, len(ask))
+				if want.d.Entry != "" {
+					assert.Equal(t, want.d.Entry, d.Preferred, "the decision shows the partner's entry")
+				}
+			}
+			assert.NotContains(t, got, "drip emitter", "a candidate without a decision")
+		}
+		for i, c := range cands[:2] {
+			d := tc.full
+			if i == 1 {
+				d = tc.acr
+			}
+			assert.Equal(t, string(d.Status), c.Status, "terms --termbase labels %s alike", c.Term)
+		}
+		require.NoError(t, tb.Close())
+	}
 }

@@ -354,18 +354,25 @@ func (s *Server) act(w http.ResponseWriter, r *http.Request) {
 }
 
 // affected lists the candidates whose decision an action may change: its
-// own, the other one of a merge, the form it names, and those shown as
-// variants of either.
+// own, the other one of a merge, the form it names, those shown as
+// variants of either, and the acronym or full form the documents link
+// either to (labelled by the other's decision).
 func (s *Server) affected(a review.Action) []int {
 	names := map[string]bool{a.Term: true, a.Other: true, a.Form: true}
 	for _, n := range []string{a.Term, a.Other} {
-		if i, ok := s.byTerm[n]; ok && s.decisions[i].Entry != "" {
-			names[s.decisions[i].Entry] = true
+		if i, ok := s.byTerm[n]; ok {
+			if e := s.decisions[i].Entry; e != "" {
+				names[e] = true
+			}
+			c := s.ds.Candidates[i]
+			names[c.Acronym], names[c.FullForm] = true, true
 		}
 	}
+	delete(names, "")
 	var ids []int
 	for i, d := range s.decisions {
-		if names[s.ds.Candidates[i].Term] || d.Entry != "" && names[d.Entry] {
+		c := s.ds.Candidates[i]
+		if names[c.Term] || names[d.Entry] || names[c.Acronym] || names[c.FullForm] {
 			ids = append(ids, i)
 		}
 	}

@@ -176,7 +176,7 @@
     { key: 'dp', label: 'DP', num: true, d: 2 },
     { key: 'pos', label: 'POS', text: true }
   ];
-  const statuses = ['new', 'accepted', 'rejected', 'deferred', 'variant', 'deprecated'];
+  const statuses = ['new', 'accepted', 'rejected', 'deferred', 'variant', 'acronym', 'full form', 'deprecated'];
 
   // ---- the table ----
 
@@ -203,10 +203,16 @@
     renderTable();
   }
 
+  // relation names how a candidate with an entry other than its own
+  // belongs to it: a variant, or the acronym or full form of its term.
+  function relation(d) {
+    return d.status === 'acronym' || d.status === 'full form' ? d.status : 'variant';
+  }
+
   function statusChip(d) {
     const st = d.status || 'new';
-    const chip = el('span', { class: 'chip ' + st, text: st });
-    if (st === 'variant' && d.entry) chip.title = 'variant of ' + d.entry;
+    const chip = el('span', { class: 'chip ' + st.replace(/ /g, '-'), text: st });
+    if (d.entry && st !== 'new') chip.title = relation(d) + ' of ' + d.entry;
     return chip;
   }
 
@@ -291,8 +297,9 @@
     kids.push(el('h2', null, [el('span', { id: 'gs-term', text: c.term }), statusChip(dec)]));
     kids.push(el('div', { class: 'gs-facts', text:
       'rank ' + c.rank + ' · ' + c.freq + '× in ' + c.docs + ' document(s) · score ' + fmt(c.score, 2) +
-      ' · ' + c.words + ' word(s) · ' + c.pos + (dec.entry ? ' · variant of “' + dec.entry + '”' : '') +
-      (c.acr ? ' · acronym “' + c.acr + '” (its uses counted here)' : '') + (c.full ? ' · acronym of “' + c.full + '”' : '') +
+      ' · ' + c.words + ' word(s) · ' + c.pos + (dec.entry ? ' · ' + relation(dec) + ' of “' + dec.entry + '”' : '') +
+      (c.acr ? ' · acronym “' + c.acr + '” (its uses counted here)' : '') +
+      (c.full && !(dec.status === 'acronym' && dec.entry === c.full) ? ' · acronym of “' + c.full + '”' : '') +
       (c.in ? ' · mostly within “' + c.in + '”' : '') +
       (dec.concept && dec.concept.length ? ' · one concept with ' + dec.concept.map(t => '“' + t + '”').join(', ') : '') }));
     kids.push(actionBar());
