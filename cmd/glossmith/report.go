@@ -9,10 +9,14 @@ import (
 	"glossmith/tagger/hmm"
 )
 
+// prepareFunc labels or filters the candidates of a corpus before they
+// are ranked (terms --termbase); nil leaves them as they are.
+type prepareFunc func(corpus *terms.Corpus, cands []*terms.Term) ([]*terms.Term, error)
+
 // runExtraction runs the pipeline with the terms matcher and the stock
 // pair rules and builds the dataset; nil when nothing was read.
 func runExtraction(in *inputFlags, args []string, model *hmm.Model, tm *pattern.Matcher, opt terms.Options,
-	ref terms.Reference, contexts int, rank terms.RankOptions) (*review.Dataset, error) {
+	ref terms.Reference, contexts int, rank terms.RankOptions, prepare prepareFunc) (*review.Dataset, error) {
 	pairRules, err := grammar.LoadStock("pairs")
 	if err != nil {
 		return nil, err
@@ -31,7 +35,13 @@ func runExtraction(in *inputFlags, args []string, model *hmm.Model, tm *pattern.
 	if x.Corpus.Documents() == 0 {
 		return nil, runErr
 	}
-	ds, err := x.Dataset(ref, rank)
+	cands := x.Corpus.Terms(ref)
+	if prepare != nil {
+		if cands, err = prepare(x.Corpus, cands); err != nil {
+			return nil, err
+		}
+	}
+	ds, err := x.DatasetOf(cands, rank)
 	if err != nil {
 		return nil, err
 	}
@@ -39,10 +49,11 @@ func runExtraction(in *inputFlags, args []string, model *hmm.Model, tm *pattern.
 }
 
 // writeHTMLReport is `terms --to html`: the candidates as terms ranks
-// them, with what the review page's detail view shows, as one static page.
+// them (prepare: as its termbase flags label and keep them), with what the
+// review page's detail view shows, as one static page.
 func writeHTMLReport(in *inputFlags, args []string, model *hmm.Model, tm *pattern.Matcher, opt terms.Options,
-	ref terms.Reference, rank terms.RankOptions, outPath string) error {
-	ds, runErr := runExtraction(in, args, model, tm, opt, ref, web.ReportContexts, rank)
+	ref terms.Reference, rank terms.RankOptions, prepare prepareFunc, outPath string) error {
+	ds, runErr := runExtraction(in, args, model, tm, opt, ref, web.ReportContexts, rank, prepare)
 	if ds == nil {
 		return runErr
 	}

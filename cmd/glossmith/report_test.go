@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/csv"
+	"encoding/json"
 	"fmt"
 	"glossmith/extract/termbase"
 	"glossmith/internal/testenv"
@@ -23,7 +24,12 @@ func TestReportInBrowser(t *testing.T) {
 	dir := t.TempDir()
 	report := filepath.Join(dir, "report.html")
 	inputs := []string{"testdata/demo", "testdata/review/markup-in-text.txt"}
-	r := run(t, "", append([]string{"terms", "-q", "--to", "html", "-o", report}, inputs...)...)
+	// A termbase where the acronym "VPD" is accepted: the report shows its
+	// full form's label.
+	labels := filepath.Join(dir, "labels.gtb")
+	r := run(t, "", "termbase", "--termbase", labels, "accept", "VPD")
+	require.Equal(t, 0, r.code, r.stderr)
+	r = run(t, "", append([]string{"terms", "-q", "--to", "html", "--termbase", labels, "-o", report}, inputs...)...)
 	require.Equal(t, 0, r.code, r.stderr)
 	tsv := run(t, "", append([]string{"terms", "-q", "--to", "tsv"}, inputs...)...)
 	require.Equal(t, 0, tsv.code, tsv.stderr)
@@ -42,6 +48,10 @@ func TestReportInBrowser(t *testing.T) {
 	first, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#gs-rows tr:first-child td:nth-child(2)`)))
 	require.NoError(t, err)
 	assert.Equal(t, strings.Split(lines[1], "\t")[1], first, "the first row is terms' first")
+
+	require.NoError(t, chromedp.Do(ctx, showTerm("vapour pressure deficit"),
+		chromedp.WaitVisible(rowXPath("vapour pressure deficit")+`/td[3]/span[text()="full form"][@title="full form of VPD"]`),
+		chromedp.WaitVisible(`//div[@class="gs-facts"][contains(text(), "full form of “VPD”")]`)), "the termbase's label")
 
 	// A decision by key and a remark.
 	const remark = `The panel, not the pump, "as labelled".`
@@ -101,4 +111,67 @@ func TestReportSizeWind(t *testing.T) {
 	require.NoError(t, err)
 	assert.LessOrEqual(t, fi.Size(), int64(3_000_000), "report size")
 	t.Logf("wind report: %d bytes", fi.Size())
+}
+
+// With a termbase, the report carries each candidate's label as terms'
+// JSON Lines gives it — the full form of an accepted acronym is its
+// `full form`, the acronym of an accepted full form its `acronym` — and
+// --new keeps the same candidates. Invented texts defining "root zone
+// moisture sensor (RMS)".
+func TestReportLabelsLikeTerms(t *testing.T) {
+	dir := t.TempDir()
+	docs := acronymDocs(t, dir)
+	for _, accept := range []string{"RMS", "root zone moisture sensor"} {
+		tb := filepath.Join(dir, accept+".gtb")
+		r := run(t, "", "termbase", "--termbase", tb, "accept", accept)
+		require.Equal(t, 0, r.code, r.stderr)
+		for _, extra := range [][]string{{"--all"}, {"--all", "--new"}} {
+			report := filepath.Join(dir, "report.html")
+			r = run(t, "", append(append([]string{"terms", "-q", "--termbase", tb, "-o", report}, extra...), docs)...)
+			require.Equal(t, 0, r.code, r.stderr)
+			got := reportLabels(t, report)
+			want := statusOf(t, append(append([]string{"terms", "-q", "--termbase", tb, "--to", "jsonl"}, extra...), docs)...)
+			require.NotEmpty(t, want)
+			assert.Len(t, got, len(want), "%s accepted, %v: the same candidates", accept, extra)
+			for term, w := range want {
+				if w[1] == term {
+					w[1] = "" // the report names the entry only when it is another term's
+				}
+				assert.Equal(t, w, got[term], "%s with %s accepted, %v", term, accept, extra)
+			}
+		}
+		st := reportLabels(t, filepath.Join(dir, "report.html"))
+		require.NoError(t, os.Remove(filepath.Join(dir, "report.html")))
+		assert.NotContains(t, st, "RMS", "--new leaves out the acronym pair with %s accepted", accept)
+	}
+	r := run(t, "", "terms", "-q", "--termbase", filepath.Join(dir, "RMS.gtb"), "--all", "-o", filepath.Join(dir, "r.html"), docs)
+	require.Equal(t, 0, r.code, r.stderr)
+	st := reportLabels(t, filepath.Join(dir, "r.html"))
+	assert.Equal(t, [2]string{"full form", "RMS"}, st["root zone moisture sensor"])
+	assert.Equal(t, [2]string{"accepted", ""}, st["RMS"])
+}
+
+// reportLabels reads the data inlined in a report and returns each
+// candidate's status and entry.
+func reportLabels(t *testing.T, path string) map[string][2]string {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	require.NoError(t, err)
+	_, data, ok := strings.Cut(string(b), `<script type="application/json" id="gs-data">`)
+	require.True(t, ok, "the report's data element")
+	data, _, ok = strings.Cut(data, "</script>")
+	require.True(t, ok)
+	var d struct {
+		Cands []struct {
+			Term   string `json:"term"`
+			Status string `json:"status"`
+			Entry  string `json:"entry"`
+		} `json:"cands"`
+	}
+	require.NoError(t, json.Unmarshal([]byte(data), &d))
+	out := map[string][2]string{}
+	for _, c := range d.Cands {
+		out[c.Term] = [2]string{c.Status, c.Entry}
+	}
+	return out
 }

@@ -214,5 +214,5 @@ func extractForReview(in *inputFlags, args []string, contexts int, rank terms.Ra
 	if err != nil {
 		return nil, err
 	}
-	return runExtraction(in, args, model, tm, terms.Options{}, terms.ModelReference(model), contexts, rank)
+	return runExtraction(in, args, model, tm, terms.Options{}, terms.ModelReference(model), contexts, rank, nil)
 }

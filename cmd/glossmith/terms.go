@@ -229,7 +229,12 @@ func (o *termsOptions) run(args []string) error {
 		ref = counts
 	}
 	if o.to == "html" {
-		return writeHTMLReport(&o.in, args, model, m, opt, ref, terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit}, o.outPath)
+		// The report's candidates carry the termbase's labels as terms'
+		// other formats do (--new and --record too).
+		prepare := func(corpus *terms.Corpus, cands []*terms.Term) ([]*terms.Term, error) {
+			return o.tb.apply(cands, termbase.Run{Inputs: args, Documents: corpus.Documents(), Tokens: corpus.Tokens()})
+		}
+		return writeHTMLReport(&o.in, args, model, m, opt, ref, terms.RankOptions{MinFreq: o.minFreq, Sort: o.sortKey, All: o.all, Limit: o.limit}, prepare, o.outPath)
 	}
 	col := terms.NewCollector(m, opt)
 	corpus := terms.NewCorpus(max(o.contexts, 3))

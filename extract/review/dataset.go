@@ -46,6 +46,13 @@ type Candidate struct {
 	Acronym  string `json:"acr,omitempty"`
 	FullForm string `json:"full,omitempty"`
 	Within   string `json:"in,omitempty"`
+	// Status and Entry are the termbase's label of the candidate when the
+	// dataset was built from labelled candidates (terms.Term.Status; the
+	// report of terms --termbase), and the preferred term of the entry it
+	// belongs to when another. The live page reads decisions from its
+	// Store instead.
+	Status string `json:"status,omitempty"`
+	Entry  string `json:"entry,omitempty"`
 }
 
 // Detail is what the detail pane shows of one candidate.
@@ -99,7 +106,10 @@ func Build(corpus *terms.Corpus, ranked []*terms.Term, pairs *colloc.Counter, co
 	for i, t := range ranked {
 		ds.Candidates[i] = Candidate{ID: i, Rank: t.Rank, Term: t.Term, POS: t.POS, Words: t.Words, Freq: t.Freq,
 			Docs: t.Docs, Score: finite(t.Score), Keyness: finite(t.Keyness), Weirdness: finite(t.Weirdness),
-			CValue: finite(t.CValue), DP: finite(t.DP), Acronym: t.Acronym, FullForm: t.FullForm, Within: t.Within}
+			CValue: finite(t.CValue), DP: finite(t.DP), Acronym: t.Acronym, FullForm: t.FullForm, Within: t.Within, Status: t.Status}
+		if terms.Key(t.Entry) != terms.Key(t.Term) {
+			ds.Candidates[i].Entry = t.Entry
+		}
 		d := &ds.Details[i]
 		d.Variants = t.Variants
 		for _, dc := range corpus.PerDoc(t) {

@@ -65,7 +65,14 @@ func (x *Extraction) Reduce(_ *doc.Document, p DocPart) {
 // Dataset ranks the candidates against the reference and builds the
 // dataset.
 func (x *Extraction) Dataset(ref terms.Reference, opt terms.RankOptions) (*Dataset, error) {
-	ranked, err := terms.Rank(x.Corpus.Terms(ref), opt)
+	return x.DatasetOf(x.Corpus.Terms(ref), opt)
+}
+
+// DatasetOf ranks candidates of the corpus (Corpus.Terms, labelled or
+// filtered by the caller: a termbase's labels, only the new ones) and
+// builds the dataset.
+func (x *Extraction) DatasetOf(cands []*terms.Term, opt terms.RankOptions) (*Dataset, error) {
+	ranked, err := terms.Rank(cands, opt)
 	if err != nil {
 		return nil, err
 	}

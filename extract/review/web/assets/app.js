@@ -56,18 +56,24 @@
   }
 
   // The report keeps the expert's remarks in the browser's storage for this
-  // file, and offers them as CSV for `termbase import`.
+  // file, and offers them as CSV for `termbase import`. A candidate without
+  // a remark's decision shows the termbase's label the report was written
+  // with (terms --termbase), if any.
   function reportSource(data) {
     const key = 'glossmith-remarks:' + data.stamp;
     let remarks = {};
     try { remarks = JSON.parse(localStorage.getItem(key) || '{}') || {}; } catch (e) { remarks = {}; }
     const history = [];
-    const asDecision = r => ({ status: r && r.status ? r.status : 'new', note: r && r.note || '' });
+    function asDecision(id) {
+      const r = remarks[id], c = data.cands[id] || {};
+      if (r && r.status) return { status: r.status, note: r.note || '' };
+      return { status: c.status || 'new', entry: c.entry || '', note: r && r.note || '' };
+    }
     function save() { try { localStorage.setItem(key, JSON.stringify(remarks)); } catch (e) { /* storage off: kept in memory */ } }
-    function reviewed() { return data.cands.filter(c => remarks[c.id] && remarks[c.id].status).length; }
+    function reviewed() { return data.cands.filter(c => asDecision(c.id).status !== 'new').length; }
     function reply(ids) {
       const changed = {};
-      ids.forEach(id => { changed[id] = asDecision(remarks[id]); });
+      ids.forEach(id => { changed[id] = asDecision(id); });
       return { changed: changed, reviewed: reviewed(), total: data.cands.length };
     }
     const statusOf = { accept: 'accepted', reject: 'rejected', defer: 'deferred' };
@@ -75,11 +81,11 @@
       live: false,
       remarks: remarks,
       load: () => Promise.resolve(Object.assign({}, data, {
-        decisions: data.cands.map(c => asDecision(remarks[c.id]))
+        decisions: data.cands.map(c => asDecision(c.id))
       })),
       detail: id => {
         const d = expandDetail(data, id);
-        d.decision = asDecision(remarks[id]);
+        d.decision = asDecision(id);
         return Promise.resolve(d);
       },
       more: () => Promise.resolve({ contexts: [], more: 0 }),
