@@ -154,6 +154,13 @@ func TestTermsLabelsAcronymPairs(t *testing.T) {
 		assert.Equal(t, tc.full, st["root zone moisture sensor"], "%v", tc.accept)
 		assert.Equal(t, tc.rm, st["RMS"], "%v", tc.accept)
 		assert.Equal(t, "new", st["drip emitter"][0], "%v", tc.accept)
+		// --new leaves out both terms of the concept, in TBX too (one
+		// entry of fullForm and acronym terms otherwise).
+		nw := run(t, "", "terms", "-q", "--termbase", tb, "--to", "tbx", "--all", "--new", "--max-words", "5", docs)
+		require.Equal(t, 0, nw.code, nw.stderr)
+		assert.Contains(t, nw.stdout, "<term>drip emitter</term>", "%v", tc.accept)
+		assert.NotContains(t, nw.stdout, "<term>RMS</term>", "%v", tc.accept)
+		assert.NotContains(t, nw.stdout, "<term>root zone moisture sensor</term>", "%v", tc.accept)
 	}
 }
 
