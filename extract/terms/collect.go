@@ -561,13 +561,13 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 		g.lastSent = int32(s.Index)
 		g.ctx[g.nctx] = sc.contextOf(dc, si)
 		g.nctx++
-		if k := g.nctx - 1; k > 0 && !g.firstGood && goodContext(dc.contexts[g.ctx[k]].text) {
+		if k := g.nctx - 1; k > 0 && !g.firstGood && goodContext(s, dc.contexts[g.ctx[k]].text) {
 			g.ctx[0], g.ctx[k] = g.ctx[k], g.ctx[0]
 			g.firstGood = true
 		} else if k == 0 {
-			g.firstGood = goodContext(dc.contexts[g.ctx[0]].text)
+			g.firstGood = goodContext(s, dc.contexts[g.ctx[0]].text)
 		}
-	case !g.firstGood && goodContext(sc.sentenceText(dc, si)):
+	case !g.firstGood && goodContext(s, sc.sentenceText(dc, si)):
 		g.lastSent = int32(s.Index)
 		g.ctx[0] = sc.contextOf(dc, si)
 		g.firstGood = true
@@ -579,11 +579,17 @@ func (c *Collector) count(dc *DocCounts, sc *scratch, si, i, j int) {
 // "sentence".
 const maxContextLen = 300
 
-// goodContext reports whether a sentence is a good example: a full
-// sentence (ending in a full stop, a question or exclamation mark, maybe
-// followed by a closing quote or bracket) of at most maxContextLen bytes
-// and more than three words' worth of text, not a heading or a list item.
-func goodContext(text string) bool {
+// goodContext reports whether sentence s, of text text, is a good example:
+// not a heading or caption as the document's markup showed it (a caption
+// may end in a full stop, a heading may be "Step 3. Open the Valve."), and
+// a full sentence (ending in a full stop, a question or exclamation mark,
+// maybe followed by a closing quote or bracket) of at most maxContextLen
+// bytes and more than three words' worth of text, so not a heading the
+// markup did not show either, nor a list item.
+func goodContext(s *doc.Sentence, text string) bool {
+	if s.Heading {
+		return false
+	}
 	t := strings.TrimRight(text, "\"')]”’ ")
 	return len(text) <= maxContextLen && len(t) > 20 && strings.ContainsAny(t[len(t)-1:], ".!?") && strings.Count(t, " ") >= 3
 }

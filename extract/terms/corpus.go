@@ -127,7 +127,10 @@ type group struct {
 	// one per document, then spare ones, used when too few documents
 	// offer one.
 	contexts []ctxRef
-	main     int // contexts[:main] are the main ones
+	// contexts[:main] are the main ones, and contexts[:good] of those
+	// are good examples (goodContext), in document order, then the others.
+	// (Two int32s take the place of one int: groups are many.)
+	main, good int32
 
 	// first holds the first element of each slice above: most groups are
 	// rare candidates that never get a second one, and one allocation
@@ -216,13 +219,26 @@ func (c *Corpus) Add(dc *DocCounts) {
 		}
 		// Contexts: at most one per document until every candidate has
 		// its quota, so examples show the term in different documents.
+		// Good ones (no heading, a full sentence: goodContext) go before
+		// the others and, once the quota is full, take their places, so
+		// that a term its first document names only in a heading shows a
+		// later document's sentence first.
 		for i, k := range x.ctx[:x.nctx] {
 			switch {
-			case i == 0 && g.main < c.contexts:
+			case i == 0 && int(g.main) < c.contexts:
 				c.roomForContext(g)
-				g.contexts = slices.Insert(g.contexts, g.main, c.context(dc, di, k))
+				at := g.main
+				if x.firstGood {
+					at = g.good
+					g.good++
+				}
+				g.contexts = slices.Insert(g.contexts, int(at), c.context(dc, di, k))
 				g.main++
-			case len(g.contexts)-g.main < c.contexts:
+			case i == 0 && x.firstGood && g.good < g.main:
+				g.contexts = slices.Delete(g.contexts, int(g.main)-1, int(g.main))
+				g.contexts = slices.Insert(g.contexts, int(g.good), c.context(dc, di, k))
+				g.good++
+			case len(g.contexts)-int(g.main) < c.contexts:
 				c.roomForContext(g)
 				g.contexts = append(g.contexts, c.context(dc, di, k))
 			}
@@ -567,8 +583,8 @@ func sortVariants(vs []Variant) {
 // of every term share a few allocations); it returns the rest of buf.
 func (c *Corpus) exampleContexts(g *group, buf []Context) (out, rest []Context) {
 	n := len(g.contexts)
-	if g.main < n {
-		n = max(g.main, min(n, c.contexts))
+	if main := int(g.main); main < n {
+		n = max(main, min(n, c.contexts))
 	}
 	if n == 0 {
 		return nil, buf
