@@ -208,7 +208,43 @@ func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 	if lem, ok := classicalLemma(form, upos, xpos); ok {
 		return lem
 	}
+	if stem, ok := acronymPlural(form, xpos); ok {
+		if IsProper(upos, xpos) {
+			return stem
+		}
+		return strings.ToLower(stem)
+	}
 	return l.byRule(form, upos, xpos)
+}
+
+// acronymPlural returns the acronym of a plural written as an acronym with
+// a lower-case "s" ("RMSs", "PLCs", "HAWTs"): two or more capitals (digits
+// and hyphens may come between) and the "s". Suffix rules learned from
+// lower-case words read the letters as a word ("RMSs" → "rme"), which would
+// part the plural from its acronym. Only plural tags qualify (common
+// practice of English technical writing; "UPSs", not "UPS'").
+func acronymPlural(form, xpos string) (string, bool) {
+	if xpos != "NNS" && xpos != "NNPS" {
+		return "", false
+	}
+	n := len(form)
+	if n < 3 || form[n-1] != 's' {
+		return "", false
+	}
+	upper := 0
+	for i := 0; i < n-1; i++ {
+		switch c := form[i]; {
+		case c >= 'A' && c <= 'Z':
+			upper++
+		case c >= '0' && c <= '9', c == '-' && i > 0:
+		default:
+			return "", false
+		}
+	}
+	if upper < 2 || form[n-2] == '-' {
+		return "", false
+	}
+	return form[:n-1], true
 }
 
 //go:embed classical.txt

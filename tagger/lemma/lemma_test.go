@@ -33,9 +33,39 @@ func TestRulesGeneralize(t *testing.T) {
 		{"Fernhill", "PROPN", "NNP", "Fernhill"},
 		{"watered", "VERB", "VBD", "water"},
 		{"valve", "NOUN", "NN", "valve"}, // tag never seen: word as is
+		// An acronym's plural loses its "s" and nothing else; suffix rules
+		// would read the capitals as a word ("RMSs" gave "rme").
+		{"RMSs", "NOUN", "NNS", "rms"},
+		{"PLCs", "PROPN", "NNPS", "PLC"},
+		{"EC-3s", "NOUN", "NNS", "ec-3"},
+		{"RMS", "NOUN", "NN", "rms"}, // not plural
 	}
 	for _, c := range cases {
 		assert.Equal(t, c.want, l.Lemma(c.form, c.upos, c.xpos), "Lemma(%q, %s)", c.form, c.xpos)
+	}
+}
+
+// TestAcronymPlural: what reads as an acronym's plural and what does not.
+func TestAcronymPlural(t *testing.T) {
+	cases := []struct {
+		form, xpos, stem string
+		ok               bool
+	}{
+		{"RMSs", "NNS", "RMS", true},
+		{"HAWTs", "NNPS", "HAWT", true},
+		{"EC-3s", "NNS", "EC-3", true},
+		{"RMSs", "NN", "", false},  // not a plural tag
+		{"Ss", "NNS", "", false},   // one capital is no acronym
+		{"ABCS", "NNS", "", false}, // a capital S is no plural mark
+		{"Valves", "NNS", "", false},
+		{"kPas", "NNS", "", false}, // a unit, lower case inside
+		{"AB-s", "NNS", "", false},
+		{"-ABs", "NNS", "", false},
+	}
+	for _, c := range cases {
+		stem, ok := acronymPlural(c.form, c.xpos)
+		assert.Equal(t, c.ok, ok, "acronymPlural(%q, %s)", c.form, c.xpos)
+		assert.Equal(t, c.stem, stem, "acronymPlural(%q, %s)", c.form, c.xpos)
 	}
 }
 
