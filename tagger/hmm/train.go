@@ -69,9 +69,12 @@ type TrainOptions struct {
 
 	// Beam is the state pruning threshold of Viterbi: states scoring more
 	// than Beam below the best state of their position are dropped. The
-	// default is ln 1000 for HMM (Brants' threshold of 1000) and 30 for the
+	// default is ln 1000 for HMM (Brants' threshold of 1000) and 50 for the
 	// perceptron, where it applies when tagging, not while learning.
-	// Negative disables it.
+	// Negative disables it. On UD English EWT dev 30 lost the best path of
+	// some sentences (UPOS / XPOS 95.57 / 94.97 against 95.60 / 94.99 with
+	// none) and 50 nearly none (95.60 / 94.99) for 2.5% more instructions
+	// per tagging pass; no beam costs 25% more.
 	Beam float64
 
 	// FactoredTransitions adds perceptron transition weights shared by
@@ -127,7 +130,7 @@ func (o *TrainOptions) defaults() error {
 		if o.Method == MethodHMM {
 			o.Beam = 6.907755 // ln 1000
 		} else {
-			o.Beam = 30
+			o.Beam = 50
 		}
 	}
 	if o.SuffixLen <= 0 {
