@@ -173,6 +173,18 @@ func FuzzSourceOffsets(f *testing.F) {
 			opt.Encoding = "windows-1252"
 			decode = decodedWith(charmap.Windows1252)
 		}
+		if how%4 == 0 || how%4 == 3 {
+			// A byte-order mark the input begins with decides first, over
+			// the fallback and --encoding alike.
+			switch {
+			case bytes.HasPrefix(data, []byte("\xEF\xBB\xBF")):
+				decode = perByte
+			case bytes.HasPrefix(data, []byte{0xFF, 0xFE}):
+				decode = decodedWith(utf16le)
+			case bytes.HasPrefix(data, []byte{0xFE, 0xFF}):
+				decode = decodedWith(unicode.UTF16(unicode.BigEndian, unicode.IgnoreBOM))
+			}
+		}
 		opt.Stdin = bytes.NewReader(data)
 		d, _ := Read(Input{Name: "-", Path: "-"}, opt)
 		if d == nil {
