@@ -367,30 +367,8 @@ func TestReviewLabelsAcronymPairs(t *testing.T) {
 	tbPath := filepath.Join(dir, "pair.gtb")
 	srv := startReview(t, tbPath, "--all", docs)
 	c := srv.client(t)
-	type decision struct {
-		Status string `json:"status"`
-		Entry  string `json:"entry"`
-	}
-	data := func() (ids map[string]int, decs []decision) {
-		resp, err := c.Get(srv.origin + "/api/data")
-		require.NoError(t, err)
-		defer resp.Body.Close()
-		var d struct {
-			Cands []struct {
-				ID   int    `json:"id"`
-				Term string `json:"term"`
-			} `json:"cands"`
-			Decisions []decision `json:"decisions"`
-		}
-		require.NoError(t, json.NewDecoder(resp.Body).Decode(&d))
-		ids = map[string]int{}
-		for _, x := range d.Cands {
-			ids[x.Term] = x.ID
-		}
-		return ids, d.Decisions
-	}
 	const full, acr = "root zone moisture sensor", "RMS"
-	ids, decs := data()
+	ids, decs := pageDecisions(t, srv, c)
 	require.Contains(t, ids, full)
 	require.Contains(t, ids, acr)
 	assert.Equal(t, "new", decs[ids[full]].Status)
@@ -409,11 +387,73 @@ func TestReviewLabelsAcronymPairs(t *testing.T) {
 	require.Equal(t, http.StatusOK, resp.StatusCode)
 	assert.Equal(t, decision{"accepted", ""}, ch.Changed[ids[acr]])
 	assert.Equal(t, decision{"full form", acr}, ch.Changed[ids[full]], "the full form's label in the reply to the accept")
-	_, decs = data()
+	_, decs = pageDecisions(t, srv, c)
 	assert.Equal(t, decision{"full form", acr}, decs[ids[full]])
 	srv.stop(t)
 
 	st := statusOf(t, "terms", "--termbase", tbPath, "--to", "jsonl", "--all", docs)
 	assert.Equal(t, [2]string{"full form", acr}, st[full], "terms --termbase on the termbase the page wrote")
 	assert.Equal(t, "accepted", st[acr][0])
+}
+
+// decision is the status and entry the page's data gives a candidate.
+type decision struct {
+	Status string `json:"status"`
+	Entry  string `json:"entry"`
+}
+
+// pageDecisions reads the page's data: each candidate's id by its term,
+// and the decisions by id.
+func pageDecisions(t *testing.T, srv *reviewServer, c *http.Client) (ids map[string]int, decs []decision) {
+	t.Helper()
+	resp, err := c.Get(srv.origin + "/api/data")
+	require.NoError(t, err)
+	defer resp.Body.Close()
+	var d struct {
+		Cands []struct {
+			ID   int    `json:"id"`
+			Term string `json:"term"`
+		} `json:"cands"`
+		Decisions []decision `json:"decisions"`
+	}
+	require.NoError(t, json.NewDecoder(resp.Body).Decode(&d))
+	ids = map[string]int{}
+	for _, x := range d.Cands {
+		ids[x.Term] = x.ID
+	}
+	return ids, d.Decisions
+}
+
+// The page of a run recorded with terms --record labels an acronym pair
+// as terms --termbase does: the run keeps the link, so with "RMS"
+// accepted, "root zone moisture sensor" is its full form, and with the
+// full form accepted, "RMS" is its acronym.
+func TestReviewRecordedRunLabelsAcronymPairs(t *testing.T) {
+	dir := t.TempDir()
+	docs := acronymDocs(t, dir)
+	const full, acr = "root zone moisture sensor", "RMS"
+	for _, tc := range []struct {
+		accept    string
+		full, acr decision
+	}{
+		{acr, decision{"full form", acr}, decision{"accepted", ""}},
+		{full, decision{"accepted", ""}, decision{"acronym", full}},
+	} {
+		tbPath := filepath.Join(dir, tc.accept+".gtb")
+		rec := run(t, "", "terms", "-q", "--termbase", tbPath, "--record", "v1", "--all", "--max-words", "5", "--to", "tsv", docs)
+		require.Equal(t, 0, rec.code, rec.stderr)
+		r := run(t, "", "termbase", "--termbase", tbPath, "accept", tc.accept)
+		require.Equal(t, 0, r.code, r.stderr)
+		want := statusOf(t, "terms", "--termbase", tbPath, "--to", "jsonl", "--all", "--max-words", "5", docs)
+
+		srv := startReview(t, tbPath, "--run", "v1")
+		ids, decs := pageDecisions(t, srv, srv.client(t))
+		require.Contains(t, ids, full)
+		require.Contains(t, ids, acr)
+		assert.Equal(t, tc.full, decs[ids[full]], "%s with %s accepted", full, tc.accept)
+		assert.Equal(t, tc.acr, decs[ids[acr]], "%s with %s accepted", acr, tc.accept)
+		assert.Equal(t, want[full][0], decs[ids[full]].Status, "terms --termbase labels %s alike", full)
+		assert.Equal(t, want[acr][0], decs[ids[acr]].Status, "terms --termbase labels %s alike", acr)
+		srv.stop(t)
+	}
 }

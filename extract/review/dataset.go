@@ -255,6 +255,9 @@ type Listed struct {
 	Docs     int
 	Variants []terms.Variant
 	Contexts []terms.Context
+	// Acronym and FullForm link the candidate to its acronym or full form
+	// (as Candidate's), for the termbase's labels.
+	Acronym, FullForm string
 }
 
 // FromList makes the dataset of candidates recorded earlier, in the order
@@ -265,7 +268,8 @@ func FromList(source string, list []Listed) *Dataset {
 	words := make([][]string, len(list))
 	for i, c := range list {
 		ws := strings.Fields(c.Term)
-		ds.Candidates[i] = Candidate{ID: i, Rank: i + 1, Term: c.Term, POS: c.POS, Words: len(ws), Freq: c.Freq, Docs: c.Docs}
+		ds.Candidates[i] = Candidate{ID: i, Rank: i + 1, Term: c.Term, POS: c.POS, Words: len(ws), Freq: c.Freq, Docs: c.Docs,
+			Acronym: c.Acronym, FullForm: c.FullForm}
 		for k, w := range ws {
 			ws[k] = strings.ToLower(w)
 		}

@@ -196,6 +196,12 @@ type RunTerm struct {
 	Docs     int       `json:"docs"`
 	Forms    []Form    `json:"forms,omitempty"`
 	Contexts []Context `json:"contexts,omitempty"`
+	// Acronym and FullForm are the acronym the run's documents define for
+	// this candidate, or the full form they define it as the acronym of
+	// (terms.Term's fields), so that a recorded run is labelled as the
+	// live one is. Runs recorded before schema 3 have neither.
+	Acronym  string `json:"acronym,omitempty"`
+	FullForm string `json:"full_form,omitempty"`
 }
 
 // Form is a surface form with its count.

@@ -261,7 +261,7 @@ func (s *Store) RecordRun(run Run, cands []RunTerm) (Change, error) {
 		id, _ := res.LastInsertId()
 		t.runs = append(t.runs, id)
 		t.changed = true
-		stmt, err := t.tx.PrepareContext(t.ctx, "INSERT OR REPLACE INTO run_terms(run_id, term, key, pos, freq, docs, forms, contexts) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")
+		stmt, err := t.tx.PrepareContext(t.ctx, "INSERT OR REPLACE INTO run_terms(run_id, term, key, pos, freq, docs, forms, contexts, acronym, full_form) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")
 		if err != nil {
 			return t.s.errf(err)
 		}
@@ -271,7 +271,7 @@ func (s *Store) RecordRun(run Run, cands []RunTerm) (Change, error) {
 			c := &cands[i]
 			forms, _ := json.Marshal(c.Forms)
 			ctxs, _ := json.Marshal(clipContexts(c.Contexts))
-			if _, err := stmt.ExecContext(t.ctx, id, c.Term, Key(c.Term), c.POS, c.Freq, c.Docs, string(forms), string(ctxs)); err != nil {
+			if _, err := stmt.ExecContext(t.ctx, id, c.Term, Key(c.Term), c.POS, c.Freq, c.Docs, string(forms), string(ctxs), c.Acronym, c.FullForm); err != nil {
 				return t.s.errf(err)
 			}
 			byKey[Key(c.Term)] = c
@@ -351,7 +351,7 @@ func (s *Store) RunTerms(label string) (Run, []RunTerm, error) {
 	}
 	r.Time, _ = time.Parse(time.RFC3339Nano, ts)
 	_ = json.Unmarshal([]byte(inputs), &r.Inputs)
-	rows, err := s.db.Query("SELECT term, pos, freq, docs, forms, contexts FROM run_terms WHERE run_id = ? ORDER BY freq DESC, term", r.ID)
+	rows, err := s.db.Query("SELECT term, pos, freq, docs, forms, contexts, acronym, full_form FROM run_terms WHERE run_id = ? ORDER BY freq DESC, term", r.ID)
 	if err != nil {
 		return r, nil, s.errf(err)
 	}
@@ -360,7 +360,7 @@ func (s *Store) RunTerms(label string) (Run, []RunTerm, error) {
 	for rows.Next() {
 		var c RunTerm
 		var forms, ctxs string
-		if err := rows.Scan(&c.Term, &c.POS, &c.Freq, &c.Docs, &forms, &ctxs); err != nil {
+		if err := rows.Scan(&c.Term, &c.POS, &c.Freq, &c.Docs, &forms, &ctxs, &c.Acronym, &c.FullForm); err != nil {
 			return r, nil, s.errf(err)
 		}
 		_ = json.Unmarshal([]byte(forms), &c.Forms)

@@ -99,6 +99,10 @@ var migrations = []string{
 		forms TEXT NOT NULL DEFAULT '[]',
 		contexts TEXT NOT NULL DEFAULT '[]',
 		PRIMARY KEY(run_id, key));`,
+	// 3: the acronym / full-form link of a run's candidates (empty for
+	// runs recorded before: their documents are not at hand to find it).
+	`ALTER TABLE run_terms ADD COLUMN acronym TEXT NOT NULL DEFAULT '';
+	ALTER TABLE run_terms ADD COLUMN full_form TEXT NOT NULL DEFAULT '';`,
 }
 
 // SchemaVersion is the schema this glossmith writes.

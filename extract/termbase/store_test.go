@@ -5,6 +5,7 @@ import (
 	"math/rand"
 	"os"
 	"path/filepath"
+	"strconv"
 	"sync"
 	"testing"
 
@@ -187,6 +188,20 @@ func TestOpenRefusesOtherFiles(t *testing.T) {
 	assert.Contains(t, err.Error(), "not a glossmith termbase")
 }
 
+// reopen closes s and opens its file again, as this glossmith opens an
+// older termbase: the schema is then the current one.
+func reopen(t *testing.T, s *Store) *Store {
+	t.Helper()
+	require.NoError(t, s.Close())
+	s, err := Open(s.path)
+	require.NoError(t, err)
+	t.Cleanup(func() { s.Close() })
+	var v string
+	require.NoError(t, s.db.QueryRow("SELECT value FROM meta WHERE key = 'schema_version'").Scan(&v))
+	require.Equal(t, strconv.Itoa(SchemaVersion), v)
+	return s
+}
+
 // A file at schema version 1 is backed up, then migrated.
 func TestMigrationBacksUp(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "old.sqlite")
@@ -194,14 +209,7 @@ func TestMigrationBacksUp(t *testing.T) {
 	require.NoError(t, err)
 	_, err = s.Accept("valve")
 	require.NoError(t, err)
-	require.NoError(t, s.Close())
-
-	s, err = Open(path)
-	require.NoError(t, err)
-	defer s.Close()
-	var v string
-	require.NoError(t, s.db.QueryRow("SELECT value FROM meta WHERE key = 'schema_version'").Scan(&v))
-	assert.Equal(t, "2", v)
+	s = reopen(t, s)
 	_, err = s.Runs()
 	assert.NoError(t, err, "the runs table exists after migrating")
 	assert.Equal(t, Preferred, termStatus(t, s, "valve"))
@@ -213,6 +221,49 @@ func TestMigrationBacksUp(t *testing.T) {
 	require.NoError(t, err)
 	require.Len(t, es, 1)
 	assert.Equal(t, "valve", es[0].Terms[0].Text)
+}
+
+// A termbase at schema 2 — a run recorded as schema 2 stored it, by the
+// same SQL — migrates to schema 3 without loss: the run, its candidates'
+// counts, forms and contexts and the decisions read back as they were, the
+// old run without an acronym link; a run recorded afterwards keeps the
+// link (an invented "root zone moisture sensor (RMS)").
+func TestMigrationKeepsRecordedRuns(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "v2.sqlite")
+	s, err := open(path, 2)
+	require.NoError(t, err)
+	_, err = s.Accept("RMS")
+	require.NoError(t, err)
+	_, err = s.db.Exec(`INSERT INTO runs(id, label, time, inputs, documents, tokens) VALUES (1, 'v1', '2026-11-02T09:30:00Z', '["manuals/v1"]', 2, 40)`)
+	require.NoError(t, err)
+	_, err = s.db.Exec(`INSERT INTO run_terms(run_id, term, key, pos, freq, docs, forms, contexts) VALUES
+		(1, 'root zone moisture sensor', 'root zone moisture sensor', 'noun', 2, 2, '[{"text":"root zone moisture sensor","count":2}]',
+		 '[{"text":"The root zone moisture sensor (RMS) reads the water.","doc":"a.txt","line":1}]'),
+		(1, 'RMS', 'rms', 'noun', 3, 2, '[{"text":"RMS","count":3}]', '[]')`)
+	require.NoError(t, err)
+	s = reopen(t, s)
+	assert.FileExists(t, path+".v2.bak")
+	assert.Equal(t, Preferred, termStatus(t, s, "RMS"))
+	run, rts, err := s.RunTerms("v1")
+	require.NoError(t, err)
+	assert.Equal(t, []string{"manuals/v1"}, run.Inputs)
+	assert.Equal(t, 40, run.Tokens)
+	assert.Equal(t, []RunTerm{
+		{Term: "RMS", POS: "noun", Freq: 3, Docs: 2, Forms: []Form{{"RMS", 3}}, Contexts: []Context{}},
+		{Term: "root zone moisture sensor", POS: "noun", Freq: 2, Docs: 2, Forms: []Form{{"root zone moisture sensor", 2}},
+			Contexts: []Context{{Text: "The root zone moisture sensor (RMS) reads the water.", Doc: "a.txt", Line: 1}}},
+	}, rts)
+
+	rec := []RunTerm{
+		{Term: "RMS", Freq: 3, Docs: 2, FullForm: "root zone moisture sensor"},
+		{Term: "root zone moisture sensor", Freq: 2, Docs: 2, Acronym: "RMS"},
+		{Term: "drip emitter", Freq: 1, Docs: 1},
+	}
+	_, err = s.RecordRun(Run{Label: "v2", Tokens: 41}, rec)
+	require.NoError(t, err)
+	_, rts, err = s.RunTerms("v2")
+	require.NoError(t, err)
+	assert.Equal(t, rec, rts, "the acronym links come back")
 }
 
 // Two stores on one file deciding at the same time both succeed.

@@ -59,11 +59,13 @@ func OnlyNew(cands []*terms.Term) []*terms.Term {
 }
 
 // RunTerms turns candidates into what a recorded run keeps of them; the
-// part of speech is the TBX-Basic one of the candidate's head.
+// part of speech is the TBX-Basic one of the candidate's head. The
+// acronym / full-form link is kept, so that LabelOf labels a recorded
+// run's pair as it labels the live run's.
 func RunTerms(cands []*terms.Term) []termbase.RunTerm {
 	out := make([]termbase.RunTerm, len(cands))
 	for i, t := range cands {
-		r := termbase.RunTerm{Term: t.Term, POS: tbx.BasicPOS(t.POS), Freq: t.Freq, Docs: t.Docs}
+		r := termbase.RunTerm{Term: t.Term, POS: tbx.BasicPOS(t.POS), Freq: t.Freq, Docs: t.Docs, Acronym: t.Acronym, FullForm: t.FullForm}
 		for _, v := range t.Variants {
 			r.Forms = append(r.Forms, termbase.Form{Text: v.Form, Count: v.Count})
 		}

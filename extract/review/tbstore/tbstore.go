@@ -199,7 +199,8 @@ func (s *Store) Undo() (bool, error) {
 
 // FromRun is the review dataset of a run recorded in the termbase
 // (`terms --record LABEL`): its candidates, most frequent first, with
-// their forms and contexts.
+// their forms, contexts and acronym / full-form links (so that New labels
+// a pair as the live page does; runs recorded before schema 3 have none).
 func FromRun(tb *termbase.Store, label string) (*review.Dataset, error) {
 	run, rts, err := tb.RunTerms(label)
 	if err != nil {
@@ -207,7 +208,7 @@ func FromRun(tb *termbase.Store, label string) (*review.Dataset, error) {
 	}
 	list := make([]review.Listed, len(rts))
 	for i, rt := range rts {
-		l := review.Listed{Term: rt.Term, POS: rt.POS, Freq: rt.Freq, Docs: rt.Docs}
+		l := review.Listed{Term: rt.Term, POS: rt.POS, Freq: rt.Freq, Docs: rt.Docs, Acronym: rt.Acronym, FullForm: rt.FullForm}
 		for _, f := range rt.Forms {
 			l.Variants = append(l.Variants, terms.Variant{Form: f.Text, Count: f.Count})
 		}

@@ -174,3 +174,47 @@ func TestAcronymPairLabels(t *testing.T) {
 		require.NoError(t, tb.Close())
 	}
 }
+
+// A recorded run keeps the acronym / full-form links of its candidates,
+// so the page of a recorded run (FromRun) labels a pair as the live page
+// and terms --termbase do: with "RMS" accepted, "root zone moisture
+// sensor" is its full form; with the full form accepted, "RMS" its
+// acronym. The acronym is an invented one.
+func TestRecordedRunLabelsAcronymPairs(t *testing.T) {
+	const full, acr = "root zone moisture sensor", "RMS"
+	for _, tc := range []struct {
+		accept    string
+		full, acr review.Decision // status and entry
+	}{
+		{acr, review.Decision{Status: review.FullForm, Entry: acr}, review.Decision{Status: review.Accepted}},
+		{full, review.Decision{Status: review.Accepted}, review.Decision{Status: review.Acronym, Entry: full}},
+	} {
+		cands := []*terms.Term{
+			{Term: full, Acronym: acr, Freq: 3, Docs: 2, Variants: []terms.Variant{{Form: acr, Count: 3}, {Form: full, Count: 3}}},
+			{Term: acr, FullForm: full, Freq: 3, Docs: 2, Variants: []terms.Variant{{Form: acr, Count: 3}}},
+			{Term: "drip emitter", Freq: 1, Docs: 1, Variants: []terms.Variant{{Form: "drip emitter", Count: 1}}},
+		}
+		tb, err := termbase.Open(filepath.Join(t.TempDir(), "t.gtb"))
+		require.NoError(t, err)
+		_, err = tb.RecordRun(termbase.Run{Label: "v1", Documents: 2, Tokens: 40}, termio.RunTerms(cands))
+		require.NoError(t, err)
+		_, err = tb.Accept(tc.accept)
+		require.NoError(t, err)
+
+		ds, err := FromRun(tb, "v1")
+		require.NoError(t, err)
+		got, err := New(tb, ds).Lookup([]string{full, acr, "drip emitter"})
+		require.NoError(t, err)
+		ix, err := tb.Index(tb.Lang)
+		require.NoError(t, err)
+		termio.Label(ix, cands)
+		for i, want := range []review.Decision{tc.full, tc.acr} {
+			term := cands[i].Term
+			assert.Equal(t, want.Status, got[term].Status, "%s with %s accepted", term, tc.accept)
+			assert.Equal(t, want.Entry, got[term].Entry, "%s with %s accepted", term, tc.accept)
+			assert.Equal(t, string(got[term].Status), cands[i].Status, "terms --termbase labels %s alike", term)
+		}
+		assert.NotContains(t, got, "drip emitter", "a candidate without a decision")
+		require.NoError(t, tb.Close())
+	}
+}
