@@ -18,6 +18,7 @@ type termsTermbase struct {
 	tf      termbaseFlags
 	onlyNew bool
 	record  string
+	index   *termbase.Index // set by apply: what the writers ask the termbase
 }
 
 func (o *termsTermbase) register(cmd *cobra.Command) {
@@ -79,6 +80,7 @@ func (o *termsTermbase) apply(cands []*terms.Term, run termbase.Run) ([]*terms.T
 		return nil, exitError{1, err.Error()}
 	}
 	termio.Label(ix, cands)
+	o.index = ix
 	if o.record != "" {
 		run.Label = o.record
 		if _, err := s.RecordRun(run, termio.RunTerms(cands)); err != nil {
@@ -89,4 +91,13 @@ func (o *termsTermbase) apply(cands []*terms.Term, run termbase.Run) ([]*terms.T
 		cands = termio.OnlyNew(cands)
 	}
 	return cands, nil
+}
+
+// termStatus is the writers' view of the termbase the candidates were
+// labelled from (terms.WriteOptions.TermStatus); nil without one.
+func (o *termsTermbase) termStatus() func(string) (string, bool) {
+	if o.index == nil {
+		return nil
+	}
+	return termio.TermStatus(o.index)
 }

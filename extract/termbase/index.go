@@ -53,6 +53,13 @@ func NewIndex(entries []*Entry, lang string) *Index {
 	return ix
 }
 
+// Status returns the status of the term the termbase holds with text's
+// key, and whether it holds one (a surface form alone is no term).
+func (ix *Index) Status(text string) (Status, bool) {
+	x, ok := ix.terms[Key(text)]
+	return x.status, ok
+}
+
 // Len returns how many term keys the index holds.
 func (ix *Index) Len() int { return len(ix.terms) }
 

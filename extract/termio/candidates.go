@@ -47,6 +47,17 @@ func LabelOf(ix *termbase.Index, term string, forms []string, acronym, fullForm 
 	return pair, pe
 }
 
+// TermStatus is terms.WriteOptions.TermStatus from the index: the TBX-Basic
+// administrative status of a text the termbase holds as a preferred,
+// admitted or deprecated term ("" otherwise: no decision, a candidate, a
+// surface form only), and whether it holds the text rejected.
+func TermStatus(ix *termbase.Index) func(text string) (string, bool) {
+	return func(text string) (string, bool) {
+		st, ok := ix.Status(text)
+		return adminStatus(st), ok && st == termbase.Rejected
+	}
+}
+
 // OnlyNew keeps the candidates without a decision.
 func OnlyNew(cands []*terms.Term) []*terms.Term {
 	out := cands[:0:0]

@@ -178,15 +178,8 @@ func ToTBX(entries []*termbase.Entry, dialect, lang, source string) *tbx.Documen
 			n.Definitions = []tbx.Definition{{Lang: dl, Text: e.Definition, Source: e.DefSource}}
 		}
 		for _, t := range e.Terms {
-			x := tbx.Term{Lang: t.Lang, Text: t.Text, POS: t.POS}
-			switch t.Status {
-			case termbase.Preferred:
-				x.Status = tbx.PreferredStatus
-			case termbase.Admitted:
-				x.Status = tbx.AdmittedStatus
-			case termbase.Deprecated:
-				x.Status = tbx.DeprecatedStatus
-			default:
+			x := tbx.Term{Lang: t.Lang, Text: t.Text, POS: t.POS, Status: adminStatus(t.Status)}
+			if x.Status == "" {
 				st := string(t.Status)
 				if t.Deferred {
 					st = "deferred"
@@ -205,6 +198,20 @@ func ToTBX(entries []*termbase.Entry, dialect, lang, source string) *tbx.Documen
 		doc.Entries = append(doc.Entries, n)
 	}
 	return doc
+}
+
+// adminStatus is the TBX-Basic administrative status of a termbase status;
+// "" for candidate and rejected, which TBX-Basic has none for.
+func adminStatus(st termbase.Status) string {
+	switch st {
+	case termbase.Preferred:
+		return tbx.PreferredStatus
+	case termbase.Admitted:
+		return tbx.AdmittedStatus
+	case termbase.Deprecated:
+		return tbx.DeprecatedStatus
+	}
+	return ""
 }
 
 // ParseVerdict reads a reviewer's decision: accept (yes, ok, preferred),

@@ -15,10 +15,15 @@ func hasStatus(terms []*Term) bool {
 func addStatusColumn(rows [][]string, terms []*Term) {
 	rows[0] = append(rows[0], "status")
 	for i, t := range terms {
-		s := t.Status
-		if t.Entry != "" && t.Entry != t.Term {
-			s += " of " + t.Entry
-		}
-		rows[i+1] = append(rows[i+1], s)
+		rows[i+1] = append(rows[i+1], statusText(t))
 	}
+}
+
+// statusText is a candidate's label as the text formats show it: for one
+// that belongs to an entry known by another term, "LABEL of ENTRY".
+func statusText(t *Term) string {
+	if t.Entry != "" && t.Entry != t.Term {
+		return t.Status + " of " + t.Entry
+	}
+	return t.Status
 }

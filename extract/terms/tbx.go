@@ -21,6 +21,14 @@ import (
 // full form is not in the list still gets the full form as a term. Under TBX-Basic the contexts
 // are context data categories with their document and line as source;
 // under TBX-Core, notes.
+//
+// With a termbase (opt.TermStatus), every term written carries the
+// administrative status the termbase holds for its text (none for a text
+// it holds no decision on), a candidate's label that the status does not
+// say — new, variant, acronym, full form, or an entry known by another
+// term — is a note "termbase: LABEL", and a text the termbase rejected is
+// not written at all (it is not a term; the header counts the candidates
+// left out).
 func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) error {
 	doc := &tbx.Document{Dialect: dialect, Lang: opt.Lang, Source: strings.TrimSpace("Term candidates for review, extracted by glossmith. " + opt.Source)}
 	lang := opt.Lang
@@ -28,11 +36,27 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		lang = "en"
 	}
 	doc.Lang = lang
+	status, labelled := opt.TermStatus, opt.TermStatus != nil
+	if !labelled {
+		status = func(string) (string, bool) { return "", false }
+	}
+	rejected := func(text string) bool { _, r := status(text); return r }
 	byTerm := make(map[string]*Term, len(terms))
+	left := 0
 	for _, t := range terms {
+		if rejected(t.Term) {
+			left++
+			continue
+		}
 		byTerm[t.Term] = t
 	}
+	if left > 0 {
+		doc.Source += fmt.Sprintf(" %d candidate(s) the termbase rejected are left out.", left)
+	}
 	for _, t := range terms {
+		if rejected(t.Term) {
+			continue
+		}
 		full, short := t, (*Term)(nil)
 		fullText := entryText(t)
 		switch {
@@ -55,6 +79,16 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 				e.CrossRefs = append(e.CrossRefs, tbx.CrossRef{Target: tbx.StableID(Key(entryText(c))), Text: t.Within})
 			}
 		}
+		add := func(x tbx.Term, cand *Term) {
+			if rejected(x.Text) {
+				return
+			}
+			x.Status, _ = status(x.Text)
+			if cand != nil && labelled {
+				x.Notes = append(labelNote(cand, x.Status), x.Notes...)
+			}
+			e.Terms = append(e.Terms, x)
+		}
 		main := tbx.Term{Lang: lang, Text: fullText}
 		if full != nil {
 			main.POS, main.Contexts = t.POS, tbxContexts(t)
@@ -62,23 +96,33 @@ func writeTBX(w io.Writer, terms []*Term, opt WriteOptions, dialect string) erro
 		if t.Acronym != "" || t.FullForm != "" {
 			main.Type = "fullForm"
 		}
-		e.Terms = append(e.Terms, main)
+		add(main, full)
 		if full != nil {
 			for _, s := range SpellingVariants(t) {
-				e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: s.Form, POS: t.POS,
-					Notes: []string{fmt.Sprintf("spelling variant; %d occurrence(s)", s.Count)}})
+				add(tbx.Term{Lang: lang, Text: s.Form, POS: t.POS,
+					Notes: []string{fmt.Sprintf("spelling variant; %d occurrence(s)", s.Count)}}, nil)
 			}
 		}
 		switch {
 		case short != nil:
-			e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: short.Term, POS: short.POS, Type: "acronym", Contexts: tbxContexts(short),
-				Notes: []string{fmt.Sprintf("candidate rank %d; frequency %d in %d document(s)", short.Rank, short.Freq, short.Docs)}})
+			add(tbx.Term{Lang: lang, Text: short.Term, POS: short.POS, Type: "acronym", Contexts: tbxContexts(short),
+				Notes: []string{fmt.Sprintf("candidate rank %d; frequency %d in %d document(s)", short.Rank, short.Freq, short.Docs)}}, short)
 		case t.Acronym != "":
-			e.Terms = append(e.Terms, tbx.Term{Lang: lang, Text: t.Acronym, Type: "acronym"})
+			add(tbx.Term{Lang: lang, Text: t.Acronym, Type: "acronym"}, nil)
 		}
 		doc.Entries = append(doc.Entries, e)
 	}
 	return tbx.Write(w, doc)
+}
+
+// labelNote is the note of a candidate's termbase label (Term.Status) where
+// the administrative status written does not say it all: none for a term
+// accepted or deprecated under its own entry.
+func labelNote(t *Term, adminStatus string) []string {
+	if t.Status == "" || adminStatus != "" && (t.Entry == "" || t.Entry == t.Term) {
+		return nil
+	}
+	return []string{"termbase: " + statusText(t)}
 }
 
 // entryText is the text of the term an entry is known by: the full form

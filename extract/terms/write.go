@@ -28,6 +28,10 @@ type WriteOptions struct {
 	Source    string // TBX header: what the list was made from
 	Lang      string // TBX: the documents' language (BCP 47), "" for English
 	BOM       bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
+	// TermStatus, with a termbase, is what it holds of a term's text: a
+	// TBX-Basic administrative status (tbx.PreferredStatus …; "" for none)
+	// and whether it rejected the text. The TBX writers use it (writeTBX).
+	TermStatus func(text string) (adminStatus string, rejected bool)
 }
 
 // columns are the measure columns of tsv, csv and text output, in order.

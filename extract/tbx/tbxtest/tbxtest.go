@@ -1,4 +1,10 @@
-package tbx
+// Package tbxtest checks TBX files the way the standard's schemas of
+// ../shared/standards/tbx do, for tests: jing with the RELAX NG schemas and
+// the Schematron rules, and in Go the Schematron rules jing's engine cannot
+// evaluate. It names the standard's values itself rather than taking them
+// from package tbx, so that a check never agrees with the writer by
+// construction.
+package tbxtest
 
 import (
 	"bytes"
@@ -13,10 +19,39 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"glossmith/internal/testenv"
 )
+
+// The TBX v3 namespace and dialect names (ISO 30042:2019; tbx/@type).
+const (
+	namespace = "urn:iso:std:iso:30042:ed-2"
+	core      = "TBX-Core"
+	basic     = "TBX-Basic"
+)
+
+// Validate checks a file of the dialect ("TBX-Core" or "TBX-Basic") with
+// everything this package has: TBX-Core against the TBX-Core integrated
+// RELAX NG schema and TBX-Core.sch's rules in Go; TBX-Basic against the
+// core structure schema (which the TBX-Basic NVDL file names for the TBX
+// namespace), the rules of TBX-Basic_DCA.sch with jing, and those rules
+// in Go.
+func Validate(t testing.TB, dialect string, data []byte) {
+	t.Helper()
+	switch dialect {
+	case core:
+		assert.Empty(t, SchematronCore(t, data), "TBX-Core.sch")
+		assert.Empty(t, Jing(t, "TBXcoreStructV03_TBX-Core_integrated.rng", data), "TBX-Core RELAX NG")
+	case basic:
+		assert.Empty(t, SchematronBasicDCA(t, data), "TBX-Basic_DCA.sch, in Go")
+		assert.Empty(t, Jing(t, "TBXcoreStructV03.rng", data), "TBX core structure RELAX NG")
+		assert.Empty(t, Jing(t, "TBX-Basic_DCA.sch", data), "TBX-Basic_DCA.sch, with jing")
+	default:
+		t.Fatalf("unknown TBX dialect %q", dialect)
+	}
+}
 
 // elem is an element of a document checked against Schematron rules.
 type elem struct {
@@ -27,7 +62,7 @@ type elem struct {
 	kids         []*elem
 }
 
-func parseTree(t *testing.T, data []byte) *elem {
+func parseTree(t testing.TB, data []byte) *elem {
 	t.Helper()
 	dec := xml.NewDecoder(bytes.NewReader(data))
 	var root, cur *elem
@@ -80,7 +115,7 @@ func (e *elem) parentLevel() string {
 	return p.local
 }
 
-// schematronBasicDCA checks the rules of TBX-Basic_DCA.sch
+// SchematronBasicDCA checks the rules of TBX-Basic_DCA.sch
 // (../shared/standards/tbx) that a Go test can check:
 //   - coreEnforcement: termNote only at termSec level (or in a
 //     termNoteGrp there); a type attribute is never empty; @target is a
@@ -96,7 +131,9 @@ func (e *elem) parentLevel() string {
 //
 // Not checked: the XLIFF inline-markup rules (sc/ec pairing), which
 // glossmith never writes.
-func schematronBasicDCA(root *elem) []string {
+func SchematronBasicDCA(t testing.TB, data []byte) []string {
+	t.Helper()
+	root := parseTree(t, data)
 	var errs []string
 	bad := func(e *elem, msg string, args ...any) {
 		errs = append(errs, fmt.Sprintf("<%s>: %s", e.local, fmt.Sprintf(msg, args...)))
@@ -107,7 +144,7 @@ func schematronBasicDCA(root *elem) []string {
 			ids[id] = true
 		}
 	})
-	if root.attr["type"] != Basic {
+	if root.attr["type"] != basic {
 		bad(root, "type %q, want TBX-Basic", root.attr["type"])
 	}
 	if root.attr["style"] != "dca" {
@@ -123,7 +160,7 @@ func schematronBasicDCA(root *elem) []string {
 		"xref":        {"externalCrossReference", "xGraphic"},
 	}
 	values := map[string][]string{
-		"administrativeStatus": {AdmittedStatus, DeprecatedStatus, SupersededStatus, PreferredStatus},
+		"administrativeStatus": {"admittedTerm-admn-sts", "deprecatedTerm-admn-sts", "supersededTerm-admn-sts", "preferredTerm-admn-sts"},
 		"partOfSpeech":         {"adjective", "noun", "other", "verb", "adverb"},
 		"grammaticalGender":    {"masculine", "feminine", "neuter", "other"},
 		"termType":             {"fullForm", "acronym", "abbreviation", "shortForm", "variant", "phrase"},
@@ -137,7 +174,7 @@ func schematronBasicDCA(root *elem) []string {
 		"definition":     {"conceptEntry", "langSec"},
 	}
 	root.walk(func(e *elem) {
-		if e.space != Namespace {
+		if e.space != namespace {
 			bad(e, "element outside the TBX namespace %q", e.space)
 		}
 		typ, hasType := e.attr["type"]
@@ -163,17 +200,19 @@ func schematronBasicDCA(root *elem) []string {
 	return errs
 }
 
-// schematronCore checks the rules of TBX-Core.sch (../shared/standards/tbx)
+// SchematronCore checks the rules of TBX-Core.sch (../shared/standards/tbx)
 // that a Go test can check: tbx/@type = TBX-Core, no element outside the
 // TBX namespace, termNote only at termSec level, no empty type, @target a
 // URI or an id. Not checked: the XLIFF inline-markup rules.
-func schematronCore(root *elem) []string {
+func SchematronCore(t testing.TB, data []byte) []string {
+	t.Helper()
+	root := parseTree(t, data)
 	var errs []string
-	if root.attr["type"] != Core {
+	if root.attr["type"] != core {
 		errs = append(errs, fmt.Sprintf("type %q, want TBX-Core", root.attr["type"]))
 	}
 	root.walk(func(e *elem) {
-		if e.space != Namespace {
+		if e.space != namespace {
 			errs = append(errs, fmt.Sprintf("<%s> outside the TBX namespace", e.local))
 		}
 		if typ, ok := e.attr["type"]; ok && typ == "" {
@@ -189,10 +228,12 @@ func schematronCore(root *elem) []string {
 	return errs
 }
 
-// jing validates a file against a RELAX NG schema of
-// ../shared/standards/tbx when jing is installed (Debian package jing; CI
-// installs it). It returns jing's complaints.
-func jing(t *testing.T, schema string, data []byte) string {
+// Jing validates a file against a schema of ../shared/standards/tbx — a
+// RELAX NG schema (.rng) or Schematron rules (.sch; jing checks the rules
+// its XPath 1 engine can evaluate, such as the permitted values) — when
+// jing is installed (Debian package jing; CI installs it, and there a
+// missing jing fails the test). It returns jing's complaints.
+func Jing(t testing.TB, schema string, data []byte) string {
 	t.Helper()
 	bin, err := exec.LookPath("jing")
 	if err != nil {
@@ -205,9 +246,14 @@ func jing(t *testing.T, schema string, data []byte) string {
 	f := filepath.Join(t.TempDir(), "out.tbx")
 	require.NoError(t, os.WriteFile(f, data, 0o644))
 	out, err := exec.Command(bin, filepath.Join(dir, schema), f).CombinedOutput()
+	// An error line, and the indented lines after it (a failed Schematron
+	// assertion's message); jing's warnings about missing optional jars are
+	// not complaints. jing exits 0 on failed Schematron assertions.
 	var lines []string
+	inError := false
 	for _, l := range strings.Split(string(out), "\n") {
-		if strings.Contains(l, "error") {
+		inError = strings.Contains(l, "error") || inError && strings.HasPrefix(l, " ")
+		if inError {
 			lines = append(lines, l)
 		}
 	}
