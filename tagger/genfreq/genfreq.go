@@ -37,6 +37,13 @@ type Table struct{ codes map[string]Code }
 // Len is the number of forms in the table.
 func (t *Table) Len() int { return len(t.codes) }
 
+// Each calls fn with every form of the table and its code, in no order.
+func (t *Table) Each(fn func(form string, c Code)) {
+	for w, c := range t.codes {
+		fn(w, c)
+	}
+}
+
 // LookupBytes returns the code of a lower-cased form (0 when absent).
 func (t *Table) LookupBytes(lower []byte) Code { return t.codes[string(lower)] }
 

@@ -30,6 +30,7 @@ import (
 	"glossmith/tagger/doc"
 	"glossmith/tagger/genfreq"
 	"glossmith/tagger/lemma"
+	"glossmith/tagger/spelling"
 	"glossmith/tagger/titlecase"
 	"glossmith/tagger/wordnet"
 )
@@ -128,6 +129,10 @@ type Model struct {
 	perc  *perceptron
 
 	pool sync.Pool // *workspace
+	// spellDict is the dictionary of readings of misspelt words, built
+	// on first use (spellDictionary).
+	spellOnce sync.Once
+	spellDict *spelling.Dictionary
 }
 
 type uposChoice struct {
@@ -215,11 +220,24 @@ func (m *Model) Tag(s *doc.Sentence) {
 			toks, ws.heading = v, v
 		}
 	}
+	// Misspelt words are tagged as the words they stand for, but keep a
+	// lemma of their own: a wrong reading must not join another word's
+	// counts in a term list.
+	// Only sentences with such a word are decoded a second time.
 	m.decode(ws, toks)
+	read := m.spellView(ws, toks)
+	if &read[0] != &toks[0] {
+		m.decode(ws, read)
+	}
 	for i := range toks {
 		t := &toks[i]
 		st := ws.tags[i]
 		t.XPOS = m.tagX[st]
+		if r := &read[i]; r != t {
+			t.UPOS = m.uposOf(r.Form, st)
+			t.Lemma = m.unknownLemma(t.Form, t.UPOS, t.XPOS)
+			continue
+		}
 		t.UPOS = m.uposOf(t.Form, st)
 		t.Lemma = ""
 		if w := ws.wid[i]; w >= 0 {
@@ -228,6 +246,9 @@ func (m *Model) Tag(s *doc.Sentence) {
 		if t.Lemma == "" {
 			t.Lemma = m.memoLemma(ws, i, st, t)
 		}
+	}
+	if &read[0] != &toks[0] {
+		clear(read) // the workspace outlives the document's text
 	}
 	if &toks[0] != &s.Tokens[0] {
 		for i := range toks {

@@ -5,6 +5,7 @@ import (
 	"sync/atomic"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/spelling"
 )
 
 // workspace is what one goroutine needs to tag a sentence: the Viterbi
@@ -18,11 +19,16 @@ type workspace struct {
 	featureScratch
 	lemmaMemo
 	heading []doc.Token // a heading's tokens as the tagger sees them (Model.Tag)
+	spelled []doc.Token // the tokens with misspelt words read as meant (spellView)
+	speller spelling.Corrector
+	// misspelt memoizes readings of words outside the lexicon ("" for
+	// none), see spellView.
+	misspelt map[string]string
 }
 
 // newWorkspace returns an empty workspace.
 func newWorkspace() *workspace {
-	ws := &workspace{lattice: newLattice()}
+	ws := &workspace{lattice: newLattice(), misspelt: map[string]string{}}
 	ws.tagIndex.clear()
 	return ws
 }

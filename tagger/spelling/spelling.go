@@ -1,0 +1,222 @@
+// Package spelling reads a misspelt word as the common word it stands for,
+// so that the tagger tags "fisrt" as "first" and "developiong" as
+// "developing": web text, chat and hurried service notes misspell words the
+// tagger would know, and a word it does not know is read from its suffix
+// and shape alone — which for "fisrt" or "ammazing" says little.
+//
+// A word is read as another when it is one edit away from a word of the
+// dictionary — a letter left out, one too many, one wrong, or two
+// neighbours swapped (Damerau 1964: most misspellings are one such edit) —
+// or when it repeats letters for emphasis ("sooooo", "prettty"). Edits
+// never touch the first letter, which writers seldom get wrong (common
+// practice of spelling correctors), and the most frequent candidate wins.
+// The caller decides which words are unknown enough to be read this way:
+// the package only proposes.
+//
+// Candidates are found through the words' single deletions (the
+// symmetric-deletion scheme of Garbe's SymSpell, 2012): two words one edit
+// apart share a deletion, or one is a deletion of the other, so a query
+// costs a look-up per letter instead of one per possible edit (about 50 a
+// letter).
+package spelling
+
+import "slices"
+
+// MinEditLen is the shortest word read as an edit of another: shorter
+// words are one edit away from too many others ("teh" and "wat" are left
+// as they are; "ssome" is not).
+const MinEditLen = 4
+
+// Dictionary holds the words misspellings may be read as, with their
+// frequencies. It is read-only once built and safe for concurrent use.
+type Dictionary struct {
+	words []string
+	freq  []float64
+	index map[string]int32 // word → its index
+	// dels holds hash<<32|word index for every word and every single
+	// deletion of it past the first letter, sorted: the words a deletion
+	// hash leads to are one run.
+	dels []uint64
+}
+
+// NewDictionary builds a dictionary from lower-case words of letters a–z
+// and their frequencies (any scale; higher wins). Other words are left out.
+func NewDictionary(words map[string]float64) *Dictionary {
+	d := &Dictionary{index: make(map[string]int32, len(words))}
+	for _, w := range slices.Sorted(mapsKeys(words)) {
+		if !lowerLetters(w) || words[w] <= 0 {
+			continue
+		}
+		d.index[w] = int32(len(d.words))
+		d.words = append(d.words, w)
+		d.freq = append(d.freq, words[w])
+	}
+	var buf []byte
+	for i, w := range d.words {
+		if len(w) < MinEditLen-1 {
+			continue
+		}
+		d.dels = append(d.dels, d.hash([]byte(w))<<32|uint64(i))
+		for k := 1; k < len(w); k++ {
+			buf = append(append(buf[:0], w[:k]...), w[k+1:]...)
+			d.dels = append(d.dels, d.hash(buf)<<32|uint64(i))
+		}
+	}
+	slices.Sort(d.dels)
+	d.dels = slices.Compact(d.dels)
+	return d
+}
+
+func mapsKeys(m map[string]float64) func(func(string) bool) {
+	return func(yield func(string) bool) {
+		for k := range m {
+			if !yield(k) {
+				return
+			}
+		}
+	}
+}
+
+// Len is the number of words of the dictionary.
+func (d *Dictionary) Len() int { return len(d.words) }
+
+// hash is the upper half of the 64-bit FNV-1a hash of b: the same on
+// every run, so that the index and its ties are too.
+func (d *Dictionary) hash(b []byte) uint64 {
+	h := uint64(14695981039346656037)
+	for _, c := range b {
+		h ^= uint64(c)
+		h *= 1099511628211
+	}
+	return h >> 32
+}
+
+// frequency returns a word's frequency, 0 when it is not in the dictionary.
+func (d *Dictionary) frequency(w []byte) float64 {
+	if i, ok := d.index[string(w)]; ok {
+		return d.freq[i]
+	}
+	return 0
+}
+
+func lowerLetters(w string) bool {
+	for i := 0; i < len(w); i++ {
+		if w[i] < 'a' || w[i] > 'z' {
+			return false
+		}
+	}
+	return w != ""
+}
+
+// Corrector proposes readings from a dictionary. It keeps scratch space
+// and is not safe for concurrent use; give each goroutine its own.
+type Corrector struct {
+	Dict *Dictionary
+	buf  []byte
+}
+
+// Correct returns the reading of a lower-case word of letters a–z, and
+// false when it has none or is in the dictionary itself. Repeated letters
+// are squeezed first (to two, then to one: "prettty" → "pretty", "sooooo"
+// → "so"); only when that finds no word are single edits tried.
+func (c *Corrector) Correct(word string) (string, bool) {
+	d := c.Dict
+	if d == nil || !lowerLetters(word) {
+		return "", false
+	}
+	if _, ok := d.index[word]; ok {
+		return "", false
+	}
+	best, top := int32(-1), 0.0
+	for _, keep := range [2]int{2, 1} {
+		if i, ok := d.index[string(c.squeeze(word, keep))]; ok {
+			better(i, d.freq[i], &best, &top)
+		}
+	}
+	if best < 0 && len(word) >= MinEditLen {
+		c.candidates(c.hashOf(word), word, &best, &top)
+		for k := 1; k < len(word); k++ {
+			c.buf = append(append(c.buf[:0], word[:k]...), word[k+1:]...)
+			c.candidates(d.hash(c.buf), word, &best, &top)
+		}
+	}
+	if best < 0 {
+		return "", false
+	}
+	return d.words[best], true
+}
+
+func (c *Corrector) hashOf(w string) uint64 {
+	c.buf = append(c.buf[:0], w...)
+	return c.Dict.hash(c.buf)
+}
+
+// candidates checks the words a deletion hash leads to and keeps the most
+// frequent one a single edit away from word.
+func (c *Corrector) candidates(h uint64, word string, best *int32, top *float64) {
+	d := c.Dict
+	i, _ := slices.BinarySearch(d.dels, h<<32)
+	for ; i < len(d.dels) && d.dels[i]>>32 == h; i++ {
+		k := int32(d.dels[i] & 0xffffffff)
+		if (d.freq[k] > *top || d.freq[k] == *top && k < *best) && OneEdit(word, d.words[k]) {
+			better(k, d.freq[k], best, top)
+		}
+	}
+}
+
+// better keeps word k of frequency f if it beats the best so far: higher
+// frequency, or the same and first in alphabetical order, so that the
+// reading does not depend on the order candidates are met in.
+func better(k int32, f float64, best *int32, top *float64) {
+	if f > *top || f == *top && k < *best {
+		*best, *top = k, f
+	}
+}
+
+// OneEdit reports whether b is a single edit away from a with the same
+// first letter: a deletion, an insertion, a substitution or a swap of two
+// neighbouring letters.
+func OneEdit(a, b string) bool {
+	if a == "" || b == "" || a[0] != b[0] || a == b {
+		return false
+	}
+	switch len(a) - len(b) {
+	case 0:
+		i := 0
+		for a[i] == b[i] {
+			i++
+		}
+		if a[i+1:] == b[i+1:] {
+			return true // substitution
+		}
+		return i+1 < len(a) && a[i] == b[i+1] && a[i+1] == b[i] && a[i+2:] == b[i+2:]
+	case 1:
+		a, b = b, a
+		fallthrough
+	case -1: // b has one letter more
+		i := 0
+		for i < len(a) && a[i] == b[i] {
+			i++
+		}
+		return a[i:] == b[i+1:]
+	}
+	return false
+}
+
+// squeeze returns the word with every run of a letter longer than keep
+// cut to keep letters, in the scratch buffer.
+func (c *Corrector) squeeze(word string, keep int) []byte {
+	c.buf = c.buf[:0]
+	run := 0
+	for i := 0; i < len(word); i++ {
+		if i > 0 && word[i] == word[i-1] {
+			run++
+		} else {
+			run = 1
+		}
+		if run <= keep {
+			c.buf = append(c.buf, word[i])
+		}
+	}
+	return c.buf
+}
