@@ -1,6 +1,7 @@
 package spelling
 
 import (
+	"math/rand/v2"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -67,4 +68,60 @@ func TestCorrectTies(t *testing.T) {
 	got, ok := c.Correct("cest")
 	require.True(t, ok)
 	assert.Equal(t, "cast", got)
+}
+
+// bruteForce is the reading Correct must find, by the definition: every
+// word of the dictionary one edit away (OneEdit), or a squeeze of the
+// word, the most frequent first, then the first alphabetically; squeezes
+// before edits.
+func bruteForce(words map[string]float64, w string) string {
+	pick := func(ok func(string) bool) string {
+		best := ""
+		for c, f := range words {
+			if !lowerLetters(c) || !ok(c) {
+				continue
+			}
+			if best == "" || f > words[best] || f == words[best] && c < best {
+				best = c
+			}
+		}
+		return best
+	}
+	if _, ok := words[w]; ok {
+		return ""
+	}
+	c := &Corrector{}
+	s2 := string(c.squeeze(w, 2)) // (one at a time: both share c's buffer)
+	s1 := string(c.squeeze(w, 1))
+	if r := pick(func(c string) bool { return c != w && (c == s2 || c == s1) }); r != "" {
+		return r
+	}
+	if len(w) < MinEditLen {
+		return ""
+	}
+	return pick(func(c string) bool { return OneEdit(w, c) })
+}
+
+// The deletion index finds what a search of the whole dictionary finds,
+// over random words of a four-letter alphabet (so that many are one edit
+// apart) with frequencies that often tie.
+func TestCorrectMatchesBruteForce(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	word := func() string {
+		b := make([]byte, 1+rng.IntN(7))
+		for i := range b {
+			b[i] = "abcd"[rng.IntN(4)]
+		}
+		return string(b)
+	}
+	words := map[string]float64{}
+	for range 400 {
+		words[word()] = float64(1 + rng.IntN(5))
+	}
+	c := &Corrector{Dict: NewDictionary(words)}
+	for range 5000 {
+		w := word()
+		got, _ := c.Correct(w)
+		require.Equal(t, bruteForce(words, w), got, w)
+	}
 }
