@@ -3,6 +3,7 @@ package hmm
 import (
 	"os"
 	"path/filepath"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -26,7 +27,7 @@ func TestHeadingSentences(t *testing.T) {
 	const (
 		h1   = "Cleaning the Drip Emitters"
 		h2   = "Installing the Aquavent Controller"
-		body = "The Drip Emitters of the Aquavent line clog in hard water."
+		body = "The drip emitters of the Aquavent line clog in hard water."
 	)
 	para := func(style, text string) string {
 		return `<w:p><w:pPr><w:pStyle w:val="` + style + `"/></w:pPr><w:r><w:t>` + text + `</w:t></w:r></w:p>`
@@ -89,4 +90,67 @@ func tagsOf(s *doc.Sentence) sentenceTags {
 		st.lemmas = append(st.lemmas, t.Lemma)
 	}
 	return st
+}
+
+// A heading's capitalized words are read as the document's running text
+// writes them (titlecase.Evidence): a name of common words keeps its
+// capitals and is tagged PROPN, as UD tags names
+// (universaldependencies.org/u/pos/PROPN.html); an acronym that is also
+// a word ("ME") keeps its capitals in a heading in capitals; a word the
+// running text writes in lower case is a common noun. Each document is
+// read as Markdown and as plain text, whose reader finds the headings by
+// their layout. The organisations and products are invented.
+func TestHeadingsReadWithDocumentEvidence(t *testing.T) {
+	m, err := Default()
+	require.NoError(t, err)
+	tests := []struct {
+		name, heading, body string
+		word                string // the heading word checked
+		upos, lemma         string
+		alone               bool // Model.Tag of the heading alone tags it so too
+	}{
+		{"a name with small words", "Reports to the Ministry of Water Supply",
+			"Send the figures to the Ministry of Water Supply before March.", "Water", "PROPN", "Water", false},
+		{"a name of two common words", "Testing Water with the Soil Board",
+			"The Soil Board tests the water of every greenhouse.", "Soil", "PROPN", "Soil", false},
+		{"an acronym that is a word, in capitals", "CONNECTING THE ME UNIT",
+			"Wire the ME unit to the vent motor.", "ME", "PROPN", "ME", false},
+		{"a word in lower case in running text", "Planning the Fertigation Schedule",
+			"Plan fertigation by crop and season.", "Fertigation", "NOUN", "fertigation", false},
+		{"common words, lower case in general English", "Cleaning the Drip Emitters",
+			"Clean the drip emitters once a month.", "Emitters", "NOUN", "emitter", true},
+	}
+	dir := t.TempDir()
+	for _, tt := range tests {
+		for _, f := range []struct{ name, content string }{
+			{"manual.md", "# " + tt.heading + "\n\n" + tt.body + "\n"},
+			{"manual.txt", tt.heading + "\n\n" + tt.body + "\n"},
+		} {
+			t.Run(tt.name+"/"+f.name, func(t *testing.T) {
+				p := filepath.Join(dir, f.name)
+				require.NoError(t, os.WriteFile(p, []byte(f.content), 0o644))
+				d, ps := read.Read(read.Input{Name: f.name, Path: p}, read.Options{})
+				require.NotNil(t, d, "%v", ps)
+				tokenize.Document(d)
+				require.Len(t, d.Sentences, 2)
+				require.True(t, d.Sentences[0].Heading)
+				alone := d.Sentences[0]
+				alone.Tokens = slices.Clone(alone.Tokens)
+				m.Tag(&alone)
+				m.TagDocument(d)
+
+				got, lone := tagsOf(&d.Sentences[0]), tagsOf(&alone)
+				k := slices.Index(got.forms, tt.word)
+				require.GreaterOrEqual(t, k, 0, "%v", got.forms)
+				assert.Equal(t, tt.upos, got.upos[k], "%v", got.upos)
+				assert.Equal(t, tt.lemma, got.lemmas[k], "%v", got.lemmas)
+				if tt.alone {
+					assert.Equal(t, got, lone, "no evidence needed")
+				} else {
+					assert.NotEqual(t, []string{tt.upos, tt.lemma}, []string{lone.upos[k], lone.lemmas[k]},
+						"the heading alone, without its document, is read otherwise")
+				}
+			})
+		}
+	}
 }

@@ -183,12 +183,18 @@ func (m *Model) RefSize() int { return m.refSize }
 func (m *Model) Known(form string) bool { _, ok := m.lex[form]; return ok }
 
 // TagDocument tags every sentence, unless the document came fully tagged.
+// Its headings are read with the evidence of its running text
+// (titlecase.Gather).
 func (m *Model) TagDocument(d *doc.Document) {
 	if d.Tagged() {
 		return
 	}
+	var ev *titlecase.Evidence
+	if m.freq != nil || m.wn != nil {
+		ev = titlecase.Gather(d.Sentences)
+	}
 	for i := range d.Sentences {
-		m.Tag(&d.Sentences[i])
+		m.tag(&d.Sentences[i], ev)
 	}
 }
 
@@ -205,7 +211,10 @@ func pretagged(s *doc.Sentence) bool {
 
 // Tag fills UPOS, XPOS and Lemma of every token of the sentence. A sentence
 // whose tokens all carry the three already is left as it is.
-func (m *Model) Tag(s *doc.Sentence) {
+func (m *Model) Tag(s *doc.Sentence) { m.tag(s, nil) }
+
+// tag is Tag with the evidence of the sentence's document, nil for none.
+func (m *Model) tag(s *doc.Sentence, ev *titlecase.Evidence) {
 	if len(s.Tokens) == 0 || pretagged(s) {
 		return
 	}
@@ -216,7 +225,7 @@ func (m *Model) Tag(s *doc.Sentence) {
 		// The tagger reads a heading's title-case words as running text
 		// would write them; the tags and lemmas it finds for those forms
 		// go to the tokens as written.
-		if v := (titlecase.Viewer{Freq: m.freq, WordNet: m.wn}).View(ws.heading, s.Tokens); &v[0] != &toks[0] {
+		if v := (titlecase.Viewer{Freq: m.freq, WordNet: m.wn, Doc: ev}).View(ws.heading, s.Tokens); &v[0] != &toks[0] {
 			toks, ws.heading = v, v
 		}
 	}

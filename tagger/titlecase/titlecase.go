@@ -18,6 +18,10 @@
 // case would be ("CLEANING THE DRIP EMITTERS": "Cleaning the drip
 // emitters").
 //
+// Names made of common words ("Climate Master") and acronyms that are
+// also words ("PAN") the tables cannot tell; the document's running text
+// can (see Evidence), and where it speaks it decides.
+//
 // The view is only what the tagger reads: the tokens' forms stay as
 // written.
 package titlecase
@@ -34,10 +38,12 @@ import (
 )
 
 // Viewer holds the tables a view consults. A nil table is not consulted;
-// with neither, headings are seen as written.
+// with neither, headings are seen as written. Doc, when not nil, is the
+// evidence of the heading's document (Gather).
 type Viewer struct {
 	Freq    *genfreq.Table
 	WordNet *wordnet.Table
+	Doc     *Evidence
 }
 
 // View returns toks as the tagger should see them when they form a
@@ -50,7 +56,7 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 	}
 	caps := allCaps(toks)
 	alone := words(toks) == 1
-	var buf []byte
+	names, buf := v.Doc.nameTokens(toks, nil)
 	out, copied := toks, false
 	first := true // no word seen yet: the next one is the sentence's first
 	for i := range toks {
@@ -66,10 +72,18 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 		}
 		var ok bool
 		buf, ok = lowered(buf[:0], form, caps)
-		if !ok || !v.common(buf) {
+		if !ok {
 			continue
 		}
+		name := i < 64 && names&(1<<i) != 0
+		seen := v.Doc.seen(buf) & (seenLower | seenCaps)
 		switch {
+		case caps && seen == seenCaps, name && !caps:
+			continue // an acronym ("PAN") or a name ("Climate Master") as running text writes it
+		case name && !isSmallWord(string(buf)):
+			buf = titled(buf) // "CLIMATE MASTER": "Climate Master"
+		case seen != seenLower && !v.common(buf):
+			continue // a word running text writes in lower case is common in any case
 		case alone:
 			// A heading of one word ("Storm", "Implementation") has no
 			// context that tells a name from a noun; the tagger took 5 of
@@ -168,14 +182,25 @@ func titled(b []byte) []byte {
 func allCaps(toks []doc.Token) bool {
 	letters := 0
 	for i := range toks {
-		for _, r := range toks[i].Form {
-			switch {
-			case unicode.IsLower(r):
-				return false
-			case unicode.IsLetter(r):
-				letters++
-			}
+		n, ok := capitals(toks[i].Form)
+		if !ok {
+			return false
 		}
+		letters += n
 	}
 	return letters >= 2
+}
+
+// capitals counts the letters of s and reports whether none of them is in
+// lower case.
+func capitals(s string) (letters int, ok bool) {
+	for _, r := range s {
+		switch {
+		case unicode.IsLower(r):
+			return 0, false
+		case unicode.IsLetter(r):
+			letters++
+		}
+	}
+	return letters, true
 }

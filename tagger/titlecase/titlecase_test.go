@@ -20,7 +20,10 @@ import (
 // exceptions).
 const (
 	freqTable = "cleaning\t4\t4\ncontroller\t2\t4\ndrip\t3\t4\nemitters\t1\t4\nberlin\t4\t1\nthe\t7\t4\nled\t4\t4\nstrip\t3\t4\n" +
-		"i\t7\t1\nstorm\t4\t4\nreport\t4\t4\nreplace\t4\t4\nreplaced\t3\t4\nvalve\t3\t4\nstep\t4\t4\nwhy\t6\t3\nmay\t6\t2\n"
+		"i\t7\t1\nstorm\t4\t4\nreport\t4\t4\nreplace\t4\t4\nreplaced\t3\t4\nvalve\t3\t4\nstep\t4\t4\nwhy\t6\t3\nmay\t6\t2\n" +
+		"installing\t3\t4\nclimate\t4\t4\nmaster\t4\t4\nreports\t4\t4\nto\t7\t4\nof\t7\t4\nministry\t3\t3\nwater\t5\t4\n" +
+		"supply\t4\t4\nnotices\t3\t4\nin\t7\t4\nofficial\t4\t4\njournal\t4\t4\nchecking\t3\t4\nsetting\t4\t4\nup\t6\t4\n" +
+		"pan\t3\t4\nmodule\t3\t4\nplanning\t3\t4\nschedule\t4\t4\nform\t5\t4\nseries\t4\t4\n"
 	wnTable = "anti\tn0\t\ncorruption\tn3\t\nsensor\tn2\t\ntensiometer\tn0\t\n"
 )
 
@@ -96,16 +99,28 @@ func TestViewReusesAndCopies(t *testing.T) {
 }
 
 // The view changes only the case of letters: the same tokens, offsets
-// and lines, each form the same letters up to case.
+// and lines, each form the same letters up to case; with the evidence of
+// the text's own sentences too (lines starting "# " are headings).
 func FuzzView(f *testing.F) {
 	f.Add("Cleaning the Drip Emitters")
 	f.Add("CLEANING THE ANTI-CORRUPTION STORM")
 	f.Add("Storm")
 	f.Add("İSTANBUL ǅemal Ǆ-Ǆ")
+	f.Add("# REPORTS TO THE MINISTRY OF WATER SUPPLY\n\nSend the PAN report to the Ministry of Water Supply.")
+	f.Add("# The İstanbul Pan Of\nthe İSTANBUL Pan Of, pan and ǅemal Ǆ")
 	v := Viewer{}
 	f.Fuzz(func(t *testing.T, text string) {
 		if v.Freq == nil {
 			v = viewer(t)
+		}
+		d := document(t, text)
+		ev := Gather(d.Sentences)
+		for _, s := range d.Sentences {
+			got := (Viewer{Freq: v.Freq, WordNet: v.WordNet, Doc: ev}).View(nil, s.Tokens)
+			require.Len(t, got, len(s.Tokens))
+			for i, tk := range s.Tokens {
+				require.True(t, strings.EqualFold(tk.Form, got[i].Form), "%q → %q", tk.Form, got[i].Form)
+			}
 		}
 		for _, s := range tokenize.Sentences(text) {
 			got := v.View(nil, s.Tokens)

@@ -1,0 +1,348 @@
+package titlecase
+
+import (
+	"slices"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"glossmith/tagger/doc"
+)
+
+// Evidence is what a document's running text says about the capitalized
+// words of its headings. General English cannot tell a name made of common
+// words ("Climate Master", "Ministry of Water Supply") from the same words
+// in title case, nor an acronym that is also a word ("PAN", "ME") in a
+// heading written in capitals; the document's own sentences can, since
+// there the writer capitalizes only what they mean as a name:
+//
+//   - a sequence of heading words that running text writes capitalized
+//     (not at a sentence start) is a name, and keeps its capitals;
+//   - a heading word that running text writes in capitals is an acronym;
+//   - a heading word that running text writes in lower case is a common
+//     word, whatever the general tables say.
+//
+// Only the heading's words are looked for, so the evidence stays small.
+type Evidence struct {
+	// words maps each capitalized heading word, lower-cased, to how
+	// running text wrote it (seenLower, seenCaps).
+	words map[string]uint8
+	// names holds the capitalized sequences of running text made of
+	// heading words, lower-cased, words joined by a space.
+	names map[string]struct{}
+	// longest is the number of tokens of the longest name.
+	longest int
+	// filter has a bit set for each key of words (filterBit), so that
+	// most words of running text need no map look-up.
+	filter [16]uint64
+}
+
+// How running text wrote a heading word.
+const (
+	seenLower uint8 = 1 << iota // in lower case
+	seenCaps                    // in capitals, in a sentence with lower case too
+)
+
+// Gather reads the evidence of a document's running text (its sentences
+// that are not headings) for the words of its headings. It returns nil
+// when no heading has a capitalized word, after one look at the heading
+// flags for a document without headings.
+func Gather(sents []doc.Sentence) *Evidence {
+	var e *Evidence
+	var buf []byte
+	for i := range sents {
+		if !sents[i].Heading {
+			continue
+		}
+		for k := range sents[i].Tokens {
+			form := sents[i].Tokens[k].Form
+			if upper, _ := caseOf(form); !upper {
+				continue
+			}
+			if e == nil {
+				e = &Evidence{words: map[string]uint8{}, names: map[string]struct{}{}}
+			}
+			buf = appendLower(buf[:0], form)
+			if _, ok := e.words[string(buf)]; !ok {
+				e.words[string(buf)] = 0
+				b := filterBit(buf)
+				e.filter[b>>6] |= 1 << (b & 63)
+			}
+		}
+	}
+	if e == nil {
+		return nil
+	}
+	var r runningText
+	for i := range sents {
+		if !sents[i].Heading {
+			r.read(e, sents[i].Tokens)
+		}
+	}
+	return e
+}
+
+// runningText is the scratch space of reading one sentence of running
+// text into the evidence.
+type runningText struct {
+	buf    []byte
+	inHead []bool // for each token of the current run: a heading word
+	// The sentence's case (sentenceCase), worked out when first needed.
+	known, lowerText, names bool
+}
+
+// read adds what the sentence toks shows to e: the case of each heading
+// word, and its runs of capitalized words. A run is capitalized words in a
+// row, joined perhaps by the small words of names ("of", "and", "the");
+// it counts only when its first word is not a sentence's or a list item's
+// first (see mayStartName), and only in a sentence that has a content word
+// in lower case (a line of title case that no reader marked as a heading
+// says nothing). Most words of running text are in lower case and in no
+// heading: for them read costs a look at two bytes (Evidence.filter).
+func (r *runningText) read(e *Evidence, toks []doc.Token) {
+	r.known = false
+	start, last := -1, -1 // the current run's first and last capitalized token
+	counts := false       // the current run may be a name: not a sentence's first words
+	for k := range toks {
+		form := toks[k].Form
+		var upper, lower bool
+		if form != "" && form[0] < utf8.RuneSelf { // caseOf, inlined by hand for the common case
+			upper, lower = form[0]-'A' < 26, form[0]-'a' < 26
+		} else {
+			upper, lower = caseOf(form)
+		}
+		if upper {
+			inHead := false
+			if r.mayHold(e, form) {
+				var flags uint8
+				flags, inHead = e.words[string(r.buf)]
+				if inHead && flags&seenCaps == 0 && isCaps(form) && r.sentenceCase(toks).lowerText {
+					e.words[string(r.buf)] = flags | seenCaps
+				}
+			}
+			if start < 0 {
+				initial := k == 0 || !mayStartName(toks[k-1].Form)
+				if initial && len(form) <= 4 && isSmallWord(string(appendLower(r.buf[:0], form))) {
+					continue // "The" of "The Climate Master controller"
+				}
+				start, counts = k, !initial
+				r.inHead = r.inHead[:0]
+			}
+			for len(r.inHead) < k-start {
+				r.inHead = append(r.inHead, false) // the small words between
+			}
+			r.inHead = append(r.inHead, inHead)
+			last = k
+			continue
+		}
+		if start >= 0 {
+			if counts && isSmallWord(form) {
+				continue // "of" in "Ministry of Water Supply"; not "the" after "Mount"
+			}
+			if counts && r.sentenceCase(toks).names {
+				r.addNames(e, toks[start:last+1])
+			}
+			start = -1
+		}
+		if lower {
+			if b := filterBit(form); e.filter[b>>6]&(1<<(b&63)) != 0 {
+				if flags, ok := e.words[form]; ok && flags&seenLower == 0 {
+					e.words[form] = flags | seenLower
+				}
+			}
+		}
+	}
+	if start >= 0 && counts && r.sentenceCase(toks).names {
+		r.addNames(e, toks[start:last+1])
+	}
+}
+
+// mayHold reports whether the capitalized word form may be a heading
+// word, by its bit of e.filter, and leaves its lower case in r.buf when
+// it may. Lower-casing does not change an ASCII first or last byte's bit.
+func (r *runningText) mayHold(e *Evidence, form string) bool {
+	var b uint
+	if form[0] < utf8.RuneSelf && form[len(form)-1] < utf8.RuneSelf {
+		if b = filterBit(form); e.filter[b>>6]&(1<<(b&63)) == 0 {
+			return false
+		}
+		r.buf = appendLower(r.buf[:0], form)
+		return true
+	}
+	r.buf = appendLower(r.buf[:0], form)
+	b = filterBit(r.buf)
+	return e.filter[b>>6]&(1<<(b&63)) != 0
+}
+
+// sentenceCase reports, once per sentence, whether it has a lower-case
+// letter (else capitals in it say nothing), and whether it has a word in
+// lower case after its first that is not one of the small words of names
+// (else its capitalized words are a title, not names).
+func (r *runningText) sentenceCase(toks []doc.Token) *runningText {
+	if r.known {
+		return r
+	}
+	r.known, r.lowerText, r.names = true, false, false
+	words := 0
+	for k := range toks {
+		form := toks[k].Form
+		c, _ := utf8.DecodeRuneInString(form)
+		if !unicode.IsLetter(c) {
+			continue
+		}
+		words++
+		if unicode.IsLower(c) {
+			r.lowerText = true
+			if words > 1 && !isSmallWord(form) {
+				r.names = true
+				return r
+			}
+		} else if !r.lowerText {
+			r.lowerText = strings.ContainsFunc(form, unicode.IsLower)
+		}
+	}
+	return r
+}
+
+// addNames records the run of capitalized words and small words run, and
+// each of its parts between small words that has two words or more
+// ("Official Journal" of "Official Journal of the Water Board"), as far as
+// they are made of heading words. A part of one word is left out: "Board"
+// alone is no evidence that a heading's "Board" is a name.
+func (r *runningText) addNames(e *Evidence, run []doc.Token) {
+	all := true
+	from := 0 // the current part's first token
+	for k := 0; k <= len(run); k++ {
+		if k < len(run) && !isSmallWord(run[k].Form) {
+			all = all && r.inHead[k]
+			continue
+		}
+		if k-from >= 2 && k-from < len(run) && !slices.Contains(r.inHead[from:k], false) {
+			r.addName(e, run[from:k])
+		}
+		from = k + 1
+	}
+	if all {
+		r.addName(e, run)
+	}
+}
+
+// addName records one name, unless all its words are in capitals: those
+// are acronyms (seenCaps), whose capitals a heading in capitals keeps.
+func (r *runningText) addName(e *Evidence, name []doc.Token) {
+	if !slices.ContainsFunc(name, func(t doc.Token) bool { return !isCaps(t.Form) && !isSmallWord(t.Form) }) {
+		return
+	}
+	r.buf = r.buf[:0]
+	for k := range name {
+		if k > 0 {
+			r.buf = append(r.buf, ' ')
+		}
+		r.buf = appendLower(r.buf, name[k].Form)
+	}
+	if _, ok := e.names[string(r.buf)]; !ok {
+		e.names[string(r.buf)] = struct{}{}
+		e.longest = max(e.longest, len(name))
+	}
+}
+
+// caseOf reports whether a token starts with a capital or with a
+// lower-case letter.
+func caseOf(form string) (upper, lower bool) {
+	if form != "" && form[0] < utf8.RuneSelf {
+		return form[0]-'A' < 26, form[0]-'a' < 26
+	}
+	c, _ := utf8.DecodeRuneInString(form)
+	return unicode.IsUpper(c), unicode.IsLower(c)
+}
+
+// mayStartName reports whether a capitalized word after the token prev
+// can be taken for a name: prev is a word or a number (not "3." or a
+// bullet, after which a list item starts) or a comma. After anything else
+// — a colon, a quote, a bracket — writers capitalize a first word too.
+func mayStartName(prev string) bool {
+	if prev == "," {
+		return true
+	}
+	first, _ := utf8.DecodeRuneInString(prev)
+	last, _ := utf8.DecodeLastRuneInString(prev)
+	return (unicode.IsLetter(first) || unicode.IsDigit(first)) && (unicode.IsLetter(last) || unicode.IsDigit(last))
+}
+
+// isSmallWord reports the words names are written with in lower case
+// between their capitalized words ("Ministry of Water Supply", "Bureau for
+// Soil and Water").
+func isSmallWord(form string) bool {
+	switch form {
+	case "of", "the", "and", "for", "on", "in", "to", "at", "a", "an", "by", "with", "&", "de":
+		return true
+	}
+	return false
+}
+
+// isCaps reports a word of two letters or more, all of them capitals.
+func isCaps(form string) bool {
+	n, ok := capitals(form)
+	return ok && n >= 2
+}
+
+// appendLower appends the lower case of s to buf, rune by rune (as
+// lowered does), so that running text and headings give the same key;
+// ASCII byte by byte.
+func appendLower(buf []byte, s string) []byte {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= utf8.RuneSelf {
+			for _, r := range s[i:] {
+				buf = utf8.AppendRune(buf, unicode.ToLower(r))
+			}
+			return buf
+		}
+		if 'A' <= c && c <= 'Z' {
+			c += 'a' - 'A'
+		}
+		buf = append(buf, c)
+	}
+	return buf
+}
+
+// filterBit is the bit of Evidence.filter for a word: the low five bits
+// of its first and of its last byte, the same for an ASCII letter in
+// either case. w is not empty.
+func filterBit[S string | []byte](w S) uint {
+	return uint(w[0]&31)<<5 | uint(w[len(w)-1]&31)
+}
+
+// nameTokens marks, in a bit set of the first 64 tokens of a heading, the
+// tokens of the sequences that running text writes as names.
+func (e *Evidence) nameTokens(toks []doc.Token, buf []byte) (uint64, []byte) {
+	if e == nil || len(e.names) == 0 {
+		return 0, buf
+	}
+	var marks uint64
+	n := min(len(toks), 64)
+	for i := 0; i < n; i++ {
+		if r, _ := utf8.DecodeRuneInString(toks[i].Form); !unicode.IsUpper(r) {
+			continue
+		}
+		buf = buf[:0]
+		for j := i; j < n && j-i < e.longest; j++ {
+			if j > i {
+				buf = append(buf, ' ')
+			}
+			buf = appendLower(buf, toks[j].Form)
+			if _, ok := e.names[string(buf)]; ok {
+				marks |= (uint64(1)<<(j-i+1) - 1) << i
+			}
+		}
+	}
+	return marks, buf
+}
+
+// seen returns how running text wrote the lower-cased heading word w.
+func (e *Evidence) seen(w []byte) uint8 {
+	if e == nil {
+		return 0
+	}
+	return e.words[string(w)]
+}

@@ -1,0 +1,157 @@
+package titlecase
+
+import (
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/read"
+	"glossmith/tagger/tokenize"
+)
+
+// document tokenizes text whose lines starting "# " are headings, as a
+// reader marks them (doc.Document.Headings), without the "# ".
+func document(t *testing.T, text string) *doc.Document {
+	lines := strings.Split(text, "\n")
+	d := &doc.Document{}
+	for i, l := range lines {
+		if h, ok := strings.CutPrefix(l, "# "); ok {
+			lines[i] = h
+			d.Headings = append(d.Headings, doc.LineRange{First: int32(i + 1), Last: int32(i + 1)})
+		}
+	}
+	d.Text = strings.Join(lines, "\n")
+	tokenize.Document(d)
+	return d
+}
+
+// headingViews returns the view of each heading of d, with the evidence of
+// d's running text when withDoc.
+func headingViews(v Viewer, d *doc.Document, withDoc bool) []string {
+	if withDoc {
+		v.Doc = Gather(d.Sentences)
+	}
+	var got []string
+	for _, s := range d.Sentences {
+		if s.Heading {
+			got = append(got, forms(v.View(nil, s.Tokens)))
+		}
+	}
+	return got
+}
+
+// The document's running text decides what the general tables cannot:
+// names of common words, acronyms that are words, and words the tables
+// lack. The scenarios are invented (a maker of greenhouse controllers).
+func TestViewWithDocumentEvidence(t *testing.T) {
+	tests := []struct {
+		name, text string
+		want       []string // the headings' views with the evidence
+		without    []string // and without it
+	}{
+		{"a name in running text",
+			"# Installing the Climate Master\n\nMount the Climate Master on a dry wall.\n\n# Cleaning the Drip Emitters\n\nClean the drip emitters once a month.\n",
+			[]string{"Installing the Climate Master", "Cleaning the drip emitters"},
+			[]string{"Installing the climate master", "Cleaning the drip emitters"}},
+		{"a name after a sentence's first word",
+			"# Installing the Climate Master\n\nThe Climate Master fits any greenhouse.\n",
+			[]string{"Installing the Climate Master"}, []string{"Installing the climate master"}},
+		{"capitals at a sentence start say nothing",
+			"# Installing the Climate Master\n\nClimate Master units ship with a wall bracket.\n",
+			[]string{"Installing the climate master"}, []string{"Installing the climate master"}},
+		{"nor after a colon",
+			"# Installing the Climate Master\n\nIn the box: Climate Master units and a bracket.\n",
+			[]string{"Installing the climate master"}, []string{"Installing the climate master"}},
+		{"a name with small words",
+			"# Reports to the Ministry of Water Supply\n\nSend the yearly report to the Ministry of Water Supply before March.\n",
+			[]string{"Reports to the Ministry of Water Supply"}, []string{"Reports to the ministry of water supply"}},
+		{"a part of a longer name",
+			"# Notices in the Official Journal\n\nTenders appear in the Official Journal of the Water Board.\n",
+			[]string{"Notices in the Official Journal"}, []string{"Notices in the official journal"}},
+		{"one word of a name is no name",
+			"# Checking the Supply\n\nSend the report to the Ministry of Supply.\n",
+			[]string{"Checking the supply"}, []string{"Checking the supply"}},
+		{"a line of title case that is no heading says nothing",
+			"# Cleaning the Drip Emitters\n\nStep 3 Cleaning the Drip Emitters\n\nClean the drip emitters once a month.\n",
+			[]string{"Cleaning the drip emitters"}, []string{"Cleaning the drip emitters"}},
+		{"a name in a heading in capitals",
+			"# INSTALLING THE CLIMATE MASTER\n\nMount the Climate Master on a dry wall.\n",
+			[]string{"Installing the Climate Master"}, []string{"Installing the climate master"}},
+		{"a name with small words in capitals",
+			"# REPORTS TO THE MINISTRY OF WATER SUPPLY\n\nSend the report to the Ministry of Water Supply.\n",
+			[]string{"Reports to the Ministry of Water Supply"}, []string{"Reports to the ministry of water supply"}},
+		{"an acronym in a heading in capitals",
+			"# SETTING UP THE PAN MODULE\n\nThe PAN module reports soil moisture every minute.\n",
+			[]string{"Setting up the PAN module"}, []string{"Setting up the pan module"}},
+		{"an acronym as a heading's only word",
+			"# FORM\n\nThe FORM report lists the valves that failed.\n",
+			[]string{"FORM"}, []string{"form"}},
+		{"an acronym and a name in one heading",
+			"# INSTALLING THE PAN SERIES\n\nThe valves of the PAN Series close in a second.\n",
+			[]string{"Installing the PAN Series"}, []string{"Installing the pan series"}},
+		{"a word written both ways: the tables decide",
+			"# CLEANING THE PAN\n\nEmpty the pan before the PAN sensor reads it.\n",
+			[]string{"Cleaning the pan"}, []string{"Cleaning the pan"}},
+		{"capitals in a sentence without lower case say nothing",
+			"# CHECKING THE PAN\n\nCHECK THE PAN DAILY.\n",
+			[]string{"Checking the pan"}, []string{"Checking the pan"}},
+		{"a word the tables lack, in lower case in running text",
+			"# Planning the Fertigation Schedule\n\nPlan fertigation by crop and season.\n",
+			[]string{"Planning the fertigation schedule"}, []string{"Planning the Fertigation schedule"}},
+		{"an invented name stays one",
+			"# Installing the Aquavent Controller\n\nThe Aquavent controller opens the vents.\n",
+			[]string{"Installing the Aquavent controller"}, []string{"Installing the Aquavent controller"}},
+	}
+	v := viewer(t)
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			d := document(t, tt.text)
+			require.NotEmpty(t, d.Headings)
+			assert.Equal(t, tt.want, headingViews(v, d, true))
+			assert.Equal(t, tt.without, headingViews(v, d, false))
+		})
+	}
+}
+
+// Without headings there is nothing to gather; running text alone
+// changes no view.
+func TestGatherNeedsHeadings(t *testing.T) {
+	d := document(t, "Mount the Climate Master on a dry wall.\n")
+	assert.Nil(t, Gather(d.Sentences))
+	d = document(t, "# 3.2\n\nMount the Climate Master on a dry wall.\n")
+	assert.Nil(t, Gather(d.Sentences), "a heading without a capitalized word")
+
+	var none *Evidence
+	marks, _ := none.nameTokens(d.Sentences[0].Tokens, nil)
+	assert.Zero(t, marks)
+	assert.Zero(t, none.seen([]byte("climate")))
+}
+
+// BenchmarkGather measures the evidence of the demo corpus's documents,
+// per token: the cost a document with headings adds to tagging.
+func BenchmarkGather(b *testing.B) {
+	paths, err := filepath.Glob("../../testdata/demo/*")
+	require.NoError(b, err)
+	var docs []*doc.Document
+	tokens := 0
+	for _, p := range paths {
+		d, ps := read.Read(read.Input{Name: p, Path: p}, read.Options{})
+		require.NotNil(b, d, "%v", ps)
+		tokenize.Document(d)
+		for _, s := range d.Sentences {
+			tokens += len(s.Tokens)
+		}
+		docs = append(docs, d)
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		for _, d := range docs {
+			Gather(d.Sentences)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(tokens), "ns/token")
+}
