@@ -53,7 +53,8 @@ e-mail addresses and file paths are not reported. A line holding
 <!-- glossmith:skip-next-line --> — silences the next line that has text.
 
 Positions are 1-based lines and columns in characters: those of the file for
-Markdown and plain text, those of the extracted text for HTML, DOCX and PDF.`,
+Markdown, HTML and plain text (markup counted as written), those of the
+extracted text for DOCX and PDF.`,
 		Example: `  glossmith check --termbase pumps.termbase manuals/
   glossmith check --variants manuals/
   glossmith check --termbase pumps.termbase --to sarif -o check.sarif manuals/

@@ -9,14 +9,17 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"golang.org/x/net/html"
+	"golang.org/x/text/encoding/charmap"
 	"golang.org/x/text/encoding/unicode"
 )
 
 // Columns are those of the text as read: characters that normalization
 // removes (soft hyphens, zero-width and bidirectional marks) or composes
 // (e + U+0301) still count before a finding, whether the column comes
-// from the source line (UTF-8 text) or from the text as read (a
-// Windows-1252 file, no source, HTML). want is each line of the file as a
+// from the source line (UTF-8 text), from the text as read (a
+// Windows-1252 file, no source) or from where the HTML reader found the
+// text in the file. want is each line of the file as a
 // person counts its characters, where "magnet valve" is looked for.
 func TestColumnsOfTheTextAsRead(t *testing.T) {
 	cases := []struct {
@@ -49,9 +52,10 @@ func TestColumnsOfTheTextAsRead(t *testing.T) {
 		{name: "utf-16 BE", file: "h.txt",
 			content: utf16File(t, unicode.BigEndian, "The café has a magnet valve.\nThe 𝜆 sensor, a magnet valve.\n"),
 			lines:   []string{"The café has a magnet valve.", "The 𝜆 sensor, a magnet valve."}},
+		// HTML: the file's own lines, markup and references included.
 		{name: "html", file: "d.html",
 			content: "<p>The pres&shy;sure gauge and the magnet valve.</p>\n<p>The cafe&#x301; has a magnet valve.</p>\n",
-			lines:   []string{"The pres\u00ADsure gauge and the magnet valve.", "The cafe\u0301 has a magnet valve."}},
+			lines:   []string{"<p>The pres&shy;sure gauge and the magnet valve.</p>", "<p>The cafe&#x301; has a magnet valve.</p>"}},
 	}
 	m := Compile(pumpGlossary())
 	for _, tc := range cases {
@@ -109,4 +113,100 @@ func utf16File(t *testing.T, order unicode.Endianness, text string) string {
 	b, err := unicode.UTF16(order, unicode.UseBOM).NewEncoder().Bytes([]byte(text))
 	require.NoError(t, err)
 	return string(b)
+}
+
+// An HTML finding's line and column are the file's: the characters of the
+// decoded file from (Line, Column) to (EndLine, EndColumn), with their
+// tags, comments and script left out and their character references
+// resolved (by golang.org/x/net/html's tokenizer), are the text found;
+// and the token offsets between them slice the same text out of the file.
+func TestHTMLPositionsAreTheFiles(t *testing.T) {
+	cases := []struct {
+		name, content string
+		windows1252   bool
+		want          int // findings
+	}{
+		{name: "references", want: 3,
+			content: "<p>Fit the magnet&#32;valve &amp; the <i>flowrate</i> &#8217;meter&#8217;.</p>\n<p>Caf&eacute; magnet valve.</p>"},
+		{name: "nested inline tags", want: 2,
+			content: "<div><p>The <b><i>magnet</i></b> <span><a href=\"x\">valve</a></span> and the <em>set<b>point</b></em>.</p></div>"},
+		{name: "attributes holding >", want: 1,
+			content: "<p title=\"a > b\" data-x='<b>magnet valve</b>'>Check the <img alt=\"1 > 0\" src=x>magnet valve.</p>"},
+		{name: "comments", want: 2,
+			content: "<p>One<!-- magnet valve --> magnet <!-- x -->valve.</p>\n<!-- a\nmulti-line\ncomment -->\n<p>Then the flowrate.</p>"},
+		{name: "cdata, script and style skipped", want: 2,
+			content: "<html><head><style>.magnet > .valve {}</style><script>var s = \"<p>magnet valve</p>\";</script></head>\n" +
+				"<body><p>A <![CDATA[magnet valve]]> magnet valve.</p><script>magnet valve</script>\n<p>The flowrate.</p></body></html>"},
+		{name: "windows-1252 declared", windows1252: true, want: 2,
+			content: "<html><head><meta charset=\"windows-1252\"></head>\r\n<body><p>Caf\xE9 \x93magnet valve\x94 at 40 \x80.</p>\r\n<p>Na\xEFve flowrate.</p></body></html>"},
+		{name: "CRLF and collapsed white space", want: 2,
+			content: "<p>\r\n   The   magnet\r\n      valve\r\n</p>\r\n<ul>\r\n<li>Low   flowrate</li>\r\n</ul>\r\n"},
+		// the text of <pre> is code, not reported
+		{name: "pre and br", want: 1,
+			content: "<p>Line one<br>magnet valve</p>\n<pre>\n  the flowrate\n</pre>"},
+	}
+	m := Compile(pumpGlossary())
+	for _, tc := range cases {
+		d, src := annotate(t, "page.html", tc.content)
+		decoded := tc.content
+		if tc.windows1252 {
+			b, err := charmap.Windows1252.NewDecoder().Bytes(src)
+			require.NoError(t, err)
+			decoded = string(b)
+		}
+		lines := strings.Split(strings.NewReplacer("\r\n", "\n", "\r", "\n").Replace(decoded), "\n")
+		res := Check(d, src, Options{Glossary: m})
+		require.Len(t, res.Findings, tc.want, tc.name)
+		for _, f := range res.Findings {
+			require.True(t, f.Line >= 1 && f.EndLine >= f.Line && f.EndLine <= len(lines), "%s: %+v", tc.name, f)
+			cut := cutLines(lines, f.Line, f.Column, f.EndLine, f.EndColumn)
+			assert.Equal(t, f.Text, visibleText(cut), "%s: %d:%d-%d:%d %q", tc.name, f.Line, f.Column, f.EndLine, f.EndColumn, cut)
+			if !tc.windows1252 {
+				assert.Equal(t, f.Text, visibleText(tc.content[d.ReadOffset(f.Start):d.ReadEnd(f.End)]), tc.name)
+			}
+		}
+	}
+}
+
+// cutLines returns the characters of lines from line l0, column c0 to line
+// l1, column c1 (exclusive), all 1-based.
+func cutLines(lines []string, l0, c0, l1, c1 int) string {
+	runeAt := func(s string, col int) int { // byte offset of column col
+		i := 0
+		for n := 1; n < col && i < len(s); n++ {
+			_, w := utf8.DecodeRuneInString(s[i:])
+			i += w
+		}
+		return i
+	}
+	if l0 == l1 {
+		s := lines[l0-1]
+		return s[runeAt(s, c0):runeAt(s, c1)]
+	}
+	parts := []string{lines[l0-1][runeAt(lines[l0-1], c0):]}
+	parts = append(parts, lines[l0:l1-1]...)
+	return strings.Join(append(parts, lines[l1-1][:runeAt(lines[l1-1], c1)]), "\n")
+}
+
+// visibleText is the text of an HTML fragment as a page shows it: text
+// tokens but those of script and style, white space runs as one space.
+func visibleText(s string) string {
+	z := html.NewTokenizer(strings.NewReader(s))
+	var out strings.Builder
+	skip := false
+	for {
+		switch tt := z.Next(); tt {
+		case html.ErrorToken:
+			return strings.Join(strings.Fields(out.String()), " ")
+		case html.TextToken:
+			if !skip {
+				out.Write(z.Text())
+			}
+		case html.StartTagToken, html.EndTagToken:
+			name, _ := z.TagName()
+			if string(name) == "script" || string(name) == "style" {
+				skip = tt == html.StartTagToken
+			}
+		}
+	}
 }

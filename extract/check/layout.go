@@ -24,22 +24,23 @@ const SkipMarker = "glossmith:skip-next-line"
 // columns of its original file, and knows which parts of the text are not
 // prose to check: code, silenced lines.
 //
-// Lines: the readers keep a Markdown or plain text file's lines, so a
-// text line is the file's line; for HTML, DOCX and PDF a line is a line of
-// the extracted text (as every glossmith command reports it). Columns: in
-// Markdown the reader deletes markup within a line ("**set point**" is
-// "set point"), so each text line is aligned with its source line, the
-// text's characters found in order in the source outside tags and link
-// targets; elsewhere a column counts the characters of the text line as
-// read, those that normalization removed or composed included.
+// HTML: the reader keeps where each piece of text came from in the file
+// (doc.Document.Origins), so lines and columns are the file's. Markdown
+// and plain text: the readers keep the file's lines, so a text line is
+// the file's line; in Markdown the reader deletes markup within a line
+// ("**set point**" is "set point"), so each text line is aligned with its
+// source line, the text's characters found in order in the source outside
+// tags and link targets. DOCX and PDF: lines of the extracted text. Where
+// no source says otherwise, a column counts the characters of the text
+// line as read, those that normalization removed or composed included.
 type layout struct {
 	d         *doc.Document
 	lineStart []int         // byte offset in the text of each line's start
 	src       []string      // source lines (Markdown, plain text), or nil
 	cols      map[int][]int // text line → source column (0-based) of each of its runes
 	srcCode   map[int][][2]int
-	code      [][2]int     // byte ranges of the text that are code (HTML)
-	skip      map[int]bool // silenced text lines
+	code      [][2]int     // byte ranges of the file that are code (HTML)
+	skip      map[int]bool // silenced lines
 	// The last offset position counted runes to, and its line and rune
 	// count: uses come in text order, mostly, and counting on from there
 	// keeps a long line from being counted again for each.
@@ -56,10 +57,10 @@ func newLayout(d *doc.Document, src []byte) *layout {
 			l.lineStart = append(l.lineStart, i+1)
 		}
 	}
-	src = decodeSource(src)
+	src = gunzipped(src)
 	switch d.Format {
 	case "md", "txt":
-		if src != nil {
+		if src = decodeSource(src); src != nil {
 			l.src = strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n")
 			for i, s := range l.src {
 				l.src[i] = strings.TrimSuffix(s, "\r")
@@ -69,21 +70,23 @@ func newLayout(d *doc.Document, src []byte) *layout {
 			}
 		}
 	case "html":
-		if src != nil {
-			l.htmlMarks(src)
+		if src != nil && !bytes.HasPrefix(src, []byte{0xFF, 0xFE}) && !bytes.HasPrefix(src, []byte{0xFE, 0xFF}) {
+			l.htmlMarks(src) // tags are ASCII in any encoding but UTF-16
 		}
 	}
-	l.markSkips(func(n int) string { return l.textLine(n) }, len(l.lineStart))
+	if d.Origins == nil { // lines of the text are lines of the file
+		l.markSkips(func(n int) string { return l.textLine(n) }, len(l.lineStart))
+	}
 	if l.src != nil {
 		l.markSkips(func(n int) string { return l.src[n-1] }, len(l.src))
 	}
 	return l
 }
 
-// decodeSource returns a source file's bytes as text: gunzipped, without a
-// UTF-8 byte order mark; nil when it is not UTF-8 (the columns then come
-// from the text).
-func decodeSource(src []byte) []byte {
+// gunzipped returns a source file's bytes, decompressed when they are
+// gzip data (the offsets of doc.Document.ReadOffset are of those); nil
+// when they cannot be.
+func gunzipped(src []byte) []byte {
 	if len(src) > 2 && src[0] == 0x1f && src[1] == 0x8b {
 		zr, err := gzip.NewReader(bytes.NewReader(src))
 		if err != nil {
@@ -94,6 +97,13 @@ func decodeSource(src []byte) []byte {
 			return nil
 		}
 	}
+	return src
+}
+
+// decodeSource returns a source file's bytes as text, without a UTF-8
+// byte order mark; nil when it is not UTF-8 (the columns then come from
+// the text).
+func decodeSource(src []byte) []byte {
 	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
 	if !utf8.Valid(src) {
 		return nil
@@ -130,6 +140,9 @@ func (l *layout) markSkips(line func(n int) string, lines int) {
 // position returns the 1-based line and column of byte offset off of the
 // text.
 func (l *layout) position(off int) (line, col int) {
+	if line, col, ok := l.d.SourcePosition(off, false); ok {
+		return line, col
+	}
 	line, r := l.runeIndex(off)
 	return line, l.column(line, r, off)
 }
@@ -163,6 +176,11 @@ func (l *layout) column(n, r, off int) int {
 // The end is counted on from the start, so that the spans of a sentence,
 // which come in order of their starts, are counted once.
 func (l *layout) span(f *Finding) {
+	if line, col, ok := l.d.SourcePosition(f.Start, false); ok {
+		f.Line, f.Column = line, col
+		f.EndLine, f.EndColumn, _ = l.d.SourcePosition(f.End, true)
+		return
+	}
 	line, r := l.runeIndex(f.Start)
 	f.Line, f.Column = line, l.column(line, r, f.Start)
 	_, last := utf8.DecodeLastRuneInString(l.d.Text[:f.End])
@@ -304,9 +322,12 @@ func isASCIILetter(r rune) bool { return 'a' <= r && r <= 'z' || 'A' <= r && r <
 // <samp>), or in an HTML code element (code, pre, kbd, samp, tt, var).
 // (Fenced and indented code blocks never reach the text.)
 func (l *layout) inCode(f *Finding) bool {
-	for _, c := range l.code {
-		if f.Start < c[1] && c[0] < f.End {
-			return true
+	if l.code != nil {
+		from, to := l.d.ReadOffset(f.Start), l.d.ReadEnd(f.End)
+		for _, c := range l.code {
+			if from < c[1] && c[0] < to {
+				return true
+			}
 		}
 	}
 	if l.src == nil || l.d.Format != "md" {
@@ -392,95 +413,60 @@ func codeSpans(s []rune) [][2]int {
 	return out
 }
 
-// htmlMarks finds, in an HTML source, the text of code elements and the
-// text that follows a skip comment, and locates them in the document's
-// text, which holds the page's visible text in the same order: each text
-// node is looked for from where the previous one was found.
+// htmlMarks finds, in an HTML file, the code elements and the skip
+// comments: code is a range of the file's bytes, which the reader's
+// offsets (doc.Document.ReadOffset) are compared with; a skip comment
+// silences the line of the first text after it.
 func (l *layout) htmlMarks(src []byte) {
 	z := html.NewTokenizer(bytes.NewReader(src))
-	text := l.d.Text
-	cursor, hiddenDepth, codeDepth, skipNext := 0, 0, 0, false
+	off, codeDepth, codeStart := 0, 0, 0
 	for {
 		tt := z.Next()
+		if tt == html.ErrorToken {
+			break
+		}
+		n := len(z.Raw())
 		switch tt {
-		case html.ErrorToken:
-			return
 		case html.CommentToken:
 			if strings.Contains(string(z.Text()), SkipMarker) {
-				skipNext = true
+				l.skipAfter(off + n)
 			}
 		case html.StartTagToken, html.EndTagToken:
 			name, _ := z.TagName()
-			tag := string(name)
-			d := 1
-			if tt == html.EndTagToken {
-				d = -1
+			if !htmlCode[string(name)] {
+				break
 			}
-			switch {
-			case htmlHidden[tag]:
-				hiddenDepth = max(hiddenDepth+d, 0)
-			case htmlCode[tag]:
-				codeDepth = max(codeDepth+d, 0)
-			}
-		case html.TextToken:
-			if hiddenDepth > 0 {
-				continue
-			}
-			words := strings.Fields(string(z.Text()))
-			if len(words) == 0 {
-				continue
-			}
-			from, to, ok := findWords(text, cursor, words)
-			if !ok {
-				continue
-			}
-			cursor = to
-			if codeDepth > 0 {
-				l.code = append(l.code, [2]int{from, to})
-			}
-			if skipNext {
-				line := sort.Search(len(l.lineStart), func(i int) bool { return l.lineStart[i] > from })
-				l.skip[line] = true
-				skipNext = false
+			if tt == html.StartTagToken {
+				if codeDepth == 0 {
+					codeStart = off + n
+				}
+				codeDepth++
+			} else if codeDepth > 0 {
+				if codeDepth--; codeDepth == 0 {
+					l.code = append(l.code, [2]int{codeStart, off})
+				}
 			}
 		}
+		off += n
+	}
+	if codeDepth > 0 {
+		l.code = append(l.code, [2]int{codeStart, off})
 	}
 }
 
-// htmlHidden are the elements whose text the HTML reader drops.
-var htmlHidden = map[string]bool{"head": true, "title": true, "script": true, "style": true, "noscript": true,
-	"template": true, "svg": true, "math": true, "iframe": true, "object": true, "select": true,
-	"textarea": true, "canvas": true, "audio": true, "video": true}
+// skipAfter silences the line of the first text at or after byte offset
+// at of the file.
+func (l *layout) skipAfter(at int) {
+	text := l.d.Text
+	t := sort.Search(len(text), func(t int) bool { return l.d.ReadOffset(t) >= at })
+	for t < len(text) && (text[t] == ' ' || text[t] == '\n' || !utf8.RuneStart(text[t])) {
+		t++
+	}
+	if t < len(text) {
+		line, _ := l.position(t)
+		l.skip[line] = true
+	}
+}
 
 // htmlCode are the elements whose text is code, not prose.
 var htmlCode = map[string]bool{"code": true, "pre": true, "kbd": true, "samp": true, "tt": true, "var": true}
-
-// findWords looks for words, in order with only white space between them,
-// in text from byte offset from; it returns the byte range they cover.
-func findWords(text string, from int, words []string) (start, end int, ok bool) {
-	for from < len(text) {
-		i := strings.Index(text[from:], words[0])
-		if i < 0 {
-			return 0, 0, false
-		}
-		start = from + i
-		end = start + len(words[0])
-		ok = true
-		for _, w := range words[1:] {
-			k := end
-			for k < len(text) && (text[k] == ' ' || text[k] == '\t' || text[k] == '\n') {
-				k++
-			}
-			if !strings.HasPrefix(text[k:], w) {
-				ok = false
-				break
-			}
-			end = k + len(w)
-		}
-		if ok {
-			return start, end, true
-		}
-		from = start + 1
-	}
-	return 0, 0, false
-}

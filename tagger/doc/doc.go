@@ -13,6 +13,7 @@ import (
 	"cmp"
 	"math"
 	"slices"
+	"unicode/utf8"
 )
 
 // Token is one word or punctuation mark of a sentence.
@@ -145,14 +146,38 @@ type Document struct {
 	// composed others (see Shift); nil when normalization changed nothing,
 	// as for ASCII text. ReadOffset, ReadEnd and ColumnShift read them.
 	Shifts []Shift
-	// Source maps offsets of the text as the reader extracted it on to
-	// bytes of the file (after gzip), for plain text whose bytes are not
-	// that text: a byte-order mark, CRLF line ends, an encoding other than
-	// UTF-8, bytes replaced or dropped (see SourceRun). Nil when the text
-	// is the file's bytes, and for formats whose text is extracted from
-	// markup. ReadOffset and ReadEnd go through it after Shifts.
+	// Origins map offsets of the text as the reader extracted it on to
+	// its source, the file as decoded with its markup and line ends as
+	// LF, for formats whose text is extracted from markup (html): tags
+	// removed, entities decoded, white space collapsed, paragraph breaks
+	// added (see Origin). Nil when the text is its source (txt) or none
+	// is kept (docx, pdf, conllu). ReadOffset and ReadEnd go through them
+	// after Shifts, and SourcePosition reads their lines and columns.
+	Origins []Origin
+	// Source maps offsets of the source (the text as read, or what
+	// Origins point into) on to bytes of the file (after gzip) where they
+	// differ: a byte-order mark, CRLF line ends, an encoding other than
+	// UTF-8, bytes replaced or dropped (see SourceRun). Nil when the
+	// source is the file's bytes. ReadOffset and ReadEnd go through it
+	// last.
 	Source []SourceRun
 }
+
+// Origin is a point of the text as read from which it stands for its
+// source at a new place or a new rate, as a SourceRun stands for the
+// file: a copy (Width = FileWidth = 1), an entity ("&amp;": 1 byte of
+// text for 5 of source), white space collapsed or a paragraph break
+// added (FileWidth 0: every character stands at Start). Line and Col are
+// the 1-based line and column, in characters, of Start in the source. A
+// copy never runs past a line break (one starts a new Origin), so a
+// copied character's column is Col plus the characters before it.
+type Origin struct {
+	SourceRun
+	Line, Col int32
+}
+
+// copied reports whether the text from the origin on is its source as it is.
+func (o *Origin) copied() bool { return o.Width == o.FileWidth }
 
 // SourceRun is a point of the text as read from which its characters
 // stand for the file's bytes at a new place or a new rate: from offset At
@@ -168,18 +193,39 @@ type SourceRun struct {
 	Width, FileWidth uint8
 }
 
-// sourceAt returns the file offset of offset off of the text as read,
-// the start of the character there or (end) the end of the one before.
-func (d *Document) sourceAt(off int, end bool) int {
-	k, _ := slices.BinarySearchFunc(d.Source, off+1, func(s SourceRun, x int) int { return cmp.Compare(int(s.At), x) })
-	if k == 0 {
-		return off
-	}
-	s := d.Source[k-1]
+// runAt returns the index of the last run of runs at or before offset
+// off (-1 when there is none); run gives the SourceRun of an element.
+func runAt[R any](runs []R, off int, run func(*R) *SourceRun) int {
+	k, _ := slices.BinarySearchFunc(runs, off+1, func(r R, x int) int { return cmp.Compare(int(run(&r).At), x) })
+	return k - 1
+}
+
+// mapped returns where offset off, in the run's stretch, stands: the
+// start of the character there or (end) the end of the one before.
+func (s *SourceRun) mapped(off int, end bool) int {
 	if end && int(s.At) == off {
 		return int(s.End)
 	}
 	return int(s.Start) + int(int64(off-int(s.At))*int64(s.FileWidth)/int64(s.Width))
+}
+
+func sourceRun(s *SourceRun) *SourceRun { return s }
+func originRun(o *Origin) *SourceRun    { return &o.SourceRun }
+
+// sourceAt returns the file offset of offset off of the source.
+func (d *Document) sourceAt(off int, end bool) int {
+	if k := runAt(d.Source, off, sourceRun); k >= 0 {
+		return d.Source[k].mapped(off, end)
+	}
+	return off
+}
+
+// originAt returns the source offset of offset off of the text as read.
+func (d *Document) originAt(off int, end bool) int {
+	if k := runAt(d.Origins, off, originRun); k >= 0 {
+		return d.Origins[k].mapped(off, end)
+	}
+	return off
 }
 
 // LineRange is a run of lines of a document's Text, First to Last, both
@@ -214,12 +260,16 @@ func (d *Document) shiftAt(off int) Shift {
 }
 
 // ReadOffset returns the offset in the text as read (before
-// normalization; in the file's bytes where Source maps them) of the
-// character that starts at offset off of Text.
+// normalization; in the source where Origins map it, in the file's bytes
+// where Source maps them) of the character that starts at offset off of
+// Text.
 func (d *Document) ReadOffset(off int) int {
 	if d.Shifts != nil {
 		s := d.shiftAt(off)
 		off = int(s.Start) + off - int(s.At)
+	}
+	if d.Origins != nil {
+		off = d.originAt(off, false)
 	}
 	if d.Source != nil {
 		off = d.sourceAt(off, false)
@@ -227,8 +277,8 @@ func (d *Document) ReadOffset(off int) int {
 	return off
 }
 
-// ReadEnd returns the offset in the text as read (in the file's bytes
-// where Source maps them) just past the character that ends at offset off
+// ReadEnd returns the offset in the text as read (in the source, in the
+// file's bytes where Origins and Source map them) just past the character that ends at offset off
 // of Text: characters removed right after it are not included, as
 // ReadOffset skips those right before a character.
 func (d *Document) ReadEnd(off int) int {
@@ -239,6 +289,9 @@ func (d *Document) ReadEnd(off int) int {
 		} else {
 			off = int(s.Start) + off - int(s.At)
 		}
+	}
+	if d.Origins != nil {
+		off = d.originAt(off, true)
 	}
 	if d.Source != nil {
 		off = d.sourceAt(off, true)
@@ -260,6 +313,61 @@ func (d *Document) ColumnShift(lineStart, off int) int {
 		before = int(d.shiftAt(lineStart - 1).Runes)
 	}
 	return int(d.shiftAt(off).Runes) - before
+}
+
+// SourcePosition returns the 1-based line and column, in characters, in
+// the source (see Origins) of the character that starts at offset off of
+// Text or, with end, of the point just past the one that ends there; ok is
+// false for a document without Origins, whose lines and columns are those
+// of Text (see ColumnShift). Markup a character stands for (an entity) is
+// ASCII, so its columns are its bytes.
+func (d *Document) SourcePosition(off int, end bool) (line, col int, ok bool) {
+	if d.Origins == nil {
+		return 0, 0, false
+	}
+	r := off // in the text as read
+	if d.Shifts != nil {
+		if s := d.shiftAt(off); end && int(s.At) == off {
+			r = int(s.End)
+		} else {
+			r = int(s.Start) + off - int(s.At)
+		}
+	}
+	at := r
+	if end && r > 0 {
+		at = r - 1 // the origin of the character before
+	}
+	k := runAt(d.Origins, at, originRun)
+	if k < 0 {
+		return 1, 1, true // before the first origin: nothing extracted
+	}
+	o := &d.Origins[k]
+	if !o.copied() {
+		return int(o.Line), int(o.Col) + max(o.mapped(r, end)-int(o.Start), 0), true
+	}
+	return int(o.Line), int(o.Col) + d.readRunes(int(o.At), r, off), true
+}
+
+// readRunes returns how many characters the text as read has from offset
+// a to offset r, where r is offset off of Text, counting those that
+// normalization removed or composed (see Shift).
+func (d *Document) readRunes(a, r, off int) int {
+	if d.Shifts == nil {
+		return utf8.RuneCountInString(d.Text[min(a, off):off])
+	}
+	// the offset of Text where a stands: the last shift starting at or
+	// before it, and no further than the next shift
+	k, _ := slices.BinarySearchFunc(d.Shifts, a+1, func(s Shift, x int) int { return cmp.Compare(int(s.Start), x) })
+	ta := a
+	if k > 0 {
+		s := d.Shifts[k-1]
+		ta = int(s.At) + a - int(s.Start)
+	}
+	if k < len(d.Shifts) {
+		ta = min(ta, int(d.Shifts[k].At))
+	}
+	ta = min(ta, off)
+	return utf8.RuneCountInString(d.Text[ta:off]) + int(d.shiftAt(off).Runes) - int(d.shiftAt(ta).Runes)
 }
 
 // Tagged reports whether every sentence of the document carries tags, so a

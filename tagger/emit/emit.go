@@ -58,8 +58,9 @@ type tsvWriter struct {
 
 // TSV columns: one row per token; sentence numbers count from 1 within
 // each document, token numbers from 1 within each sentence; start and end
-// are byte offsets of the text as read, before Unicode normalization (see
-// doc.Document.ReadOffset), as in JSON Lines. Fields are quoted as
+// are byte offsets of the text as read, before Unicode normalization —
+// of the file's bytes for plain text and HTML (see
+// doc.Document.ReadOffset) — as in JSON Lines. Fields are quoted as
 // internal/tabular documents. heading, a sentence's as the other formats
 // give it once per sentence, is repeated on each of its rows, as doc and
 // sentence are; it comes last so that the earlier columns keep their

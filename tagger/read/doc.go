@@ -81,7 +81,8 @@
 // <pre>. Each block element (p, div, h1–h6, li, td, th, tr, table,
 // blockquote, section, ...) ends a paragraph: a blank line between blocks,
 // so table cells and list items never share a sentence. <br> is a line
-// break. Token.Line is the line of the extracted text.
+// break. Token.Line is the line of the extracted text; Document.Origins
+// keep where each piece of it stands in the page (below).
 //
 // docx: the main document part, word/document.xml (headers, footers,
 // footnotes and comments are not read). Each w:p paragraph — headings,
@@ -166,11 +167,21 @@
 // text as read (ReadOffset, ReadEnd) and give columns that count the
 // removed and composed characters (ColumnShift), recorded only where the
 // offsets stop lining up. Text that needs neither (nearly all) is checked
-// in one pass, not copied, and has no shifts. For txt, Document.Source
-// maps on from the text as read to the bytes of the file (source.go) when
-// they differ — a byte-order mark, CRLF, another encoding, replaced or
-// dropped bytes, a line left out — so ReadOffset and ReadEnd are offsets
-// of the file; a UTF-8 file with LF line ends costs nothing.
+// in one pass, not copied, and has no shifts. For html, Document.Origins
+// map on from the text as read to the page as decoded (origins.go): the
+// text nodes of the parsed tree, which has no source positions, are found
+// again in the stretches between tags that the tokenizer gives, in order
+// (text the parser moves, as a table's stray text, is looked for after
+// and before), their character references and the white space the parser
+// dropped accounted for; an origin is kept only where the offsets stop
+// lining up (at tags, references, collapsed white space and paragraph
+// breaks), with the page's line and column there, from which check takes
+// its positions. For txt and html, Document.Source maps on to the bytes
+// of the file (source.go) when they differ — a byte-order mark, CRLF,
+// another encoding, replaced or dropped bytes, a line left out — so
+// ReadOffset and ReadEnd are offsets of the file; a UTF-8 file with LF
+// line ends costs nothing. Markdown, DOCX and PDF offsets are of the
+// extracted text.
 //
 // # Bad input
 //

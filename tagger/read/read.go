@@ -281,7 +281,15 @@ func (r *reader) read() *doc.Document {
 		case FormatMarkdown:
 			d = r.markdown(text)
 		case FormatHTML:
-			d = r.html(text)
+			// The tokenizer turns CRLF and CR into LF; done first, the
+			// source that Origins point into has the lines of the file.
+			if strings.Contains(text, "\r") {
+				r.coding.altered = true
+				text = normalizeNewlines(text)
+			}
+			if d = r.html(text); r.coding.altered {
+				d.Source = sourceRuns(data, text, r.coding)
+			}
 		case FormatConllu:
 			d = r.conllu(text)
 		}

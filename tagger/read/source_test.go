@@ -8,6 +8,7 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"golang.org/x/net/html"
 	"golang.org/x/text/encoding"
 	"golang.org/x/text/encoding/charmap"
 	"golang.org/x/text/encoding/japanese"
@@ -190,16 +191,20 @@ func FuzzSourceOffsets(f *testing.F) {
 		if d == nil {
 			return
 		}
-		checkSource(t, d, data, decode)
+		checkSource(t, d, data, func(b []byte) string {
+			got, _ := normalizeText(strings.ReplaceAll(decode(b), "\x00", ""))
+			return got
+		})
 	})
 }
 
-// checkSource checks the tokens of d against data, the file: those that
-// start before an ASCII character and end before one or at the end, for
-// a token may end inside what NFC made of one character (U+2ADC FORKING
-// is U+2ADD U+0338 in NFC, and U+0338 may be a token of its own), and
-// only the ends of such a piece map back to the file.
-func checkSource(t *testing.T, d *doc.Document, data []byte, decode func([]byte) string) {
+// checkSource checks the tokens of d against data, the file, where shown
+// gives the text a slice of the file shows: those that start before an
+// ASCII character and end before one or at the end, for a token may end
+// inside what NFC made of one character (U+2ADC FORKING is U+2ADD U+0338
+// in NFC, and U+0338 may be a token of its own), and only the ends of
+// such a piece map back to the file.
+func checkSource(t *testing.T, d *doc.Document, data []byte, shown func([]byte) string) {
 	t.Helper()
 	tokenize.Document(d)
 	for _, s := range d.Sentences {
@@ -209,8 +214,135 @@ func checkSource(t *testing.T, d *doc.Document, data []byte, decode func([]byte)
 			if d.Text[tok.Start] >= utf8.RuneSelf || int(tok.End) < len(d.Text) && d.Text[tok.End] >= utf8.RuneSelf {
 				continue
 			}
-			got, _ := normalizeText(strings.ReplaceAll(decode(data[from:to]), "\x00", ""))
-			require.Equal(t, tok.Form, got, "%q at [%d:%d] of %q", tok.Form, from, to, data)
+			require.Equal(t, tok.Form, shown(data[from:to]), "%q at [%d:%d] of %q", tok.Form, from, to, data)
 		}
 	}
+}
+
+// htmlSourceCase is a small page with what moves HTML text away from its
+// source, and how to decode a slice of the file (nil: UTF-8).
+type htmlSourceCase struct {
+	name, data string
+	decode     func([]byte) string
+}
+
+// htmlSourceCases: character references, tags inside and between words,
+// attributes holding ">", comments, CDATA, script and style, collapsed
+// white space, <br>, blocks, <pre>, CRLF, a declared Windows-1252 charset,
+// a byte-order mark, UTF-16.
+func htmlSourceCases(t *testing.T) []htmlSourceCase {
+	utf16le := unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM)
+	return []htmlSourceCase{
+		{name: "references", data: "<p>Drip &amp; spray emitters at 3&nbsp;bar, the valve&#8217;s seat, caf&eacute; &#x20AC;5 &notit; &amp</p>"},
+		{name: "nested inline tags", data: "<p>The <b>set<i>point</i></b> of the <a href=\"v.html\"><em>magnet</em> valve</a> is <span><span>15</span></span>&#176;C.</p>"},
+		{name: "attributes holding >", data: "<p title=\"a > b\" data-x='<p>x</p>'>Inlet <img alt=\"1 > 0\" src=x>pressure <a href=\"?a=1&b=2\">gauge</a>.</p>"},
+		{name: "comments", data: "<p>Flow<!-- a comment with <p>tags</p> --> meter<!----> and <!-- glossmith:skip-next-line -->filter.</p>"},
+		{name: "cdata, script and style", data: "<html><head><style>p > b { color: red }</style><script>if (a < b && c) { x = \"<p>no</p>\" }</script></head>" +
+			"<body><p>Valve <![CDATA[ hidden ]]>body</p><script>var valve = 1;</script><p>Seat ring.</p><svg><title>valve</title><style><p>x</style></svg><p>Last valve.</p></body></html>"},
+		{name: "white space, br and blocks", data: "<div>\n  <h1>  Solenoid\n    valve </h1>\n\t<p>Opens   at\n\n 3 bar<br>closes<br/>\n at 1 bar.</p><ul><li>Bleed<li>Check</ul>\n</div>"},
+		{name: "pre", data: "<p>Before</p><pre>\n  valve  open\n  &lt;seat&gt;\n</pre><p>After</p>"},
+		{name: "CRLF", data: "<p>First\r\nline of the\r\n  valve text.</p>\r\n<pre>a\r\nb\rc</pre>\r\n<p>Last &amp;\r\nend.</p>\r\n"},
+		{name: "tables and implied ends", data: "<table><tr><td>Valve<td>Seat</tr><tr><th>Ring</table><p>Text<p>More<li>item"},
+		{name: "stray table text", data: "<table><tr><td>Cell one</td></tr>stray words<tr><td>Cell two</td></tr></table><p>After the table.</p>"},
+		{name: "hidden", data: "<p hidden>Valve</p><div style=\"display:none\">Valve seat</div><p>Valve seat ring.</p>"},
+		{name: "soft hyphen and decomposed accents", data: "<p>pres&shy;sure cafe\u0301 and cafe&#x301; pres\u00ADsure</p>"},
+		{name: "windows-1252 declared", data: "<html><head><meta charset=\"windows-1252\"></head><body><p>The caf\xE9\x92s valve costs 40 \x80.\r\n<b>Na\xEFve</b> seat&nbsp;ring.</p></body></html>",
+			decode: decodedWith(charmap.Windows1252)},
+		{name: "nested too deep for the tree, read tag by tag", data: "<p>Top valve.</p>" + strings.Repeat("<div>", 600) + "Deep <b>set</b>point &amp;\n  <script>x()</script>seat." + strings.Repeat("</div>", 600)},
+		{name: "utf-8 byte-order mark", data: "\xEF\xBB\xBF<p>Caf\u00e9 valve &amp; seat.</p>\n<p>Zürich pump.</p>"},
+		{name: "utf-16 LE", data: string(append([]byte{0xFF, 0xFE}, encodedWith(t, utf16le, "<p>Caf\u00e9 valve &amp; seat\r\nring. The \U0001D706 sensor.</p>")...)),
+			decode: decodedWith(utf16le)},
+	}
+}
+
+// A token's offsets point into the HTML file: the slice of the file
+// between them, decoded, with its tags, comments and script left out and
+// its character references resolved (by golang.org/x/net/html's
+// tokenizer, not the reader), is the token.
+func TestHTMLOffsetsPointIntoTheFile(t *testing.T) {
+	for _, tc := range htmlSourceCases(t) {
+		d, _ := readFile(t, "a.html", tc.data, Options{})
+		require.NotNil(t, d, tc.name)
+		require.NotNil(t, d.Origins, tc.name)
+		tokenize.Document(d)
+		require.Positive(t, d.TokenCount(), tc.name)
+		for _, s := range d.Sentences {
+			for _, tok := range s.Tokens {
+				from, to := d.ReadOffset(int(tok.Start)), d.ReadEnd(int(tok.End))
+				require.True(t, 0 <= from && from <= to && to <= len(tc.data), "%s: %q at [%d:%d]", tc.name, tok.Form, from, to)
+				assert.Equal(t, tok.Form, htmlSliceText(tc.data[from:to], tc.decode), "%s: [%d:%d] %q", tc.name, from, to, tc.data[from:to])
+			}
+		}
+	}
+}
+
+// htmlSliceText is the text a slice of an HTML file shows: its text
+// tokens, less the raw text of the elements the reader drops, character
+// references resolved, white space runs as one space, in the reader's
+// normal form.
+func htmlSliceText(b string, decode func([]byte) string) string {
+	if decode != nil {
+		b = decode([]byte(b))
+	}
+	b = strings.TrimPrefix(b, "\uFEFF")
+	z := html.NewTokenizer(strings.NewReader(b))
+	var out strings.Builder
+	skip := ""
+	for {
+		switch tt := z.Next(); tt {
+		case html.ErrorToken:
+			got, _ := normalizeText(strings.Join(strings.Fields(out.String()), " "))
+			return got
+		case html.TextToken:
+			if skip == "" {
+				out.Write(z.Text())
+			}
+		case html.StartTagToken, html.EndTagToken:
+			name, _ := z.TagName()
+			switch {
+			case tt == html.StartTagToken && skip == "" && htmlDropped[string(name)]:
+				skip = string(name)
+			case tt == html.EndTagToken && string(name) == skip:
+				skip = ""
+			}
+		}
+	}
+}
+
+// FuzzHTMLSourceOffsets reads any bytes as HTML, as UTF-8 and behind a
+// UTF-16 byte-order mark, and checks every token as
+// TestHTMLOffsetsPointIntoTheFile does, for pages the reader reads in
+// source order: without elements whose text the parser moves (tables,
+// "<plaintext>") or a page nested too deep for the tree.
+func FuzzHTMLSourceOffsets(f *testing.F) {
+	for _, tc := range htmlSourceCases(&testing.T{}) {
+		if tc.decode == nil {
+			f.Add([]byte(tc.data), false)
+		}
+	}
+	f.Add([]byte("<p>a &amp b &#0000065; &#x; &#; &;x &ampx</p>"), true)
+	f.Fuzz(func(t *testing.T, data []byte, utf16 bool) {
+		if len(data) > 512 {
+			return
+		}
+		decode := perByte
+		if utf16 {
+			data = append([]byte{0xFF, 0xFE}, data...)
+			decode = decodedWith(unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM))
+		}
+		lower := bytes.ToLower(data)
+		for _, moves := range []string{"<table", "<plaintext", "<svg", "<math", "<frameset", "<select", "<template", "<noscript", "<xmp", "<textarea"} {
+			if bytes.Contains(lower, []byte(moves)) {
+				return
+			}
+		}
+		if !utf16 && (!utf8.Valid(data) || bytes.HasPrefix(data, bomUTF16LE) || bytes.HasPrefix(data, bomUTF16BE) || strings.Contains(string(data), "charset") || strings.Contains(string(data), "encoding")) {
+			return // decoded otherwise: TestHTMLOffsetsPointIntoTheFile covers Windows-1252
+		}
+		d, _ := Read(Input{Name: "-", Path: "-"}, Options{Format: FormatHTML, Stdin: bytes.NewReader(data)})
+		if d == nil {
+			return
+		}
+		checkSource(t, d, data, func(b []byte) string { return htmlSliceText(string(b), decode) })
+	})
 }
