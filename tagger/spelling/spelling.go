@@ -20,7 +20,10 @@
 // letter).
 package spelling
 
-import "slices"
+import (
+	"maps"
+	"slices"
+)
 
 // MinEditLen is the shortest word read as an edit of another: shorter
 // words are one edit away from too many others ("teh" and "wat" are left
@@ -28,38 +31,44 @@ import "slices"
 const MinEditLen = 4
 
 // Dictionary holds the words misspellings may be read as, with their
-// frequencies. It is read-only once built and safe for concurrent use.
+// frequencies. It is read-only once built and safe for concurrent use. It
+// holds no pointers but its text, so that the garbage collector, which
+// runs often in a long tagging run, need not scan 40,000 words.
 type Dictionary struct {
-	words []string
-	freq  []float64
-	index map[string]int32 // word → its index
-	// dels holds hash<<32|word index for every word and every single
-	// deletion of it past the first letter, sorted: the words a deletion
-	// hash leads to are one run.
+	text string    // the words, sorted, one after the other
+	off  []uint32  // word k is text[off[k]:off[k+1]]
+	freq []float64 // frequency of word k
+	// dels holds hash<<32|k for every word k, and for every single
+	// deletion of it past the first letter, sorted: the words a hash
+	// leads to are one run. A word is found by its own hash.
 	dels []uint64
 }
 
 // NewDictionary builds a dictionary from lower-case words of letters a–z
 // and their frequencies (any scale; higher wins). Other words are left out.
 func NewDictionary(words map[string]float64) *Dictionary {
-	d := &Dictionary{index: make(map[string]int32, len(words))}
-	for _, w := range slices.Sorted(mapsKeys(words)) {
+	d := &Dictionary{}
+	var text []byte
+	for _, w := range slices.Sorted(maps.Keys(words)) {
 		if !lowerLetters(w) || words[w] <= 0 {
 			continue
 		}
-		d.index[w] = int32(len(d.words))
-		d.words = append(d.words, w)
+		d.off = append(d.off, uint32(len(text)))
 		d.freq = append(d.freq, words[w])
+		text = append(text, w...)
 	}
+	d.off = append(d.off, uint32(len(text)))
+	d.text = string(text)
 	var buf []byte
-	for i, w := range d.words {
+	for k := range d.freq {
+		w := d.word(int32(k))
+		d.dels = append(d.dels, hash([]byte(w))<<32|uint64(k))
 		if len(w) < MinEditLen-1 {
-			continue
+			continue // no word MinEditLen long is one edit away
 		}
-		d.dels = append(d.dels, d.hash([]byte(w))<<32|uint64(i))
-		for k := 1; k < len(w); k++ {
-			buf = append(append(buf[:0], w[:k]...), w[k+1:]...)
-			d.dels = append(d.dels, d.hash(buf)<<32|uint64(i))
+		for i := 1; i < len(w); i++ {
+			buf = append(append(buf[:0], w[:i]...), w[i+1:]...)
+			d.dels = append(d.dels, hash(buf)<<32|uint64(k))
 		}
 	}
 	slices.Sort(d.dels)
@@ -67,36 +76,41 @@ func NewDictionary(words map[string]float64) *Dictionary {
 	return d
 }
 
-func mapsKeys(m map[string]float64) func(func(string) bool) {
-	return func(yield func(string) bool) {
-		for k := range m {
-			if !yield(k) {
-				return
-			}
-		}
+// Len is the number of words of the dictionary.
+func (d *Dictionary) Len() int { return len(d.freq) }
+
+// word returns word k.
+func (d *Dictionary) word(k int32) string { return d.text[d.off[k]:d.off[k+1]] }
+
+// run returns the entries of dels under a hash.
+func (d *Dictionary) run(h uint64) []uint64 {
+	i, _ := slices.BinarySearch(d.dels, h<<32)
+	j := i
+	for j < len(d.dels) && d.dels[j]>>32 == h {
+		j++
 	}
+	return d.dels[i:j]
 }
 
-// Len is the number of words of the dictionary.
-func (d *Dictionary) Len() int { return len(d.words) }
+// find returns the index of a word, -1 when it is not in the dictionary.
+func (d *Dictionary) find(w []byte) int32 {
+	for _, e := range d.run(hash(w)) {
+		if k := int32(e & 0xffffffff); d.word(k) == string(w) {
+			return k
+		}
+	}
+	return -1
+}
 
 // hash is the upper half of the 64-bit FNV-1a hash of b: the same on
-// every run, so that the index and its ties are too.
-func (d *Dictionary) hash(b []byte) uint64 {
+// every run, so that the index is too.
+func hash(b []byte) uint64 {
 	h := uint64(14695981039346656037)
 	for _, c := range b {
 		h ^= uint64(c)
 		h *= 1099511628211
 	}
 	return h >> 32
-}
-
-// frequency returns a word's frequency, 0 when it is not in the dictionary.
-func (d *Dictionary) frequency(w []byte) float64 {
-	if i, ok := d.index[string(w)]; ok {
-		return d.freq[i]
-	}
-	return 0
 }
 
 func lowerLetters(w string) bool {
@@ -124,41 +138,37 @@ func (c *Corrector) Correct(word string) (string, bool) {
 	if d == nil || !lowerLetters(word) {
 		return "", false
 	}
-	if _, ok := d.index[word]; ok {
+	c.buf = append(c.buf[:0], word...)
+	if d.find(c.buf) >= 0 {
 		return "", false
 	}
 	best, top := int32(-1), 0.0
 	for _, keep := range [2]int{2, 1} {
-		if i, ok := d.index[string(c.squeeze(word, keep))]; ok {
-			better(i, d.freq[i], &best, &top)
+		if k := d.find(c.squeeze(word, keep)); k >= 0 {
+			better(k, d.freq[k], &best, &top)
 		}
 	}
 	if best < 0 && len(word) >= MinEditLen {
-		c.candidates(c.hashOf(word), word, &best, &top)
+		c.buf = append(c.buf[:0], word...)
+		c.candidates(hash(c.buf), word, &best, &top)
 		for k := 1; k < len(word); k++ {
 			c.buf = append(append(c.buf[:0], word[:k]...), word[k+1:]...)
-			c.candidates(d.hash(c.buf), word, &best, &top)
+			c.candidates(hash(c.buf), word, &best, &top)
 		}
 	}
 	if best < 0 {
 		return "", false
 	}
-	return d.words[best], true
-}
-
-func (c *Corrector) hashOf(w string) uint64 {
-	c.buf = append(c.buf[:0], w...)
-	return c.Dict.hash(c.buf)
+	return d.word(best), true
 }
 
 // candidates checks the words a deletion hash leads to and keeps the most
 // frequent one a single edit away from word.
 func (c *Corrector) candidates(h uint64, word string, best *int32, top *float64) {
 	d := c.Dict
-	i, _ := slices.BinarySearch(d.dels, h<<32)
-	for ; i < len(d.dels) && d.dels[i]>>32 == h; i++ {
-		k := int32(d.dels[i] & 0xffffffff)
-		if (d.freq[k] > *top || d.freq[k] == *top && k < *best) && OneEdit(word, d.words[k]) {
+	for _, e := range d.run(h) {
+		k := int32(e & 0xffffffff)
+		if (d.freq[k] > *top || d.freq[k] == *top && k < *best) && OneEdit(word, d.word(k)) {
 			better(k, d.freq[k], best, top)
 		}
 	}
