@@ -66,7 +66,7 @@ func Gather(sents []doc.Sentence) *Evidence {
 			if _, ok := e.words[string(buf)]; !ok {
 				e.words[string(buf)] = 0
 				b := filterBit(buf)
-				e.filter[b>>6] |= 1 << (b & 63)
+				e.filter[b>>6&15] |= 1 << (b & 63)
 			}
 		}
 	}
@@ -105,15 +105,17 @@ func (r *runningText) read(e *Evidence, toks []doc.Token) {
 	counts := false       // the current run may be a name: not a sentence's first words
 	for k := range toks {
 		form := toks[k].Form
-		var upper, lower bool
-		if form != "" && form[0] < utf8.RuneSelf { // caseOf, inlined by hand for the common case
-			upper, lower = form[0]-'A' < 26, form[0]-'a' < 26
-		} else {
-			upper, lower = caseOf(form)
+		if start < 0 && form != "" && form[0] < utf8.RuneSelf && form[0]-'A' >= 26 {
+			// Not capitalized, no run open: only a lower-case heading word counts.
+			if form[0]-'a' < 26 && mayHold(e, form) {
+				e.sawLower(form)
+			}
+			continue
 		}
+		upper, lower := caseOf(form)
 		if upper {
 			inHead := false
-			if r.mayHold(e, form) {
+			if r.mayHoldCapitalized(e, form) {
 				var flags uint8
 				flags, inHead = e.words[string(r.buf)]
 				if inHead && flags&seenCaps == 0 && isCaps(form) && r.sentenceCase(toks).lowerText {
@@ -144,12 +146,8 @@ func (r *runningText) read(e *Evidence, toks []doc.Token) {
 			}
 			start = -1
 		}
-		if lower {
-			if b := filterBit(form); e.filter[b>>6]&(1<<(b&63)) != 0 {
-				if flags, ok := e.words[form]; ok && flags&seenLower == 0 {
-					e.words[form] = flags | seenLower
-				}
-			}
+		if lower && mayHold(e, form) {
+			e.sawLower(form)
 		}
 	}
 	if start >= 0 && counts && r.sentenceCase(toks).names {
@@ -157,21 +155,31 @@ func (r *runningText) read(e *Evidence, toks []doc.Token) {
 	}
 }
 
-// mayHold reports whether the capitalized word form may be a heading
-// word, by its bit of e.filter, and leaves its lower case in r.buf when
-// it may. Lower-casing does not change an ASCII first or last byte's bit.
-func (r *runningText) mayHold(e *Evidence, form string) bool {
-	var b uint
-	if form[0] < utf8.RuneSelf && form[len(form)-1] < utf8.RuneSelf {
-		if b = filterBit(form); e.filter[b>>6]&(1<<(b&63)) == 0 {
-			return false
-		}
-		r.buf = appendLower(r.buf[:0], form)
-		return true
+// sawLower records that running text writes form, a word in lower case,
+// so: if it is a heading word, that heading word is common.
+func (e *Evidence) sawLower(form string) {
+	if flags, ok := e.words[form]; ok && flags&seenLower == 0 {
+		e.words[form] = flags | seenLower
+	}
+}
+
+// mayHold reports whether a word may be a key of e.words, by its bit of
+// e.filter.
+func mayHold[S string | []byte](e *Evidence, w S) bool {
+	b := filterBit(w)
+	return e.filter[b>>6&15]&(1<<(b&63)) != 0
+}
+
+// mayHoldCapitalized reports whether the capitalized word form may be a
+// heading word, by its bit of e.filter, and leaves its lower case in r.buf
+// when it may. Lower-casing does not change an ASCII first or last byte's
+// bit.
+func (r *runningText) mayHoldCapitalized(e *Evidence, form string) bool {
+	if form[0] < utf8.RuneSelf && form[len(form)-1] < utf8.RuneSelf && !mayHold(e, form) {
+		return false
 	}
 	r.buf = appendLower(r.buf[:0], form)
-	b = filterBit(r.buf)
-	return e.filter[b>>6]&(1<<(b&63)) != 0
+	return mayHold(e, r.buf)
 }
 
 // sentenceCase reports, once per sentence, whether it has a lower-case
