@@ -49,11 +49,13 @@ const (
 // flags for a document without headings.
 func Gather(sents []doc.Sentence) *Evidence {
 	var e *Evidence
+	var r runningText
 	var buf []byte
 	for i := range sents {
 		if !sents[i].Heading {
 			continue
 		}
+		r.addTaskTitle(sents[i].Tokens)
 		for k := range sents[i].Tokens {
 			form := sents[i].Tokens[k].Form
 			if upper, _ := caseOf(form); !upper {
@@ -73,7 +75,6 @@ func Gather(sents []doc.Sentence) *Evidence {
 	if e == nil {
 		return nil
 	}
-	var r runningText
 	for i := range sents {
 		if !sents[i].Heading {
 			r.read(e, sents[i].Tokens)
@@ -87,6 +88,11 @@ func Gather(sents []doc.Sentence) *Evidence {
 type runningText struct {
 	buf    []byte
 	inHead []bool // for each token of the current run: a heading word
+	// refs holds the headings that name a task ("Cleaning the Drip
+	// Emitters"), lower-cased from first word to last: running text that
+	// repeats one refers to that section ("see Cleaning the Drip
+	// Emitters"), and its capitals are the heading's, not a name's.
+	refs map[string]struct{}
 	// The sentence's case (sentenceCase), worked out when first needed.
 	known, lowerText, names bool
 }
@@ -218,11 +224,15 @@ func (r *runningText) sentenceCase(toks []doc.Token) *runningText {
 // they are made of heading words. A part of one word is left out: "Board"
 // alone is no evidence that a heading's "Board" is a name.
 func (r *runningText) addNames(e *Evidence, run []doc.Token) {
-	all := true
+	all := r.headingWordsOnly(run)
+	if all && len(r.refs) > 0 {
+		if _, ok := r.refs[string(r.key(run))]; ok {
+			return // a reference to a section, by its heading
+		}
+	}
 	from := 0 // the current part's first token
 	for k := 0; k <= len(run); k++ {
 		if k < len(run) && !isSmallWord(run[k].Form) {
-			all = all && r.inHead[k]
 			continue
 		}
 		if k-from >= 2 && k-from < len(run) && !slices.Contains(r.inHead[from:k], false) {
@@ -235,20 +245,58 @@ func (r *runningText) addNames(e *Evidence, run []doc.Token) {
 	}
 }
 
+// headingWordsOnly reports whether each word of run that is not a small
+// word is a heading word.
+func (r *runningText) headingWordsOnly(run []doc.Token) bool {
+	for k := range run {
+		if !r.inHead[k] && !isSmallWord(run[k].Form) {
+			return false
+		}
+	}
+	return true
+}
+
+// addTaskTitle adds a heading to r.refs when it names a task: its first
+// word is an -ing form ("Cleaning", "Installing") and another follows.
+// Names seldom start so; manuals' section titles often do.
+func (r *runningText) addTaskTitle(toks []doc.Token) {
+	first, last := -1, -1
+	for k := range toks {
+		if c, _ := utf8.DecodeRuneInString(toks[k].Form); unicode.IsLetter(c) {
+			if first < 0 {
+				first = k
+			}
+			last = k
+		}
+	}
+	if first < 0 || first == last || !strings.HasSuffix(strings.ToLower(toks[first].Form), "ing") {
+		return
+	}
+	if r.refs == nil {
+		r.refs = map[string]struct{}{}
+	}
+	r.refs[string(r.key(toks[first:last+1]))] = struct{}{}
+}
+
+// key returns the lower case of toks' forms joined by spaces, in r.buf.
+func (r *runningText) key(toks []doc.Token) []byte {
+	r.buf = r.buf[:0]
+	for k := range toks {
+		if k > 0 {
+			r.buf = append(r.buf, ' ')
+		}
+		r.buf = appendLower(r.buf, toks[k].Form)
+	}
+	return r.buf
+}
+
 // addName records one name, unless all its words are in capitals: those
 // are acronyms (seenCaps), whose capitals a heading in capitals keeps.
 func (r *runningText) addName(e *Evidence, name []doc.Token) {
 	if !slices.ContainsFunc(name, func(t doc.Token) bool { return !isCaps(t.Form) && !isSmallWord(t.Form) }) {
 		return
 	}
-	r.buf = r.buf[:0]
-	for k := range name {
-		if k > 0 {
-			r.buf = append(r.buf, ' ')
-		}
-		r.buf = appendLower(r.buf, name[k].Form)
-	}
-	if _, ok := e.names[string(r.buf)]; !ok {
+	if _, ok := e.names[string(r.key(name))]; !ok {
 		e.names[string(r.buf)] = struct{}{}
 		e.longest = max(e.longest, len(name))
 	}
