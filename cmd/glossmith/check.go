@@ -206,9 +206,8 @@ func (o *checkOptions) run(args []string) error {
 }
 
 // readSource returns the bytes of the file a document was read from, from
-// which the check takes Markdown columns, inline code and skip comments;
-// nil for standard input or a file that cannot be read again (the text's
-// own columns are used then).
+// which the check takes code and skip comments (positions come with the
+// document); nil for standard input or a file that cannot be read again.
 func readSource(d *doc.Document) []byte {
 	switch d.Format {
 	case "md", "txt", "html":

@@ -44,8 +44,9 @@ type docSpelling struct {
 
 // Check checks one annotated document. src is its source file as read
 // from disk (nil when there is none, as for standard input), from which
-// Markdown columns, inline code and skip comments are worked out. It is
-// safe to call on several documents at once.
+// code and skip comments are worked out; positions come from the
+// document's own maps (doc.Document.SourcePosition). It is safe to call
+// on several documents at once.
 func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 	res := &DocResult{Name: d.Name}
 	l := newLayout(d, src)

@@ -125,21 +125,26 @@ func TestInAddress(t *testing.T) {
 	}
 }
 
-func TestAlignMarkdownColumns(t *testing.T) {
-	// The Markdown reader deletes markup within a line; each text rune
-	// must land on the source character it came from.
-	tests := []struct{ src, text, word string }{
-		{"Check the **setpoint** now.", "Check the setpoint now.", "setpoint"},
-		{"See [the magnet valve](https://x.example/magnet-valve) here.", "See the magnet valve here.", "magnet valve"},
-		{"Both valves &amp; the _drive box_ go.", "Both valves & the drive box go.", "drive box"},
-		{"<span title=\"drive box\">A drive box</span>", "A drive box", "drive box"},
-		{"1. Connect the level float.", "Connect the level float.", "level float"},
+// The Markdown reader deletes markup within a line; each word's position
+// must be that of the source characters it came from.
+func TestMarkdownColumnsAreTheSources(t *testing.T) {
+	tests := []struct{ src, word string }{
+		{"Check the **setpoint** now.", "setpoint"},
+		{"See [the magnet valve](https://x.example/magnet-valve) here.", "magnet valve"},
+		{"Both valves &amp; the _drive box_ go.", "drive box"},
+		{"<span title=\"drive box\">A drive box</span>", "drive box"},
+		{"1. Connect the level float.", "level float"},
+		{"A \\*starred\\* and *em*phasized `drive box`.", "drive box"},
 	}
 	for _, tc := range tests {
-		m := align(tc.text, tc.src)
-		ti := utf8.RuneCountInString(tc.text[:strings.Index(tc.text, tc.word)])
-		si := utf8.RuneCountInString(tc.src[:strings.LastIndex(tc.src, tc.word)])
-		assert.Equal(t, si, m[ti], tc.src)
+		d, _ := annotate(t, "a.md", tc.src)
+		at := strings.Index(d.Text, tc.word)
+		require.GreaterOrEqual(t, at, 0, tc.src)
+		line, col, ok := d.SourcePosition(at, false)
+		require.True(t, ok, tc.src)
+		_, endCol, _ := d.SourcePosition(at+len(tc.word), true)
+		si := strings.LastIndex(tc.src, tc.word)
+		assert.Equal(t, [3]int{1, utf8.RuneCountInString(tc.src[:si]) + 1, utf8.RuneCountInString(tc.src[:si+len(tc.word)]) + 1}, [3]int{line, col, endCol}, tc.src)
 	}
 }
 

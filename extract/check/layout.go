@@ -24,20 +24,16 @@ const SkipMarker = "glossmith:skip-next-line"
 // columns of its original file, and knows which parts of the text are not
 // prose to check: code, silenced lines.
 //
-// HTML: the reader keeps where each piece of text came from in the file
-// (doc.Document.Origins), so lines and columns are the file's. Markdown
-// and plain text: the readers keep the file's lines, so a text line is
-// the file's line; in Markdown the reader deletes markup within a line
-// ("**set point**" is "set point"), so each text line is aligned with its
-// source line, the text's characters found in order in the source outside
-// tags and link targets. DOCX and PDF: lines of the extracted text. Where
-// no source says otherwise, a column counts the characters of the text
-// line as read, those that normalization removed or composed included.
+// Markdown and HTML: the readers keep where each piece of text came from
+// in the file (doc.Document.Origins), so lines and columns are the
+// file's, markup counted as written. Plain text: the text's lines are the
+// file's. DOCX and PDF: lines of the extracted text. Where no origins say
+// otherwise, a column counts the characters of the text line as read,
+// those that normalization removed or composed included.
 type layout struct {
 	d         *doc.Document
-	lineStart []int         // byte offset in the text of each line's start
-	src       []string      // source lines (Markdown, plain text), or nil
-	cols      map[int][]int // text line → source column (0-based) of each of its runes
+	lineStart []int    // byte offset in the text of each line's start
+	src       []string // source lines (Markdown, plain text), or nil
 	srcCode   map[int][][2]int
 	code      [][2]int     // byte ranges of the file that are code (HTML)
 	skip      map[int]bool // silenced lines
@@ -162,13 +158,9 @@ func (l *layout) runeIndex(off int) (line, r int) {
 }
 
 // column turns the rune index r of text line n, at byte offset off of
-// the text, into a 1-based column: one of the source line found by align,
-// or else one of the text as read, counting the characters normalization
-// removed or composed (doc.Document.ColumnShift).
+// the text, into a 1-based column of the text as read, counting the
+// characters normalization removed or composed (doc.Document.ColumnShift).
 func (l *layout) column(n, r, off int) int {
-	if m := l.columns(n); m != nil && r < len(m) {
-		return m[r] + 1
-	}
 	return r + 1 + l.d.ColumnShift(l.lineStart[n-1], off)
 }
 
@@ -192,130 +184,6 @@ func (l *layout) span(f *Finding) {
 	f.EndLine, f.EndColumn = l.position(endOff)
 	f.EndColumn++
 }
-
-// columns returns the source column of each rune of text line n, or nil
-// when columns count the text.
-func (l *layout) columns(n int) []int {
-	if l.src == nil || l.textLine(n) == l.src[n-1] {
-		return nil
-	}
-	if m, ok := l.cols[n]; ok {
-		return m
-	}
-	if l.cols == nil {
-		l.cols = map[int][]int{}
-	}
-	m := align(l.textLine(n), l.src[n-1])
-	l.cols[n] = m
-	return m
-}
-
-// align finds the runes of text in order in src and returns, for each rune
-// of text, its rune index in src. Markup is skipped: HTML tags and the
-// targets of links cannot hold text; an entity (&amp;) stands for the
-// character it decodes to; U+2029, which the Markdown reader puts at the
-// start of a block, has no source character and takes the position of the
-// next one. A rune not found keeps the position reached.
-func align(text, src string) []int {
-	s := []rune(src)
-	hidden := markupMask(s)
-	out := make([]int, 0, len(text))
-	j := 0
-	for _, t := range text {
-		if t == '\u2029' {
-			out = append(out, j)
-			continue
-		}
-		found, next := -1, j
-		for x := j; x < len(s); x++ {
-			if hidden[x] {
-				continue
-			}
-			if s[x] == t {
-				found, next = x, x+1
-				break
-			}
-			if s[x] == '&' {
-				if n, r := entityAt(s[x:]); n > 0 && r == t {
-					found, next = x, x+n
-					break
-				}
-			}
-			if s[x] == '\\' && x+1 < len(s) && s[x+1] == t {
-				found, next = x+1, x+2
-				break
-			}
-		}
-		if found < 0 {
-			out = append(out, j)
-			continue
-		}
-		out = append(out, found)
-		j = next
-	}
-	return out
-}
-
-// entityAt returns the length in runes of the character reference at the
-// start of s and the rune it stands for, or 0.
-func entityAt(s []rune) (int, rune) {
-	for n := 2; n < len(s) && n < 34; n++ {
-		if s[n] == ';' {
-			d := []rune(html.UnescapeString(string(s[:n+1])))
-			if len(d) == 1 && d[0] != '&' {
-				return n + 1, d[0]
-			}
-			return 0, 0
-		}
-	}
-	return 0, 0
-}
-
-// markupMask marks the runes of a Markdown source line that are markup no
-// text comes from: HTML tags (not autolinks, whose URL is shown) and the
-// destinations of inline links "](...)".
-func markupMask(s []rune) []bool {
-	hidden := make([]bool, len(s))
-	for x := 0; x < len(s); x++ {
-		switch {
-		case s[x] == '<' && x+1 < len(s) && (isASCIILetter(s[x+1]) || s[x+1] == '/' || s[x+1] == '!'):
-			end := x + 1
-			for end < len(s) && s[end] != '>' {
-				end++
-			}
-			if end == len(s) {
-				continue
-			}
-			inner := string(s[x+1 : end])
-			if strings.Contains(inner, "://") || strings.HasPrefix(inner, "mailto:") || strings.Contains(inner, "@") && !strings.Contains(inner, " ") {
-				continue // an autolink: its text is shown
-			}
-			for k := x; k <= end; k++ {
-				hidden[k] = true
-			}
-			x = end
-		case s[x] == ']' && x+1 < len(s) && s[x+1] == '(':
-			depth, end := 0, x+1
-			for ; end < len(s); end++ {
-				if s[end] == '(' {
-					depth++
-				} else if s[end] == ')' {
-					depth--
-					if depth == 0 {
-						break
-					}
-				}
-			}
-			for k := x + 1; k < len(s) && k <= end; k++ {
-				hidden[k] = true
-			}
-			x = end
-		}
-	}
-	return hidden
-}
-
-func isASCIILetter(r rune) bool { return 'a' <= r && r <= 'z' || 'A' <= r && r <= 'Z' }
 
 // inCode reports whether any character of the finding is code: in an
 // inline code span of a Markdown line ("`setpoint`", <code>, <kbd>,

@@ -148,10 +148,10 @@ type Document struct {
 	Shifts []Shift
 	// Origins map offsets of the text as the reader extracted it on to
 	// its source, the file as decoded with its markup and line ends as
-	// LF, for formats whose text is extracted from markup (html): tags
-	// removed, entities decoded, white space collapsed, paragraph breaks
-	// added (see Origin). Nil when the text is its source (txt) or none
-	// is kept (docx, pdf, conllu). ReadOffset and ReadEnd go through them
+	// LF, for formats whose text is extracted from markup (md, html):
+	// markup removed, references and escapes decoded, white space
+	// collapsed, breaks added (see Origin). Nil when the text is its
+	// source (txt) or none is kept (docx, pdf, conllu). ReadOffset and ReadEnd go through them
 	// after Shifts, and SourcePosition reads their lines and columns.
 	Origins []Origin
 	// Source maps offsets of the source (the text as read, or what

@@ -167,21 +167,23 @@
 // text as read (ReadOffset, ReadEnd) and give columns that count the
 // removed and composed characters (ColumnShift), recorded only where the
 // offsets stop lining up. Text that needs neither (nearly all) is checked
-// in one pass, not copied, and has no shifts. For html, Document.Origins
-// map on from the text as read to the page as decoded (origins.go): the
-// text nodes of the parsed tree, which has no source positions, are found
-// again in the stretches between tags that the tokenizer gives, in order
-// (text the parser moves, as a table's stray text, is looked for after
-// and before), their character references and the white space the parser
-// dropped accounted for; an origin is kept only where the offsets stop
-// lining up (at tags, references, collapsed white space and paragraph
-// breaks), with the page's line and column there, from which check takes
-// its positions. For txt and html, Document.Source maps on to the bytes
-// of the file (source.go) when they differ — a byte-order mark, CRLF,
-// another encoding, replaced or dropped bytes, a line left out — so
-// ReadOffset and ReadEnd are offsets of the file; a UTF-8 file with LF
-// line ends costs nothing. Markdown, DOCX and PDF offsets are of the
-// extracted text.
+// in one pass, not copied, and has no shifts. For md and html,
+// Document.Origins map on from the text as read to the source as decoded
+// (origins.go), with the source's line and column at each, from which
+// check takes its positions; an origin is kept only where the offsets
+// stop lining up (at markup, references, escapes, collapsed white space
+// and added breaks). md: each run of text is found at the offset goldmark
+// gives for it. html: the text nodes of the parsed tree, which has no
+// source positions, are found again, in order, in the stretches between
+// tags that the tokenizer gives (text the parser moves, as a table's
+// stray text, is looked for after and before). Both account for
+// character references, CommonMark's backslash escapes and white space
+// dropped or collapsed (pieces.align). For txt, md and html,
+// Document.Source maps on to the bytes of the file (source.go) when they
+// differ — a byte-order mark, CRLF, another encoding, replaced or dropped
+// bytes, a line left out — so ReadOffset and ReadEnd are offsets of the
+// file; a UTF-8 file with LF line ends costs nothing. DOCX and PDF
+// offsets are of the extracted text.
 //
 // # Bad input
 //

@@ -289,64 +289,19 @@ func (h *htmlSource) match(text string, k, p int) bool {
 		if k >= len(h.segs) {
 			return false
 		}
-		seg := h.segs[k]
-		if p >= int(seg.end) {
+		if p >= int(h.segs[k].end) {
 			if k++; k < len(h.segs) {
 				p = int(h.segs[k].start)
 			}
 			continue
 		}
-		stop := int(seg.end)
-		if seg.refs {
-			if a := strings.IndexByte(h.src[p:stop], '&'); a >= 0 {
-				stop = p + a
-			}
-		}
-		if rest := text[i:]; p+len(rest) <= stop && h.src[p:p+len(rest)] == rest {
-			h.found.addCopy(i, p, len(rest)) // the usual case: all of it, as it is
-			i, p = len(text), p+len(rest)
-			continue
-		}
-		if n := commonPrefix(text[i:], h.src[p:stop]); n > 0 {
-			h.found.addCopy(i, p, n)
-			i, p = i+n, p+n
-			continue
-		}
-		c := h.src[p]
-		if c == '&' {
-			t, n := charRef(h.src[p:seg.end])
-			switch {
-			case n > 0 && strings.HasPrefix(text[i:], t):
-				h.found = append(h.found, piece{i, len(t), p, n})
-				i, p = i+len(t), p+n
-				continue
-			case text[i] == '&': // in raw text, "&" is itself
-				h.found.addCopy(i, p, 1)
-				i, p = i+1, p+1
-				continue
-			case n > 0 && strings.Trim(t, " \t\n\f\r") == "":
-				p += n // white space the parser dropped, written as a reference
-				continue
-			}
-		}
-		if !isHTMLSpace(rune(c)) {
+		end := int(h.segs[k].end)
+		if i, p = h.found.align(text, i, h.src, p, end, false); i < len(text) && p < end {
 			return false
 		}
-		p++ // white space the parser dropped: after <pre>, before <body>, in a table
 	}
 	h.k, h.p = k, p
 	return true
-}
-
-// commonPrefix returns the length of the longest common prefix of a and b.
-func commonPrefix(a, b string) int {
-	n := min(len(a), len(b))
-	for i := 0; i < n; i++ {
-		if a[i] != b[i] {
-			return i
-		}
-	}
-	return n
 }
 
 // hiddenByAttr reports a "hidden" attribute or an inline style

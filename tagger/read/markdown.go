@@ -45,7 +45,11 @@ var mdParser = goldmark.New(goldmark.WithExtensions(extension.GFM, extension.Foo
 // the source where it stands; see the package comment for the rules. The
 // text has exactly the source's lines.
 func (r *reader) markdown(s string) *doc.Document {
-	s = r.capLines(normalizeNewlines(s))
+	if c := r.capLines(normalizeNewlines(s)); c != s {
+		r.coding.altered = true // Source maps the lines on to the file's
+		s = c
+	}
+	r.mdSource = s
 	src := []byte(s)
 	blankFrontMatter(src)
 	hid := hideDeepNesting(src)
@@ -53,9 +57,10 @@ func (r *reader) markdown(s string) *doc.Document {
 	for _, h := range hid { // the tree points into src: its texts get them back
 		src[h.at] = h.c
 	}
-	m := &mdText{src: src, lineStart: lineStarts(src)}
+	m := &mdText{src: src, source: s, lineStart: lineStarts(src)}
 	m.walk(root)
-	return &doc.Document{Text: m.assemble(), Headings: m.headings}
+	text, origins := m.assemble()
+	return &doc.Document{Text: text, Headings: m.headings, Origins: origins}
 }
 
 // lineStarts returns the byte offset of the start of each line of src.
@@ -188,6 +193,7 @@ type mdPiece struct {
 // mdText collects the shown text of a parsed document.
 type mdText struct {
 	src       []byte
+	source    string // src before front matter was blanked: what Origins point into
 	lineStart []int
 	pieces    []mdPiece
 	newBlock  bool // the next piece starts a block
@@ -366,13 +372,12 @@ func (m *mdText) htmlBlock(n *ast.HTMLBlock) {
 		case xhtml.TextToken:
 			if skip == "" {
 				// decode line by line so that each run keeps its line
-				for i, part := range strings.Split(string(raw), "\n") {
-					if i > 0 {
-						m.add(off, "\n")
-					}
+				at := off
+				for _, part := range strings.Split(string(raw), "\n") {
 					if part != "" {
-						m.add(off+strings.LastIndexByte(string(raw[:len(raw)-len(part)]), '\n')+1, html.UnescapeString(part))
+						m.add(at, html.UnescapeString(part))
 					}
+					at += len(part) + 1
 				}
 			}
 		case xhtml.StartTagToken:
@@ -392,37 +397,72 @@ func (m *mdText) htmlBlock(n *ast.HTMLBlock) {
 
 // assemble lays the pieces out on their source lines: a block that starts
 // on the line of other text, or on the line after one, starts with
-// paraSep; a line with nothing but white space is empty.
-func (m *mdText) assemble() string {
+// paraSep; a line with nothing but white space is empty. It returns the
+// text and where it stands in the source (doc.Document.Origins): each
+// piece where it was found, its references and escapes accounted for
+// (pieces.align), each line break at the line break of its line.
+func (m *mdText) assemble() (string, []doc.Origin) {
 	slices.SortStableFunc(m.pieces, func(a, b mdPiece) int { return a.off - b.off })
 	var out strings.Builder
 	out.Grow(len(m.src))
+	o := newOrigins(m.source)
 	line := 0
 	var cur strings.Builder
+	// placed are the pieces of the current line: their offset in cur and
+	// index (-1 for a paraSep)
+	type placed struct{ at, piece int }
+	var marks []placed
+	var ps pieces
 	prevHasText := false
 	flush := func() {
 		t := cur.String()
 		has := strings.TrimSpace(strings.ReplaceAll(t, paraSep, "")) != ""
 		if has {
+			base := out.Len()
+			for _, pl := range marks {
+				if pl.piece < 0 {
+					o.fill(base + pl.at)
+					continue
+				}
+				p := &m.pieces[pl.piece]
+				ps = ps[:0]
+				if i, at := ps.align(p.text, 0, m.source, p.off, len(m.source), true); i < len(p.text) {
+					ps = append(ps, piece{i, len(p.text) - i, at, 0}) // not found: a String, say
+				}
+				o.write(p.text, ps, 0, len(p.text), base+pl.at, 0)
+			}
 			out.WriteString(t)
 		}
 		prevHasText = has
 		cur.Reset()
+		marks = marks[:0]
 	}
-	for _, p := range m.pieces {
+	newLine := func() {
+		if at := m.lineStart[line+1] - 1; at < len(m.source) {
+			o.add(out.Len(), at, 1, 1, false)
+			o.end = at + 1
+		}
+		out.WriteByte('\n')
+		o.broke(out.Len())
+		line++
+	}
+	for k := range m.pieces {
+		p := &m.pieces[k]
 		for line < p.line {
 			flush()
-			out.WriteByte('\n')
-			line++
+			newLine()
 		}
 		if p.block && (prevHasText || strings.TrimSpace(cur.String()) != "") {
+			marks = append(marks, placed{cur.Len(), -1})
 			cur.WriteString(paraSep)
 		}
+		marks = append(marks, placed{cur.Len(), k})
 		cur.WriteString(p.text)
 	}
 	flush()
-	for ; line < len(m.lineStart)-1; line++ {
-		out.WriteByte('\n')
+	for line < len(m.lineStart)-1 {
+		newLine()
 	}
-	return out.String()
+	text := out.String()
+	return text, o.finish(len(text))
 }

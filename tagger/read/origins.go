@@ -20,7 +20,13 @@ type origins struct {
 	list  []doc.Origin
 	// end is the source offset just past the last character written.
 	end int
+	// brk is the offset of the text just past the last line break, where
+	// a copy may not go on from before it.
+	brk int
 }
+
+// broke notes a line break written just before offset at.
+func (o *origins) broke(at int) { o.brk = at }
 
 func newOrigins(src string) *origins { return &origins{lines: lineCounter{s: src, line: 1, col: 1}} }
 
@@ -40,7 +46,7 @@ func (o *origins) add(at, src, n, srcN int, newLine bool) {
 			w, fw = 1, 0 // a rate a run cannot hold: the stretch stands at its start
 		}
 	}
-	if k := len(o.list); k > 0 && !newLine {
+	if k := len(o.list); k > 0 && !newLine && at != o.brk {
 		l := &o.list[k-1]
 		if int(l.Width) == w && int(l.FileWidth) == fw && int(l.Start)+(at-int(l.At))*fw/w == src {
 			return
@@ -135,6 +141,76 @@ func (ps *pieces) addCopy(i, src, n int) {
 		}
 	}
 	*ps = append(*ps, piece{i, n, src, n})
+}
+
+// align maps text[i:], decoded from markup, onto src[p:stop] as far as
+// the two go together, appending to ps, and returns where it stopped in
+// each: copies; character references ("&amp;"), whose "&" is itself where
+// the text has it (raw text, CommonMark's "&#1" without ";"); with
+// escapes, a backslash before ASCII punctuation (CommonMark) and a line
+// break or tab that the text has as a space; white space the text does
+// not have.
+func (ps *pieces) align(text string, i int, src string, p, stop int, escapes bool) (int, int) {
+	for i < len(text) && p < stop {
+		markup := "&"
+		if escapes {
+			markup = "&\\\n\r\t"
+		}
+		plain := stop
+		if a := strings.IndexAny(src[p:stop], markup); a >= 0 {
+			plain = p + a
+		}
+		if rest := text[i:]; p+len(rest) <= plain && src[p:p+len(rest)] == rest {
+			ps.addCopy(i, p, len(rest)) // the usual case: all of it, as it is
+			return len(text), p + len(rest)
+		}
+		if n := commonPrefix(text[i:], src[p:plain]); n > 0 {
+			ps.addCopy(i, p, n)
+			i, p = i+n, p+n
+			continue
+		}
+		c := src[p]
+		if c == '&' {
+			if t, n := charRef(src[p:stop]); n > 0 && strings.HasPrefix(text[i:], t) {
+				*ps = append(*ps, piece{i, len(t), p, n})
+				i, p = i+len(t), p+n
+				continue
+			} else if n > 0 && strings.Trim(t, " \t\n\f\r") == "" && text[i] != '&' {
+				p += n // white space the parser dropped, written as a reference
+				continue
+			}
+		}
+		switch {
+		case c == text[i]:
+			ps.addCopy(i, p, 1)
+			i++
+		case escapes && c == '\\' && p+1 < stop && isASCIIPunct(src[p+1]) && src[p+1] == text[i]:
+			*ps = append(*ps, piece{i, 1, p, 2})
+			i, p = i+1, p+1
+		case escapes && text[i] == ' ' && (c == '\n' || c == '\r' || c == '\t'):
+			*ps = append(*ps, piece{i, 1, p, 0})
+			i++
+		case !isHTMLSpace(rune(c)):
+			return i, p
+		}
+		p++ // white space the parser dropped: after <pre>, before <body>, in a table
+	}
+	return i, p
+}
+
+// commonPrefix returns the length of the longest common prefix of a and b.
+func commonPrefix(a, b string) int {
+	n := min(len(a), len(b))
+	for i := 0; i < n; i++ {
+		if a[i] != b[i] {
+			return i
+		}
+	}
+	return n
+}
+
+func isASCIIPunct(c byte) bool {
+	return '!' <= c && c <= '/' || ':' <= c && c <= '@' || '[' <= c && c <= '`' || '{' <= c && c <= '~'
 }
 
 // srcAt returns the source offset of byte j of the text, the start of the

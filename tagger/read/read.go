@@ -195,6 +195,7 @@ type reader struct {
 	probs    []Problem
 	unpacked bool // the data was decompressed, so the file on disk is not it
 	coding   coding
+	mdSource string // the Markdown source as parsed, line ends as LF, overlong lines left out
 }
 
 func (r *reader) add(sev Severity, line int, format string, args ...any) {
@@ -279,7 +280,9 @@ func (r *reader) read() *doc.Document {
 				d.Source = sourceRuns(data, d.Text, r.coding)
 			}
 		case FormatMarkdown:
-			d = r.markdown(text)
+			if d = r.markdown(text); r.coding.altered {
+				d.Source = sourceRuns(data, r.mdSource, r.coding)
+			}
 		case FormatHTML:
 			// The tokenizer turns CRLF and CR into LF; done first, the
 			// source that Origins point into has the lines of the file.

@@ -346,3 +346,48 @@ func FuzzHTMLSourceOffsets(f *testing.F) {
 		checkSource(t, d, data, func(b []byte) string { return htmlSliceText(string(b), decode) })
 	})
 }
+
+// A Markdown token's offsets point into the file: the slice of the file
+// between them, decoded, its backslash escapes and character references
+// resolved (CommonMark 0.31.2, 2.4 and 2.5) and, for a token that spans
+// emphasis, its "*", "_" and "~" left out, is the token.
+func TestMarkdownOffsetsPointIntoTheFile(t *testing.T) {
+	utf16le := unicode.UTF16(unicode.LittleEndian, unicode.IgnoreBOM)
+	page := "# The *set*point of a [magnet valve](https://example.com/v \"Valve\")\n\n" +
+		"- Drip &amp; spray at 3&nbsp;bar, the valve&#8217;s seat, 5 \\* 3 \\_x\\_ and `P1 code`\n" +
+		"- **Bold** ~~gone~~ <span title=\"a > b\">inline</span> <!-- a comment --> text\n\n" +
+		"| Part | Value |\n|---|---|\n| coil | 24&#160;V |\n\n" +
+		"> A quote with caf&eacute; and a [ref][r] link.\n\n[r]: /x\n\n" +
+		"Setext heading\n===\n<p>An HTML block &amp; its\ntext.</p>\n| in | the |\n| block | too |\n"
+	cases := []struct {
+		name   string
+		data   string
+		opt    Options
+		decode func([]byte) string
+	}{
+		{"UTF-8, LF", page, Options{}, perByte},
+		{"CRLF", strings.ReplaceAll(page, "\n", "\r\n"), Options{}, perByte},
+		{"byte-order mark, CRLF", "\xEF\xBB\xBF" + strings.ReplaceAll(page, "\n", "\r\n"), Options{}, perByte},
+		{"Latin-1", strings.ReplaceAll(page, "caf&eacute;", "caf\xE9"), Options{}, decodedWith(charmap.Windows1252)},
+		{"UTF-16 LE", string(append([]byte{0xFF, 0xFE}, encodedWith(t, utf16le, strings.ReplaceAll(page, "caf&eacute;", "café"))...)), Options{}, decodedWith(utf16le)},
+	}
+	for _, tc := range cases {
+		d, _ := readFile(t, "a.md", tc.data, tc.opt)
+		require.NotNil(t, d, tc.name)
+		require.NotNil(t, d.Origins, tc.name)
+		checkSource(t, d, []byte(tc.data), func(b []byte) string {
+			var out strings.Builder
+			for s := tc.decode(b); s != ""; s = s[1:] {
+				switch {
+				case s[0] == '\\' && len(s) > 1 && isASCIIPunct(s[1]):
+					s = s[1:]
+					out.WriteByte(s[0])
+				case s[0] != '*' && s[0] != '_' && s[0] != '~':
+					out.WriteByte(s[0])
+				}
+			}
+			got, _ := normalizeText(strings.TrimPrefix(html.UnescapeString(out.String()), "\uFEFF"))
+			return got
+		})
+	}
+}
