@@ -151,20 +151,21 @@ func (ps *pieces) addCopy(i, src, n int) {
 // break or tab that the text has as a space; white space the text does
 // not have.
 func (ps *pieces) align(text string, i int, src string, p, stop int, escapes bool) (int, int) {
+	markup := "&"
+	if escapes {
+		markup = "&\\\n\r\t"
+	}
 	for i < len(text) && p < stop {
-		markup := "&"
-		if escapes {
-			markup = "&\\\n\r\t"
-		}
-		plain := stop
-		if a := strings.IndexAny(src[p:stop], markup); a >= 0 {
-			plain = p + a
-		}
-		if rest := text[i:]; p+len(rest) <= plain && src[p:p+len(rest)] == rest {
+		rest := text[i:]
+		if p+len(rest) <= stop && src[p:p+len(rest)] == rest {
 			ps.addCopy(i, p, len(rest)) // the usual case: all of it, as it is
 			return len(text), p + len(rest)
 		}
-		if n := commonPrefix(text[i:], src[p:plain]); n > 0 {
+		plain := min(stop, p+len(rest))
+		if a := strings.IndexAny(src[p:plain], markup); a >= 0 {
+			plain = p + a
+		}
+		if n := commonPrefix(rest, src[p:plain]); n > 0 {
 			ps.addCopy(i, p, n)
 			i, p = i+n, p+n
 			continue
