@@ -3,11 +3,13 @@ package main
 import (
 	"bufio"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -199,4 +201,64 @@ func TestCheckBadInputGoesOn(t *testing.T) {
 	assert.Equal(t, 1, r.code)
 	assert.Contains(t, r.stderr, "no-such-file.md")
 	assert.Contains(t, r.stdout, "field-notes.txt:3:53: error:")
+}
+
+// A SARIF region of a finding in an HTML page is where the page's file has
+// the term (here "magnet valve" in the bulletin's body, after the one in
+// its title), whether the page is a named file or standard input (no file
+// to read again); tag's offsets slice the page's own bytes.
+func TestHTMLPositionsInTheFile(t *testing.T) {
+	tb := pumpsTermbase(t)
+	page := pumpsDir + "/service-bulletin.html"
+	src, err := os.ReadFile(filepath.Join("../..", page))
+	require.NoError(t, err)
+	at := strings.Index(string(src), "magnet valve")
+	at += len("magnet valve") + strings.Index(string(src[at+len("magnet valve"):]), "magnet valve")
+	lineStart := strings.LastIndexByte(string(src[:at]), '\n') + 1
+	line, col := strings.Count(string(src[:at]), "\n")+1, utf8.RuneCount(src[lineStart:at])+1
+
+	r := run(t, "", "check", "--termbase", tb, "-q", "--to", "sarif", page)
+	require.Equal(t, 1, r.code, r.stderr)
+	var log struct {
+		Runs []struct {
+			Results []struct {
+				Locations []struct {
+					PhysicalLocation struct {
+						Region struct{ StartLine, StartColumn, EndColumn int }
+					}
+				}
+			}
+		}
+	}
+	require.NoError(t, json.Unmarshal([]byte(r.stdout), &log))
+	require.Len(t, log.Runs, 1)
+	var regions [][3]int
+	for _, res := range log.Runs[0].Results {
+		reg := res.Locations[0].PhysicalLocation.Region
+		regions = append(regions, [3]int{reg.StartLine, reg.StartColumn, reg.EndColumn})
+	}
+	assert.Contains(t, regions, [3]int{line, col, col + len("magnet valve")})
+
+	r = run(t, string(src), "check", "--termbase", tb, "-q", "--from", "html", "-")
+	assert.Contains(t, r.stdout, fmt.Sprintf("-:%d:%d: error: \"magnet valve\"", line, col))
+
+	r = run(t, "", "tag", "--to", "jsonl", page)
+	require.Equal(t, 0, r.code, r.stderr)
+	words, word := 0, regexp.MustCompile(`^[A-Za-z]+$`)
+	for _, l := range strings.Split(strings.TrimSpace(r.stdout), "\n") {
+		var s struct {
+			Tokens []struct {
+				Form       string
+				Start, End int
+			}
+		}
+		require.NoError(t, json.Unmarshal([]byte(l), &s))
+		for _, tok := range s.Tokens {
+			if word.MatchString(tok.Form) {
+				assert.Equal(t, tok.Form, string(src[tok.Start:tok.End]))
+				words++
+			}
+		}
+	}
+	assert.Greater(t, words, 50)
 }

@@ -36,6 +36,10 @@ Output formats (--to):
   jsonl   one JSON object per sentence with its tokens
   text    one sentence per line as word/TAG pairs (--tagset xpos|upos)
 
+A token's start and end (TSV, JSON Lines) are byte offsets of the file
+(after gzip) for plain text, Markdown and HTML: slicing the file there gives
+the token with its markup; for DOCX and PDF, of the extracted text.
+
 Sentences of headings and captions are marked: "# heading = yes" in
 CoNLL-U (read back from CoNLL-U input), a heading column (TSV) or field
 (JSON Lines) true or false, a line starting "# " in text.`,

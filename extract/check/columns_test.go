@@ -52,7 +52,13 @@ func TestColumnsOfTheTextAsRead(t *testing.T) {
 		{name: "utf-16 BE", file: "h.txt",
 			content: utf16File(t, unicode.BigEndian, "The café has a magnet valve.\nThe 𝜆 sensor, a magnet valve.\n"),
 			lines:   []string{"The café has a magnet valve.", "The 𝜆 sensor, a magnet valve."}},
-		// HTML: the file's own lines, markup and references included.
+		// Markdown and HTML: the file's own lines, markup and references included.
+		{name: "markdown", file: "m.md",
+			content: "The **pres\u00ADsure** gauge &amp; the magnet valve.\r\n<b>cafe\u0301</b> \\* a magnet valve.\r\n",
+			lines:   []string{"The **pres\u00ADsure** gauge &amp; the magnet valve.", "<b>cafe\u0301</b> \\* a magnet valve."}},
+		{name: "html, invisible characters as they are", file: "i.html",
+			content: "<p>The <i>pres\u00ADsure</i> gauge and \u200Bthe magnet valve.</p>\n",
+			lines:   []string{"<p>The <i>pres\u00ADsure</i> gauge and \u200Bthe magnet valve.</p>"}},
 		{name: "html", file: "d.html",
 			content: "<p>The pres&shy;sure gauge and the magnet valve.</p>\n<p>The cafe&#x301; has a magnet valve.</p>\n",
 			lines:   []string{"<p>The pres&shy;sure gauge and the magnet valve.</p>", "<p>The cafe&#x301; has a magnet valve.</p>"}},
