@@ -33,17 +33,21 @@ func newCheckCmd() *cobra.Command {
 	o := &checkOptions{}
 	cmd := &cobra.Command{
 		Use:   "check [flags] INPUT...",
-		Short: "Check documents against the termbase: deprecated terms, other spellings, mixed spellings",
+		Short: "Check documents against the termbase: deprecated terms, other spellings, misspelt terms, mixed spellings",
 		Long: `Reports every use of a deprecated or forbidden term of the termbase, and of a
 spelling of a term other than its preferred form: hyphen, space or closed
 spellings ("setpoint" for "set point"), the case of a term whose case matters
 ("plc" for "PLC"), and inflected forms ("magnet valves" for the deprecated
-"magnet valve"). With --variants, also every variant group (grouped as the
-terms command groups them) spelled more than one way, with its counts in each
-document and in all, and the majority spelling to use.
+"magnet valve"). Also terms with one word misspelt ("solenoid vavle",
+"thermistr"): a lower-case word of five letters or more, one letter left out,
+added or wrong, or two swapped (never the first), that is no English word the
+tagger knows ("value" is not taken for "valve") and no word of the termbase.
+With --variants, also every variant group (grouped as the terms command
+groups them) spelled more than one way, with its counts in each document and
+in all, and the majority spelling to use.
 
-Levels: deprecated and forbidden terms are errors, other spellings warnings,
-mixed spellings notes. The exit status is 0 without findings at or above
+Levels: deprecated and forbidden terms are errors, other spellings and
+misspelt terms warnings, mixed spellings notes. The exit status is 0 without findings at or above
 --fail-on, 1 with some (or when an input could not be read), 2 on a usage
 error.
 
@@ -146,6 +150,9 @@ func (o *checkOptions) run(args []string) error {
 	model, err := loadModel(o.in.model)
 	if err != nil {
 		return err
+	}
+	if opt.Glossary != nil {
+		opt.Misspellings = check.NewMisspellings(opt.Glossary, model)
 	}
 	rep := check.NewReport(opt.Glossary)
 	o.in.reuseTokens = true // results hold strings and positions, not tokens

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"os"
@@ -11,10 +12,12 @@ import (
 	"testing"
 	"unicode/utf8"
 
+	"github.com/santhosh-tekuri/jsonschema/v6"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"glossmith/extract/termbase"
+	"glossmith/internal/testenv"
 )
 
 // pumpsDir is the check's planted test corpus (an invented maker of solar
@@ -166,6 +169,92 @@ func TestCheckSameForAnyWorkerCount(t *testing.T) {
 			assert.Equal(t, first, r.stdout, "%s with %s workers", format, workers)
 		}
 	}
+}
+
+// TestCheckMisspeltTerms runs the check over the planted misspellings of
+// the test corpus (maintenance-log.md) to SARIF, validates the log against
+// the OASIS SARIF 2.1.0 JSON schema (sarif-schema-2.1.0.json of the SARIF
+// TC's repository), and finds each misspelt term as a warning of its own
+// rule at its place; the same run as JSON Lines names the kind, and a
+// baseline of the run leaves nothing new.
+func TestCheckMisspeltTerms(t *testing.T) {
+	schemaPath := filepath.Join(testenv.SharedDir(t, "standards/sarif"), "sarif-schema-2.1.0.json")
+	sch, err := jsonschema.NewCompiler().Compile(schemaPath)
+	require.NoError(t, err)
+	tb := pumpsTermbase(t)
+	input := pumpsDir + "/maintenance-log.md"
+	out := filepath.Join(t.TempDir(), "check.sarif")
+	r := run(t, "", "check", "--termbase", tb, "--to", "sarif", "-o", out, "--fail-on", "warning", input)
+	require.Equal(t, 1, r.code, r.stderr)
+	assert.Contains(t, r.stderr, "11 finding(s) in 1 document(s): 1 error(s), 10 warning(s)")
+	data, err := os.ReadFile(out)
+	require.NoError(t, err)
+	inst, err := jsonschema.UnmarshalJSON(bytes.NewReader(data))
+	require.NoError(t, err)
+	require.NoError(t, sch.Validate(inst))
+
+	var log struct {
+		Runs []struct {
+			Tool struct {
+				Driver struct {
+					Rules []struct {
+						ID            string
+						DefaultConfig struct{ Level string } `json:"defaultConfiguration"`
+					}
+				}
+			}
+			Results []struct {
+				RuleID    string
+				RuleIndex int
+				Level     string
+				Message   struct{ Text string }
+				Locations []struct {
+					PhysicalLocation struct {
+						Region struct{ StartLine, StartColumn, EndColumn int }
+					}
+				}
+			}
+		}
+	}
+	require.NoError(t, json.Unmarshal(data, &log))
+	require.Len(t, log.Runs, 1)
+	run0 := log.Runs[0]
+	type place struct {
+		line, col, end int
+		message        string
+	}
+	var got []place
+	for _, res := range run0.Results {
+		if res.RuleID != "misspelt" {
+			continue
+		}
+		assert.Equal(t, "warning", res.Level)
+		require.Less(t, res.RuleIndex, len(run0.Tool.Driver.Rules))
+		assert.Equal(t, "misspelt", run0.Tool.Driver.Rules[res.RuleIndex].ID)
+		assert.Equal(t, "warning", run0.Tool.Driver.Rules[res.RuleIndex].DefaultConfig.Level)
+		reg := res.Locations[0].PhysicalLocation.Region
+		got = append(got, place{reg.StartLine, reg.StartColumn, reg.EndColumn, res.Message.Text})
+	}
+	// Lines and columns as a reader of maintenance-log.md counts them.
+	assert.Equal(t, []place{
+		{3, 5, 19, `"solenoid vavle" looks like a misspelling of the term "solenoid valve"`},
+		{4, 6, 21, `"solenoid vavles" looks like a misspelling of the term "solenoid valve"`},
+		{5, 9, 21, `"magnet vavle" looks like a misspelling of the deprecated term "magnet valve": use "solenoid valve"`},
+		{6, 15, 24, `"set piont" looks like a misspelling of the term "set point"`},
+		{7, 5, 14, `"thermistr" looks like a misspelling of the term "thermistor"`},
+		{8, 7, 19, `"flaot switch" looks like a misspelling of the term "float switch"`},
+		{8, 51, 62, `"check vlave" looks like a misspelling of the term "check valve"`},
+		{9, 9, 26, `"dry running gaurd" looks like a misspelling of the forbidden term "dry running guard": use "dry-run protection"`},
+		{9, 32, 45, `"pump invertre" looks like a misspelling of the term "pump inverter"`},
+		{9, 50, 67, `"dry-run protecton" looks like a misspelling of the term "dry-run protection"`},
+	}, got)
+
+	r = run(t, "", "check", "--termbase", tb, "--to", "jsonl", "--fail-on", "warning", input)
+	require.Equal(t, 1, r.code, r.stderr)
+	assert.Equal(t, 10, strings.Count(r.stdout, `"kind":"misspelt","level":"warning"`))
+	r = run(t, "", "check", "--termbase", tb, "--baseline", out, "--fail-on", "warning", input)
+	assert.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stderr, "11 already in the baseline")
 }
 
 func TestCheckUsageErrors(t *testing.T) {

@@ -14,6 +14,9 @@ import (
 type Options struct {
 	// Glossary is the compiled glossary; nil checks no terms.
 	Glossary *Matcher
+	// Misspellings, when set, also finds the Glossary's terms written with
+	// a word misspelt (made by NewMisspellings for the same glossary).
+	Misspellings *Misspellings
 	// Candidates, when set, are the rules (normally the stock "terms"
 	// set) whose matches are grouped into variants as the terms command
 	// groups them, for the mixed-spelling report (see Mixed).
@@ -53,21 +56,32 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 	if opt.Glossary != nil {
 		sc := &scanner{m: opt.Glossary}
 		var spans []span
+		var miss []misspelt
+		var fixed []doc.Token
+		add := func(f *Finding) {
+			f.File = d.Name
+			l.span(f)
+			if l.suppressed(f) {
+				res.Suppressed++
+				return
+			}
+			res.Findings = append(res.Findings, *f)
+		}
 		for si := range d.Sentences {
 			toks := d.Sentences[si].Tokens
 			spans = sc.find(spans[:0], toks)
 			for _, sp := range spans {
-				f := opt.Glossary.classify(d, toks, sp)
-				if f == nil {
-					continue
+				if f := opt.Glossary.classify(d, toks, sp); f != nil {
+					add(f)
 				}
-				f.File = d.Name
-				l.span(f)
-				if l.suppressed(f) {
-					res.Suppressed++
-					continue
+			}
+			if ms := opt.Misspellings; ms != nil && ms.m == opt.Glossary {
+				miss = ms.find(miss[:0], sc, toks, spans, &fixed)
+				for _, sp := range miss {
+					if f := opt.Glossary.classifyMisspelt(d, toks, sp); f != nil {
+						add(f)
+					}
 				}
-				res.Findings = append(res.Findings, *f)
 			}
 		}
 	}

@@ -16,9 +16,11 @@ const (
 	KindSpelling
 	// KindMixed: a variant group spelled more than one way.
 	KindMixed
+	// KindMisspelt: a term with one of its words misspelt (Misspellings).
+	KindMisspelt
 )
 
-var kindNames = [...]string{"deprecated", "spelling", "mixed"}
+var kindNames = [...]string{"deprecated", "spelling", "mixed", "misspelt"}
 
 func (k Kind) String() string { return kindNames[k] }
 
@@ -56,12 +58,12 @@ func ParseLevel(s string) (Level, error) {
 }
 
 // Level is the severity of a kind: deprecated and forbidden terms are
-// errors, other spellings warnings, mixed use notes.
+// errors, other spellings and misspelt terms warnings, mixed use notes.
 func (k Kind) Level() Level {
 	switch k {
 	case KindDeprecated:
 		return Error
-	case KindSpelling:
+	case KindSpelling, KindMisspelt:
 		return Warning
 	}
 	return Note

@@ -257,8 +257,14 @@ type scanner struct {
 // key of some form; spans do not overlap and do not cut a hyphenated
 // compound ("valve" is not found in "magnet-valve").
 func (sc *scanner) find(out []span, toks []doc.Token) []span {
+	return sc.findFrom(out, toks, 0, len(toks))
+}
+
+// findFrom is find for the spans that start in toks[from:to]; they may end
+// past to.
+func (sc *scanner) findFrom(out []span, toks []doc.Token, from, to int) []span {
 	m := sc.m
-	for i := 0; i < len(toks); {
+	for i := from; i < to; {
 		if hyphenEdge(toks[i].Form) || i > 0 && glued(&toks[i-1], &toks[i]) && isHyphen(toks[i-1].Form) {
 			i++
 			continue

@@ -163,11 +163,12 @@ type (
 	}
 )
 
-// sarifRules describe the three kinds, in Kind order.
+// sarifRules describe the kinds, in Kind order.
 var sarifRules = [...]string{
 	"A deprecated or forbidden term of the glossary is used.",
 	"A term is spelled other than its preferred form (hyphen, space, closed, case or inflection).",
 	"A term is spelled more than one way across the documents.",
+	"A term of the glossary is written with one word misspelt: a letter left out, added or wrong, or two letters swapped.",
 }
 
 // fingerprintKey is the partial fingerprint glossmith writes: the same

@@ -26,6 +26,8 @@ func sampleFindings() []Finding {
 			Preferred: "solenoid valve", Entry: "e2", Message: `"magnet valve" is a deprecated term: use "solenoid valve"`},
 		{File: "notes.txt", Line: 1, Column: 5, EndLine: 1, EndColumn: 14, Text: "flow-rate", Kind: KindMixed,
 			Preferred: "flow rate", Entry: "flow rate", Message: `"flow-rate" <is> one of 2 spellings`},
+		{File: "notes.txt", Line: 2, Column: 9, EndLine: 2, EndColumn: 18, Text: "set piont", Kind: KindMisspelt,
+			Preferred: "set point", Entry: "e1", Message: `"set piont" looks like a misspelling of the term "set point"`},
 	}
 }
 
@@ -68,7 +70,7 @@ func TestJSONLFields(t *testing.T) {
 		}
 		n++
 	}
-	assert.Equal(t, 3, n)
+	assert.Equal(t, 4, n)
 }
 
 func TestTextLines(t *testing.T) {
@@ -76,7 +78,7 @@ func TestTextLines(t *testing.T) {
 	require.NoError(t, Write(&plain, "text", sampleFindings(), WriteOptions{}))
 	require.NoError(t, Write(&colored, "text", sampleFindings(), WriteOptions{Color: true}))
 	lines := strings.Split(strings.TrimSuffix(plain.String(), "\n"), "\n")
-	require.Len(t, lines, 3)
+	require.Len(t, lines, 4)
 	compilerStyle := regexp.MustCompile(`^[^:]+:\d+:\d+: (error|warning|note): .+$`)
 	for _, l := range lines {
 		assert.Regexp(t, compilerStyle, l)
@@ -94,7 +96,7 @@ func TestBaseline(t *testing.T) {
 			require.NoError(t, Write(&buf, format, old, WriteOptions{}))
 			b, err := ReadBaseline(&buf, "old."+format)
 			require.NoError(t, err)
-			assert.Equal(t, 3, b.Findings)
+			assert.Equal(t, 4, b.Findings)
 
 			now := sampleFindings()
 			now[0].Line, now[0].Column = 9, 2 // the text moved: still known
@@ -103,7 +105,7 @@ func TestBaseline(t *testing.T) {
 			extra.Line = 10 // a second use where the baseline had one: new
 			now = append(now, extra)
 			fresh, known := b.New(now)
-			assert.Equal(t, 3, known)
+			assert.Equal(t, 4, known)
 			require.Len(t, fresh, 1)
 			assert.Equal(t, 10, fresh[0].Line)
 		})

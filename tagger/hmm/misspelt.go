@@ -58,6 +58,18 @@ func (m *Model) unknownToAll(w string) bool {
 	return !m.wn.Classes(w).Listed()
 }
 
+// UnknownWord reports whether a lower-case word is in none of the model's
+// lexicons — its treebank, WordNet and general English — so that a caller
+// may take it for a misspelling (the document check does, for words one
+// edit from a glossary term's). A model without WordNet or general English
+// calls no word unknown: its treebank alone misses too many rare words.
+func (m *Model) UnknownWord(w string) bool {
+	if m.wn == nil || m.freq == nil {
+		return false
+	}
+	return m.unknownToAll(w)
+}
+
 // maxMisspeltMemo bounds the workspace's memo of readings: a domain's
 // unknown words recur, and a reading costs up to 50 look-ups a letter.
 const maxMisspeltMemo = 1 << 14

@@ -56,3 +56,27 @@ func TestMisspeltWordsTaggedAsMeant(t *testing.T) {
 		assert.Same(t, &toks[0], &v[0], w)
 	}
 }
+
+// UnknownWord is true only for words no lexicon of the model lists: a
+// treebank word, a WordNet word and a general-English word are words; a
+// misspelling of one is not.
+func TestUnknownWord(t *testing.T) {
+	m, err := Default()
+	require.NoError(t, err)
+	for _, c := range []struct {
+		word    string
+		unknown bool
+	}{
+		{"valve", false},      // treebank and general English
+		{"value", false},      // one edit from "valve", a word
+		{"thermistor", false}, // WordNet
+		{"vavle", true},
+		{"thermistr", true},
+		{"piont", true},
+	} {
+		assert.Equal(t, c.unknown, m.UnknownWord(c.word), c.word)
+	}
+	// A model without WordNet and general English calls no word unknown.
+	bare := &Model{lex: m.lex, freq: m.freq}
+	assert.False(t, bare.UnknownWord("vavle"))
+}

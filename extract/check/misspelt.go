@@ -1,0 +1,316 @@
+package check
+
+import (
+	"fmt"
+	"strings"
+	"sync"
+	"unicode"
+
+	"glossmith/tagger/doc"
+	"glossmith/tagger/spelling"
+)
+
+// Lexicon tells words from non-words: a word it does not know may be a
+// misspelling. The tagger's model is one (hmm.Model.UnknownWord: in none
+// of its treebank, WordNet and general English).
+type Lexicon interface {
+	UnknownWord(w string) bool
+}
+
+// minMisspeltLen is the shortest word taken for a misspelling of a term's
+// word, and the shortest term word read so: among shorter words one edit
+// leads from a word to too many others ("pump", "dump", "pimp").
+const minMisspeltLen = 5
+
+// Misspellings finds uses of a glossary's terms with one word misspelt:
+// "solenoid vavle", "set piont", "thermistr". A word is taken for a
+// misspelling of a term's word when it is written in lower case (a
+// capitalized word is mostly a name), has at least five letters, is one
+// edit from the term's word (spelling.OneEdit: a letter left out, one too
+// many, one wrong, two neighbours swapped, never the first letter) — with
+// a final -s, -es or -ies (for -y) set aside, "vavles" for "valves" — and
+// is neither a word the lexicon knows ("value" is not "valve") nor a word
+// of the glossary. The tagger's lemma of the word is tried too.
+//
+// Only such words cost more than a glance: a word passes a filter on its
+// first letter and length, then a memo shared by the run holds what it
+// reads as; the sentences that have one are scanned again around it, with
+// the word read as the term's. Make one per run; it is safe for concurrent
+// use.
+type Misspellings struct {
+	m   *Matcher
+	lex Lexicon
+	// words are the glossary's words of letters a–z, at least
+	// minMisspeltLen long, weighted by the number of forms that use them
+	// (an allowed form counting twice: "thermistr" is one edit from both
+	// the preferred "thermistor" and the deprecated "thermister"); dict
+	// indexes them.
+	words map[string]float64
+	dict  *spelling.Dictionary
+	// shape[c] has bit n set when a word n letters long that starts with
+	// letter 'a'+c may be a misspelling of a glossary word: one edit, and
+	// a plural ending, from its length (bit 63: longer).
+	shape [26]uint64
+	// reach is how many tokens before a word a span holding it may start:
+	// every token a walk takes feeds the key a byte, but for a hyphen
+	// between words, and a key has at most 3/2 the bytes of its form.
+	reach int
+
+	mu   sync.RWMutex
+	memo map[string]reading
+
+	correctors sync.Pool
+}
+
+// reading is what the memo holds of a word: the glossary word it is a
+// misspelling of, or none; known words are no misspellings of anything,
+// and their lemmas need no look.
+type reading struct {
+	fix   string
+	known bool
+}
+
+// maxMisspeltMemo bounds the memo: a run's distinct words are bounded by
+// its size, not by the glossary's.
+const maxMisspeltMemo = 1 << 16
+
+// NewMisspellings prepares the misspelling pass over the glossary m,
+// telling words from non-words with lex.
+func NewMisspellings(m *Matcher, lex Lexicon) *Misspellings {
+	ms := &Misspellings{m: m, lex: lex, memo: map[string]reading{}, words: map[string]float64{}}
+	for _, e := range m.g.Entries {
+		for _, f := range e.Forms {
+			ms.reach = max(ms.reach, 3*len(f.Text))
+			for w := range strings.FieldsFuncSeq(f.Text, notLetter) {
+				// Words of other letters ("café") are not read: the
+				// spelling package knows a–z only.
+				if len(w) < minMisspeltLen || !lowerASCII(w) {
+					if w = strings.ToLower(w); len(w) < minMisspeltLen || !lowerASCII(w) {
+						continue
+					}
+				}
+				ms.words[w]++
+				if f.Status.allowed() {
+					ms.words[w]++
+				}
+			}
+		}
+	}
+	for w := range ms.words {
+		c := w[0] - 'a'
+		for n := len(w) - 1; n <= len(w)+len("ies"); n++ {
+			ms.shape[c] |= 1 << min(n, 63)
+		}
+	}
+	ms.dict = spelling.NewDictionary(ms.words)
+	ms.correctors.New = func() any { return &spelling.Corrector{Dict: ms.dict} }
+	return ms
+}
+
+// notLetter splits a term into its words ("dry-run" is "dry" and "run").
+func notLetter(r rune) bool { return !unicode.IsLetter(r) }
+
+// lowerASCII reports whether w is made of the letters a–z only.
+func lowerASCII(w string) bool {
+	for i := 0; i < len(w); i++ {
+		if w[i] < 'a' || w[i] > 'z' {
+			return false
+		}
+	}
+	return true
+}
+
+// candidate reports whether w may be a misspelling of a glossary word at
+// all: a lower-case word long enough whose first letter and length some
+// glossary word has. It costs no look-up.
+func (ms *Misspellings) candidate(w string) bool {
+	if len(w) < minMisspeltLen || w[0] < 'a' || w[0] > 'z' {
+		return false
+	}
+	return ms.shape[w[0]-'a']&(1<<min(len(w), 63)) != 0 && lowerASCII(w)
+}
+
+// reading returns what w reads as, from the memo.
+func (ms *Misspellings) reading(w string) reading {
+	ms.mu.RLock()
+	r, ok := ms.memo[w]
+	ms.mu.RUnlock()
+	if ok {
+		return r
+	}
+	r = ms.read(w)
+	ms.mu.Lock()
+	if len(ms.memo) >= maxMisspeltMemo {
+		clear(ms.memo)
+	}
+	ms.memo[strings.Clone(w)] = r
+	ms.mu.Unlock()
+	return r
+}
+
+// plurals are the endings set aside, and what replaces them, to read a
+// plural: "vavles" is "vavle" + s, "asemblies" "asembly" + ies.
+var plurals = [...]struct{ end, base string }{{"s", ""}, {"es", ""}, {"ies", "y"}}
+
+// read works out reading's answer: the most used glossary word one edit
+// from w (or from w without a plural ending), when w is no word the
+// lexicon knows and no word or term of the glossary.
+func (ms *Misspellings) read(w string) reading {
+	if _, ok := ms.words[w]; ok || ms.m.hasKey(w) || !ms.lex.UnknownWord(w) {
+		return reading{known: true}
+	}
+	c := ms.correctors.Get().(*spelling.Corrector)
+	defer ms.correctors.Put(c)
+	if r := correct(c, w); r != "" {
+		return reading{fix: r}
+	}
+	for _, p := range plurals {
+		if stem, ok := strings.CutSuffix(w, p.end); ok && len(stem)+len(p.base) >= spelling.MinEditLen {
+			if r := correct(c, stem+p.base); r != "" {
+				return reading{fix: r}
+			}
+		}
+	}
+	return reading{}
+}
+
+// correct returns the glossary word one edit from w, or "". (Correct also
+// squeezes repeated letters, "vallvve": one edit only.)
+func correct(c *spelling.Corrector, w string) string {
+	if r, ok := c.Correct(w); ok && spelling.OneEdit(w, r) {
+		return r
+	}
+	return ""
+}
+
+// fix returns the glossary word a token is a misspelling of, by its form
+// or else by its lemma, or "".
+func (ms *Misspellings) fix(t *doc.Token) string {
+	if !ms.candidate(t.Form) {
+		return ""
+	}
+	r := ms.reading(t.Form)
+	if r.fix == "" && !r.known && t.Lemma != t.Form && ms.candidate(t.Lemma) {
+		r = ms.reading(t.Lemma)
+	}
+	return r.fix
+}
+
+// misspelt is a span of a sentence's tokens [i, j) that is a form's key
+// once token k is read as the glossary word fix.
+type misspelt struct {
+	span
+	k   int
+	fix string
+}
+
+// find appends to out the spans of toks that are a glossary form with one
+// misspelt word, given the spans the plain scan found (which keep their
+// words: a misspelt word is none inside them, and a misspelt span may
+// hold them but not cut them). sc is the caller's scanner; fixed is
+// scratch space for the sentence with one word read as meant.
+func (ms *Misspellings) find(out []misspelt, sc *scanner, toks []doc.Token, found []span, fixed *[]doc.Token) []misspelt {
+	var buf []span
+	copied := false
+	for k := range toks {
+		if f := toks[k].Form; len(f) < minMisspeltLen || f[0] < 'a' || f[0] > 'z' {
+			continue // most words, at a glance
+		}
+		fix := ms.fix(&toks[k])
+		if fix == "" || inSpans(found, k) {
+			continue
+		}
+		if !copied {
+			*fixed = append((*fixed)[:0], toks...)
+			copied = true
+		}
+		t := &(*fixed)[k]
+		t.Form, t.Lemma = fix, fix
+		buf = sc.findFrom(buf[:0], *fixed, max(0, k-ms.reach+1), k+1)
+		(*fixed)[k] = toks[k]
+		for _, sp := range buf {
+			if sp.i <= k && k < sp.j && !cuts(found, sp) {
+				out = append(out, misspelt{sp, k, fix})
+			}
+		}
+	}
+	return out
+}
+
+// inSpans reports whether token k lies in one of the spans.
+func inSpans(spans []span, k int) bool {
+	for _, s := range spans {
+		if s.i <= k && k < s.j {
+			return true
+		}
+	}
+	return false
+}
+
+// cuts reports whether sp overlaps a span of spans without holding it.
+func cuts(spans []span, sp span) bool {
+	for _, s := range spans {
+		if s.i < sp.j && sp.i < s.j && (s.i < sp.i || s.j > sp.j) {
+			return true
+		}
+	}
+	return false
+}
+
+// classifyMisspelt makes the finding of a misspelt span: the form meant is
+// the one the text reads as with the word fixed, else the first allowed
+// form under the key, else the first; forms whose part of speech the head
+// word's tag contradicts are passed over, unless the head is the misspelt
+// word. Nil when none is left.
+func (m *Matcher) classifyMisspelt(d *doc.Document, toks []doc.Token, ms misspelt) *Finding {
+	head := &toks[ms.j-1]
+	start, end := toks[ms.i].Start, head.End
+	meant := foldSpace(d.Text[start:toks[ms.k].Start] + ms.fix + d.Text[toks[ms.k].End:end])
+	var pick *formRef
+	for k := range ms.ends {
+		r := &ms.ends[k]
+		f := &m.g.Entries[r.entry].Forms[r.form]
+		if ms.k != ms.j-1 && !posFits(f.POS, head.UPOS) {
+			continue // a misspelt head's tag says nothing ("vavles" came out PART)
+		}
+		if strings.EqualFold(meant, m.folded[r.entry][r.form]) {
+			pick = r
+			break
+		}
+		if pick == nil || f.Status.allowed() && !m.g.Entries[pick.entry].Forms[pick.form].Status.allowed() {
+			pick = r
+		}
+	}
+	if pick == nil {
+		return nil
+	}
+	e := &m.g.Entries[pick.entry]
+	f := &e.Forms[pick.form]
+	text := foldSpace(d.Text[start:end])
+	preferred := f.Text
+	if !f.Status.allowed() {
+		preferred = e.Preferred()
+	}
+	return &Finding{
+		Text:      text,
+		Kind:      KindMisspelt,
+		Preferred: preferred,
+		Entry:     e.ID,
+		Message:   misspeltMessage(text, f, preferred),
+		Start:     int(start),
+		End:       int(end),
+	}
+}
+
+// misspeltMessage words a misspelt-term finding: the text, the term meant
+// and, when that term is not to be used, its status and the term to use.
+func misspeltMessage(text string, meant *Form, preferred string) string {
+	if meant.Status.allowed() {
+		return fmt.Sprintf("%q looks like a misspelling of the term %q", text, meant.Text)
+	}
+	msg := fmt.Sprintf("%q looks like a misspelling of the %s term %q", text, meant.Status, meant.Text)
+	if preferred != "" {
+		msg += fmt.Sprintf(": use %q", preferred)
+	}
+	return msg
+}
