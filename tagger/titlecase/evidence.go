@@ -313,16 +313,17 @@ func caseOf(form string) (upper, lower bool) {
 }
 
 // mayStartName reports whether a capitalized word after the token prev
-// can be taken for a name: prev is a word or a number (not "3." or a
-// bullet, after which a list item starts) or a comma. After anything else
-// — a colon, a quote, a bracket — writers capitalize a first word too.
+// can be taken for a name: prev is a word or a comma. After anything else
+// writers capitalize a first word too (a colon, a quote, a bracket, a
+// list item's "3." or bullet), or the word is a label (the rows of a table
+// run together: "Year 2008 Year 2009", "Table 5.2 Blade geometry").
 func mayStartName(prev string) bool {
 	if prev == "," {
 		return true
 	}
 	first, _ := utf8.DecodeRuneInString(prev)
 	last, _ := utf8.DecodeLastRuneInString(prev)
-	return (unicode.IsLetter(first) || unicode.IsDigit(first)) && (unicode.IsLetter(last) || unicode.IsDigit(last))
+	return unicode.IsLetter(first) && unicode.IsLetter(last)
 }
 
 // isSmallWord reports the words names are written with in lower case
