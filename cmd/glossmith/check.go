@@ -47,9 +47,9 @@ groups them) spelled more than one way, with its counts in each document and
 in all, and the majority spelling to use.
 
 Levels: deprecated and forbidden terms are errors, other spellings and
-misspelt terms warnings, mixed spellings notes. The exit status is 0 without findings at or above
---fail-on, 1 with some (or when an input could not be read), 2 on a usage
-error.
+misspelt terms warnings, mixed spellings notes. The exit status is 0 without
+findings at or above --fail-on, 1 with some (or when an input could not be
+read), 2 on a usage error.
 
 Terms in code (code blocks, inline code, HTML code and pre elements), URLs,
 e-mail addresses and file paths are not reported. A line holding
