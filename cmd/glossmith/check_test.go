@@ -146,20 +146,21 @@ func TestCheckFormatsAndBaseline(t *testing.T) {
 }
 
 // TestCheckSameForAnyWorkerCount checks that every format, with the mixed
-// spellings and a baseline that covers some findings, comes out byte for
-// byte the same with one worker as with several.
+// spellings, misspelt terms and a baseline that covers some findings,
+// comes out byte for byte the same with one worker as with several.
 func TestCheckSameForAnyWorkerCount(t *testing.T) {
 	tb := pumpsTermbase(t)
 	base := filepath.Join(t.TempDir(), "base.jsonl")
 	r := run(t, "", "check", "--termbase", tb, "-q", "-o", base, pumpsDir+"/field-notes.txt")
 	require.Equal(t, 1, r.code, r.stderr)
-	inputs := append(pumpsInputs(), "testdata/demo")
+	inputs := append(pumpsInputs(), pumpsDir+"/maintenance-log.md", "testdata/demo")
 	for _, format := range []string{"text", "jsonl", "sarif"} {
 		var first string
 		for _, workers := range []string{"1", "3"} {
 			r := run(t, "", append([]string{"check", "--termbase", tb, "--variants", "--baseline", base, "--to", format, "--workers", workers}, inputs...)...)
 			require.Equal(t, 1, r.code, r.stderr)
 			require.Contains(t, r.stdout, "spellings of a term", "mixed spellings among the findings")
+			require.Contains(t, r.stdout, "looks like a misspelling", "misspelt terms among the findings")
 			assert.NotContains(t, r.stderr, "problem")
 			if first == "" {
 				first = r.stdout

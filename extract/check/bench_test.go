@@ -47,8 +47,8 @@ func benchGlossary(tb testing.TB, ranked []*terms.Term, n int) Glossary {
 }
 
 // BenchmarkCheck measures the check's own work per document (the glossary
-// scan with a 10,000-entry glossary, suppression and positions; then the
-// mixed-spelling collection) against the candidate collection of the terms
+// scan with a 10,000-entry glossary, suppression and positions; with the
+// misspelling pass; then the mixed-spelling collection) against the candidate collection of the terms
 // command on the same annotated documents — the per-document work each
 // command adds to reading and tagging, which they share. The documents are
 // 2 MiB of benchmark-corpus text, or the directory GLOSSMITH_BENCH_DIR.
@@ -106,6 +106,17 @@ func BenchmarkCheck(b *testing.B) {
 		if found == 0 {
 			b.Fatal("the glossary made from the documents' own terms found nothing in them")
 		}
+	})
+	// misspelt: check with the misspelling pass, its index and memo made
+	// afresh for each pass over the documents, as a run makes them.
+	b.Run("misspelt", func(b *testing.B) {
+		var ms *Misspellings
+		run(b, func(i int) {
+			if i == 0 {
+				ms = NewMisspellings(m, model)
+			}
+			Check(docs[i], srcs[i], Options{Glossary: m, Misspellings: ms})
+		})
 	})
 	// report: the heap a report holds once every document's findings are
 	// in it, per finding — what a run keeps until it writes them out
