@@ -216,3 +216,33 @@ func visibleText(s string) string {
 		}
 	}
 }
+
+// A skip marker silences the next line with text, in the file's lines:
+// a Markdown or HTML comment, read in the source; a line of its own in
+// Markdown read from standard input (no source to read again).
+func TestSkipMarkerLines(t *testing.T) {
+	cases := []struct {
+		name, file, content string
+		noSource            bool
+		lines               []int // lines of the findings left
+	}{
+		{name: "markdown comment", file: "a.md",
+			content: "A magnet valve.\n<!-- glossmith:skip-next-line -->\n\nA magnet valve.\nA magnet valve.\n", lines: []int{1, 5}},
+		{name: "markdown line, no source", file: "b.md", noSource: true,
+			content: "A magnet valve.\nglossmith:skip-next-line\nA magnet valve.\nA magnet valve.\n", lines: []int{1, 4}},
+		{name: "html comment", file: "c.html",
+			content: "<p>A magnet valve.</p>\n<!-- glossmith:skip-next-line -->\n<p>\nA <b>magnet</b> valve.</p>\n<p>A magnet valve.</p>\n", lines: []int{1, 5}},
+	}
+	m := Compile(pumpGlossary())
+	for _, tc := range cases {
+		d, src := annotate(t, tc.file, tc.content)
+		if tc.noSource {
+			src = nil
+		}
+		var got []int
+		for _, f := range Check(d, src, Options{Glossary: m}).Findings {
+			got = append(got, f.Line)
+		}
+		assert.Equal(t, tc.lines, got, tc.name)
+	}
+}

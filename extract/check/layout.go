@@ -70,7 +70,7 @@ func newLayout(d *doc.Document, src []byte) *layout {
 			l.htmlMarks(src) // tags are ASCII in any encoding but UTF-16
 		}
 	}
-	if d.Origins == nil { // lines of the text are lines of the file
+	if d.Format != "html" { // lines of the text are lines of the file (or all there is)
 		l.markSkips(func(n int) string { return l.textLine(n) }, len(l.lineStart))
 	}
 	if l.src != nil {
