@@ -256,6 +256,18 @@ func TestCheckMisspeltTerms(t *testing.T) {
 	r = run(t, "", "check", "--termbase", tb, "--baseline", out, "--fail-on", "warning", input)
 	assert.Equal(t, 0, r.code, r.stderr)
 	assert.Contains(t, r.stderr, "11 already in the baseline")
+
+	// A misspelt term is a warning: below the default --fail-on error.
+	text := "Fit the solenoid vavle first.\n"
+	r = run(t, text, "check", "--termbase", tb, "--from", "txt", "-")
+	assert.Equal(t, 0, r.code, r.stderr)
+	assert.Equal(t, "-:1:9: warning: \"solenoid vavle\" looks like a misspelling of the term \"solenoid valve\"\n", r.stdout)
+	r = run(t, text, "check", "--termbase", tb, "--from", "txt", "--fail-on", "warning", "-q", "-")
+	assert.Equal(t, 1, r.code, r.stderr)
+	// The termbase's terms are English: checked in another language, none.
+	r = run(t, text, "check", "--termbase", tb, "--from", "txt", "--lang", "de", "--fail-on", "note", "-")
+	assert.Equal(t, 0, r.code, r.stderr)
+	assert.Empty(t, r.stdout)
 }
 
 func TestCheckUsageErrors(t *testing.T) {
