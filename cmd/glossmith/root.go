@@ -44,7 +44,6 @@ exit status is 1 when anything was skipped.`,
 	// --cpuprofile is for developers measuring a whole run (DEVELOPERS.md);
 	// it is hidden from the help.
 	var profile string
-	var profFile *os.File
 	root.PersistentFlags().StringVar(&profile, "cpuprofile", "", "write a CPU profile of the run to `FILE`")
 	_ = root.PersistentFlags().MarkHidden("cpuprofile")
 	root.PersistentPreRunE = func(*cobra.Command, []string) error {
@@ -62,14 +61,24 @@ exit status is 1 when anything was skipped.`,
 		profFile = f
 		return nil
 	}
-	root.PersistentPostRun = func(*cobra.Command, []string) {
-		if profFile != nil {
-			pprof.StopCPUProfile()
-			profFile.Close()
-		}
-	}
 	root.SetHelpCommand(newHelpCmd())
 	root.AddCommand(newTagCmd(), newTermsCmd(), newTermbaseCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd(), newReviewCmd())
 	root.AddCommand(newCheckCmd())
 	return root
+}
+
+// profFile is the CPU profile being written, if any. It is stopped by a
+// finalizer, which cobra runs however the command ends: a post-run hook
+// is skipped when the command returns an error, and check, which exits 1
+// when it finds something, then left an empty profile.
+var profFile *os.File
+
+func init() {
+	cobra.OnFinalize(func() {
+		if profFile != nil {
+			pprof.StopCPUProfile()
+			profFile.Close()
+			profFile = nil
+		}
+	})
 }
