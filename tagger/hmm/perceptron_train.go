@@ -25,17 +25,6 @@ type trainer struct {
 	layers []transLayer // transition weights
 	ulay   [][2][]float64
 	c      float64
-
-	// paC, when above 0, makes every update a passive-aggressive step
-	// (updatePA); margin is the cost-augmented decoding's κ (predict).
-	paC    float64
-	margin float32
-	diff   []diffCell // scratch of updatePA
-	// stepSum and nSteps sum the step sizes taken, so that
-	// finishPerceptron can bring the weights back to the scale of steps
-	// of 1 (weightScale).
-	stepSum float64
-	nSteps  int
 }
 
 func (tr *trainer) updFeat(id int32, t uint8, d float32) {
@@ -163,11 +152,7 @@ func (tr *trainer) run(m *Model, ws *workspace, rows *featureRows, opt *TrainOpt
 			ts := &rows.data[si]
 			tr.c++
 			tr.predict(m, &ws.lattice, ts, rows.rows, &trans, trainDict)
-			if tr.paC > 0 {
-				tr.updatePA(ts, ws.tags, rows.rows)
-			} else {
-				tr.update(ts, ws.tags, rows.rows)
-			}
+			tr.update(ts, ws.tags, rows.rows)
 		}
 		if report && opt.Progress != nil {
 			tr.reportEpoch(m, rows, ep, opt)
@@ -181,16 +166,12 @@ func (tr *trainer) run(m *Model, ws *workspace, rows *featureRows, opt *TrainOpt
 func mergeTrainers(trs []*trainer) *trainer {
 	out := trs[0]
 	n := float64(len(trs))
-	scale := make([]float64, len(trs))
-	for i, t := range trs {
-		scale[i] = t.weightScale()
-	}
 	mean := func(w []float32, u []float64, part func(*trainer) ([]float32, []float64)) {
 		for i := range w {
 			var sum float64
-			for k, t := range trs {
+			for _, t := range trs {
 				tw, tu := part(t)
-				sum += (float64(tw[i]) - tu[i]/t.c) * scale[k]
+				sum += float64(tw[i]) - tu[i]/t.c
 			}
 			w[i], u[i] = float32(sum/n), 0
 		}
@@ -200,7 +181,6 @@ func mergeTrainers(trs []*trainer) *trainer {
 		mean(out.layers[k].tri, out.ulay[k][0], func(t *trainer) ([]float32, []float64) { return t.layers[k].tri, t.ulay[k][0] })
 		mean(out.layers[k].bi, out.ulay[k][1], func(t *trainer) ([]float32, []float64) { return t.layers[k].bi, t.ulay[k][1] })
 	}
-	out.stepSum, out.nSteps = 0, 0 // the means are on the scale of steps of 1
 	return out
 }
 
@@ -281,8 +261,7 @@ func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]ui
 func newTrainer(m *Model, nf int, opt *TrainOptions) *trainer {
 	nt := len(m.tags)
 	tr := &trainer{nt: nt, w: make([]float32, nf*nt), u: make([]float64, nf*nt),
-		layers: m.transLayers(!opt.FactoredTransitions),
-		paC:    opt.PassiveAggressive, margin: float32(opt.TrainMargin)}
+		layers: m.transLayers(!opt.FactoredTransitions)}
 	for _, y := range tr.layers {
 		tr.ulay = append(tr.ulay, [2][]float64{make([]float64, len(y.tri)), make([]float64, len(y.bi))})
 	}
@@ -305,9 +284,6 @@ func (tr *trainer) predict(m *Model, l *lattice, ts *trainSent, rows map[uint64]
 				score[t] += w
 			}
 		}
-		// Cost-augmented decoding: every wrong tag gets margin more than
-		// the gold one, the same for all paths as the gold tag margin less.
-		score[ts.gold[i]] -= tr.margin
 		if e, ok := m.entry(ts.toks[i].Form); ok && e.count >= trainDict {
 			for j := e.first; j < e.first+e.ntags; j++ {
 				l.add(m.wtags[j], score[m.wtags[j]])
@@ -335,164 +311,32 @@ func (tr *trainer) predict(m *Model, l *lattice, ts *trainSent, rows map[uint64]
 }
 
 // update moves the weights toward the gold tags and away from the
-// predicted ones wherever they differ by steps of 1 (the perceptron).
+// predicted ones wherever they differ: the token's features, its
+// tag-word pair feature and the transitions.
 func (tr *trainer) update(ts *trainSent, pred []uint8, rows map[uint64]int32) {
-	tr.walkDiff(ts, pred, rows, tr.updFeat, tr.updTrans)
-}
-
-// walkDiff passes Φ(gold) − Φ(pred), the difference of the feature
-// vectors of the gold and the predicted tags, to feat and trans as ±1
-// terms (some may cancel): the features of each token whose tag differs,
-// its tag-word pair feature and the transitions.
-func (tr *trainer) walkDiff(ts *trainSent, pred []uint8, rows map[uint64]int32,
-	feat func(id int32, t uint8, d float32), trans func(a, b, c uint8, d float32)) {
 	bound := uint8(tr.nt)
 	for i := 0; i <= len(ts.gold); i++ {
 		g2, g1, g0 := tagAt(ts.gold, i-2, bound), tagAt(ts.gold, i-1, bound), tagAt(ts.gold, i, bound)
 		p2, p1, p0 := tagAt(pred, i-2, bound), tagAt(pred, i-1, bound), tagAt(pred, i, bound)
 		if g0 != p0 && i < len(ts.gold) {
 			for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
-				feat(id, g0, 1)
-				feat(id, p0, -1)
+				tr.updFeat(id, g0, 1)
+				tr.updFeat(id, p0, -1)
 			}
 		}
 		if (g1 != p1 || g0 != p0) && i < len(ts.gold) {
 			if r, ok := rows[pairKey(ts.lower[i], g1)]; ok {
-				feat(r, g0, 1)
+				tr.updFeat(r, g0, 1)
 			}
 			if r, ok := rows[pairKey(ts.lower[i], p1)]; ok {
-				feat(r, p0, -1)
+				tr.updFeat(r, p0, -1)
 			}
 		}
 		if g2 != p2 || g1 != p1 || g0 != p0 {
-			trans(g2, g1, g0, 1)
-			trans(p2, p1, p0, -1)
+			tr.updTrans(g2, g1, g0, 1)
+			tr.updTrans(p2, p1, p0, -1)
 		}
 	}
-}
-
-// diffCell is one weight of Φ(gold) − Φ(pred): a feature weight
-// (layer < 0) or a transition weight of layers[layer] (part 0 trigram, 1
-// bigram), at index i of its table, and its coefficient d.
-type diffCell struct {
-	layer, part int8
-	i           int32
-	d           float32
-}
-
-func (c diffCell) less(o diffCell) int {
-	if c.layer != o.layer {
-		return int(c.layer) - int(o.layer)
-	}
-	if c.part != o.part {
-		return int(c.part) - int(o.part)
-	}
-	return int(c.i) - int(o.i)
-}
-
-// weight returns the current weight of c's cell.
-func (tr *trainer) weight(c diffCell) float32 {
-	switch {
-	case c.layer < 0:
-		return tr.w[c.i]
-	case c.part == 0:
-		return tr.layers[c.layer].tri[c.i]
-	}
-	return tr.layers[c.layer].bi[c.i]
-}
-
-// add adds d to c's cell and its share to the averaging sums.
-func (tr *trainer) add(c diffCell, d float32) {
-	var w *float32
-	var u *float64
-	switch {
-	case c.layer < 0:
-		w, u = &tr.w[c.i], &tr.u[c.i]
-	case c.part == 0:
-		w, u = &tr.layers[c.layer].tri[c.i], &tr.ulay[c.layer][0][c.i]
-	default:
-		w, u = &tr.layers[c.layer].bi[c.i], &tr.ulay[c.layer][1][c.i]
-	}
-	*w += d
-	*u += tr.c * float64(d)
-}
-
-// updatePA takes the passive-aggressive step PA-I of Crammer et al.
-// (2006, "Online passive-aggressive algorithms", JMLR 7, §3 and §8 for
-// structured outputs): the weights move along Φ(gold) − Φ(pred) by
-// τ = min(C, (score(pred) − score(gold) + loss) / ‖Φ(gold) − Φ(pred)‖²),
-// with loss the number of wrongly tagged tokens — the smallest step after
-// which gold beats the prediction by its loss, capped at C. A sentence
-// that is nearly right then moves the weights less than one with many
-// errors, where the perceptron's steps are all 1.
-func (tr *trainer) updatePA(ts *trainSent, pred []uint8, rows map[uint64]int32) {
-	loss := 0
-	for i, g := range ts.gold {
-		if pred[i] != g {
-			loss++
-		}
-	}
-	if loss == 0 {
-		return
-	}
-	nt := tr.nt
-	tr.diff = tr.diff[:0]
-	tr.walkDiff(ts, pred, rows, func(id int32, t uint8, d float32) {
-		tr.diff = append(tr.diff, diffCell{layer: -1, i: id*int32(nt) + int32(t), d: d})
-	}, func(a, b, c uint8, d float32) {
-		for k := range tr.layers {
-			y := &tr.layers[k]
-			pa, pb, pc := int(y.proj[a]), int(y.proj[b]), int(y.proj[c])
-			tr.diff = append(tr.diff,
-				diffCell{layer: int8(k), part: 0, i: int32((pa*y.n1+pb)*y.n1 + pc), d: d},
-				diffCell{layer: int8(k), part: 1, i: int32(pb*y.n1 + pc), d: d})
-		}
-	})
-	// Sum the terms of each cell (in a fixed order, so that training stays
-	// deterministic), then the margin and the squared norm.
-	slices.SortFunc(tr.diff, diffCell.less)
-	n := 0
-	for _, c := range tr.diff {
-		if n > 0 && tr.diff[n-1].less(c) == 0 {
-			tr.diff[n-1].d += c.d
-			continue
-		}
-		tr.diff[n] = c
-		n++
-	}
-	tr.diff = tr.diff[:n]
-	var margin, norm float64 // score(gold) − score(pred), ‖Φ(gold) − Φ(pred)‖²
-	for _, c := range tr.diff {
-		margin += float64(tr.weight(c)) * float64(c.d)
-		norm += float64(c.d) * float64(c.d)
-	}
-	if norm == 0 {
-		return // the two paths share every feature: nothing to learn
-	}
-	tau := min(tr.paC, (float64(loss)-margin)/norm)
-	if tau <= 0 {
-		return // gold already wins by its loss (the prediction was cost-augmented)
-	}
-	for _, c := range tr.diff {
-		if c.d != 0 {
-			tr.add(c, float32(tau)*c.d)
-		}
-	}
-	tr.stepSum += tau
-	tr.nSteps++
-}
-
-// weightScale is the factor that brings the averaged weights to the
-// scale of the perceptron's steps of 1: the inverse of the mean step.
-// Passive-aggressive steps are mostly far smaller than 1, and the weights
-// with them; scaled back, the stored resolution (weightStep), the pruning
-// threshold (TrainOptions.PruneWeight) and the beam mean what they mean
-// for a perceptron. Scaling all weights alike changes no best path.
-func (tr *trainer) weightScale() float64 {
-	if tr.nSteps == 0 || tr.stepSum == 0 {
-		return 1
-	}
-	return float64(tr.nSteps) / tr.stepSum
 }
 
 // reportEpoch passes the dev accuracies after epoch ep to opt.Progress:
@@ -519,8 +363,8 @@ func (tr *trainer) reportEpoch(m *Model, rows *featureRows, ep int, opt *TrainOp
 // dropping rare features and small weights.
 func finishPerceptron(m *Model, tr *trainer, keys []uint64, counts []int32, opt *TrainOptions) {
 	nt := tr.nt
-	c, scale := tr.c, tr.weightScale()
-	avg := func(w float32, u float64) float64 { return (float64(w) - u/c) * scale }
+	c := tr.c
+	avg := func(w float32, u float64) float64 { return float64(w) - u/c }
 	type rowRef struct {
 		key uint64
 		id  int

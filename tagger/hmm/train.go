@@ -77,19 +77,6 @@ type TrainOptions struct {
 	// per tagging pass; no beam costs 25% more.
 	Beam float64
 
-	// PassiveAggressive, when above 0, is the aggressiveness C of
-	// passive-aggressive updates (PA-I, Crammer et al. 2006) in place of
-	// the perceptron's steps of 1: each sentence's update is scaled to the
-	// smallest that makes the gold tags win by their loss, at most C.
-	// The averaged weights are brought back to the perceptron's scale, so
-	// PruneWeight and Beam keep their meaning. 0, the default: perceptron.
-	PassiveAggressive float64
-	// TrainMargin is the κ of cost-augmented decoding while training
-	// (Taskar et al. 2004): every wrong tag of a token scores κ more than
-	// the gold one, so that updates go on until gold wins by a margin.
-	// 0, the default: none.
-	TrainMargin float64
-
 	// FactoredTransitions adds perceptron transition weights shared by
 	// states of the same XPOS and of the same UPOS to those of the joint
 	// states. Off by default: it measured 0.1 points worse on EWT dev and
@@ -126,9 +113,6 @@ func (o *TrainOptions) defaults() error {
 	}
 	if o.Epochs <= 0 {
 		o.Epochs = 10
-	}
-	if o.PassiveAggressive < 0 || o.TrainMargin < 0 {
-		return fmt.Errorf("negative passive-aggressive C (%g) or training margin (%g)", o.PassiveAggressive, o.TrainMargin)
 	}
 	if o.Seed == 0 {
 		o.Seed = 1

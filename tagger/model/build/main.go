@@ -39,8 +39,6 @@ func main() {
 	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
 	general := flag.String("general", "tagger/model/general-en-bands.tsv", "general-English frequency table (go run ./tagger/model/genfreq; empty: none)")
 	learned := flag.Bool("learned", false, "also train with the learned word class features (tagger/model/en-wordclasses.txt.gz)")
-	pa := flag.Float64("pa", 0, "passive-aggressive updates with this C (0: perceptron steps)")
-	margin := flag.Float64("margin", 0, "cost-augmented training: wrong tags score this much more while training (0: none)")
 	test := flag.Bool("test", false, "also evaluate on the test set")
 	trainAcc := flag.Bool("trainacc", false, "also evaluate on the first 2000 training sentences")
 	jsonOut := flag.Bool("json", false, "print full reports as JSON")
@@ -85,8 +83,6 @@ func main() {
 		WordClasses:        string(wn),
 		GeneralFrequencies: string(gf),
 		LearnedClasses:     *learned,
-		PassiveAggressive:  *pa,
-		TrainMargin:        *margin,
 		Dev:                dev,
 		Progress: func(ep int, u, x float64) {
 			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%% XPOS %.2f%% (%s)\n", ep, u, x, time.Since(start).Round(time.Second))
