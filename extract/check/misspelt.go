@@ -40,13 +40,11 @@ const minMisspeltLen = 5
 type Misspellings struct {
 	m   *Matcher
 	lex Lexicon
-	// words are the glossary's words of letters a–z, at least
+	// dict holds the glossary's words of letters a–z, at least
 	// minMisspeltLen long, weighted by the number of forms that use them
 	// (an allowed form counting twice: "thermistr" is one edit from both
-	// the preferred "thermistor" and the deprecated "thermister"); dict
-	// indexes them.
-	words map[string]float64
-	dict  *spelling.Dictionary
+	// the preferred "thermistor" and the deprecated "thermister").
+	dict *spelling.Dictionary
 	// shape[c] has bit n set when a word n letters long that starts with
 	// letter 'a'+c may be a misspelling of a glossary word: one edit, and
 	// a plural ending, from its length (bit 63: longer).
@@ -77,7 +75,8 @@ const maxMisspeltMemo = 1 << 16
 // NewMisspellings prepares the misspelling pass over the glossary m,
 // telling words from non-words with lex.
 func NewMisspellings(m *Matcher, lex Lexicon) *Misspellings {
-	ms := &Misspellings{m: m, lex: lex, memo: map[string]reading{}, words: map[string]float64{}}
+	ms := &Misspellings{m: m, lex: lex, memo: map[string]reading{}}
+	words := map[string]float64{}
 	for _, e := range m.g.Entries {
 		for _, f := range e.Forms {
 			ms.reach = max(ms.reach, 3*len(f.Text))
@@ -89,20 +88,20 @@ func NewMisspellings(m *Matcher, lex Lexicon) *Misspellings {
 						continue
 					}
 				}
-				ms.words[w]++
+				words[w]++
 				if f.Status.allowed() {
-					ms.words[w]++
+					words[w]++
 				}
 			}
 		}
 	}
-	for w := range ms.words {
+	for w := range words {
 		c := w[0] - 'a'
 		for n := len(w) - 1; n <= len(w)+len("ies"); n++ {
 			ms.shape[c] |= 1 << min(n, 63)
 		}
 	}
-	ms.dict = spelling.NewDictionary(ms.words)
+	ms.dict = spelling.NewDictionary(words)
 	ms.correctors.New = func() any { return &spelling.Corrector{Dict: ms.dict} }
 	return ms
 }
@@ -156,7 +155,7 @@ var plurals = [...]struct{ end, base string }{{"s", ""}, {"es", ""}, {"ies", "y"
 // from w (or from w without a plural ending), when w is no word the
 // lexicon knows and no word or term of the glossary.
 func (ms *Misspellings) read(w string) reading {
-	if _, ok := ms.words[w]; ok || ms.m.hasKey(w) || !ms.lex.UnknownWord(w) {
+	if ms.dict.Contains(w) || ms.m.hasKey(w) || !ms.lex.UnknownWord(w) {
 		return reading{known: true}
 	}
 	c := ms.correctors.Get().(*spelling.Corrector)

@@ -92,6 +92,9 @@ func (d *Dictionary) run(h uint64) []uint64 {
 	return d.dels[i:j]
 }
 
+// Contains reports whether a word is in the dictionary.
+func (d *Dictionary) Contains(w string) bool { return d.find([]byte(w)) >= 0 }
+
 // find returns the index of a word, -1 when it is not in the dictionary.
 func (d *Dictionary) find(w []byte) int32 {
 	for _, e := range d.run(hash(w)) {

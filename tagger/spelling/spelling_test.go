@@ -40,6 +40,10 @@ func TestCorrect(t *testing.T) {
 		"Capital": 100, "x-ray": 100, // not lower-case letters: left out
 	})
 	require.Equal(t, 9, d.Len())
+	assert.True(t, d.Contains("so"))
+	assert.True(t, d.Contains("first"))
+	assert.False(t, d.Contains("fisrt"))
+	assert.False(t, d.Contains("Capital"), "not lower-case letters: left out")
 	c := &Corrector{Dict: d}
 	for _, tc := range []struct{ in, want string }{
 		{"fisrt", "first"},
