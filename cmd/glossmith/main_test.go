@@ -61,10 +61,17 @@ func run(t *testing.T, stdin string, args ...string) result {
 // finished by itself.
 func runBounded(t *testing.T, stdin string, limit time.Duration, args ...string) (result, bool) {
 	t.Helper()
+	return runIn(t, "../..", nil, stdin, limit, args...)
+}
+
+// runIn is runBounded in directory dir with environment env (nil: this
+// process's).
+func runIn(t *testing.T, dir string, env []string, stdin string, limit time.Duration, args ...string) (result, bool) {
+	t.Helper()
 	ctx, cancel := context.WithTimeout(context.Background(), limit)
 	defer cancel()
 	cmd := exec.CommandContext(ctx, binary, args...)
-	cmd.Dir = "../.."
+	cmd.Dir, cmd.Env = dir, env
 	cmd.Stdin = strings.NewReader(stdin)
 	var o, e bytes.Buffer
 	cmd.Stdout, cmd.Stderr = &o, &e
