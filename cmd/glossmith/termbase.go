@@ -15,7 +15,9 @@ import (
 	"glossmith/extract/tbx"
 	"glossmith/extract/termbase"
 	"glossmith/extract/termio"
+	"glossmith/internal/suggest"
 	"glossmith/internal/tabular"
+	"glossmith/tagger/doc"
 )
 
 // termbaseEnv names the termbase when --termbase is not given.
@@ -340,7 +342,29 @@ func (o *termbaseSetOptions) validate() error {
 	if e.DefSource != "" && e.Definition == "" {
 		return usageError("--source goes with --definition")
 	}
-	return nil
+	return checkPOS(e.POS)
+}
+
+// basicPOS are the TBX-Basic part-of-speech values a glossary writes.
+var basicPOS = []string{"noun", "verb", "adjective", "adverb", "other"}
+
+// checkPOS refuses a --pos that no reader of the termbase understands: it
+// takes a TBX-Basic value or UPOS tags, one a word as recorded runs store
+// them ("NOUN NOUN"); a typing error ("nuon") would otherwise be stored,
+// exported as "other" and ignored by check.
+func checkPOS(pos string) error {
+	if pos == "" || slices.Contains(basicPOS, pos) {
+		return nil
+	}
+	tags := strings.Fields(pos)
+	if len(tags) > 0 && strings.Join(tags, " ") == pos && !slices.ContainsFunc(tags, func(t string) bool { return !slices.Contains(doc.UPOSTags, t) }) {
+		return nil
+	}
+	msg := fmt.Sprintf("--pos %q: want one of %s, or UPOS tags such as NOUN or \"ADJ NOUN\"", pos, strings.Join(basicPOS, ", "))
+	if h := suggest.Hint(pos, append(slices.Clone(basicPOS), doc.UPOSTags...)); h != "" {
+		msg += "; " + h
+	}
+	return usageError("%s", msg)
 }
 
 func (o *termbaseSetOptions) run(w io.Writer, term string) error {

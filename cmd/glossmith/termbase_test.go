@@ -300,3 +300,51 @@ func TestTermsTBXWithTermbase(t *testing.T) {
 		assert.Contains(t, doc.Source, "2 candidate(s) the termbase rejected are left out", to)
 	}
 }
+
+// termbase set --pos takes the TBX-Basic part-of-speech values (the
+// picklist of TBX-Basic's partOfSpeech, as extract/tbx writes them) or
+// Universal Dependencies UPOS tags (universaldependencies.org/u/pos/), one
+// a word as a recorded run stores a multiword term's; anything else is a
+// usage error before the termbase is opened.
+func TestTermbaseSetChecksPOS(t *testing.T) {
+	for _, c := range []struct {
+		pos  string
+		ok   bool
+		hint string
+	}{
+		{"noun", true, ""},
+		{"adjective", true, ""},
+		{"other", true, ""},
+		{"PROPN", true, ""},
+		{"ADJ NOUN", true, ""},
+		{"nuon", false, `did you mean "noun"`},
+		{"Noun", false, `did you mean "noun"`},
+		{"NN", false, ""},
+		{"ADJ  NOUN", false, ""},
+		{" NOUN", false, ""},
+		{"ADJ NUON", false, ""},
+	} {
+		t.Run(c.pos, func(t *testing.T) {
+			err := checkPOS(c.pos)
+			if c.ok {
+				assert.NoError(t, err)
+				return
+			}
+			require.Error(t, err)
+			assert.Contains(t, err.Error(), "want one of noun, verb, adjective, adverb, other, or UPOS tags")
+			if c.hint != "" {
+				assert.Contains(t, err.Error(), c.hint)
+			}
+		})
+	}
+
+	tb := filepath.Join(t.TempDir(), "gloss.db")
+	r := run(t, "", "termbase", "--termbase", tb, "set", "valve", "--pos", "nuon")
+	assert.Equal(t, 2, r.code, r.stderr)
+	assert.Contains(t, r.stderr, `--pos "nuon"`)
+	assert.NoFileExists(t, tb, "a refused edit created the termbase")
+	r = run(t, "", "termbase", "--termbase", tb, "set", "valve", "--pos", "noun")
+	require.Equal(t, 0, r.code, r.stderr)
+	r = run(t, "", "termbase", "--termbase", tb, "show", "valve")
+	assert.Contains(t, r.stdout, "valve [en] (noun)")
+}
