@@ -53,3 +53,24 @@ func TestEveryCommandValidatesFlags(t *testing.T) {
 		}
 	}
 }
+
+// Every -o of the tree is written whole or not at all (openOutput), and
+// where a command also has --to, the extension of -o picks the format
+// (outputFormat): their help says so on every command alike.
+func TestOutputFlagsHelpAlike(t *testing.T) {
+	root := newRootCmd()
+	for _, path := range commandPaths(root) {
+		c, _, err := root.Find(path)
+		require.NoError(t, err)
+		o := c.Flags().Lookup("output")
+		if o == nil {
+			continue
+		}
+		t.Run(strings.Join(path, " "), func(t *testing.T) {
+			assert.Contains(t, o.Usage, "(complete or not at all)")
+			if to := c.Flags().Lookup("to"); to != nil {
+				assert.Contains(t, to.Usage, "(default: from the -o extension, else "+to.DefValue)
+			}
+		})
+	}
+}

@@ -48,7 +48,8 @@ leftmost-longest, non-overlapping matches; --nested reports every span that
 matches (sub-phrases too) up to the longest span terms looks at (45 tokens).
 
 --count prints a frequency list of the matched strings instead (--by word or
-lemma, lower-cased) — an n-gram list is "find --count '_ _'".`,
+lemma; lower-cased except acronyms, units and mixed-case words: "AC", "kPa")
+— an n-gram list is "find --count '_ _'".`,
 		Example: `  glossmith find 'ADJ+ NOUN' testdata/demo
   glossmith find '"replace" DET? _* NOUN' testdata/demo
   glossmith find --rule verb_obj --rules stock:pairs --to jsonl testdata/demo
@@ -73,7 +74,7 @@ func (o *findOptions) register(cmd *cobra.Command) {
 	fl.StringArrayVar(&o.rules.names, "rule", nil, "match this named rule instead of a pattern (repeatable)")
 	fl.BoolVar(&o.count, "count", false, "print a frequency list of the matched strings")
 	fl.StringVar(&o.by, "by", "word", "with --count: count "+strings.Join(countKeys, " or "))
-	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(findFormats, ", "))
+	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(findFormats, ", ")+" (default: from the -o extension, else text)")
 	fl.IntVar(&o.width, "width", 40, "characters of context on each side (text output)")
 	fl.BoolVar(&o.nested, "nested", false, "report every matching span, not only leftmost-longest ones")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many lines and stop reading (0: no limit)")

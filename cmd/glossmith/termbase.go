@@ -458,8 +458,8 @@ func newTermbaseListCmd(tf *termbaseFlags) *cobra.Command {
 	fl := cmd.Flags()
 	fl.StringVar(&o.status, "status", "", "only entries with a term of this status: "+strings.Join(listStatuses, ", "))
 	fl.StringVar(&o.since, "changed-since", "", "only entries changed at or after this date (2006-01-02) or time (RFC 3339)")
-	fl.StringVar(&o.to, "to", "text", "output format: text, jsonl")
-	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file instead of standard output")
+	fl.StringVar(&o.to, "to", "text", "output format: text, jsonl (default: from the -o extension, else text)")
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	completeChoices(cmd, "status", listStatuses)
 	return cmd
 }
@@ -686,8 +686,8 @@ flag dozens by chance).`, termbase.DefaultDiffThreshold),
 	fl := cmd.Flags()
 	fl.Float64Var(&o.threshold, "threshold", termbase.DefaultDiffThreshold, "|G²| a change in frequency must reach")
 	fl.IntVar(&o.minFreq, "min-freq", 2, "list new and gone terms seen at least this often in the run that has them")
-	fl.StringVar(&o.to, "to", "text", "output format: text, tsv, jsonl")
-	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file instead of standard output")
+	fl.StringVar(&o.to, "to", "text", "output format: text, tsv, jsonl (default: from the -o extension, else text)")
+	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	return cmd
 }
 

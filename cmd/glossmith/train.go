@@ -56,7 +56,7 @@ With --dev the accuracy on that file is printed after each epoch.`,
 	fl := cmd.Flags()
 	fl.StringVar(&o.method, "method", "perceptron", "training method: "+strings.Join(trainMethods, " or "))
 	fl.StringVar(&o.from, "from", "conllu", "input format (CoNLL-U only)")
-	fl.StringVarP(&o.out, "output", "o", "", "model file to write")
+	fl.StringVarP(&o.out, "output", "o", "", "model file to write (complete or not at all)")
 	fl.StringVar(&o.dev, "dev", "", "CoNLL-U file to report accuracy on after each epoch")
 	fl.IntVar(&o.epochs, "epochs", 0, "perceptron epochs (default: the method's default)")
 	fl.BoolVarP(&o.quiet, "quiet", "q", false, "print no progress")
