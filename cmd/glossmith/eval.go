@@ -72,10 +72,7 @@ func (o *evalTaggingOptions) run(args []string) error {
 	if err != nil {
 		return err
 	}
-	gold, bad, err := readConllu(args)
-	if err != nil {
-		return err
-	}
+	gold, loss := readConllu(args)
 	if len(gold) == 0 {
 		// No table of zeros: there is nothing to measure.
 		return exitError{1, "no sentences with gold tags to evaluate on"}
@@ -92,10 +89,7 @@ func (o *evalTaggingOptions) run(args []string) error {
 	if err := w.Flush(); err != nil {
 		return exitError{1, fmt.Sprintf("writing the report: %v", err)}
 	}
-	if bad > 0 {
-		return exitError{1, fmt.Sprintf("%d malformed or untagged sentence(s) left out", bad)}
-	}
-	return nil
+	return loss.err("")
 }
 
 // writeJSON writes v as indented JSON; errors show in the writer's Flush.

@@ -81,3 +81,44 @@ func TestTrainRefusesBadTagsByFileAndLine(t *testing.T) {
 	assert.Equal(t, 2, r.code)
 	assert.Contains(t, r.stderr, `--method "bogus"`)
 }
+
+// A CoNLL-U input that cannot be read is reported with its name, as tag
+// reports it, and the commands that read gold files go on with the others
+// and exit 1 at the end (an input problem, not a usage error: exit 2).
+func TestGoldReadersGoOnPastUnreadableFiles(t *testing.T) {
+	var good strings.Builder
+	for i := 0; i < 5; i++ {
+		good.WriteString(conlluRows("g"+strconv.Itoa(i), [3]string{"Valves", "NOUN", "NNS"}, [3]string{"open", "VERB", "VBP"}, [3]string{".", "PUNCT", "."}))
+	}
+	in := writeTemp(t, "gold.conllu", good.String())
+	missing := filepath.Join(t.TempDir(), "missing.conllu")
+	dir := t.TempDir()
+	model := filepath.Join(t.TempDir(), "m.glsm")
+	for _, c := range []struct {
+		name     string
+		args     []string
+		unread   string // the input reported
+		summary  string
+		produced func(r result) bool
+	}{
+		{"train, a missing file", []string{"train", "-q", "--method", "hmm", "-o", model, missing, in}, missing,
+			"1 unreadable file(s) left out of training", func(result) bool { _, err := os.Stat(model); return err == nil }},
+		{"train, a directory", []string{"train", "-q", "--method", "hmm", "-o", model, in, dir}, dir,
+			"1 unreadable file(s) left out of training", func(result) bool { _, err := os.Stat(model); return err == nil }},
+		{"train, a missing dev file", []string{"train", "-q", "--method", "hmm", "--dev", missing, "-o", model, in}, missing,
+			"1 unreadable file(s) left out of training", func(result) bool { _, err := os.Stat(model); return err == nil }},
+		{"eval tagging, a missing file", []string{"eval", "tagging", missing, in}, missing,
+			"1 unreadable file(s) left out", func(r result) bool { return strings.Contains(r.stdout, "UPOS") }},
+		{"tag, a missing file", []string{"tag", "--to", "text", missing, in}, missing,
+			"1 problem(s) with the inputs", func(r result) bool { return strings.Contains(r.stdout, "Valves/NNS") }},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			require.NoError(t, os.RemoveAll(model))
+			r := run(t, "", c.args...)
+			assert.Equal(t, 1, r.code, r.stderr)
+			assert.Contains(t, r.stderr, "error: "+c.unread+": cannot ")
+			assert.Contains(t, r.stderr, c.summary)
+			assert.True(t, c.produced(r), "the readable input was not used: %s", r.stdout)
+		})
+	}
+}

@@ -1,7 +1,9 @@
 package main
 
 import (
+	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
@@ -89,10 +91,7 @@ func (o *trainOptions) validate(args []string) error {
 }
 
 func (o *trainOptions) run(args []string) error {
-	sents, bad, err := readConllu(args)
-	if err != nil {
-		return err
-	}
+	sents, loss := readConllu(args)
 	if len(sents) == 0 {
 		return exitError{1, "no annotated sentences to train on"}
 	}
@@ -101,11 +100,8 @@ func (o *trainOptions) run(args []string) error {
 		opt.WordClasses = def.WordClasses() // the embedded model's WordNet word classes
 	}
 	if o.dev != "" {
-		d, b, err := readConllu([]string{o.dev})
-		if err != nil {
-			return err
-		}
-		bad += b
+		d, l := readConllu([]string{o.dev})
+		loss = loss.add(l)
 		opt.Dev = d
 	}
 	start := time.Now()
@@ -133,22 +129,22 @@ func (o *trainOptions) run(args []string) error {
 	if err := out.commit(m.Save(out)); err != nil {
 		return err
 	}
-	if bad > 0 {
-		return exitError{1, fmt.Sprintf("%d malformed or untagged sentence(s) left out of training", bad)}
-	}
-	return nil
+	return loss.err(" of training")
 }
 
-// readConllu reads gold CoNLL-U files, reporting malformed sentences and
-// sentences without valid gold tags (hmm.CheckGold), which are left out,
-// on standard error and counting them.
-func readConllu(paths []string) ([]*conllu.Sentence, int, error) {
+// readConllu reads gold CoNLL-U files, reporting on standard error — with
+// the file, and the line where there is one — files it cannot read and
+// malformed sentences or sentences without valid gold tags
+// (hmm.CheckGold), which are left out while the rest is read.
+func readConllu(paths []string) ([]*conllu.Sentence, conlluLoss) {
 	var all []*conllu.Sentence
-	bad := 0
+	var loss conlluLoss
 	for _, p := range paths {
 		f, err := os.Open(p)
 		if err != nil {
-			return nil, 0, err
+			fmt.Fprintf(os.Stderr, "error: %s: cannot open: %s\n", p, pathErrorText(err))
+			loss.files++
+			continue
 		}
 		s, err := conllu.ReadAll(f, p)
 		f.Close()
@@ -156,20 +152,55 @@ func readConllu(paths []string) ([]*conllu.Sentence, int, error) {
 			for _, e := range list {
 				fmt.Fprintln(os.Stderr, "error:", e)
 			}
-			bad += len(list)
+			loss.sentences += len(list)
 		} else if err != nil {
-			return nil, 0, err
+			fmt.Fprintf(os.Stderr, "error: %s: cannot read: %s\n", p, pathErrorText(err))
+			loss.files++
+			continue
 		}
 		for _, st := range s {
 			if err := hmm.CheckGold(st, p); err != nil {
 				fmt.Fprintln(os.Stderr, "error:", err)
-				bad++
+				loss.sentences++
 				continue
 			}
 			all = append(all, st)
 		}
 	}
-	return all, bad, nil
+	return all, loss
+}
+
+// conlluLoss counts what readConllu left out.
+type conlluLoss struct{ sentences, files int }
+
+func (l conlluLoss) add(o conlluLoss) conlluLoss {
+	return conlluLoss{l.sentences + o.sentences, l.files + o.files}
+}
+
+// err is the exit status 1 that reports the loss at the end of a run that
+// used the rest ("… left out of training"), nil when nothing was lost.
+func (l conlluLoss) err(where string) error {
+	var parts []string
+	if l.sentences > 0 {
+		parts = append(parts, fmt.Sprintf("%d malformed or untagged sentence(s)", l.sentences))
+	}
+	if l.files > 0 {
+		parts = append(parts, fmt.Sprintf("%d unreadable file(s)", l.files))
+	}
+	if len(parts) == 0 {
+		return nil
+	}
+	return exitError{1, strings.Join(parts, " and ") + " left out" + where}
+}
+
+// pathErrorText is an open or read error without the path the message
+// already names ("no such file or directory").
+func pathErrorText(err error) string {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
 }
 
 func baseNames(paths []string) []string {
