@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"glossmith/extract/measure"
 	"glossmith/internal/tabular"
 )
 
@@ -85,18 +86,49 @@ func WriteOptions(w io.Writer, format string, rows []Row, sortedBy string, bom b
 	return bw.Flush()
 }
 
+// textMeasures are the measures the text table always shows, with the
+// decimals each is printed with; the measure the rows are sorted by comes
+// first, so that a list sorted by dice or chi2 shows why it is in that
+// order.
+var textMeasures = []string{"g2", "logdice", "pmi", "t"}
+
+// textDecimals are the decimals of a measure in the text table: one for
+// the large test statistics, three for Dice's coefficient (0 to 1), two
+// for the others.
+var textDecimals = map[string]int{"g2": 1, "g2signed": 1, "chi2": 1, "dice": 3}
+
 // writeText prints an aligned table: the pair, its relation, the counts
-// and the main measures.
+// and the main measures, the one the rows are sorted by first.
 func writeText(w *bufio.Writer, rows []Row, sortedBy string) {
-	tab := [][]string{{"pair", "relation", "f12", "f1", "f2", "g2", "logdice", "pmi", "t"}}
-	for _, r := range rows {
-		s := r.Scores
-		tab = append(tab, []string{r.W1 + " " + r.W2, r.Relation,
-			strconv.FormatInt(r.F12, 10), strconv.FormatInt(r.F1, 10), strconv.FormatInt(r.F2, 10),
-			strconv.FormatFloat(s.G2, 'f', 1, 64), strconv.FormatFloat(s.LogDice, 'f', 2, 64),
-			strconv.FormatFloat(s.PMI, 'f', 2, 64), strconv.FormatFloat(s.T, 'f', 2, 64)})
+	shown := []measure.Measure{}
+	if m, err := measure.Lookup(sortedBy); err == nil {
+		shown = append(shown, m)
 	}
-	for _, line := range tabular.Align(tab, []bool{false, false, true, true, true, true, true, true, true}) {
+	for _, name := range textMeasures {
+		if name != sortedBy {
+			m, _ := measure.Lookup(name)
+			shown = append(shown, m)
+		}
+	}
+	head := []string{"pair", "relation", "f12", "f1", "f2"}
+	right := []bool{false, false, true, true, true}
+	for _, m := range shown {
+		head, right = append(head, m.Name), append(right, true)
+	}
+	tab := [][]string{head}
+	for _, r := range rows {
+		row := []string{r.W1 + " " + r.W2, r.Relation,
+			strconv.FormatInt(r.F12, 10), strconv.FormatInt(r.F1, 10), strconv.FormatInt(r.F2, 10)}
+		for _, m := range shown {
+			d, ok := textDecimals[m.Name]
+			if !ok {
+				d = 2
+			}
+			row = append(row, strconv.FormatFloat(m.Field(r.Scores), 'f', d, 64))
+		}
+		tab = append(tab, row)
+	}
+	for _, line := range tabular.Align(tab, right) {
 		w.WriteString(line + "\n")
 	}
 	if len(rows) > 0 {
