@@ -90,8 +90,14 @@ func TestVersionAndHelp(t *testing.T) {
 	require.Equal(t, 0, r.code, r.stderr)
 	assert.True(t, strings.HasPrefix(r.stdout, "glossmith "), "--version: %q", r.stdout)
 	r = run(t, "", "--help")
-	for _, c := range []string{"terms", "collocations", "find", "tag", "rules", "eval", "train"} {
+	for _, c := range []string{"terms", "collocations", "find", "tag", "rules", "eval", "train", "termbase", "review", "check"} {
 		assert.Contains(t, r.stdout, c, "--help does not list %q", c)
+	}
+	// The description names every input and output format of the README's
+	// tables and both exit statuses.
+	desc := strings.Join(strings.Fields(r.stdout[:strings.Index(r.stdout, "Usage:")]), " ")
+	for _, w := range []string{"Markdown", "DOCX", "PDF", "CoNLL-U", "gzipped", "TSV", "CSV", "JSON Lines", "TBX", "HTML report", "termbase", "exit status is 1", "2 on a usage error"} {
+		assert.Contains(t, desc, w, "the description of --help")
 	}
 }
 

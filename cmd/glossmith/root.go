@@ -27,15 +27,19 @@ func newRootCmd() *cobra.Command {
 	root := &cobra.Command{
 		Use:   "glossmith",
 		Short: "Build glossary drafts from technical documents",
-		Long: `glossmith reads technical documents (text, Markdown, HTML, DOCX, PDF, CoNLL-U),
-tags them with an embedded part-of-speech model, matches phrase rules written in
-its own pattern language, ranks term candidates and collocations with published
-statistics, and writes glossary drafts as text, TSV, CSV, JSON Lines or TBX.
+		Long: `glossmith reads technical documents (text, Markdown, HTML, DOCX, PDF, CoNLL-U,
+any of them gzipped), tags them with an embedded part-of-speech model, matches
+phrase rules written in its own pattern language, ranks term candidates and
+collocations with published statistics, and writes glossary drafts as text,
+TSV, CSV, JSON Lines, TBX or an HTML report. A termbase keeps the glossary's
+decisions between runs; review shows the candidates in the browser, check
+finds deprecated terms and other spellings in documents.
 
 Inputs are files, directories (read recursively), glob patterns, or - for
 standard input. Problems with single inputs are reported on standard error
 with the file name and line; the other inputs are still processed, and the
-exit status is 1 when anything was skipped.`,
+exit status is 1 when anything was skipped, 2 on a usage error (a bad flag
+value, checked before any input is read).`,
 		Version:       versionString(),
 		SilenceUsage:  true,
 		SilenceErrors: true,
