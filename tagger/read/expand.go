@@ -166,7 +166,7 @@ func (e *expander) walk(dir string) {
 			total += n
 		}
 		sort.Strings(exts)
-		e.problem(Note, dir, "skipped %d files of types glossmith does not read (%s); --from FORMAT reads every file as that format", total, strings.Join(exts, ", "))
+		e.problem(Note, dir, "skipped %d file(s) of types glossmith does not read (%s); --from FORMAT reads every file as that format", total, strings.Join(exts, ", "))
 	}
 	if found == 0 {
 		e.problem(Error, dir, "no files to read in this directory (formats read: %s)", strings.Join(Formats(), ", "))

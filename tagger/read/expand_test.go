@@ -73,7 +73,7 @@ func TestExpandDirectory(t *testing.T) {
 		"note: .git: skipped hidden directory",
 		"note: .hidden.txt: skipped hidden file",
 		"note: " + filepath.Join("sub", ".cache") + ": skipped hidden directory",
-		"note: .: skipped 4 files of types glossmith does not read (.json: 1, .png: 2, no extension: 1); --from FORMAT reads every file as that format",
+		"note: .: skipped 4 file(s) of types glossmith does not read (.json: 1, .png: 2, no extension: 1); --from FORMAT reads every file as that format",
 	}, msgs(ps))
 
 	// With --from, every (non-hidden) file is taken.
@@ -108,7 +108,7 @@ func TestExpandArguments(t *testing.T) {
 		"error: docs/[: bad file pattern: syntax error in pattern",
 		"error: missing.txt: cannot open: no such file or directory",
 		"error: void: no files to read in this directory (formats read: txt, md, html, docx, pdf, conllu)",
-		"note: empty: skipped 1 files of types glossmith does not read (.png: 1); --from FORMAT reads every file as that format",
+		"note: empty: skipped 1 file(s) of types glossmith does not read (.png: 1); --from FORMAT reads every file as that format",
 		"error: empty: no files to read in this directory (formats read: txt, md, html, docx, pdf, conllu)",
 	}, msgs(ps))
 }
