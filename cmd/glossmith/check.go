@@ -41,7 +41,10 @@ spellings ("setpoint" for "set point"), the case of a term whose case matters
 "magnet valve"). Also terms with one word misspelt ("solenoid vavle",
 "thermistr"): a lower-case word of five letters or more, one letter left out,
 added or wrong, or two swapped (never the first), that is no English word the
-tagger knows ("value" is not taken for "valve") and no word of the termbase.
+tagger knows ("value" is not taken for "valve") and no word of the termbase;
+a capitalized word too where the capital is the writing's (a sentence's first
+word, a heading's words, a heading or line in capitals), unless the running
+text writes it capitalized as a name or acronym.
 With --variants, also every variant group (grouped as the terms command
 groups them) spelled more than one way, with its counts in each document and
 in all, and the majority spelling to use.

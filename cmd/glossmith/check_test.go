@@ -187,7 +187,7 @@ func TestCheckMisspeltTerms(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "check.sarif")
 	r := run(t, "", "check", "--termbase", tb, "--to", "sarif", "-o", out, "--fail-on", "warning", input)
 	require.Equal(t, 1, r.code, r.stderr)
-	assert.Contains(t, r.stderr, "11 finding(s) in 1 document(s): 1 error(s), 10 warning(s)")
+	assert.Contains(t, r.stderr, "15 finding(s) in 1 document(s): 1 error(s), 14 warning(s)")
 	data, err := os.ReadFile(out)
 	require.NoError(t, err)
 	inst, err := jsonschema.UnmarshalJSON(bytes.NewReader(data))
@@ -248,14 +248,18 @@ func TestCheckMisspeltTerms(t *testing.T) {
 		{9, 9, 26, `"dry running gaurd" looks like a misspelling of the forbidden term "dry running guard": use "dry-run protection"`},
 		{9, 32, 45, `"pump invertre" looks like a misspelling of the term "pump inverter"`},
 		{9, 50, 67, `"dry-run protecton" looks like a misspelling of the term "dry-run protection"`},
+		{27, 18, 32, `"Solenoid Vavle" looks like a misspelling of the term "solenoid valve"`},
+		{29, 1, 10, `"Thermistr" looks like a misspelling of the term "thermistor"`},
+		{30, 1, 14, `"Magnte valves" looks like a misspelling of the deprecated term "magnet valve": use "solenoid valve"`},
+		{32, 4, 17, `"PUMP INVERTRE" looks like a misspelling of the term "pump inverter"`},
 	}, got)
 
 	r = run(t, "", "check", "--termbase", tb, "--to", "jsonl", "--fail-on", "warning", input)
 	require.Equal(t, 1, r.code, r.stderr)
-	assert.Equal(t, 10, strings.Count(r.stdout, `"kind":"misspelt","level":"warning"`))
+	assert.Equal(t, 14, strings.Count(r.stdout, `"kind":"misspelt","level":"warning"`))
 	r = run(t, "", "check", "--termbase", tb, "--baseline", out, "--fail-on", "warning", input)
 	assert.Equal(t, 0, r.code, r.stderr)
-	assert.Contains(t, r.stderr, "11 already in the baseline")
+	assert.Contains(t, r.stderr, "15 already in the baseline")
 
 	// A misspelt term is a warning: below the default --fail-on error.
 	text := "Fit the solenoid vavle first.\n"

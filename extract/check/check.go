@@ -58,6 +58,7 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 		var spans []span
 		var miss []misspelt
 		var fixed []doc.Token
+		dc := docCapitals{sents: d.Sentences, sentence: -1}
 		add := func(f *Finding) {
 			f.File = d.Name
 			l.span(f)
@@ -76,7 +77,7 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 				}
 			}
 			if ms := opt.Misspellings; ms != nil && ms.m == opt.Glossary {
-				miss = ms.find(miss[:0], sc, toks, spans, &fixed)
+				miss = ms.find(miss[:0], sc, &dc, si, spans, &fixed)
 				for _, sp := range miss {
 					if f := opt.Glossary.classifyMisspelt(d, toks, sp); f != nil {
 						add(f)

@@ -103,7 +103,16 @@ func nthPosition(t *testing.T, src, text string, n int) (line, col, end int) {
 // a term's word ("solenoid value"), a word too short ("flow metr"), a
 // capitalized name ("Borehale"), a deprecated term one edit from the
 // preferred one ("thermister"), and misspellings in code and on a silenced
-// line. Every planted finding must come at its exact line and column.
+// line. Capitalized misspellings are planted where the capital is the
+// writing's — a sentence's start, a heading in title case and one in
+// capitals (maintenance-log.md), an HTML heading (repair-sheet.html) and a
+// line in capitals that the sentence splitter runs into the next sentence
+// (fault-list.txt) — beside capitals that are the word's: the name
+// "Borehale" at a sentence's start and in a heading, an acronym "FLAOT" in
+// running text and in a heading in capitals, title case inside a sentence
+// ("the Pump Invertre filter"), and a real word one edit from a term's in
+// a heading ("Check Value"). Every planted finding must come at its exact
+// line and column.
 func TestPlantedCorpus(t *testing.T) {
 	m := Compile(loadGlossary(t, filepath.Join(pumpsDir, "glossary.tsv")))
 	type key struct {
@@ -115,7 +124,7 @@ func TestPlantedCorpus(t *testing.T) {
 	rep := NewReport(m)
 	texts := map[string]string{}
 	misspelt := NewMisspellings(m, tagger)
-	for _, name := range []string{"installation-guide.md", "field-notes.txt", "service-bulletin.html", "commissioning-report.docx", "maintenance-log.md"} {
+	for _, name := range []string{"installation-guide.md", "field-notes.txt", "service-bulletin.html", "commissioning-report.docx", "maintenance-log.md", "fault-list.txt", "repair-sheet.html"} {
 		path := filepath.Join(pumpsDir, name)
 		d, probs := pipeline.Annotate(read.Input{Name: name, Path: path}, read.Options{}, tagger)
 		for _, p := range probs {

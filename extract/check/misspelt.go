@@ -1,6 +1,7 @@
 package check
 
 import (
+	"bytes"
 	"fmt"
 	"strings"
 	"sync"
@@ -24,13 +25,17 @@ const minMisspeltLen = 5
 
 // Misspellings finds uses of a glossary's terms with one word misspelt:
 // "solenoid vavle", "set piont", "thermistr". A word is taken for a
-// misspelling of a term's word when it is written in lower case (a
-// capitalized word is mostly a name), has at least five letters, is one
+// misspelling of a term's word when it has at least five letters, is one
 // edit from the term's word (spelling.OneEdit: a letter left out, one too
 // many, one wrong, two neighbours swapped, never the first letter) — with
 // a final -s, -es or -ies (for -y) set aside, "vavles" for "valves" — and
 // is neither a word the lexicon knows ("value" is not "valve") nor a word
-// of the glossary. The tagger's lemma of the word is tried too.
+// of the glossary. The tagger's lemma of the word is tried too. A word is
+// read so in lower case, or with capitals the writing gave it and not the
+// word — a sentence's first word, a heading's, a heading or line in
+// capitals — in lower case then, unless the document's running text
+// writes it with capitals of its own (a name, an acronym; see
+// docCapitals). Elsewhere a capitalized word is mostly a name.
 //
 // Only such words cost more than a glance: a word passes a filter on its
 // first letter and length, then a memo shared by the run holds what it
@@ -173,6 +178,20 @@ func (ms *Misspellings) read(w string) reading {
 	return reading{}
 }
 
+// pluralOfWord reports whether w is a glossary word with a plural ending
+// ("travers" of a term "traver"): a form of that word, not a misspelling.
+// In lower case the tagger's lemma tells so, and the plain scan finds the
+// term; a capital at a sentence's start or in a heading may keep the
+// tagger from giving the word's lemma ("Travers", taken for a name).
+func (ms *Misspellings) pluralOfWord(w []byte) bool {
+	for _, p := range plurals {
+		if stem, ok := bytes.CutSuffix(w, []byte(p.end)); ok && ms.dict.Contains(string(stem)+p.base) {
+			return true
+		}
+	}
+	return false
+}
+
 // correct returns the glossary word one edit from w, or "". (Correct also
 // squeezes repeated letters, "vallvve": one edit only.)
 func correct(c *spelling.Corrector, w string) string {
@@ -203,19 +222,57 @@ type misspelt struct {
 	fix string
 }
 
-// find appends to out the spans of toks that are a glossary form with one
-// misspelt word, given the spans the plain scan found (which keep their
-// words: a misspelt word is none inside them, and a misspelt span may
-// hold them but not cut them). sc is the caller's scanner; fixed is
-// scratch space for the sentence with one word read as meant.
-func (ms *Misspellings) find(out []misspelt, sc *scanner, toks []doc.Token, found []span, fixed *[]doc.Token) []misspelt {
+// fixCapitalized returns the glossary word the capitalized word k of
+// sentence si is a misspelling of, or "": read in lower case, and only
+// where its capitals are the writing's, not the word's (docCapitals).
+func (ms *Misspellings) fixCapitalized(dc *docCapitals, si, k int) string {
+	f := dc.sents[si].Tokens[k].Form
+	if ms.shape[f[0]-'A']&(1<<min(len(f), 63)) == 0 || !dc.lowered(si, k) {
+		return ""
+	}
+	r := ms.readingOf(dc.buf)
+	if r.fix == "" || ms.pluralOfWord(dc.buf) || dc.ownCapitals(dc.buf, ms.mayBeMisspelt) {
+		return ""
+	}
+	return r.fix
+}
+
+// mayBeMisspelt is candidate for a word in a buffer.
+func (ms *Misspellings) mayBeMisspelt(w []byte) bool { return ms.candidate(string(w)) }
+
+// readingOf is reading for a word in a scratch buffer, copied only when
+// the memo lacks it.
+func (ms *Misspellings) readingOf(w []byte) reading {
+	ms.mu.RLock()
+	r, ok := ms.memo[string(w)]
+	ms.mu.RUnlock()
+	if ok {
+		return r
+	}
+	return ms.reading(string(w))
+}
+
+// find appends to out the spans of sentence si of dc that are a glossary
+// form with one misspelt word, given the spans the plain scan found (which
+// keep their words: a misspelt word is none inside them, and a misspelt
+// span may hold them but not cut them). sc is the caller's scanner; fixed
+// is scratch space for the sentence with one word read as meant.
+func (ms *Misspellings) find(out []misspelt, sc *scanner, dc *docCapitals, si int, found []span, fixed *[]doc.Token) []misspelt {
+	toks := dc.sents[si].Tokens
 	var buf []span
 	copied := false
 	for k := range toks {
-		if f := toks[k].Form; len(f) < minMisspeltLen || f[0] < 'a' || f[0] > 'z' {
+		var fix string
+		switch f := toks[k].Form; {
+		case len(f) < minMisspeltLen:
 			continue // most words, at a glance
+		case 'a' <= f[0] && f[0] <= 'z':
+			fix = ms.fix(&toks[k])
+		case 'A' <= f[0] && f[0] <= 'Z':
+			fix = ms.fixCapitalized(dc, si, k)
+		default:
+			continue
 		}
-		fix := ms.fix(&toks[k])
 		if fix == "" || inSpans(found, k) {
 			continue
 		}

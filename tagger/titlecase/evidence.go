@@ -403,3 +403,82 @@ func (e *Evidence) seen(w []byte) uint8 {
 	}
 	return e.words[string(w)]
 }
+
+// CapitalOfWriting reports whether the capital of the word toks[k] may be
+// the writing's rather than the word's: the word is its sentence's first,
+// or follows a token after which writers capitalize any word (a colon, a
+// quote, a bracket, a list item's "3.": see mayStartName). Elsewhere in
+// running text a capital marks a name.
+func CapitalOfWriting(toks []doc.Token, k int) bool {
+	return k == 0 || !mayStartName(toks[k-1].Form)
+}
+
+// OwnCapitals returns the words that the running text of sents (the
+// sentences not marked as headings) writes with capitals of their own,
+// lower-cased: a word in capitals in a sentence that has lower case too
+// (an acronym, as Evidence's seenCaps) but on a line of capitals
+// (CapsLine), and a capitalized word where a
+// name may start (not CapitalOfWriting) in a sentence with a word in lower
+// case after its first (a name: "the Vavleco pumps"). The capitals of a
+// sentence's first word, of a heading or of a line of title case say
+// nothing of the word and are not counted. keep, given a word's lower
+// case, tells which words to record, so that the set stays small.
+func OwnCapitals(sents []doc.Sentence, keep func(lower []byte) bool) map[string]struct{} {
+	own := map[string]struct{}{}
+	var r runningText
+	for i := range sents {
+		if sents[i].Heading {
+			continue
+		}
+		toks := sents[i].Tokens
+		r.known = false
+		line, capsLine := int32(-1), false // the line capsLine speaks of
+		for k := range toks {
+			form := toks[k].Form
+			if upper, _ := caseOf(form); !upper {
+				continue
+			}
+			if isCaps(form) {
+				if !r.sentenceCase(toks).lowerText {
+					continue // a sentence in capitals
+				}
+				if toks[k].Line != line {
+					line, capsLine = toks[k].Line, CapsLine(toks, k)
+				}
+				if capsLine {
+					continue // a line in capitals, run into the next sentence
+				}
+			} else if CapitalOfWriting(toks, k) || !r.sentenceCase(toks).names {
+				continue
+			}
+			if r.buf = appendLower(r.buf[:0], form); keep(r.buf) {
+				own[string(r.buf)] = struct{}{}
+			}
+		}
+	}
+	return own
+}
+
+// CapsLine reports whether the word toks[k] stands on a line of capitals:
+// the tokens of toks on its line (LineOf) have two words or more and no
+// letter in lower case ("SOLENOID VAVLE REPLACED ON TANK 2", which a
+// sentence splitter may run into the sentence below). There capitals are
+// the writing's, as in a heading in capitals; among lower-case words a
+// word in capitals may be an acronym, and a line of one word too.
+func CapsLine(toks []doc.Token, k int) bool {
+	from, to := LineOf(toks, k)
+	return words(toks[from:to]) >= 2 && AllCaps(toks[from:to])
+}
+
+// LineOf returns the tokens of toks on the line of toks[k] (doc.Token.Line)
+// as toks[from:to].
+func LineOf(toks []doc.Token, k int) (from, to int) {
+	from, to = k, k+1
+	for from > 0 && toks[from-1].Line == toks[k].Line {
+		from--
+	}
+	for to < len(toks) && toks[to].Line == toks[k].Line {
+		to++
+	}
+	return from, to
+}

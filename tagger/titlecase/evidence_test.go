@@ -1,7 +1,9 @@
 package titlecase
 
 import (
+	"maps"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -166,4 +168,82 @@ func BenchmarkGather(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(tokens), "ns/token")
+}
+
+// A capital is the writing's at a sentence's start and after the tokens
+// writers capitalize any word after (colon, quote, bracket, a list item's
+// number); after a word or a comma it is the word's own.
+func TestCapitalOfWriting(t *testing.T) {
+	tests := []struct {
+		text string
+		word string // the capitalized word asked about
+		want bool
+	}{
+		{"Vavle seats wear fast.", "Vavle", true},
+		{"Note: Vavle seats wear fast.", "Vavle", true},
+		{`He wrote "Vavle seats wear fast."`, "Vavle", true},
+		{"Spare parts (Vavle seats) are in stock.", "Vavle", true},
+		{"Order the Vavle seats now.", "Vavle", false},
+		{"Seats, Vavle and others are in stock.", "Vavle", false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.text, func(t *testing.T) {
+			d := document(t, tc.text)
+			require.Len(t, d.Sentences, 1)
+			toks := d.Sentences[0].Tokens
+			k := slices.IndexFunc(toks, func(tok doc.Token) bool { return tok.Form == tc.word })
+			require.GreaterOrEqual(t, k, 0)
+			assert.Equal(t, tc.want, CapitalOfWriting(toks, k))
+		})
+	}
+}
+
+// OwnCapitals keeps the words running text writes with capitals of their
+// own — names where a name may start, acronyms among lower-case words —
+// and none that a sentence's start, a heading or a line of title case or
+// capitals gave their capitals.
+func TestOwnCapitals(t *testing.T) {
+	tests := []struct {
+		name, text string
+		drop       string // a word keep turns down
+		want       []string
+	}{
+		{"a name inside a sentence", "The crew of Borehale Drilling came at noon.", "", []string{"borehale", "drilling"}},
+		{"a sentence's first word", "Borehale crews came at noon.", "", nil},
+		{"after a colon", "Crew: Borehale came at noon.", "", nil},
+		{"an acronym, even first", "FLAOT inputs are wired to the FLAOT board.", "", []string{"flaot"}},
+		{"a heading", "# Replacing the Solenoid Vavle\n\nThe seat is worn.", "", nil},
+		{"a line of title case", "Replacing The Solenoid Vavle", "", nil},
+		{"a line in capitals", "SOLENOID VAVLE REPLACED", "", nil},
+		{"left out by keep", "The crew of Borehale Drilling came at noon.", "drilling", []string{"borehale"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			keep := func(w []byte) bool { return string(w) != tc.drop }
+			got := OwnCapitals(document(t, tc.text).Sentences, keep)
+			assert.ElementsMatch(t, tc.want, slices.Collect(maps.Keys(got)))
+		})
+	}
+}
+
+// A line of capitals has two words or more and no lower-case letter; it
+// is read line by line, as a sentence splitter may run it into the next.
+func TestCapsLine(t *testing.T) {
+	tests := []struct {
+		text string
+		want bool // for the sentence's first token
+	}{
+		{"SOLENOID VAVLE REPLACED ON TANK 2", true},
+		{"SOLENOID VAVLE REPLACED ON TANK 2\nThe seat was worn.", true},
+		{"THERMISTR\nThe seat was worn.", false},
+		{"THERMISTR leads were loose.", false},
+		{"Solenoid Vavle Replaced", false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.text, func(t *testing.T) {
+			d := document(t, tc.text)
+			require.NotEmpty(t, d.Sentences)
+			assert.Equal(t, tc.want, CapsLine(d.Sentences[0].Tokens, 0))
+		})
+	}
 }

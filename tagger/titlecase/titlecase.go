@@ -54,7 +54,7 @@ func (v Viewer) View(dst, toks []doc.Token) []doc.Token {
 	if v.Freq == nil && v.WordNet == nil {
 		return toks
 	}
-	caps := allCaps(toks)
+	caps := AllCaps(toks)
 	alone := words(toks) == 1
 	names, buf := v.Doc.nameTokens(toks, nil)
 	out, copied := toks, false
@@ -177,9 +177,10 @@ func titled(b []byte) []byte {
 	return append(utf8.AppendRune(nil, u), b[size:]...)
 }
 
-// allCaps reports a heading written in capitals: it has letters, at
-// least two, and none of them in lower case.
-func allCaps(toks []doc.Token) bool {
+// AllCaps reports a heading (or any line of tokens) written in capitals:
+// it has letters, at least two, and none of them in lower case. There a
+// word's capitals are the writing's, not the word's.
+func AllCaps(toks []doc.Token) bool {
 	letters := 0
 	for i := range toks {
 		n, ok := capitals(toks[i].Form)
