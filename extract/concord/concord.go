@@ -277,14 +277,17 @@ func (c *Counter) Sorted() []Entry {
 func (c *Counter) Total() int { return c.total }
 
 // Key returns the string counted for tokens [a, b): the words, or the
-// lemmas, joined by spaces and lower-cased except where case carries
-// meaning (acronyms, units, mixed-case words: wordshape.KeepsCase), as in
-// "3 MW", "kPa". A lemma keeps the case of such a form ("HAWTs" → "HAWT").
-// Sorted folds the spellings of one lower-cased string.
+// lemmas, joined by a space where the text has white space between them
+// and run together where it has none ("GC-48", "don't", as the
+// concordance shows them, not "GC - 48"), and lower-cased except where
+// case carries meaning (acronyms, units, mixed-case words:
+// wordshape.KeepsCase), as in "3 MW", "kPa". A lemma keeps the case of
+// such a form ("HAWTs" → "HAWT"). Sorted folds the spellings of one
+// lower-cased string.
 func Key(toks []doc.Token, a, b int, lemma bool) string {
 	var sb strings.Builder
 	for i := a; i < b; i++ {
-		if i > a {
+		if i > a && toks[i-1].SpaceAfter {
 			sb.WriteByte(' ')
 		}
 		f := toks[i].Form

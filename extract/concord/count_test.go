@@ -1,11 +1,14 @@
 package concord
 
 import (
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 
 	"glossmith/tagger/doc"
+	"glossmith/tagger/tokenize"
 )
 
 // Keys keep the case of acronyms and units, also as lemmas, and fold
@@ -15,8 +18,43 @@ func TestKeyKeepsMeaningfulCase(t *testing.T) {
 		{Form: "Two", Lemma: "two"}, {Form: "HAWTs", Lemma: "hawt"}, {Form: "give", Lemma: "give"},
 		{Form: "3", Lemma: "3"}, {Form: "MW", Lemma: "mw"}, {Form: "at", Lemma: "at"}, {Form: "200", Lemma: "200"}, {Form: "kPa", Lemma: "kpa"},
 	}
+	for i := range toks {
+		toks[i].SpaceAfter = true
+	}
 	assert.Equal(t, "two HAWTs give 3 MW at 200 kPa", Key(toks, 0, len(toks), false))
 	assert.Equal(t, "two HAWT give 3 MW at 200 kPa", Key(toks, 0, len(toks), true))
+}
+
+// Keys are joined as the text is: a space where white space follows a
+// token, none where the tokenizer split a word (UD English splits
+// hyphenated compounds and clitics: "GC-48" is GC, -, 48).
+func TestKeyJoinsAsTheTextIs(t *testing.T) {
+	for _, c := range []struct {
+		text, key, lemmaKey string
+	}{
+		{"Connect the GC-48 now", "connect the GC-48 now", "connect the GC-48 now"},
+		{"It doesn't close.", "it doesn't close.", "it doesn't close."},
+		{"two set-points", "two set-points", "two set-point"},
+		{"a  flow   rate", "a flow rate", "a flow rate"},
+	} {
+		t.Run(c.text, func(t *testing.T) {
+			d := &doc.Document{Name: "t", Text: c.text}
+			tokenize.Document(d)
+			var toks []doc.Token
+			for _, s := range d.Sentences {
+				toks = append(toks, s.Tokens...)
+			}
+			require.NotEmpty(t, toks)
+			assert.Equal(t, c.key, Key(toks, 0, len(toks), false))
+			for i := range toks {
+				toks[i].Lemma = strings.ToLower(toks[i].Form)
+				if toks[i].Lemma == "points" {
+					toks[i].Lemma = "point"
+				}
+			}
+			assert.Equal(t, c.lemmaKey, Key(toks, 0, len(toks), true))
+		})
+	}
 }
 
 // Spellings of one string in different case are one line, lower case
