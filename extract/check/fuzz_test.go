@@ -21,6 +21,8 @@ func FuzzCheck(f *testing.F) {
 	f.Add("See [magnet valve](x) and &#x41; \\*setpoint\\* ``a ` b``\r\n", "md")
 	f.Add("glossmith:skip-next-line\n\nset-point /etc/set point.conf set–point\n", "txt")
 	f.Add("The solenoid vavle, the set-piont and both solenoid vavles; `magnet vavle`.\n", "md")
+	f.Add("# Replacing the Solenoid Vavle\n\nMagnte valves. SOLENOID VAVLE\nThe Magnte crew; the MAGNTE board.\n", "md")
+	f.Add("<h2>SOLENOID <b>VAVLE</b></h2><p>Set-Piont: Magnte valve</p>", "html")
 	m := Compile(Glossary{Entries: []Entry{
 		{ID: "1", Forms: []Form{{Text: "set point"}, {Text: "setpoint", Status: Deprecated}}},
 		{ID: "2", Forms: []Form{{Text: "solenoid valve"}, {Text: "magnet valve", Status: Forbidden}}},
