@@ -202,7 +202,13 @@ func checkHeader(path string, size int64) error {
 	if _, err := io.ReadFull(f, h[:]); err != nil || !bytes.Equal(h[:16], []byte("SQLite format 3\x00")) {
 		return fmt.Errorf("termbase %s: not a glossmith termbase (not an SQLite database)", path)
 	}
-	if id := binary.BigEndian.Uint32(h[68:72]); id != applicationID {
+	// While a process that created the termbase still has it open (review
+	// on a new file), the file's header may be the empty first page and
+	// everything else, the application id too, in the write-ahead log;
+	// prepare then looks for the glossmith mark through SQLite.
+	_, walErr := os.Stat(path + "-wal")
+	inLog := walErr == nil
+	if id := binary.BigEndian.Uint32(h[68:72]); id != applicationID && !(id == 0 && inLog) {
 		return fmt.Errorf("termbase %s: an SQLite database, but not a glossmith termbase", path)
 	}
 	pageSize := int64(binary.BigEndian.Uint16(h[16:18]))
@@ -210,7 +216,7 @@ func checkHeader(path string, size int64) error {
 		pageSize = 65536
 	}
 	pages := int64(binary.BigEndian.Uint32(h[28:32]))
-	if _, err := os.Stat(path + "-wal"); err == nil {
+	if inLog {
 		return nil // the header's page count may lag behind the write-ahead log
 	}
 	if pageSize < 512 || size%pageSize != 0 || size < pages*pageSize {

@@ -305,6 +305,49 @@ func TestConcurrentWriters(t *testing.T) {
 	assert.Len(t, es, 100)
 }
 
+// A new termbase that its creator still holds open — its header and
+// tables still in the write-ahead log (SQLite's WAL mode, sqlite.org/wal.html)
+// — opens in a second process, as review and terms --termbase run side by
+// side; another program's database in the same state is still refused.
+func TestOpenWhileTheCreatorHoldsIt(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "new.gtb")
+	first, err := Open(path)
+	require.NoError(t, err)
+	defer first.Close()
+	_, err = first.Accept("drip emitter")
+	require.NoError(t, err)
+	_, err = os.Stat(path + "-wal")
+	require.NoError(t, err, "the creator's changes are in the write-ahead log")
+
+	second, err := Open(path)
+	require.NoError(t, err, "a second store on a termbase its creator holds open")
+	defer second.Close()
+	es, err := second.Entries()
+	require.NoError(t, err)
+	require.Len(t, es, 1)
+	assert.Equal(t, "drip emitter", es[0].Terms[0].Text)
+
+	other := filepath.Join(dir, "other.sqlite")
+	db, err := sql.Open("sqlite", other)
+	require.NoError(t, err)
+	defer db.Close()
+	db.SetMaxOpenConns(1)
+	_, err = db.Exec("PRAGMA journal_mode=WAL")
+	require.NoError(t, err)
+	_, err = db.Exec("CREATE TABLE t(x); INSERT INTO t VALUES (1)")
+	require.NoError(t, err)
+	_, err = os.Stat(other + "-wal")
+	require.NoError(t, err, "the other program's database is in the write-ahead log too")
+	_, err = Open(other)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), other)
+	assert.Contains(t, err.Error(), "not a glossmith termbase")
+	var n int
+	require.NoError(t, db.QueryRow("SELECT count(*) FROM t").Scan(&n))
+	assert.Equal(t, 1, n, "the other program's data is left as it was")
+}
+
 func TestIndexLabels(t *testing.T) {
 	s := openTemp(t)
 	_, err := s.Accept("set point")
