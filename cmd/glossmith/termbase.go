@@ -677,7 +677,7 @@ for p < 0.0001: with thousands of terms compared at once, the usual 3.84 would
 flag dozens by chance).`, termbase.DefaultDiffThreshold),
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.validate(cmd); err != nil {
+			if err := o.validate(cmd, args); err != nil {
 				return err
 			}
 			return o.run(args[0], args[1])
@@ -691,9 +691,14 @@ flag dozens by chance).`, termbase.DefaultDiffThreshold),
 	return cmd
 }
 
-func (o *termbaseDiffOptions) validate(cmd *cobra.Command) error {
+func (o *termbaseDiffOptions) validate(cmd *cobra.Command, labels []string) error {
 	if err := o.tf.validate(); err != nil {
 		return err
+	}
+	if labels[0] == labels[1] {
+		// A run against itself changes nothing, and the TSV would name
+		// two columns alike (freq_v1, freq_v1).
+		return usageError("diff %s %s: name two different runs (termbase runs lists them)", labels[0], labels[1])
 	}
 	if !(o.threshold >= 0) {
 		return usageError("--threshold %g: want a number of at least 0", o.threshold)

@@ -75,6 +75,12 @@ func TestTermbaseWorkflow(t *testing.T) {
 	assert.Equal(t, 1, r.code, "a label is recorded once")
 	assert.Contains(t, r.stderr, "v2")
 
+	// A run against itself is a usage error, before the termbase is read.
+	r = run(t, "", "termbase", "--termbase", tb, "diff", "v2", "v2", "--to", "tsv")
+	assert.Equal(t, 2, r.code, r.stderr)
+	assert.Contains(t, r.stderr, "name two different runs")
+	assert.Empty(t, r.stdout)
+
 	r = run(t, "", "termbase", "--termbase", tb, "diff", "v1", "v2", "--to", "jsonl")
 	require.Equal(t, 0, r.code, r.stderr)
 	kinds := map[string]int{}
