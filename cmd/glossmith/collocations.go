@@ -76,7 +76,7 @@ func (o *collocationsOptions) register(cmd *cobra.Command) {
 	fl.StringVar(&o.node, "node", "", "only pairs whose @node is this word (window pairs: either word)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(colloc.Formats, ", ")+" (default: from the -o extension, else text)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
-	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
+	fl.BoolVar(&o.bom, "bom", false, bomUsage)
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many pairs (0: no limit)")
 	completeChoices(cmd, "to", colloc.Formats)
 	completeChoices(cmd, "by", byKeys)

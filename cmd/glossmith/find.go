@@ -29,6 +29,7 @@ type findOptions struct {
 	nested bool
 	limit  int
 	color  string
+	bom    bool
 	// outPath is the -o file; "" or "-" for standard output.
 	outPath string
 }
@@ -80,6 +81,7 @@ func (o *findOptions) register(cmd *cobra.Command) {
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many lines and stop reading (0: no limit)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.StringVar(&o.color, "color", "auto", "highlight matches: auto (on a terminal, unless NO_COLOR is set or TERM=dumb), always, never")
+	fl.BoolVar(&o.bom, "bom", false, bomUsage)
 	completeRuleFiles(cmd)
 	completeChoices(cmd, "to", findFormats)
 	completeChoices(cmd, "by", countKeys)
@@ -185,7 +187,7 @@ func (o *findOptions) run(args []string) error {
 	if o.count {
 		return o.runCount(out, find, args, model)
 	}
-	hw, err := concord.NewHitWriter(out, o.to, concord.Style{Width: o.width, Highlight: useColor(o.color, out.toTerminal())})
+	hw, err := concord.NewHitWriter(out, o.to, concord.Style{Width: o.width, Highlight: useColor(o.color, out.toTerminal()), BOM: o.bom})
 	if err != nil {
 		return err
 	}
@@ -266,5 +268,5 @@ func (o *findOptions) runCount(out *output, find func([]doc.Token) []pattern.Mat
 	if o.limit > 0 && len(list) > o.limit {
 		list = list[:o.limit]
 	}
-	return o.finish(out, st, concord.WriteCounts(out, o.to, list), runErr)
+	return o.finish(out, st, concord.WriteCounts(out, o.to, list, o.bom), runErr)
 }

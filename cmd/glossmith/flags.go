@@ -42,6 +42,9 @@ func validateThenWrite(validate func([]string) error, run func(io.Writer, []stri
 	}
 }
 
+// bomUsage is the help of --bom, on every command that writes CSV.
+const bomUsage = "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one"
+
 // checkChoice refuses a value that is not one of valid, naming the valid
 // ones and the nearest of them.
 func checkChoice(flag, value string, valid []string) error {

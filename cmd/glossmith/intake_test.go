@@ -133,15 +133,32 @@ func TestTablesReadBackInPandas(t *testing.T) {
 	assert.Positive(t, quoted, "fields holding a quotation mark")
 }
 
+// Every command that writes CSV takes --bom (RFC 4180 records, CRLF line
+// ends, the byte order mark only when asked for).
 func TestCSVLineEndsAndBOM(t *testing.T) {
-	for _, cmd := range []string{"terms", "collocations"} {
-		r := run(t, "", cmd, "-q", "--to", "csv", "--bom", "testdata/demo")
+	for _, args := range [][]string{
+		{"terms", "testdata/demo"},
+		{"collocations", "testdata/demo"},
+		{"find", "NOUN", "testdata/demo"},
+		{"find", "--count", "NOUN", "testdata/demo"},
+	} {
+		name := strings.Join(args, " ")
+		r := run(t, "", append([]string{args[0], "-q", "--to", "csv", "--bom"}, args[1:]...)...)
 		require.Equal(t, 0, r.code, r.stderr)
-		assert.True(t, strings.HasPrefix(r.stdout, "\uFEFF"), cmd)
-		assert.True(t, strings.HasSuffix(r.stdout, "\r\n"), cmd)
-		assert.Equal(t, strings.Count(r.stdout, "\n"), strings.Count(r.stdout, "\r\n"), "%s: RFC 4180 records end in CRLF", cmd)
-		r = run(t, "", cmd, "-q", "--to", "csv", "testdata/demo")
-		assert.False(t, strings.HasPrefix(r.stdout, "\uFEFF"), cmd)
+		assert.True(t, strings.HasPrefix(r.stdout, "\uFEFF"), name)
+		assert.True(t, strings.HasSuffix(r.stdout, "\r\n"), name)
+		assert.Equal(t, strings.Count(r.stdout, "\n"), strings.Count(r.stdout, "\r\n"), "%s: RFC 4180 records end in CRLF", name)
+		r = run(t, "", append([]string{args[0], "-q", "--to", "csv"}, args[1:]...)...)
+		assert.False(t, strings.HasPrefix(r.stdout, "\uFEFF"), name)
+	}
+	// Every command with CSV output has --bom.
+	root := newRootCmd()
+	for _, path := range commandPaths(root) {
+		c, _, err := root.Find(path)
+		require.NoError(t, err)
+		if to := c.Flags().Lookup("to"); to != nil && strings.Contains(to.Usage, "csv") {
+			assert.NotNil(t, c.Flags().Lookup("bom"), "%s writes CSV without --bom", strings.Join(path, " "))
+		}
 	}
 }
 

@@ -800,7 +800,7 @@ func newTermbaseExportCmd(tf *termbaseFlags) *cobra.Command {
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
 	fl.StringVar(&o.lang, "lang", "en", "TBX: the document language (BCP 47)")
 	fl.StringVar(&o.status, "status", "", "only entries with a term of this status: "+strings.Join(listStatuses, ", "))
-	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark")
+	fl.BoolVar(&o.bom, "bom", false, bomUsage)
 	completeChoices(cmd, "to", exportFormats)
 	return cmd
 }

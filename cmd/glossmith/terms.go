@@ -128,7 +128,7 @@ func (o *termsOptions) register(cmd *cobra.Command) {
 	fl.StringArrayVar(&o.reference, "reference", nil, "general-language reference documents (default: the model's treebank and WordNet concordance counts)")
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(termsFormats, ", ")+" (default: from the -o extension, else text; html is a page for a reviewer, see review)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")
-	fl.BoolVar(&o.bom, "bom", false, "csv: start with a UTF-8 byte order mark, for spreadsheet programs that need one")
+	fl.BoolVar(&o.bom, "bom", false, bomUsage)
 	fl.StringVar(&o.lang, "lang", "en", "tbx, tbx-basic: the documents' language (BCP 47), written as xml:lang; the embedded tagging model is English")
 	fl.StringVar(&o.sortKey, "sort", "score", "sort by: "+strings.Join(terms.SortKeys, ", "))
 	fl.IntVar(&o.minFreq, "min-freq", 1, "leave out candidates seen fewer times (the score cut-off already holds back rare ones)")

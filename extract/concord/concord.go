@@ -83,6 +83,7 @@ func span(d *doc.Document, toks []doc.Token, a, b int) string {
 type Style struct {
 	Width     int  // characters of context on each side (default 40)
 	Highlight bool // mark the match with terminal colours
+	BOM       bool // csv: start with a UTF-8 byte order mark, for spreadsheet programs
 }
 
 // HitFormats are the formats a HitWriter writes.
@@ -121,7 +122,7 @@ func NewHitWriter(w io.Writer, format string, st Style) (*HitWriter, error) {
 		if format == "tsv" {
 			h.table = tabular.NewTSV(w)
 		} else {
-			h.table = tabular.NewCSV(w, false)
+			h.table = tabular.NewCSV(w, st.BOM)
 		}
 		h.table.Write("doc", "sentence", "line", "start", "end", "rule", "left", "match", "right")
 	case "jsonl":
@@ -315,13 +316,14 @@ func Key(toks []doc.Token, a, b int, lemma bool) string {
 }
 
 // WriteCounts prints a frequency list as text (aligned, control
-// characters escaped), tsv, csv or jsonl.
-func WriteCounts(w io.Writer, format string, list []Entry) error {
+// characters escaped), tsv, csv or jsonl; bom starts a CSV file with a
+// UTF-8 byte order mark.
+func WriteCounts(w io.Writer, format string, list []Entry, bom bool) error {
 	switch format {
 	case "tsv", "csv":
 		tw := tabular.NewTSV(w)
 		if format == "csv" {
-			tw = tabular.NewCSV(w, false)
+			tw = tabular.NewCSV(w, bom)
 		}
 		tw.Write("count", "text")
 		for _, e := range list {
