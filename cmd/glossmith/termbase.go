@@ -323,11 +323,12 @@ sets TERM's part of speech; --definition (with --source), --note and
 	fl.StringVar(&o.ed.Preferred, "preferred", "", "make this form the preferred term")
 	fl.StringArrayVar(&o.ed.Admitted, "admitted", nil, "make this form an admitted term (repeatable)")
 	fl.StringArrayVar(&o.ed.Deprecated, "deprecated", nil, "make this form a deprecated term (repeatable)")
-	fl.StringVar(&o.ed.POS, "pos", "", "part of speech of TERM (noun, verb, adjective, adverb, other, or a UPOS tag)")
+	fl.StringVar(&o.ed.POS, "pos", "", "part of speech of TERM: noun, verb, adjective, adverb, other, or UPOS tags (NOUN, \"ADJ NOUN\")")
 	fl.StringVar(&o.ed.Definition, "definition", "", "the entry's definition")
 	fl.StringVar(&o.ed.DefSource, "source", "", "where the definition comes from")
 	fl.StringVar(&o.ed.Note, "note", "", "add a note to the entry")
 	fl.StringVar(&o.ed.Subject, "subject", "", "the entry's subject field")
+	completeChoices(cmd, "pos", append(slices.Clone(basicPOS), doc.UPOSTags...))
 	return cmd
 }
 

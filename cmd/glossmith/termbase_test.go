@@ -344,8 +344,15 @@ func TestTermbaseSetChecksPOS(t *testing.T) {
 		})
 	}
 
+	// Completion offers what the check accepts.
+	r := run(t, "", "__complete", "termbase", "set", "valve", "--pos", "")
+	for _, v := range []string{"noun", "adjective", "other", "NOUN", "PROPN"} {
+		assert.Contains(t, strings.Fields(r.stdout), v)
+		assert.NoError(t, checkPOS(v))
+	}
+
 	tb := filepath.Join(t.TempDir(), "gloss.db")
-	r := run(t, "", "termbase", "--termbase", tb, "set", "valve", "--pos", "nuon")
+	r = run(t, "", "termbase", "--termbase", tb, "set", "valve", "--pos", "nuon")
 	assert.Equal(t, 2, r.code, r.stderr)
 	assert.Contains(t, r.stderr, `--pos "nuon"`)
 	assert.NoFileExists(t, tb, "a refused edit created the termbase")
