@@ -72,8 +72,8 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 			toks := d.Sentences[si].Tokens
 			spans = sc.find(spans[:0], toks)
 			for _, sp := range spans {
-				if f := opt.Glossary.classify(d, toks, sp); f != nil {
-					add(f)
+				if f, ok := opt.Glossary.classify(d, toks, sp); ok {
+					add(&f)
 				}
 			}
 			if ms := opt.Misspellings; ms != nil && ms.m == opt.Glossary {

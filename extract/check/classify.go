@@ -6,9 +6,11 @@ import (
 	"glossmith/tagger/doc"
 )
 
-// classify decides what a span whose key is a form's key is: nil when it
-// is an allowed term as written (its preferred or an admitted form, or an
-// inflection of one), else the finding, without its position.
+// classify decides what a span whose key is a form's key is: nothing (ok
+// false) when it is an allowed term as written (its preferred or an
+// admitted form, or an inflection of one), else the finding, without its
+// position. The finding comes as a value: a pointer made one allocation
+// for each of the many findings of a large run.
 //
 // Among the entries whose forms share the key, in glossary order: a span
 // written as an allowed form of any of them is fine; else one written as a
@@ -17,7 +19,7 @@ import (
 // warning: hyphen, space, closed, case of a case-sensitive form); else it
 // is a spelling of a deprecated term (an error). An entry whose part of
 // speech the head word's tag contradicts is passed over.
-func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding {
+func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) (Finding, bool) {
 	head := &toks[sp.j-1]
 	surface := foldSpace(d.Text[toks[sp.i].Start:head.End])
 	// The text with its head word lemmatized ("magnet valves" → "magnet
@@ -42,7 +44,7 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 		exact = exact || same(headLemma, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive)
 		switch {
 		case exact && f.Status.allowed():
-			return nil
+			return Finding{}, false
 		case exact:
 			if bad == nil {
 				bad = r
@@ -68,7 +70,7 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 	case worse != nil:
 		r = worse
 	default:
-		return nil
+		return Finding{}, false
 	}
 	e := &m.g.Entries[r.entry]
 	f := &e.Forms[r.form]
@@ -76,7 +78,7 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 	if caseOnly && kind == KindSpelling {
 		preferred = f.Text
 	}
-	return &Finding{
+	return Finding{
 		Text:      surface,
 		Kind:      kind,
 		Preferred: preferred,
@@ -84,7 +86,7 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) *Finding 
 		Message:   message(kind, f.Status, surface, preferred, caseOnly && kind == KindSpelling),
 		Start:     int(toks[sp.i].Start),
 		End:       int(head.End),
-	}
+	}, true
 }
 
 // same compares a text with a form, in case or not.

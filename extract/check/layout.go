@@ -56,6 +56,10 @@ func newLayout(d *doc.Document, src []byte) *layout {
 	src = gunzipped(src)
 	switch d.Format {
 	case "md", "txt":
+		// A plain text's source lines serve only to find skip markers.
+		if d.Format == "txt" && !bytes.Contains(src, []byte(SkipMarker)) {
+			break
+		}
 		if src = decodeSource(src); src != nil {
 			l.src = strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n")
 			for i, s := range l.src {
@@ -70,7 +74,7 @@ func newLayout(d *doc.Document, src []byte) *layout {
 			l.htmlMarks(src) // tags are ASCII in any encoding but UTF-16
 		}
 	}
-	if d.Format != "html" { // lines of the text are lines of the file (or all there is)
+	if d.Format != "html" && strings.Contains(d.Text, SkipMarker) { // lines of the text are lines of the file (or all there is)
 		l.markSkips(func(n int) string { return l.textLine(n) }, len(l.lineStart))
 	}
 	if l.src != nil {

@@ -25,21 +25,33 @@ import (
 type Matcher struct {
 	g    Glossary
 	root [256]int32 // child of the root by byte; 0 = none (the root is node 0)
-	// Node n's children are the edges lo[n]:lo[n+1] of edgeByte/edgeTo,
-	// sorted by byte.
-	lo       []int32
-	edgeByte []byte
-	edgeTo   []int32
-	// dense[n] is 1 + the index in tables of node n's child table, for
-	// nodes with many children (the first levels of a large glossary),
-	// where a scan of the edges would be long; 0 for the others.
-	dense  []int32
+	// nodes[n] is what a step through node n reads, side by side: a walk
+	// jumps about a large trie, and each array a step reads is a cache
+	// line of its own to fetch.
+	nodes []trieNode
+	// edges are the nodes' children, each node's sorted by byte.
+	edges  []trieEdge
 	tables [][256]int32
-	final  []int32     // node → 1 + index into ends; 0 when no form ends there
 	ends   [][]formRef // forms whose key ends at a node
 	// folded holds each form's text as compared with the text found
 	// (foldSpace), per entry and form.
 	folded [][]string
+}
+
+// trieNode is a node of the matcher's trie.
+type trieNode struct {
+	lo, hi int32 // its edges, edges[lo:hi]
+	// table is 1 + the index in tables of the node's child table, for
+	// nodes with many children (the first levels of a large glossary),
+	// where a scan of the edges would be long; 0 for the others.
+	table int32
+	final int32 // 1 + index into ends; 0 when no form ends there
+}
+
+// trieEdge is a child of a node by byte.
+type trieEdge struct {
+	to int32
+	b  byte
 }
 
 // denseFrom is the number of children from which a node gets a table.
@@ -79,7 +91,7 @@ func Compile(g Glossary) *Matcher {
 			finals[n] = append(finals[n], formRef{int32(ei), int32(fi)})
 		}
 	}
-	m := &Matcher{g: g, lo: make([]int32, next+1), final: make([]int32, next)}
+	m := &Matcher{g: g, nodes: make([]trieNode, next)}
 	all := make([]edge, 0, len(edges))
 	for e := range edges {
 		all = append(all, e)
@@ -90,32 +102,28 @@ func Compile(g Glossary) *Matcher {
 		}
 		return cmp.Compare(a.b, b.b)
 	})
-	m.edgeByte = make([]byte, len(all))
-	m.edgeTo = make([]int32, len(all))
+	m.edges = make([]trieEdge, len(all))
 	for i, e := range all {
-		m.edgeByte[i], m.edgeTo[i] = e.b, edges[e]
-		m.lo[e.from+1] = int32(i + 1)
+		m.edges[i] = trieEdge{to: edges[e], b: e.b}
+		if i == 0 || all[i-1].from != e.from {
+			m.nodes[e.from].lo = int32(i)
+		}
+		m.nodes[e.from].hi = int32(i + 1)
 		if e.from == 0 {
 			m.root[e.b] = edges[e]
 		}
 	}
-	// lo[n+1] holds the end of node n's edges where it has any; carry the
-	// ends forward over nodes without children.
-	for n := 1; n < len(m.lo); n++ {
-		m.lo[n] = max(m.lo[n], m.lo[n-1])
-	}
-	m.dense = make([]int32, next)
 	for n := int32(1); n < next; n++ {
-		lo, hi := m.lo[n], m.lo[n+1]
-		if hi-lo < denseFrom {
+		nd := &m.nodes[n]
+		if nd.hi-nd.lo < denseFrom {
 			continue
 		}
 		var t [256]int32
-		for k := lo; k < hi; k++ {
-			t[m.edgeByte[k]] = m.edgeTo[k]
+		for _, e := range m.edges[nd.lo:nd.hi] {
+			t[e.b] = e.to
 		}
 		m.tables = append(m.tables, t)
-		m.dense[n] = int32(len(m.tables))
+		nd.table = int32(len(m.tables))
 	}
 	m.folded = make([][]string, len(g.Entries))
 	for ei, e := range g.Entries {
@@ -131,7 +139,7 @@ func Compile(g Glossary) *Matcher {
 	slices.Sort(nodes)
 	for _, n := range nodes {
 		m.ends = append(m.ends, finals[n])
-		m.final[n] = int32(len(m.ends))
+		m.nodes[n].final = int32(len(m.ends))
 	}
 	return m
 }
@@ -147,18 +155,18 @@ func (m *Matcher) child(n int32, b byte) int32 {
 		}
 		return -1
 	}
-	if t := m.dense[n]; t != 0 {
-		if c := m.tables[t-1][b]; c != 0 {
+	nd := &m.nodes[n]
+	if nd.table != 0 {
+		if c := m.tables[nd.table-1][b]; c != 0 {
 			return c
 		}
 		return -1
 	}
-	lo, hi := m.lo[n], m.lo[n+1]
-	for ; lo < hi; lo++ {
-		switch eb := m.edgeByte[lo]; {
-		case eb == b:
-			return m.edgeTo[lo]
-		case eb > b:
+	for k := nd.lo; k < nd.hi; k++ {
+		switch e := &m.edges[k]; {
+		case e.b == b:
+			return e.to
+		case e.b > b:
 			return -1
 		}
 	}
@@ -292,7 +300,7 @@ func (sc *scanner) findFrom(out []span, toks []doc.Token, from, to int) []span {
 			}
 			terminal := sc.terminal[:0]
 			for _, s := range sc.states {
-				if m.final[s] != 0 {
+				if m.nodes[s].final != 0 {
 					terminal = append(terminal, s)
 				}
 			}
@@ -305,8 +313,15 @@ func (sc *scanner) findFrom(out []span, toks []doc.Token, from, to int) []span {
 			continue
 		}
 		var ends []formRef
-		for _, s := range sc.terminal {
-			ends = append(ends, m.ends[m.final[s]-1]...)
+		if len(sc.terminal) == 1 {
+			// one key, the usual case: its forms as they are, capped so
+			// that an append copies them
+			e := m.ends[m.nodes[sc.terminal[0]].final-1]
+			ends = e[:len(e):len(e)]
+		} else {
+			for _, s := range sc.terminal {
+				ends = append(ends, m.ends[m.nodes[s].final-1]...)
+			}
 		}
 		out = append(out, span{i, bestJ, ends})
 		i = bestJ

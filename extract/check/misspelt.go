@@ -38,10 +38,9 @@ const minMisspeltLen = 5
 // docCapitals). Elsewhere a capitalized word is mostly a name.
 //
 // Only such words cost more than a glance: a word passes a filter on its
-// first letter and length, then a memo shared by the run holds what it
-// reads as; the sentences that have one are scanned again around it, with
-// the word read as the term's. Make one per run; it is safe for concurrent
-// use.
+// first letter and length, then a memo holds what it reads as; the
+// sentences that have one are scanned again around it, with the word read
+// as the term's. Make one per run; it is safe for concurrent use.
 type Misspellings struct {
 	m   *Matcher
 	lex Lexicon
@@ -59,10 +58,18 @@ type Misspellings struct {
 	// between words, and a key has at most 3/2 the bytes of its form.
 	reach int
 
-	mu   sync.RWMutex
-	memo map[string]reading
+	// memos holds *memo: one for each worker in practice (a sync.Pool
+	// keeps one per processor), so that a look-up takes no lock. A memo
+	// shared by the workers took a read lock per word, and the workers'
+	// cores passed the lock's cache line back and forth.
+	memos sync.Pool
+}
 
-	correctors sync.Pool
+// memo is a worker's memo of readings, with the corrector that works
+// them out.
+type memo struct {
+	readings  map[string]reading
+	corrector spelling.Corrector
 }
 
 // reading is what the memo holds of a word: the glossary word it is a
@@ -73,14 +80,14 @@ type reading struct {
 	known bool
 }
 
-// maxMisspeltMemo bounds the memo: a run's distinct words are bounded by
+// maxMisspeltMemo bounds a memo: a run's distinct words are bounded by
 // its size, not by the glossary's.
 const maxMisspeltMemo = 1 << 16
 
 // NewMisspellings prepares the misspelling pass over the glossary m,
 // telling words from non-words with lex.
 func NewMisspellings(m *Matcher, lex Lexicon) *Misspellings {
-	ms := &Misspellings{m: m, lex: lex, memo: map[string]reading{}}
+	ms := &Misspellings{m: m, lex: lex}
 	words := map[string]float64{}
 	for _, e := range m.g.Entries {
 		for _, f := range e.Forms {
@@ -107,7 +114,9 @@ func NewMisspellings(m *Matcher, lex Lexicon) *Misspellings {
 		}
 	}
 	ms.dict = spelling.NewDictionary(words)
-	ms.correctors.New = func() any { return &spelling.Corrector{Dict: ms.dict} }
+	ms.memos.New = func() any {
+		return &memo{readings: map[string]reading{}, corrector: spelling.Corrector{Dict: ms.dict}}
+	}
 	return ms
 }
 
@@ -136,19 +145,17 @@ func (ms *Misspellings) candidate(w string) bool {
 
 // reading returns what w reads as, from the memo.
 func (ms *Misspellings) reading(w string) reading {
-	ms.mu.RLock()
-	r, ok := ms.memo[w]
-	ms.mu.RUnlock()
+	mm := ms.memos.Get().(*memo)
+	defer ms.memos.Put(mm)
+	r, ok := mm.readings[w]
 	if ok {
 		return r
 	}
-	r = ms.read(w)
-	ms.mu.Lock()
-	if len(ms.memo) >= maxMisspeltMemo {
-		clear(ms.memo)
+	r = ms.read(w, &mm.corrector)
+	if len(mm.readings) >= maxMisspeltMemo {
+		clear(mm.readings)
 	}
-	ms.memo[strings.Clone(w)] = r
-	ms.mu.Unlock()
+	mm.readings[strings.Clone(w)] = r
 	return r
 }
 
@@ -156,15 +163,13 @@ func (ms *Misspellings) reading(w string) reading {
 // plural: "vavles" is "vavle" + s, "asemblies" "asembly" + ies.
 var plurals = [...]struct{ end, base string }{{"s", ""}, {"es", ""}, {"ies", "y"}}
 
-// read works out reading's answer: the most used glossary word one edit
-// from w (or from w without a plural ending), when w is no word the
-// lexicon knows and no word or term of the glossary.
-func (ms *Misspellings) read(w string) reading {
+// read works out reading's answer with the corrector c: the most used
+// glossary word one edit from w (or from w without a plural ending), when
+// w is no word the lexicon knows and no word or term of the glossary.
+func (ms *Misspellings) read(w string, c *spelling.Corrector) reading {
 	if ms.dict.Contains(w) || ms.m.hasKey(w) || !ms.lex.UnknownWord(w) {
 		return reading{known: true}
 	}
-	c := ms.correctors.Get().(*spelling.Corrector)
-	defer ms.correctors.Put(c)
 	if r := correct(c, w); r != "" {
 		return reading{fix: r}
 	}
@@ -243,9 +248,9 @@ func (ms *Misspellings) mayBeMisspelt(w []byte) bool { return ms.candidate(strin
 // readingOf is reading for a word in a scratch buffer, copied only when
 // the memo lacks it.
 func (ms *Misspellings) readingOf(w []byte) reading {
-	ms.mu.RLock()
-	r, ok := ms.memo[string(w)]
-	ms.mu.RUnlock()
+	mm := ms.memos.Get().(*memo)
+	r, ok := mm.readings[string(w)]
+	ms.memos.Put(mm)
 	if ok {
 		return r
 	}
@@ -261,19 +266,28 @@ func (ms *Misspellings) find(out []misspelt, sc *scanner, dc *docCapitals, si in
 	toks := dc.sents[si].Tokens
 	var buf []span
 	copied := false
+	inFound := 0 // found[inFound] is the first span that does not end before k
 	for k := range toks {
-		var fix string
-		switch f := toks[k].Form; {
-		case len(f) < minMisspeltLen:
+		f := toks[k].Form
+		if len(f) < minMisspeltLen {
 			continue // most words, at a glance
+		}
+		// A word of a term found needs no look-up (found is in text order
+		// and its spans do not overlap).
+		for inFound < len(found) && found[inFound].j <= k {
+			inFound++
+		}
+		if inFound < len(found) && found[inFound].i <= k {
+			continue
+		}
+		var fix string
+		switch {
 		case 'a' <= f[0] && f[0] <= 'z':
 			fix = ms.fix(&toks[k])
 		case 'A' <= f[0] && f[0] <= 'Z':
 			fix = ms.fixCapitalized(dc, si, k)
-		default:
-			continue
 		}
-		if fix == "" || inSpans(found, k) {
+		if fix == "" {
 			continue
 		}
 		if !copied {
@@ -291,16 +305,6 @@ func (ms *Misspellings) find(out []misspelt, sc *scanner, dc *docCapitals, si in
 		}
 	}
 	return out
-}
-
-// inSpans reports whether token k lies in one of the spans.
-func inSpans(spans []span, k int) bool {
-	for _, s := range spans {
-		if s.i <= k && k < s.j {
-			return true
-		}
-	}
-	return false
 }
 
 // cuts reports whether sp overlaps a span of spans without holding it.

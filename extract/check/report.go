@@ -122,7 +122,7 @@ func (m *Matcher) hasKey(key string) bool {
 	for i := 0; i < len(key) && n >= 0; i++ {
 		n = m.child(n, key[i])
 	}
-	return n >= 0 && m.final[n] != 0
+	return n >= 0 && m.nodes[n].final != 0
 }
 
 // keptFinding is a glossary finding as a report keeps it: positions, and
