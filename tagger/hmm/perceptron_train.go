@@ -89,10 +89,6 @@ type trainSent struct {
 	ids   []int32 // feature rows, token i's at ids[off[i]:off[i+1]]
 	off   []int32
 	lower []uint64 // hash of each lower-cased word, for pair features
-	step  float32  // size of the sentence's updates: 1, or TrainOptions.ExtraWeight
-	// firstNew, when not 0, limits the updates to rows from firstNew on
-	// (features the training sentences lack; TrainOptions.ExtraNewOnly).
-	firstNew int32
 }
 
 // trainPerceptron trains the averaged perceptron in steps: the feature
@@ -101,23 +97,13 @@ type trainSent struct {
 // update from its errors (update); finishPerceptron turns the averages
 // into the model's weights. With opt.Shuffles > 1 that many perceptrons
 // learn from differently shuffled sentences and the model takes the mean
-// of their averaged weights (mergeTrainers). Sentences from nHand on are
-// TrainOptions.Extra, learned with steps of opt.ExtraWeight.
-func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, nHand int, opt *TrainOptions) {
+// of their averaged weights (mergeTrainers).
+func trainPerceptron(m *Model, sents []*conllu.Sentence, gold [][]uint8, opt *TrainOptions) {
 	ws := newWorkspace()
 	if opt.LearnedClasses {
 		ws.classes = englishClasses()
 	}
-	rows := trainingRows(m, ws, sents, gold, nHand, opt.MinFeatureCount)
-	for i := range rows.data {
-		rows.data[i].step = 1
-		if i >= nHand {
-			rows.data[i].step = float32(opt.ExtraWeight)
-			if opt.ExtraNewOnly {
-				rows.data[i].firstNew = rows.handRows
-			}
-		}
-	}
+	rows := trainingRows(m, ws, sents, gold, opt.MinFeatureCount)
 	m.perc = &perceptron{dictMin: int32(opt.DictMin), maxCands: opt.MaxCands}
 	trs := make([]*trainer, max(1, opt.Shuffles))
 	for r := range trs {
@@ -213,10 +199,6 @@ type featureRows struct {
 	keys   []uint64         // key of each row, in order of first appearance
 	counts []int32          // occurrences of each row's feature
 	data   []trainSent
-	// handRows is the number of rows the sentences before nHand
-	// (trainingRows) numbered: the later ones are features only the
-	// extra sentences have.
-	handRows int32
 }
 
 // trainingRows counts the features of the training sentences and numbers
@@ -225,7 +207,7 @@ type featureRows struct {
 // only pruned after it: a word seen once then trains the weights unknown
 // words rely on (suffixes, shape, context) instead of its own identity
 // feature, which decoding would not have anyway.
-func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]uint8, nHand, minCount int) *featureRows {
+func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]uint8, minCount int) *featureRows {
 	bound := uint8(len(m.tags))
 	fs := &ws.featureScratch
 	freq := map[uint64]int32{}
@@ -255,9 +237,6 @@ func trainingRows(m *Model, ws *workspace, sents []*conllu.Sentence, gold [][]ui
 	}
 	fr.data = make([]trainSent, len(sents))
 	for si, s := range sents {
-		if si == nHand {
-			fr.handRows = int32(len(fr.keys))
-		}
 		fs.info = extractFeatures(fs, s.Tokens, fs.info, m.wn, m.freq)
 		ts := trainSent{toks: s.Tokens, gold: gold[si], off: make([]int32, len(s.Tokens)+1),
 			lower: make([]uint64, len(s.Tokens))}
@@ -336,29 +315,26 @@ func (tr *trainer) predict(m *Model, l *lattice, ts *trainSent, rows map[uint64]
 // tag-word pair feature and the transitions.
 func (tr *trainer) update(ts *trainSent, pred []uint8, rows map[uint64]int32) {
 	bound := uint8(tr.nt)
-	d, lim := ts.step, ts.firstNew
 	for i := 0; i <= len(ts.gold); i++ {
 		g2, g1, g0 := tagAt(ts.gold, i-2, bound), tagAt(ts.gold, i-1, bound), tagAt(ts.gold, i, bound)
 		p2, p1, p0 := tagAt(pred, i-2, bound), tagAt(pred, i-1, bound), tagAt(pred, i, bound)
 		if g0 != p0 && i < len(ts.gold) {
 			for _, id := range ts.ids[ts.off[i]:ts.off[i+1]] {
-				if id >= lim {
-					tr.updFeat(id, g0, d)
-					tr.updFeat(id, p0, -d)
-				}
+				tr.updFeat(id, g0, 1)
+				tr.updFeat(id, p0, -1)
 			}
 		}
 		if (g1 != p1 || g0 != p0) && i < len(ts.gold) {
-			if r, ok := rows[pairKey(ts.lower[i], g1)]; ok && r >= lim {
-				tr.updFeat(r, g0, d)
+			if r, ok := rows[pairKey(ts.lower[i], g1)]; ok {
+				tr.updFeat(r, g0, 1)
 			}
-			if r, ok := rows[pairKey(ts.lower[i], p1)]; ok && r >= lim {
-				tr.updFeat(r, p0, -d)
+			if r, ok := rows[pairKey(ts.lower[i], p1)]; ok {
+				tr.updFeat(r, p0, -1)
 			}
 		}
-		if (g2 != p2 || g1 != p1 || g0 != p0) && lim == 0 {
-			tr.updTrans(g2, g1, g0, d)
-			tr.updTrans(p2, p1, p0, -d)
+		if g2 != p2 || g1 != p1 || g0 != p0 {
+			tr.updTrans(g2, g1, g0, 1)
+			tr.updTrans(p2, p1, p0, -1)
 		}
 	}
 }

@@ -93,22 +93,6 @@ type TrainOptions struct {
 	// every word, and the model stores it. Empty: no such features.
 	GeneralFrequencies string
 
-	// Extra are sentences tagged by a model rather than by hand (see
-	// package selftrain): the perceptron learns from them as from the
-	// training sentences, with steps of ExtraWeight instead of 1, but the
-	// tag dictionary, lemmatizer and reference counts come from the
-	// training sentences alone, so a word only they hold stays unknown
-	// (Model.Known) and evaluation splits tokens as without them. The
-	// generative HMM ignores them.
-	Extra []*conllu.Sentence
-	// ExtraWeight is the update step of Extra's sentences (default 1).
-	ExtraWeight float64
-	// ExtraNewOnly limits the updates of Extra's sentences to features
-	// the training sentences lack (a new word's identity, its neighbours
-	// seen next to it, its pair features): what the treebank taught stays
-	// as it learned it.
-	ExtraNewOnly bool
-
 	// HMM suffix model: longest suffix (default 10) and highest frequency
 	// of the words it learns from (default 10), after Brants (2000).
 	SuffixLen, SuffixMaxFreq int
@@ -148,9 +132,6 @@ func (o *TrainOptions) defaults() error {
 		} else {
 			o.Beam = 50
 		}
-	}
-	if o.ExtraWeight <= 0 {
-		o.ExtraWeight = 1
 	}
 	if o.SuffixLen <= 0 {
 		o.SuffixLen = 10
@@ -192,37 +173,8 @@ func Train(sents []*conllu.Sentence, opt TrainOptions) (*Model, error) {
 			return nil, err
 		}
 	}
-	extra, err := m.extraGold(opt.Extra)
-	if err != nil {
-		return nil, err
-	}
-	trainPerceptron(m, append(sents[:len(sents):len(sents)], opt.Extra...), append(gold, extra...), len(sents), &opt)
+	trainPerceptron(m, sents, gold, &opt)
 	return m, nil
-}
-
-// extraGold returns the gold states of sentences tagged by a model (see
-// TrainOptions.Extra); a tag pair the training sentences lack is an error.
-func (m *Model) extraGold(sents []*conllu.Sentence) ([][]uint8, error) {
-	id := make(map[string]uint8, len(m.tags))
-	for i, n := range m.tags {
-		id[n] = uint8(i)
-	}
-	gold := make([][]uint8, len(sents))
-	for si, s := range sents {
-		if err := CheckGold(s, ""); err != nil {
-			return nil, err
-		}
-		g := make([]uint8, len(s.Tokens))
-		for i, t := range s.Tokens {
-			st, ok := id[m.stateName(goldTags(t.XPOS, t.UPOS))]
-			if !ok {
-				return nil, fmt.Errorf("extra sentence %d: token %q: tags %s/%s are not in the training data", si+1, t.Form, t.XPOS, t.UPOS)
-			}
-			g[i] = st
-		}
-		gold[si] = g
-	}
-	return gold, nil
 }
 
 // WordClasses returns the model's table of word classes as stored (see

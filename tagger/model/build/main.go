@@ -17,13 +17,10 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"slices"
-	"strings"
 	"time"
 
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/hmm"
-	"glossmith/tagger/selftrain"
 )
 
 func main() {
@@ -42,16 +39,6 @@ func main() {
 	classes := flag.String("wordclasses", "tagger/model/wordnet-classes.tsv", "WordNet word-class table (go run ./tagger/model/lexicon; empty: none)")
 	general := flag.String("general", "tagger/model/general-en-bands.tsv", "general-English frequency table (go run ./tagger/model/genfreq; empty: none)")
 	learned := flag.Bool("learned", false, "also train with the learned word class features (tagger/model/en-wordclasses.txt.gz)")
-	self := flag.Bool("selftrain", false, "also train on WordNet glosses tagged alike by a teacher perceptron and the generative HMM (package selftrain)")
-	selfWeight := flag.Float64("selfweight", 1, "update step of the self-training sentences")
-	selfNew := flag.Bool("selfnew", false, "self-training sentences update only features the treebank lacks")
-	selfAgree := flag.Bool("selfagree", true, "keep only self-training sentences the generative HMM tags alike (false: every sentence with a new word)")
-	selfBudget := flag.Int("selfbudget", 200000, "most tokens of self-training sentences (0: all)")
-	teacher := flag.String("teacher", "", "teacher model file for -selftrain (empty: train it here with the same options)")
-	wordnetDir := flag.String("wordnet", "/usr/share/wordnet", "WordNet 3.0 database for -selftrain (Debian package wordnet-base)")
-	selfDump := flag.String("selfdump", "", "write the self-training sentences to this CoNLL-U file")
-	caseAug := flag.String("caseaug", "", "add copies of training sentences cased as web text: lower (all words) or first (the first word lowered)")
-	caseShare := flag.Float64("caseshare", 0.25, "share of the training sentences -caseaug copies")
 	test := flag.Bool("test", false, "also evaluate on the test set")
 	trainAcc := flag.Bool("trainacc", false, "also evaluate on the first 2000 training sentences")
 	jsonOut := flag.Bool("json", false, "print full reports as JSON")
@@ -87,7 +74,7 @@ func main() {
 		}
 	}
 	start := time.Now()
-	opt := hmm.TrainOptions{
+	m, err := hmm.Train(train, hmm.TrainOptions{
 		Method: *method, Tagset: *tagset, Epochs: *epochs,
 		Source:   "UD English EWT 2.15 (en_ewt-ud-train.conllu)",
 		Shuffles: *shuffles,
@@ -100,16 +87,7 @@ func main() {
 		Progress: func(ep int, u, x float64) {
 			fmt.Fprintf(os.Stderr, "epoch %d: dev UPOS %.2f%% XPOS %.2f%% (%s)\n", ep, u, x, time.Since(start).Round(time.Second))
 		},
-	}
-	if *self {
-		opt.ExtraWeight, opt.ExtraNewOnly = *selfWeight, *selfNew
-		opt.Extra = selfTraining(train, opt, *teacher, *wordnetDir, *selfBudget, *selfDump, *selfAgree)
-		fmt.Fprintf(os.Stderr, "self-training sentences ready (%s)\n", time.Since(start).Round(time.Second))
-	}
-	if *caseAug != "" {
-		opt.Extra = append(opt.Extra, casedCopies(train, *caseAug, *caseShare)...)
-	}
-	m, err := hmm.Train(train, opt)
+	})
 	if err != nil {
 		fail(err)
 	}
@@ -159,92 +137,6 @@ func main() {
 		fail(err)
 	}
 	fmt.Fprintf(os.Stderr, "wrote %s\n", *out)
-}
-
-// selfTraining returns WordNet's glosses as tagged alike by the teacher
-// (the model of opt trained on train, or the file teacherFile) and the
-// generative HMM trained on train, at most budget tokens of them.
-func selfTraining(train []*conllu.Sentence, opt hmm.TrainOptions, teacherFile, wordnetDir string, budget int, dump string, agree bool) []*conllu.Sentence {
-	var teacher *hmm.Model
-	if teacherFile != "" {
-		b, err := os.ReadFile(teacherFile)
-		if err != nil {
-			fail(err)
-		}
-		if teacher, err = hmm.Decode(b); err != nil {
-			fail(err)
-		}
-	} else {
-		opt.Dev, opt.Progress = nil, nil
-		m, err := hmm.Train(train, opt)
-		if err != nil {
-			fail(err)
-		}
-		// Tag with the teacher as saved, as the model file would.
-		var buf bytes.Buffer
-		if err := m.Save(&buf); err != nil {
-			fail(err)
-		}
-		if teacher, err = hmm.Decode(buf.Bytes()); err != nil {
-			fail(err)
-		}
-	}
-	gen, err := hmm.Train(train, hmm.TrainOptions{Method: hmm.MethodHMM, Tagset: opt.Tagset})
-	if err != nil {
-		fail(err)
-	}
-	if !agree {
-		gen = teacher
-	}
-	texts, err := selftrain.Glosses(wordnetDir)
-	if err != nil {
-		fail(err)
-	}
-	sents, st := selftrain.Select(texts, teacher, gen, selftrain.Options{Budget: budget})
-	fmt.Fprintf(os.Stderr, "self-training: %d glosses, %+v\n", len(texts), st)
-	if dump != "" {
-		var buf bytes.Buffer
-		for _, s := range sents {
-			for i, t := range s.Tokens {
-				fmt.Fprintf(&buf, "%d\t%s\t%s\t%s\t%s\n", i+1, t.Form, t.Lemma, t.UPOS, t.XPOS)
-			}
-			buf.WriteByte('\n')
-		}
-		if err := os.WriteFile(dump, buf.Bytes(), 0o644); err != nil {
-			fail(err)
-		}
-	}
-	return sents
-}
-
-// casedCopies returns copies of a share of sents, evenly spread, with
-// their words lower-cased (mode "lower") or only the first word lowered
-// ("first"); tags and lemmas stay.
-func casedCopies(sents []*conllu.Sentence, mode string, share float64) []*conllu.Sentence {
-	var out []*conllu.Sentence
-	acc := 0.0
-	for _, s := range sents {
-		if acc += share; acc < 1 {
-			continue
-		}
-		acc--
-		c := &conllu.Sentence{}
-		c.Tokens = slices.Clone(s.Tokens)
-		changed := false
-		for i := range c.Tokens {
-			if mode == "first" && i > 0 {
-				break
-			}
-			l := strings.ToLower(c.Tokens[i].Form)
-			changed = changed || l != c.Tokens[i].Form
-			c.Tokens[i].Form = l
-		}
-		if changed {
-			out = append(out, c)
-		}
-	}
-	fmt.Fprintf(os.Stderr, "case copies (%s): %d sentences\n", mode, len(out))
-	return out
 }
 
 func fail(err error) {

@@ -13,6 +13,7 @@
 package main
 
 import (
+	"bufio"
 	"flag"
 	"fmt"
 	"os"
@@ -24,7 +25,6 @@ import (
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/tokenize"
 	"glossmith/tagger/wordclass"
-	"glossmith/tagger/wordnet"
 )
 
 // Options of the table, chosen on UD English EWT dev by the accuracy of
@@ -35,9 +35,12 @@ var defaultOptions = wordclass.Options{Classes: 256, MinCount: 3, MaxIterations:
 // treebankFile is the only treebank file whose text the classes see.
 const treebankFile = "en_ewt-ud-train.conllu"
 
+// wordnetFiles are WordNet's data files, read in this order.
+var wordnetFiles = []string{"data.noun", "data.verb", "data.adj", "data.adv"}
+
 func main() {
 	data := flag.String("data", "../shared/data/ud-en-ewt", "directory of the UD English EWT CoNLL-U files")
-	wordnetDir := flag.String("wordnet", "/usr/share/wordnet", "directory of the WordNet 3.0 data files (Debian package wordnet-base)")
+	wordnet := flag.String("wordnet", "/usr/share/wordnet", "directory of the WordNet 3.0 data files (Debian package wordnet-base)")
 	out := flag.String("o", "tagger/model/en-wordclasses.txt.gz", "table to write (empty: do not write)")
 	opt := defaultOptions
 	flag.IntVar(&opt.Classes, "classes", opt.Classes, "number of classes")
@@ -46,7 +49,7 @@ func main() {
 	flag.Parse()
 
 	start := time.Now()
-	sents, err := readSources(*data, *wordnetDir)
+	sents, err := readSources(*data, *wordnet)
 	if err != nil {
 		fail(err)
 	}
@@ -74,7 +77,7 @@ func main() {
 
 // readSources returns the lower-cased sentences of the treebank's training
 // file, then those of WordNet's glosses.
-func readSources(data, wordnetDir string) ([][]string, error) {
+func readSources(data, wordnet string) ([][]string, error) {
 	p := filepath.Join(data, treebankFile)
 	f, err := os.Open(p)
 	if err != nil {
@@ -93,8 +96,8 @@ func readSources(data, wordnetDir string) ([][]string, error) {
 		}
 		sents = append(sents, words)
 	}
-	for _, name := range wordnet.DataFiles {
-		if sents, err = appendGlosses(sents, filepath.Join(wordnetDir, name)); err != nil {
+	for _, name := range wordnetFiles {
+		if sents, err = appendGlosses(sents, filepath.Join(wordnet, name)); err != nil {
 			return nil, err
 		}
 	}
@@ -102,18 +105,37 @@ func readSources(data, wordnetDir string) ([][]string, error) {
 }
 
 // appendGlosses appends the tokenized, lower-cased glosses of a WordNet
-// data file (wordnet.EachGloss).
+// data file: the text after " | " on each synset line (a definition,
+// often followed by quoted examples). Lines that start with a space are
+// the file's license header.
 func appendGlosses(sents [][]string, path string) ([][]string, error) {
-	err := wordnet.EachGloss(path, func(gloss string) {
-		for _, s := range tokenize.Sentences(gloss) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	sc := bufio.NewScanner(f)
+	sc.Buffer(nil, 1<<20)
+	line := 0
+	for sc.Scan() {
+		line++
+		text := sc.Text()
+		if strings.HasPrefix(text, " ") {
+			continue
+		}
+		_, gloss, ok := strings.Cut(text, " | ")
+		if !ok {
+			return nil, fmt.Errorf("%s:%d: no gloss (\" | \") on a synset line", path, line)
+		}
+		for _, s := range tokenize.Sentences(strings.TrimSpace(gloss)) {
 			words := make([]string, len(s.Tokens))
 			for i, t := range s.Tokens {
 				words[i] = strings.ToLower(t.Form)
 			}
 			sents = append(sents, words)
 		}
-	})
-	return sents, err
+	}
+	return sents, sc.Err()
 }
 
 func fail(err error) {
