@@ -11,6 +11,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/spf13/pflag"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -229,5 +230,32 @@ func TestReadmeSessions(t *testing.T) {
 		assert.True(t, outputMatches(s.expected, got),
 			"README.md:%d: $ %s\nthe README shows:\n%s\nthe program prints:\n%s", s.line, s.command,
 			strings.Join(s.expected, "\n"), strings.Join(got, "\n"))
+	}
+}
+
+// The README names every flag of every command (the user's manual is where
+// a flag is explained beyond its one line of --help), and every flag it
+// names exists.
+func TestReadmeNamesEveryFlag(t *testing.T) {
+	readme, err := os.ReadFile(filepath.Join("..", "..", "README.md"))
+	require.NoError(t, err)
+	doc := string(readme)
+	root := newRootCmd()
+	known := map[string]bool{"help": true, "version": true} // cobra adds these when it runs
+	root.PersistentFlags().VisitAll(func(f *pflag.Flag) { known[f.Name] = true })
+	for _, path := range commandPaths(root) {
+		c, _, err := root.Find(path)
+		require.NoError(t, err)
+		c.Flags().VisitAll(func(f *pflag.Flag) {
+			known[f.Name] = true
+			if f.Hidden || f.Name == "help" {
+				return
+			}
+			named := regexp.MustCompile(`--` + regexp.QuoteMeta(f.Name) + `\b`).MatchString(doc)
+			assert.True(t, named, "glossmith %s --%s is not in the README", strings.Join(path, " "), f.Name)
+		})
+	}
+	for _, m := range regexp.MustCompile(`(?:^|[\s(\x60])--([a-z][a-z0-9-]*)`).FindAllStringSubmatch(doc, -1) {
+		assert.True(t, known[m[1]], "the README names --%s, which no command has", m[1])
 	}
 }
