@@ -23,8 +23,7 @@ import (
 // on a form's key at a token boundary, the forms there are compared with
 // the text as written to tell the preferred spelling from the others.
 type Matcher struct {
-	g    Glossary
-	root [256]int32 // child of the root by byte; 0 = none (the root is node 0)
+	g Glossary
 	// nodes[n] is what a step through node n reads, side by side: a walk
 	// jumps about a large trie, and each array a step reads is a cache
 	// line of its own to fetch.
@@ -103,6 +102,7 @@ func Compile(g Glossary) *Matcher {
 		return cmp.Compare(a.b, b.b)
 	})
 	m.edges = make([]trieEdge, len(all))
+	var root [256]int32 // child of the root by byte; 0 = none (the root is node 0)
 	for i, e := range all {
 		m.edges[i] = trieEdge{to: edges[e], b: e.b}
 		if i == 0 || all[i-1].from != e.from {
@@ -110,9 +110,13 @@ func Compile(g Glossary) *Matcher {
 		}
 		m.nodes[e.from].hi = int32(i + 1)
 		if e.from == 0 {
-			m.root[e.b] = edges[e]
+			root[e.b] = edges[e]
 		}
 	}
+	// The root's table is tables[0]: child has no case of its own for it,
+	// which keeps child small enough for the compiler to inline into walk.
+	m.tables = append(m.tables, root)
+	m.nodes[0].table = 1
 	for n := int32(1); n < next; n++ {
 		nd := &m.nodes[n]
 		if nd.hi-nd.lo < denseFrom {
@@ -149,12 +153,6 @@ func (m *Matcher) Glossary() *Glossary { return &m.g }
 
 // child returns node n's child by byte b, or -1.
 func (m *Matcher) child(n int32, b byte) int32 {
-	if n == 0 {
-		if c := m.root[b]; c != 0 {
-			return c
-		}
-		return -1
-	}
 	nd := &m.nodes[n]
 	if nd.table != 0 {
 		if c := m.tables[nd.table-1][b]; c != 0 {
@@ -284,7 +282,7 @@ func (sc *scanner) findFrom(out []span, toks []doc.Token, from, to int) []span {
 			if k > i && k+1 < len(toks) && isHyphen(t.Form) && glued(&toks[k-1], t) && glued(t, &toks[k+1]) {
 				continue // the hyphen of "set-point": keys have none
 			}
-			if hyphenEdge(t.Form) {
+			if k > i && hyphenEdge(t.Form) { // (toks[i]'s was looked at above)
 				break // "--", "--setpoint": options and dashes are not words
 			}
 			sc.next = sc.next[:0]
