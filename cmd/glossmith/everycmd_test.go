@@ -1,6 +1,7 @@
 package main
 
 import (
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -69,7 +70,11 @@ func TestOutputFlagsHelpAlike(t *testing.T) {
 		t.Run(strings.Join(path, " "), func(t *testing.T) {
 			assert.Contains(t, o.Usage, "(complete or not at all)")
 			if to := c.Flags().Lookup("to"); to != nil {
-				assert.Contains(t, to.Usage, "(default: from the -o extension, else "+to.DefValue)
+				assert.Regexp(t, `\(default: from the -o extension, else `+regexp.QuoteMeta(to.Value.String())+`[);]`, to.Usage)
+				r := run(t, "", append(append([]string(nil), path...), "--help")...)
+				line := regexp.MustCompile(`(?m)^\s+--to string.*$`).FindString(r.stdout)
+				require.NotEmpty(t, line, "no --to in the help")
+				assert.NotContains(t, line, `(default "`, "a second default after the one -o's extension gives")
 			}
 		})
 	}

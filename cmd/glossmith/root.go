@@ -5,6 +5,7 @@ import (
 	"os"
 	"runtime/debug"
 	"runtime/pprof"
+	"strings"
 
 	"github.com/spf13/cobra"
 )
@@ -68,7 +69,21 @@ value, checked before any input is read).`,
 	root.SetHelpCommand(newHelpCmd())
 	root.AddCommand(newTagCmd(), newTermsCmd(), newTermbaseCmd(), newCollocationsCmd(), newEvalCmd(), newFindCmd(), newRulesCmd(), newTrainCmd(), newReviewCmd())
 	root.AddCommand(newCheckCmd())
+	hideExtensionDefaults(root)
 	return root
+}
+
+// hideExtensionDefaults keeps the help of a --to whose default follows the
+// extension of -o ("default: from the -o extension, else text") from
+// ending in cobra's own (default "text") as well, which reads as if the
+// extension did not count.
+func hideExtensionDefaults(c *cobra.Command) {
+	if f := c.Flags().Lookup("to"); f != nil && strings.Contains(f.Usage, "(default: from the -o extension") {
+		f.DefValue = ""
+	}
+	for _, sub := range c.Commands() {
+		hideExtensionDefaults(sub)
+	}
 }
 
 // profFile is the CPU profile being written, if any. It is stopped by a
