@@ -48,10 +48,13 @@ type layout struct {
 // count the text's characters).
 func newLayout(d *doc.Document, src []byte) *layout {
 	l := &layout{d: d, lineStart: []int{0}, skip: map[int]bool{}}
-	for i := 0; i < len(d.Text); i++ {
-		if d.Text[i] == '\n' {
-			l.lineStart = append(l.lineStart, i+1)
+	for i := 0; ; {
+		j := strings.IndexByte(d.Text[i:], '\n')
+		if j < 0 {
+			break
 		}
+		i += j + 1
+		l.lineStart = append(l.lineStart, i)
 	}
 	src = gunzipped(src)
 	switch d.Format {
