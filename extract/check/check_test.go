@@ -50,6 +50,7 @@ func pumpGlossary() Glossary {
 		{ID: "e4", Forms: []Form{{Text: "dry-run protection", Status: Preferred}, {Text: "dry running guard", Status: Forbidden}}},
 		{ID: "e5", Forms: []Form{{Text: "flow rate", Status: Preferred, POS: "noun"}}},
 		{ID: "e6", Forms: []Form{{Text: "power-up", Status: Preferred, POS: "noun"}}},
+		{ID: "e7", Forms: []Form{{Text: "bill of materials", Status: Preferred, POS: "noun"}}},
 	}}
 }
 
@@ -84,6 +85,11 @@ func TestClassify(t *testing.T) {
 		// A verb is no use of a noun term.
 		{"Before you power up the pump, read this.", "", 0, "", ""},
 		{"Wait for the power up of the pump.", "power up", KindSpelling, "power-up", "e6"},
+		// A word the form itself inflects stays inflected while another
+		// is: a use of the term, not another spelling of it.
+		{"Both bills of materials list the pump.", "", 0, "", ""},
+		{"The bill of materials lists the pump.", "", 0, "", ""},
+		{"Both bills-of-materials list the pump.", "bills-of-materials", KindSpelling, "bill of materials", "e7"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.text, func(t *testing.T) {

@@ -41,7 +41,8 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) (Finding,
 		if !exact && !lemmasMade {
 			headLemma, lemmas, lemmasMade = lemmaSurface(toks[sp.i:sp.j], true), lemmaSurface(toks[sp.i:sp.j], false), true
 		}
-		exact = exact || same(headLemma, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive)
+		exact = exact || same(headLemma, want, f.CaseSensitive) || same(lemmas, want, f.CaseSensitive) ||
+			inflects(toks[sp.i:sp.j], want, f.CaseSensitive)
 		switch {
 		case exact && f.Status.allowed():
 			return Finding{}, false
@@ -109,12 +110,8 @@ func lemmaSurface(toks []doc.Token, headOnly bool) string {
 			b.WriteByte(' ')
 		}
 		w := t.Form
-		if l := t.Lemma; l != "" && l != w && (!headOnly || k == len(toks)-1) {
-			if len(l) <= len(w) && strings.EqualFold(w[:len(l)], l) {
-				w = w[:len(l)]
-			} else {
-				w = l
-			}
+		if !headOnly || k == len(toks)-1 {
+			w = lemmaWord(t)
 		}
 		if isHyphen(w) {
 			w = "-"
@@ -122,6 +119,55 @@ func lemmaSurface(toks []doc.Token, headOnly bool) string {
 		b.WriteString(w)
 	}
 	return b.String()
+}
+
+// lemmaWord returns a token's lemma as lemmaSurface writes it: in the
+// case the word was written in where the lemma is a prefix of it.
+func lemmaWord(t *doc.Token) string {
+	w, l := t.Form, t.Lemma
+	if l == "" || l == w {
+		return w
+	}
+	if len(l) <= len(w) && strings.EqualFold(w[:len(l)], l) {
+		return w[:len(l)]
+	}
+	return l
+}
+
+// inflects reports whether toks, each word either as written or as its
+// lemma, spell want with the separators of the text (a space where the
+// text has white space, a hyphen token as "-"): a form some of whose
+// words are inflected in the form itself, written with others inflected
+// too ("steps of several degrees" of "step of several degrees", "bills of
+// materials" of "bill of materials"), where lemmatizing the last word or
+// every word spells no form. Each token has at most two readings, and a
+// term a few words, so the search stays small; it runs only for spans
+// not written as a form.
+func inflects(toks []doc.Token, want string, caseSensitive bool) bool {
+	if len(toks) == 0 {
+		return want == ""
+	}
+	t := &toks[0]
+	sep := ""
+	if len(toks) > 1 && !glued(t, &toks[1]) {
+		sep = " "
+	}
+	for r, w := range [2]string{t.Form, lemmaWord(t)} {
+		if r == 1 && w == t.Form {
+			break
+		}
+		if isHyphen(w) {
+			w = "-"
+		}
+		n := len(w) + len(sep)
+		if len(want) < n || !same(want[:len(w)], w, caseSensitive) || want[len(w):n] != sep {
+			continue
+		}
+		if inflects(toks[1:], want[n:], caseSensitive) {
+			return true
+		}
+	}
+	return false
 }
 
 // posFits reports whether a head word tagged upos can be the head of a term
