@@ -48,9 +48,9 @@ const (
 	headerSizeV2 = len(fileMagic) + 2 + 8
 	headerSize   = headerSizeV2 + 8
 	// MaxFileSize bounds a model file and MaxPayloadSize its inflated
-	// payload (the README states both): the default model is 1.9 MB and
-	// inflates to 3.2 MB, so the caps leave room for models of treebanks
-	// some thirty times larger while a crafted file or a device such as
+	// payload (the README states both): the default model is 2.2 MB and
+	// inflates to 4.2 MB, so the caps leave room for models of treebanks
+	// some fifteen times larger while a crafted file or a device such as
 	// /dev/zero cannot make Load or Decode allocate without limit.
 	MaxFileSize    = 64 << 20
 	MaxPayloadSize = 64 << 20
