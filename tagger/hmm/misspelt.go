@@ -87,9 +87,8 @@ func (m *Model) reading(ws *workspace, w string) string {
 	return r
 }
 
-// spellView returns the tokens as the tagger should read them, given
-// the lexicon look-ups of their last decoding (ws.wid): a word in lower
-// case that no lexicon of the model knows and that reads as a
+// spellView returns the tokens as the tagger should read them: a word in
+// lower case that no lexicon of the model knows and that reads as a
 // misspelling of a known word ("fisrt") is seen as that word; tokens
 // untouched return toks itself. Capitalized words are left alone: they are
 // mostly names ("Traci" is not "Track"). buf is reused for the copy.
@@ -108,8 +107,8 @@ func (m *Model) spellView(ws *workspace, toks []doc.Token) []doc.Token {
 		if len(w) < 2 || w[0] < 'a' || w[0] > 'z' {
 			continue
 		}
-		if ws.wid[i] >= 0 {
-			continue // in the lexicon
+		if _, ok := m.lex[w]; ok {
+			continue
 		}
 		r, ok := ws.misspelt[w]
 		if !ok {

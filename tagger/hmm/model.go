@@ -232,12 +232,9 @@ func (m *Model) tag(s *doc.Sentence, ev *titlecase.Evidence) {
 	// Misspelt words are tagged as the words they stand for, but keep a
 	// lemma of their own: a wrong reading must not join another word's
 	// counts in a term list.
-	// Only sentences with such a word are decoded a second time.
-	m.decode(ws, toks)
+	// The view is made before decoding, so that a sentence is decoded once.
 	read := m.spellView(ws, toks)
-	if &read[0] != &toks[0] {
-		m.decode(ws, read)
-	}
+	m.decode(ws, read)
 	for i := range toks {
 		t := &toks[i]
 		st := ws.tags[i]
