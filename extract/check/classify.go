@@ -2,6 +2,8 @@ package check
 
 import (
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"glossmith/tagger/doc"
 )
@@ -159,11 +161,45 @@ func inflects(toks []doc.Token, want string, caseSensitive bool) bool {
 		if isHyphen(w) {
 			w = "-"
 		}
-		n := len(w) + len(sep)
-		if len(want) < n || !same(want[:len(w)], w, caseSensitive) || want[len(w):n] != sep {
+		rest, ok := cutSame(want, w, caseSensitive)
+		if !ok {
 			continue
 		}
-		if inflects(toks[1:], want[n:], caseSensitive) {
+		if rest, ok = strings.CutPrefix(rest, sep); ok && inflects(toks[1:], rest, caseSensitive) {
+			return true
+		}
+	}
+	return false
+}
+
+// cutSame returns text without its prefix that is w (up to case unless
+// caseSensitive, as same compares), and whether it has one. The prefix is
+// read rune by rune: a word and its other case can differ in length
+// ("K", KELVIN SIGN, is "k" up to case), so w's length in bytes need
+// not be the prefix's.
+func cutSame(text, w string, caseSensitive bool) (string, bool) {
+	if caseSensitive {
+		return strings.CutPrefix(text, w)
+	}
+	for _, r := range w {
+		c, size := utf8.DecodeRuneInString(text)
+		if size == 0 || !sameUpToCase(c, r) {
+			return "", false
+		}
+		text = text[size:]
+	}
+	return text, true
+}
+
+// sameUpToCase reports whether two runes are one up to case, as
+// strings.EqualFold compares runes: b is in a's orbit under
+// unicode.SimpleFold.
+func sameUpToCase(a, b rune) bool {
+	if a == b {
+		return true
+	}
+	for f := unicode.SimpleFold(a); f != a; f = unicode.SimpleFold(f) {
+		if f == b {
 			return true
 		}
 	}
