@@ -87,11 +87,47 @@ func (m *Model) reading(ws *workspace, w string) string {
 	return r
 }
 
+// emphatic reports whether a word in ASCII letters has one three times in
+// a row, in either case: the cheap test that keeps almost every
+// capitalized word from a look-up.
+func emphatic(w string) bool {
+	for i := 2; i < len(w); i++ {
+		if w[i]|0x20 == w[i-1]|0x20 && w[i]|0x20 == w[i-2]|0x20 && 'a' <= w[i]|0x20 && w[i]|0x20 <= 'z' {
+			return true
+		}
+	}
+	return false
+}
+
+// emphasisReading returns the reading of a capitalized word outside the
+// treebank's lexicon that repeats a letter for emphasis, in the word's
+// capitals — all of them ("VERYYY" → "VERY") or the first ("Sooooo" →
+// "So") — or "" when it has none.
+func (m *Model) emphasisReading(ws *workspace, w string) string {
+	lw := strings.ToLower(w)
+	if !m.unknownToAll(lw) {
+		return ""
+	}
+	if ws.speller.Dict == nil {
+		ws.speller.Dict = m.spellDictionary()
+	}
+	r, ok := ws.speller.Emphasized(lw)
+	if !ok {
+		return ""
+	}
+	if strings.ToUpper(w) == w {
+		return strings.ToUpper(r)
+	}
+	return strings.ToUpper(r[:1]) + r[1:]
+}
+
 // spellView returns the tokens as the tagger should read them: a word in
 // lower case that no lexicon of the model knows and that reads as a
 // misspelling of a known word ("fisrt") is seen as that word; tokens
-// untouched return toks itself. Capitalized words are left alone: they are
-// mostly names ("Traci" is not "Track"). buf is reused for the copy.
+// untouched return toks itself. Capitalized words are mostly names
+// ("Traci" is not "Track"): they are read only when they repeat a letter
+// for emphasis ("Sooooo", "VERYYY"), and keep their capitals in the
+// reading ("So", "VERY"). buf is reused for the copy.
 //
 // Only a model that carries WordNet and general English reads words this
 // way: with its treebank alone, too many rare words are unknown to it
@@ -104,7 +140,11 @@ func (m *Model) spellView(ws *workspace, toks []doc.Token) []doc.Token {
 	}
 	for i := range toks {
 		w := toks[i].Form
-		if len(w) < 2 || w[0] < 'a' || w[0] > 'z' {
+		if len(w) < 2 {
+			continue
+		}
+		capital := 'A' <= w[0] && w[0] <= 'Z'
+		if !capital && (w[0] < 'a' || w[0] > 'z') || capital && !emphatic(w) {
 			continue
 		}
 		if _, ok := m.lex[w]; ok {
@@ -112,7 +152,11 @@ func (m *Model) spellView(ws *workspace, toks []doc.Token) []doc.Token {
 		}
 		r, ok := ws.misspelt[w]
 		if !ok {
-			r = m.reading(ws, w)
+			if capital {
+				r = m.emphasisReading(ws, w)
+			} else {
+				r = m.reading(ws, w)
+			}
 			if len(ws.misspelt) >= maxMisspeltMemo {
 				clear(ws.misspelt)
 			}

@@ -32,6 +32,10 @@ func TestMisspeltWordsTaggedAsMeant(t *testing.T) {
 		{"Close the fisrt valve before you clean the filter .", "fisrt", "ADJ", "fisrt"},
 		{"Check that the controller is workign .", "workign", "VERB", ""},
 		{"Close the first valve before you clean the filter .", "first", "ADJ", "first"},
+		// Capitalized words are read only for letters repeated for
+		// emphasis, as "So" and "VERY".
+		{"Sooooo glad the pump works again .", "Sooooo", "ADV", ""},
+		{"The new sensor is VERYYY accurate .", "VERYYY", "ADV", ""},
 	} {
 		for range 2 { // the second time from the workspace's memo
 			s := sentenceOf(c.text)
@@ -49,7 +53,7 @@ func TestMisspeltWordsTaggedAsMeant(t *testing.T) {
 	}
 	ws := m.getWorkspace()
 	defer m.pool.Put(ws)
-	for _, w := range []string{"Traci", "valve", "x"} {
+	for _, w := range []string{"Traci", "valve", "x", "Brrrr", "AAA", "YYYY"} {
 		toks := sentenceOf("Ask " + w + " now").Tokens
 		m.decode(ws, toks)
 		v := m.spellView(ws, toks)

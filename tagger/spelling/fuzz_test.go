@@ -33,5 +33,20 @@ func FuzzCorrect(f *testing.F) {
 		if want := bruteForce(words, word); got != want {
 			t.Fatalf("Correct(%q) = %q, the whole dictionary says %q", word, got, want)
 		}
+		// An emphasis reading is Correct's reading, of a word with some
+		// letter three times in a row.
+		if e, ok := c.Emphasized(word); ok && (e != got || !hasRun3(word)) {
+			t.Fatalf("Emphasized(%q) = %q, Correct %q", word, e, got)
+		}
 	})
+}
+
+// hasRun3 reports whether some letter of w stands three times in a row.
+func hasRun3(w string) bool {
+	for c := 'a'; c <= 'z'; c++ {
+		if strings.Contains(w, strings.Repeat(string(c), 3)) {
+			return true
+		}
+	}
+	return false
 }

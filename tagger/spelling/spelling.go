@@ -23,6 +23,7 @@ package spelling
 import (
 	"maps"
 	"slices"
+	"strings"
 )
 
 // MinEditLen is the shortest word read as an edit of another: shorter
@@ -145,12 +146,7 @@ func (c *Corrector) Correct(word string) (string, bool) {
 	if d.find(c.buf) >= 0 {
 		return "", false
 	}
-	best, top := int32(-1), 0.0
-	for _, keep := range [2]int{2, 1} {
-		if k := d.find(c.squeeze(word, keep)); k >= 0 {
-			better(k, d.freq[k], &best, &top)
-		}
-	}
+	best, top := c.squeezed(word)
 	if best < 0 && len(word) >= MinEditLen {
 		c.buf = append(c.buf[:0], word...)
 		c.candidates(hash(c.buf), word, &best, &top)
@@ -163,6 +159,54 @@ func (c *Corrector) Correct(word string) (string, bool) {
 		return "", false
 	}
 	return d.word(best), true
+}
+
+// Emphasized returns the reading of a lower-case word of letters a–z that
+// repeats a letter three times or more for emphasis ("sooooo" → "so",
+// "veryyy" → "very") as the word its repeats squeezed make, and false when
+// it has none (no such run, no such word, or the word itself is in the
+// dictionary). No other edit is tried: a capitalized word is mostly a
+// name, and a name one edit from a word is common ("Traci", "Track"),
+// while a letter three times is seldom a name's.
+func (c *Corrector) Emphasized(word string) (string, bool) {
+	d := c.Dict
+	if d == nil || !lowerLetters(word) || !tripled(word) {
+		return "", false
+	}
+	c.buf = append(c.buf[:0], word...)
+	if d.find(c.buf) >= 0 {
+		return "", false
+	}
+	if best, _ := c.squeezed(word); best >= 0 {
+		return d.word(best), true
+	}
+	return "", false
+}
+
+// tripled reports whether a word has a letter three times in a row and
+// another letter too: one letter repeated is a placeholder ("YYYY",
+// "AAA") or a sound, not a word emphasized.
+func tripled(word string) bool {
+	run := false
+	for i := 2; i < len(word); i++ {
+		if word[i] == word[i-1] && word[i] == word[i-2] {
+			run = true
+		}
+	}
+	return run && strings.Trim(word, word[:1]) != ""
+}
+
+// squeezed returns the most frequent dictionary word that the word's
+// repeated letters squeezed to two, or to one, make (-1 for none), and its
+// frequency.
+func (c *Corrector) squeezed(word string) (best int32, top float64) {
+	best = -1
+	for _, keep := range [2]int{2, 1} {
+		if k := c.Dict.find(c.squeeze(word, keep)); k >= 0 {
+			better(k, c.Dict.freq[k], &best, &top)
+		}
+	}
+	return best, top
 }
 
 // candidates checks the words a deletion hash leads to and keeps the most

@@ -65,6 +65,31 @@ func TestCorrect(t *testing.T) {
 	}
 }
 
+// Emphasized reads only letters repeated three times or more, squeezed
+// to two or to one; no other edit.
+func TestEmphasized(t *testing.T) {
+	c := &Corrector{Dict: NewDictionary(map[string]float64{
+		"so": 9000, "very": 3000, "pretty": 300, "first": 500, "brr": 1, "yy": 1, "s": 1,
+	})}
+	for _, tc := range []struct{ in, want string }{
+		{"sooooo", "so"},
+		{"veryyy", "very"},
+		{"prettty", "pretty"},
+		{"sooo", "so"},
+		{"soo", ""},      // a letter twice is no emphasis
+		{"fisrt", ""},    // a misspelling, not emphasis
+		{"fisrrrt", ""},  // squeezed, "fisrrt" and "fisrt" are no words: no other edit
+		{"brrrr", "brr"}, // squeezed to two
+		{"Sooooo", ""},   // only lower-case letters are read
+		{"yyyy", ""},     // one letter repeated is no word emphasized
+		{"ssss", ""},
+	} {
+		got, ok := c.Emphasized(tc.in)
+		assert.Equal(t, tc.want, got, tc.in)
+		assert.Equal(t, tc.want != "", ok, tc.in)
+	}
+}
+
 // Equally frequent candidates: the first in alphabetical order, whatever
 // order the index meets them in.
 func TestCorrectTies(t *testing.T) {
