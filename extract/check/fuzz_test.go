@@ -23,12 +23,7 @@ func FuzzCheck(f *testing.F) {
 	f.Add("The solenoid vavle, the set-piont and both solenoid vavles; `magnet vavle`.\n", "md")
 	f.Add("# Replacing the Solenoid Vavle\n\nMagnte valves. SOLENOID VAVLE\nThe Magnte crew; the MAGNTE board.\n", "md")
 	f.Add("<h2>SOLENOID <b>VAVLE</b></h2><p>Set-Piont: Magnte valve</p>", "html")
-	m := Compile(Glossary{Entries: []Entry{
-		{ID: "1", Forms: []Form{{Text: "set point"}, {Text: "setpoint", Status: Deprecated}}},
-		{ID: "2", Forms: []Form{{Text: "solenoid valve"}, {Text: "magnet valve", Status: Forbidden}}},
-		{ID: "3", Forms: []Form{{Text: "PLC", CaseSensitive: true}}},
-	}})
-	ms := NewMisspellings(m, noWordKnown{})
+	m, ms := fuzzGlossary()
 	dir := f.TempDir()
 	f.Fuzz(func(t *testing.T, src, format string) {
 		switch format {
@@ -52,6 +47,18 @@ func FuzzCheck(f *testing.F) {
 			}
 		}
 	})
+}
+
+// fuzzGlossary is the fuzz targets' glossary, compiled, and its
+// misspellings for a lexicon that knows no word, so that the misspelling
+// pass runs wherever a word is one edit from a term's.
+func fuzzGlossary() (*Matcher, *Misspellings) {
+	m := Compile(Glossary{Entries: []Entry{
+		{ID: "1", Forms: []Form{{Text: "set point"}, {Text: "setpoint", Status: Deprecated}}},
+		{ID: "2", Forms: []Form{{Text: "solenoid valve"}, {Text: "magnet valve", Status: Forbidden}}},
+		{ID: "3", Forms: []Form{{Text: "PLC", CaseSensitive: true}}},
+	}})
+	return m, NewMisspellings(m, noWordKnown{})
 }
 
 // noWordKnown is a lexicon that knows no word.
