@@ -1,9 +1,7 @@
 package main
 
 import (
-	"errors"
 	"fmt"
-	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
@@ -13,6 +11,7 @@ import (
 
 	"glossmith/tagger/conllu"
 	"glossmith/tagger/hmm"
+	"glossmith/tagger/read"
 )
 
 // trainOptions are the flags of the train command.
@@ -142,7 +141,7 @@ func readConllu(paths []string) ([]*conllu.Sentence, conlluLoss) {
 	for _, p := range paths {
 		f, err := os.Open(p)
 		if err != nil {
-			fmt.Fprintf(os.Stderr, "error: %s: cannot open: %s\n", p, pathErrorText(err))
+			fmt.Fprintf(os.Stderr, "error: %s: cannot open: %s\n", p, read.Describe(err))
 			loss.files++
 			continue
 		}
@@ -154,7 +153,7 @@ func readConllu(paths []string) ([]*conllu.Sentence, conlluLoss) {
 			}
 			loss.sentences += len(list)
 		} else if err != nil {
-			fmt.Fprintf(os.Stderr, "error: %s: cannot read: %s\n", p, pathErrorText(err))
+			fmt.Fprintf(os.Stderr, "error: %s: cannot read: %s\n", p, read.Describe(err))
 			loss.files++
 			continue
 		}
@@ -191,16 +190,6 @@ func (l conlluLoss) err(where string) error {
 		return nil
 	}
 	return exitError{1, strings.Join(parts, " and ") + " left out" + where}
-}
-
-// pathErrorText is an open or read error without the path the message
-// already names ("no such file or directory").
-func pathErrorText(err error) string {
-	var pe *fs.PathError
-	if errors.As(err, &pe) {
-		return pe.Err.Error()
-	}
-	return err.Error()
 }
 
 func baseNames(paths []string) []string {

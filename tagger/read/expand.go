@@ -62,7 +62,7 @@ func (e *expander) arg(arg string) {
 			e.glob(arg)
 			return
 		}
-		e.problem(Error, arg, "cannot open: %s", describe(err))
+		e.problem(Error, arg, "cannot open: %s", Describe(err))
 		return
 	}
 	if st.IsDir() {
@@ -92,7 +92,7 @@ func (e *expander) glob(pattern string) {
 		st, err := os.Stat(m)
 		switch {
 		case err != nil:
-			e.problem(Error, m, "cannot open: %s", describe(err))
+			e.problem(Error, m, "cannot open: %s", Describe(err))
 		case st.IsDir():
 			e.walk(m)
 		default:
@@ -112,7 +112,7 @@ func (e *expander) walk(dir string) {
 	other := map[string]int{}
 	_ = filepath.WalkDir(dir, func(path string, d fs.DirEntry, err error) error {
 		if err != nil {
-			e.problem(Error, path, "cannot read: %s", describe(err))
+			e.problem(Error, path, "cannot read: %s", Describe(err))
 			if d != nil && d.IsDir() {
 				return fs.SkipDir
 			}
@@ -133,7 +133,7 @@ func (e *expander) walk(dir string) {
 			st, err := os.Stat(path)
 			switch {
 			case err != nil:
-				e.problem(Note, path, "skipped broken link: %s", describe(err))
+				e.problem(Note, path, "skipped broken link: %s", Describe(err))
 				return nil
 			case st.IsDir():
 				e.problem(Note, path, "skipped link to a directory (not followed, to avoid loops)")

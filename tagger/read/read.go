@@ -324,13 +324,13 @@ func (r *reader) load(limit int64) ([]byte, bool) {
 	} else {
 		f, err := os.Open(r.in.Path)
 		if err != nil {
-			r.errorf(0, "cannot open: %s", describe(err))
+			r.errorf(0, "cannot open: %s", Describe(err))
 			return nil, false
 		}
 		defer f.Close()
 		st, err := f.Stat()
 		if err != nil {
-			r.errorf(0, "cannot read: %s", describe(err))
+			r.errorf(0, "cannot read: %s", Describe(err))
 			return nil, false
 		}
 		if st.IsDir() {
@@ -355,7 +355,7 @@ func (r *reader) load(limit int64) ([]byte, bool) {
 	}
 	buf.Grow(int(hint) + 512)
 	if _, err := buf.ReadFrom(io.LimitReader(src, limit+1)); err != nil {
-		r.errorf(0, "cannot read: %s", describe(err))
+		r.errorf(0, "cannot read: %s", Describe(err))
 		return nil, false
 	}
 	data := buf.Bytes()
@@ -403,9 +403,9 @@ func (r *reader) gunzip(data []byte, limit int64) ([]byte, bool) {
 	return out, true
 }
 
-// describe shortens an *fs.PathError to its cause: the file name is
-// already in the Problem.
-func describe(err error) string {
+// Describe shortens an *fs.PathError to its cause: the file name is
+// already in the Problem (or the caller's message).
+func Describe(err error) string {
 	var pe *fs.PathError
 	if errors.As(err, &pe) {
 		return pe.Err.Error()
