@@ -280,7 +280,7 @@ func (c *Counter) Total() int { return c.total }
 // Key returns the string counted for tokens [a, b): the words, or the
 // lemmas, joined by a space where the text has white space between them
 // and run together where it has none ("GC-48", "don't", as the
-// concordance shows them, not "GC - 48"), and lower-cased except where
+// concordance shows them, not "GC - 48"; lemmas "do not", see sameWord), and lower-cased except where
 // case carries meaning (acronyms, units, mixed-case words:
 // wordshape.KeepsCase), as in "3 MW", "kPa". A lemma keeps the case of
 // such a form ("HAWTs" → "HAWT"). Sorted folds the spellings of one
@@ -288,7 +288,7 @@ func (c *Counter) Total() int { return c.total }
 func Key(toks []doc.Token, a, b int, lemma bool) string {
 	var sb strings.Builder
 	for i := a; i < b; i++ {
-		if i > a && toks[i-1].SpaceAfter {
+		if i > a && (toks[i-1].SpaceAfter || lemma && !sameWord(toks[i].Form, toks[i].Lemma)) {
 			sb.WriteByte(' ')
 		}
 		f := toks[i].Form
@@ -313,6 +313,16 @@ func Key(toks []doc.Token, a, b int, lemma bool) string {
 		sb.WriteString(w)
 	}
 	return sb.String()
+}
+
+// sameWord reports whether a lemma writes the same word as its form, one
+// a prefix of the other up to case ("points" → "point", "ca" → "can"), so
+// that lemmas are run together where the forms are ("set-point"), while a
+// clitic whose lemma is another word stands apart as a word of its own
+// ("doesn't" → "do not", "gonna" → "go to").
+func sameWord(form, lemma string) bool {
+	n := min(len(form), len(lemma))
+	return lemma == "" || strings.EqualFold(form[:n], lemma[:n])
 }
 
 // WriteCounts prints a frequency list as text (aligned, control

@@ -57,6 +57,31 @@ func TestKeyJoinsAsTheTextIs(t *testing.T) {
 	}
 }
 
+// Lemmas run together as their forms do, except a clitic whose lemma is
+// another word: "doesn't" counts as "do not", "gonna" as "go to", while
+// "set-points" is "set-point" and "can't" "can not".
+func TestLemmaKeySeparatesClitics(t *testing.T) {
+	tok := func(form, lemma string, space bool) doc.Token {
+		return doc.Token{Form: form, Lemma: lemma, SpaceAfter: space}
+	}
+	for _, c := range []struct {
+		toks          []doc.Token
+		key, lemmaKey string
+	}{
+		{[]doc.Token{tok("It", "it", true), tok("does", "do", false), tok("n't", "not", true), tok("close", "close", false)},
+			"it doesn't close", "it do not close"},
+		{[]doc.Token{tok("gon", "go", false), tok("na", "to", true), tok("leak", "leak", false)},
+			"gonna leak", "go to leak"},
+		{[]doc.Token{tok("two", "two", true), tok("set", "set", false), tok("-", "-", false), tok("points", "point", false)},
+			"two set-points", "two set-point"},
+		{[]doc.Token{tok("ca", "can", false), tok("n't", "not", false)}, "can't", "can not"},
+		{[]doc.Token{tok("valve", "", false), tok("'s", "'s", false)}, "valve's", "valve's"},
+	} {
+		assert.Equal(t, c.key, Key(c.toks, 0, len(c.toks), false))
+		assert.Equal(t, c.lemmaKey, Key(c.toks, 0, len(c.toks), true))
+	}
+}
+
 // Spellings of one string in different case are one line, lower case
 // when it occurs, else the most frequent spelling; the order in which
 // counts were merged does not matter.
