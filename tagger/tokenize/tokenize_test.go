@@ -81,6 +81,15 @@ var tokenTests = []struct {
 	{"abbreviation ends a sentence before a capital",
 		"Open at 6 a.m. The fans start later.",
 		"Open at 6 a.m . | The fans start later ."},
+	{"unit letter after a number ends a sentence",
+		"Set the difference to 3 K. The pump starts at 5K. Fit a fuse of 2 A. Then test.",
+		// SI unit symbols (BIPM SI Brochure, 9th ed., table 2: K, A, V, W, N)
+		// after a number are units, not initials: EWT writes "K" and the
+		// sentence's "." apart.
+		"Set the difference to 3 K . | The pump starts at 5 K . | Fit a fuse of 2 A . | Then test ."},
+	{"an initial keeps its period",
+		"J. K. Holm wrote Section 3. A. Lind checked it.",
+		"J. K. Holm wrote Section 3 . | A. Lind checked it ."},
 	{"title does not end a sentence",
 		"Ask Mr. Holm. He knows.",
 		"Ask Mr. Holm . | He knows ."},

@@ -321,6 +321,11 @@ func isDecade(w string) bool {
 // is an abbreviation that keeps the period.
 func isAbbrev(text string, i, j int) bool {
 	w := text[i:j]
+	if r, n := decode(text, i); n == len(w) && unicode.IsUpper(r) && afterNumber(text, i) {
+		// A capital after a number is a unit symbol, not an initial
+		// ("3 K.", "5K.", "12 V."): the period ends the sentence.
+		return false
+	}
 	listed := abbrevShapes.has(w) // else neither look-up below can succeed
 	if listed {
 		if _, ok := abbrevs[text[i:j+1]]; ok {
@@ -345,6 +350,21 @@ func isAbbrev(text string, i, j int) bool {
 		}
 	}
 	return isDotted(w)
+}
+
+// afterNumber reports whether the text before i, spaces skipped, ends in a
+// digit.
+func afterNumber(text string, i int) bool {
+	for i > 0 {
+		r, n := decodeLast(text, i)
+		switch {
+		case r == ' ' || r == '\u00a0' || r == '\u202f':
+			i -= n
+		default:
+			return isDigitByte(text[i-1])
+		}
+	}
+	return false
 }
 
 // isDotted reports whether w is letters in groups of one or two separated
