@@ -133,6 +133,9 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 	if st.Documents == 0 && pp.errors == 0 {
 		return st, exitError{code: 1, msg: "no readable text in the inputs"}
 	}
+	if pp.errors > 0 && st.Documents == 0 {
+		return st, exitError{code: 1, msg: fmt.Sprintf("%d problem(s) with the inputs; no input could be read", pp.errors)}
+	}
 	if pp.errors > 0 {
 		return st, exitError{code: 1, msg: fmt.Sprintf("%d problem(s) with the inputs; the rest was processed", pp.errors)}
 	}

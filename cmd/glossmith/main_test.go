@@ -203,6 +203,19 @@ func TestBadInputsGoOn(t *testing.T) {
 	assert.NotContains(t, r.stderr, "panic")
 }
 
+// When every input failed, the closing line says so rather than that "the
+// rest was processed".
+func TestNoInputReadSaysSo(t *testing.T) {
+	missing := filepath.Join(t.TempDir(), "missing.md")
+	for _, cmd := range [][]string{{"terms"}, {"find", "NOUN"}, {"tag"}} {
+		r := run(t, "", append(cmd, missing)...)
+		assert.Equal(t, 1, r.code, "%v", cmd)
+		assert.Contains(t, r.stderr, missing, "%v", cmd)
+		assert.Contains(t, r.stderr, "1 problem(s) with the inputs; no input could be read", "%v", cmd)
+		assert.NotContains(t, r.stderr, "the rest was processed", "%v", cmd)
+	}
+}
+
 // The CoNLL-U writer: # sent_id and # text for every sentence, ten columns
 // per token, SpaceAfter=No where no space follows.
 func TestTagConllu(t *testing.T) {
