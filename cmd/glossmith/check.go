@@ -111,9 +111,8 @@ func (o *checkOptions) validate(cmd *cobra.Command, args []string) error {
 		return usageError("nothing to check against: give --termbase FILE (or set %s), --variants, or both", termbaseEnv)
 	}
 	if o.termbase != "" {
-		// Opening a termbase creates a missing one: a checked termbase must exist.
-		if fi, err := os.Stat(o.termbase); err != nil || fi.IsDir() {
-			return usageError("--termbase %s: no termbase file there (glossmith termbase --termbase FILE import creates one)", o.termbase)
+		if err := needTermbaseFile(o.termbase); err != nil {
+			return err
 		}
 	}
 	if o.baseline != "" {

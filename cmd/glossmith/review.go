@@ -101,7 +101,7 @@ func (o *reviewOptions) validate(cmd *cobra.Command, args []string) error {
 		if len(args) > 0 {
 			return usageError("--run %q reviews a recorded run: name no inputs with it", o.runLabel)
 		}
-		return nil
+		return o.tb.needFile() // a recorded run is in a termbase that is there
 	}
 	return needInputs(args)
 }

@@ -47,6 +47,21 @@ func (f *termbaseFlags) validate() error {
 	return nil
 }
 
+// needFile refuses a termbase file that is not there, for the commands
+// that only read it (and check): opening creates a missing file, so a
+// mistyped name would give an empty glossary — an export overwriting a
+// good file with it, a check finding nothing — and leave a stray termbase.
+func (f *termbaseFlags) needFile() error {
+	return needTermbaseFile(f.path)
+}
+
+func needTermbaseFile(path string) error {
+	if fi, err := os.Stat(path); err != nil || fi.IsDir() {
+		return usageError("--termbase %s: no termbase file there (termbase import, termbase accept or terms --record create one)", path)
+	}
+	return nil
+}
+
 // open opens the termbase; failures are exit status 1 with the file named.
 func (f *termbaseFlags) open() (*termbase.Store, error) {
 	s, err := termbase.Open(f.path)
@@ -87,11 +102,17 @@ Every command takes --termbase FILE (default: $GLOSSMITH_TERMBASE) and
 	return cmd
 }
 
-// withStore runs fn on the open termbase (validated first), closing it
+// withStore runs fn on the open termbase (validated first; a missing file
+// refused when mustExist, for commands that only read it), closing it
 // after; errors of fn are exit status 1.
-func (f *termbaseFlags) withStore(fn func(*termbase.Store) error) error {
+func (f *termbaseFlags) withStore(mustExist bool, fn func(*termbase.Store) error) error {
 	if err := f.validate(); err != nil {
 		return err
+	}
+	if mustExist {
+		if err := f.needFile(); err != nil {
+			return err
+		}
 	}
 	s, err := f.open()
 	if err != nil {
@@ -390,7 +411,7 @@ func newTermbaseMergeCmd(tf *termbaseFlags) *cobra.Command {
 		Short: "Make the entries of two terms one concept (TERM1's entry keeps its preferred term)",
 		Args:  cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			return tf.withStore(func(s *termbase.Store) error {
+			return tf.withStore(false, func(s *termbase.Store) error {
 				c, err := s.Merge(args[0], args[1])
 				if err == nil {
 					reportChange(cmd.OutOrStdout(), c)
@@ -417,7 +438,7 @@ func newTermbaseUndoCmd(tf *termbaseFlags) *cobra.Command {
 				}
 				n = v
 			}
-			return tf.withStore(func(s *termbase.Store) error {
+			return tf.withStore(true, func(s *termbase.Store) error {
 				done, err := s.Undo(n)
 				for _, c := range done {
 					reportChange(cmd.OutOrStdout(), c)
@@ -482,8 +503,11 @@ func (o *termbaseListOptions) validate(cmd *cobra.Command) error {
 		o.sinceT = t
 	}
 	to, err := outputFormat(cmd, o.to, o.outPath, []string{"text", "jsonl"})
+	if err != nil {
+		return err
+	}
 	o.to = to
-	return err
+	return o.tf.needFile()
 }
 
 func parseDate(s string) (time.Time, error) {
@@ -575,7 +599,7 @@ func newTermbaseShowCmd(tf *termbaseFlags) *cobra.Command {
 		Short: "Show the entry of a term with its history",
 		Args:  cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			return tf.withStore(func(s *termbase.Store) error {
+			return tf.withStore(true, func(s *termbase.Store) error {
 				es, err := s.Lookup(args[0])
 				if err != nil {
 					return err
@@ -708,8 +732,11 @@ func (o *termbaseDiffOptions) validate(cmd *cobra.Command, labels []string) erro
 		return err
 	}
 	to, err := outputFormat(cmd, o.to, o.outPath, []string{"text", "tsv", "jsonl"})
+	if err != nil {
+		return err
+	}
 	o.to = to
-	return err
+	return o.tf.needFile()
 }
 
 func (o *termbaseDiffOptions) run(a, b string) error {
@@ -823,7 +850,7 @@ func (o *termbaseExportOptions) validate(cmd *cobra.Command) error {
 	if to == "xlsx" && (o.outPath == "" || o.outPath == "-") && isTerminal(os.Stdout) {
 		return usageError("--to xlsx writes a binary workbook: give -o FILE.xlsx")
 	}
-	return nil
+	return o.tf.needFile()
 }
 
 func (o *termbaseExportOptions) run() error {
@@ -880,7 +907,7 @@ func newTermbaseRunsCmd(tf *termbaseFlags) *cobra.Command {
 		Short: "List the recorded runs of terms (--record LABEL)",
 		Args:  cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			return tf.withStore(func(s *termbase.Store) error {
+			return tf.withStore(true, func(s *termbase.Store) error {
 				runs, err := s.Runs()
 				if err != nil {
 					return err

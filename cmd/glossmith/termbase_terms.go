@@ -45,6 +45,12 @@ func (o *termsTermbase) validate() error {
 	if err := o.tf.validate(); err != nil {
 		return err
 	}
+	if o.record == "" {
+		// Only --record writes: labelling reads a termbase that is there.
+		if err := o.tf.needFile(); err != nil {
+			return err
+		}
+	}
 	s, err := o.tf.open()
 	if err != nil {
 		return err

@@ -361,3 +361,51 @@ func TestTermbaseSetChecksPOS(t *testing.T) {
 	r = run(t, "", "termbase", "--termbase", tb, "show", "valve")
 	assert.Contains(t, r.stdout, "valve [en] (noun)")
 }
+
+// Commands that only read a termbase refuse a file that is not there
+// (a usage error, exit 2): opening creates a missing termbase, so a
+// mistyped name would read as an empty glossary — an export replacing a
+// good file with an empty one, every candidate labelled new — and leave a
+// stray file. Commands that write create it.
+func TestReadingCommandsRefuseAMissingTermbase(t *testing.T) {
+	dir := t.TempDir()
+	missing := filepath.Join(dir, "glosary.db")
+	kept := filepath.Join(dir, "glossary.csv")
+	const glossary = "concept,term,status\nc1,drip emitter,preferred\n"
+	require.NoError(t, os.WriteFile(kept, []byte(glossary), 0o644))
+	for _, args := range [][]string{
+		{"termbase", "list"},
+		{"termbase", "show", "valve"},
+		{"termbase", "runs"},
+		{"termbase", "undo"},
+		{"termbase", "diff", "v1", "v2"},
+		{"termbase", "export", "-o", kept},
+		{"terms", "--limit", "3", "testdata/demo/maintenance-schedule.txt"},
+		{"terms", "--new", "--limit", "3", "testdata/demo/maintenance-schedule.txt"},
+		{"review", "--run", "v1"},
+		{"check", "testdata/demo/maintenance-schedule.txt"},
+	} {
+		t.Run(strings.Join(args[:2], " "), func(t *testing.T) {
+			r := run(t, "", append(args, "--termbase", missing)...)
+			assert.Equal(t, 2, r.code, r.stderr)
+			assert.Contains(t, r.stderr, "--termbase "+missing+": no termbase file there")
+			assert.NoFileExists(t, missing)
+			got, err := os.ReadFile(kept)
+			require.NoError(t, err)
+			assert.Equal(t, glossary, string(got), "the output file was replaced")
+		})
+	}
+	// Writing commands create it.
+	for _, args := range [][]string{
+		{"termbase", "accept", "valve"},
+		{"termbase", "import", kept},
+		{"terms", "-q", "--record", "v1", "--limit", "3", "testdata/demo/maintenance-schedule.txt"},
+	} {
+		t.Run(strings.Join(args, " "), func(t *testing.T) {
+			tb := filepath.Join(t.TempDir(), "new.db")
+			r := run(t, "", append(args, "--termbase", tb)...)
+			require.Equal(t, 0, r.code, r.stderr)
+			assert.FileExists(t, tb)
+		})
+	}
+}
