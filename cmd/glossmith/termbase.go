@@ -289,29 +289,18 @@ func (o *termbaseDecideOptions) run(w io.Writer, args []string) error {
 	return nil
 }
 
-// readTermList reads one term a line; blank lines and "#" comments are
-// skipped.
+// readTermList reads the terms of a --from-file file.
 func readTermList(path string) ([]string, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	var out []string
-	sc := bufio.NewScanner(f)
-	for sc.Scan() {
-		line := sc.Text()
-		if strings.HasPrefix(strings.TrimSpace(line), "#") {
-			continue
-		}
-		if t := strings.TrimSpace(line); t != "" {
-			out = append(out, t)
-		}
-	}
-	if err := sc.Err(); err != nil {
+	list, err := termio.ReadTermList(f)
+	if err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
-	return out, nil
+	return list, nil
 }
 
 // --- set ---

@@ -57,7 +57,10 @@ func ReadTable(r io.Reader, name string, sep rune, lang string) (*Import, error)
 	if err != nil {
 		return nil, err
 	}
-	br.Reset(bytes.TrimPrefix(data, []byte("\xef\xbb\xbf")))
+	if data, err = plainText(data); err != nil {
+		return nil, fmt.Errorf("%s: %w", name, err)
+	}
+	br.Reset(data)
 	cr := csv.NewReader(br)
 	cr.Comma = sep
 	cr.FieldsPerRecord = -1
