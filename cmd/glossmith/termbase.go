@@ -338,7 +338,7 @@ sets TERM's part of speech; --definition (with --source), --note and
 	fl.StringVar(&o.ed.DefSource, "source", "", "where the definition comes from")
 	fl.StringVar(&o.ed.Note, "note", "", "add a note to the entry")
 	fl.StringVar(&o.ed.Subject, "subject", "", "the entry's subject field")
-	completeChoices(cmd, "pos", append(slices.Clone(basicPOS), doc.UPOSTags...))
+	completeChoices(cmd, "pos", append(slices.Clone(termbase.BasicPOS), doc.UPOSTags...))
 	return cmd
 }
 
@@ -356,23 +356,15 @@ func (o *termbaseSetOptions) validate() error {
 	return checkPOS(e.POS)
 }
 
-// basicPOS are the TBX-Basic part-of-speech values a glossary writes.
-var basicPOS = []string{"noun", "verb", "adjective", "adverb", "other"}
-
-// checkPOS refuses a --pos that no reader of the termbase understands: it
-// takes a TBX-Basic value or UPOS tags, one a word as recorded runs store
-// them ("NOUN NOUN"); a typing error ("nuon") would otherwise be stored,
-// exported as "other" and ignored by check.
+// checkPOS refuses a --pos that no reader of the termbase understands
+// (termbase.ValidPOS), with the closest value.
 func checkPOS(pos string) error {
-	if pos == "" || slices.Contains(basicPOS, pos) {
+	if termbase.ValidPOS(pos) {
 		return nil
 	}
-	tags := strings.Fields(pos)
-	if len(tags) > 0 && strings.Join(tags, " ") == pos && !slices.ContainsFunc(tags, func(t string) bool { return !slices.Contains(doc.UPOSTags, t) }) {
-		return nil
-	}
-	msg := fmt.Sprintf("--pos %q: want one of %s, or UPOS tags such as NOUN or \"ADJ NOUN\"", pos, strings.Join(basicPOS, ", "))
-	if h := suggest.Hint(pos, append(slices.Clone(basicPOS), doc.UPOSTags...)); h != "" {
+	choices := append(slices.Clone(termbase.BasicPOS), doc.UPOSTags...)
+	msg := fmt.Sprintf("--pos %q: want one of %s, or UPOS tags such as NOUN or \"ADJ NOUN\"", pos, strings.Join(termbase.BasicPOS, ", "))
+	if h := suggest.Hint(pos, choices); h != "" {
 		msg += "; " + h
 	}
 	return usageError("%s", msg)

@@ -371,6 +371,9 @@ func (s *Store) setEntryField(action, term, value string, fn func(*Entry)) (Chan
 
 // SetPOS sets the part of speech of the term text names.
 func (s *Store) SetPOS(term, pos string) (Change, error) {
+	if err := CheckPOS(pos); err != nil {
+		return Change{}, err
+	}
 	return s.update("set-pos", fmt.Sprintf("%q: %q", term, pos), func(t *Tx) error {
 		_, x, _, err := t.findOrCreate(Proposal{Text: term}, Candidate)
 		if err != nil {
@@ -399,6 +402,9 @@ type Edit struct {
 // Edit applies an Edit to the entry term names (created when there is
 // none) as one change.
 func (s *Store) Edit(term string, ed Edit) (Change, error) {
+	if err := CheckPOS(ed.POS); err != nil {
+		return Change{}, err
+	}
 	var parts []string
 	add := func(name, v string) {
 		if v != "" {

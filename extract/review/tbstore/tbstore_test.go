@@ -13,6 +13,15 @@ import (
 	"glossmith/extract/terms"
 )
 
+// openTermbase opens a new termbase, closed when the test ends.
+func openTermbase(t *testing.T) *termbase.Store {
+	t.Helper()
+	tb, err := termbase.Open(filepath.Join(t.TempDir(), "t.gtb"))
+	require.NoError(t, err)
+	t.Cleanup(func() { tb.Close() })
+	return tb
+}
+
 func dataset(cands map[string][]string) *review.Dataset {
 	ds := &review.Dataset{}
 	for _, term := range []string{"solenoid valve", "magnet valve", "valve body", "drip line"} {
@@ -29,9 +38,7 @@ func dataset(cands map[string][]string) *review.Dataset {
 // Each page action becomes the termbase change of the same name, and the
 // page's statuses are the termbase's own labels (termbase.Index).
 func TestActionsAndLabels(t *testing.T) {
-	tb, err := termbase.Open(filepath.Join(t.TempDir(), "t.gtb"))
-	require.NoError(t, err)
-	defer tb.Close()
+	tb := openTermbase(t)
 	ds := dataset(map[string][]string{"solenoid valve": {"solenoid valve", "solenoid valves", "Solenoid Valve"}})
 	s := New(tb, ds)
 	all := []string{"solenoid valve", "magnet valve", "valve body", "drip line"}
@@ -82,12 +89,27 @@ func TestActionsAndLabels(t *testing.T) {
 	assert.Equal(t, review.Accepted, sv.Status)
 }
 
+// A part of speech typed on the page is refused as termbase set --pos
+// refuses it (termbase.ValidPOS): nothing is saved and the page is told why.
+func TestPageRefusesAnUnknownPartOfSpeech(t *testing.T) {
+	tb := openTermbase(t)
+	s := New(tb, dataset(nil))
+	require.NoError(t, s.Apply(review.Action{Kind: review.Accept, Term: "drip line"}))
+	err := s.Apply(review.Action{Kind: review.SetPOS, Term: "drip line", Text: "nuon"})
+	assert.ErrorContains(t, err, `"nuon"`)
+	got, err := s.Lookup([]string{"drip line"})
+	require.NoError(t, err)
+	assert.Empty(t, got["drip line"].POS)
+	require.NoError(t, s.Apply(review.Action{Kind: review.SetPOS, Term: "drip line", Text: "noun"}))
+	got, err = s.Lookup([]string{"drip line"})
+	require.NoError(t, err)
+	assert.Equal(t, "noun", got["drip line"].POS)
+}
+
 // The many-candidate path of Lookup (the whole termbase read once) says
 // the same as the few-candidate path (entries looked up one by one).
 func TestLookupPathsAgree(t *testing.T) {
-	tb, err := termbase.Open(filepath.Join(t.TempDir(), "t.gtb"))
-	require.NoError(t, err)
-	defer tb.Close()
+	tb := openTermbase(t)
 	s := New(tb, dataset(nil))
 	require.NoError(t, s.Apply(review.Action{Kind: review.Accept, Term: "drip line"}))
 	require.NoError(t, s.Apply(review.Action{Kind: review.Reject, Term: "valve body"}))
