@@ -100,8 +100,9 @@ func candidates(texts []string) []Proposal {
 }
 
 // Decide records one decision for several candidates in one change: st is
-// Preferred (accept; admitted when the entry has a preferred term
-// already), Rejected, Candidate (defer) or Deprecated. Forms, contexts and
+// Preferred (accept; admitted when another term of the entry is
+// preferred), Admitted (a reviewer's "admitted": admitted whatever else
+// the entry holds), Rejected, Candidate (defer) or Deprecated. Forms, contexts and
 // a part of speech the candidates carry are added to their terms.
 func (s *Store) Decide(st Status, cs ...Proposal) (Change, error) {
 	action := map[Status]string{Preferred: "accept", Admitted: "accept", Rejected: "reject", Candidate: "defer", Deprecated: "deprecate"}[st]
@@ -127,11 +128,7 @@ func (s *Store) Decide(st Status, cs ...Proposal) (Change, error) {
 
 // decide records one decision (see Decide).
 func (t *Tx) decide(st Status, c Proposal) error {
-	want := st
-	if want == Admitted {
-		want = Preferred
-	}
-	e, term, created, err := t.findOrCreate(c, want)
+	e, term, created, err := t.findOrCreate(c, st)
 	if err != nil {
 		return err
 	}
@@ -144,10 +141,9 @@ func (t *Tx) decide(st Status, c Proposal) error {
 	n := *term
 	n.Deferred = false
 	switch st {
-	case Preferred, Admitted:
-		if term.Status == Preferred || term.Status == Admitted {
-			n.Status = term.Status
-		} else if p := e.Preferred(term.Lang); p != nil && p != term && p.Status == Preferred {
+	case Preferred:
+		// Accepted: preferred unless another term of the entry is.
+		if p := e.Preferred(term.Lang); term.Status != Preferred && p != nil && p != term && p.Status == Preferred {
 			n.Status = Admitted
 		} else {
 			n.Status = Preferred
