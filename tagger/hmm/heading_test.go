@@ -4,6 +4,7 @@ import (
 	"os"
 	"path/filepath"
 	"slices"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -97,9 +98,12 @@ func tagsOf(s *doc.Sentence) sentenceTags {
 // capitals and is tagged PROPN, as UD tags names
 // (universaldependencies.org/u/pos/PROPN.html); an acronym that is also
 // a word ("ME") keeps its capitals in a heading in capitals; a word the
-// running text writes in lower case is a common noun. Each document is
-// read as Markdown and as plain text, whose reader finds the headings by
-// their layout. The organisations and products are invented.
+// running text writes in lower case is a common noun; a heading that
+// running text refers to ("see Winter Storage") is read as if alone,
+// the same words without a cue as a name. Each document is read as
+// Markdown, as plain text, whose reader finds the headings by their
+// layout, as a file without extension whose underlined headings make it
+// Markdown, and as HTML. The organisations and products are invented.
 func TestHeadingsReadWithDocumentEvidence(t *testing.T) {
 	m, err := Default()
 	require.NoError(t, err)
@@ -119,12 +123,18 @@ func TestHeadingsReadWithDocumentEvidence(t *testing.T) {
 			"Plan fertigation by crop and season.", "Fertigation", "NOUN", "fertigation", false},
 		{"common words, lower case in general English", "Cleaning the Drip Emitters",
 			"Clean the drip emitters once a month.", "Emitters", "NOUN", "emitter", true},
+		{"a reference to a section by its heading is no name", "Winter Storage",
+			"Before the first frost, see Winter Storage.", "Storage", "NOUN", "storage", true},
+		{"a heading repeated without a cue is a name", "Winter Storage",
+			"Our partner Winter Storage keeps the spare valves.", "Storage", "PROPN", "Storage", false},
 	}
 	dir := t.TempDir()
 	for _, tt := range tests {
 		for _, f := range []struct{ name, content string }{
 			{"manual.md", "# " + tt.heading + "\n\n" + tt.body + "\n"},
 			{"manual.txt", tt.heading + "\n\n" + tt.body + "\n"},
+			{"manual", tt.heading + "\n" + strings.Repeat("=", len(tt.heading)) + "\n\n" + tt.body + "\n"},
+			{"manual.html", "<h2>" + tt.heading + "</h2>\n<p>" + tt.body + "</p>\n"},
 		} {
 			t.Run(tt.name+"/"+f.name, func(t *testing.T) {
 				p := filepath.Join(dir, f.name)

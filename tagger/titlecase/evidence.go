@@ -17,7 +17,8 @@ import (
 // there the writer capitalizes only what they mean as a name:
 //
 //   - a sequence of heading words that running text writes capitalized
-//     (not at a sentence start) is a name, and keeps its capitals;
+//     (not at a sentence start, nor as a reference to a section: "see
+//     Filter Maintenance") is a name, and keeps its capitals;
 //   - a heading word that running text writes in capitals is an acronym;
 //   - a heading word that running text writes in lower case is a common
 //     word, whatever the general tables say.
@@ -55,7 +56,7 @@ func Gather(sents []doc.Sentence) *Evidence {
 		if !sents[i].Heading {
 			continue
 		}
-		r.addTaskTitle(sents[i].Tokens)
+		r.addHeading(sents[i].Tokens)
 		for k := range sents[i].Tokens {
 			form := sents[i].Tokens[k].Form
 			if upper, _ := caseOf(form); !upper {
@@ -88,11 +89,13 @@ func Gather(sents []doc.Sentence) *Evidence {
 type runningText struct {
 	buf    []byte
 	inHead []bool // for each token of the current run: a heading word
-	// refs holds the headings that name a task ("Cleaning the Drip
-	// Emitters"), lower-cased from first word to last: running text that
-	// repeats one refers to that section ("see Cleaning the Drip
-	// Emitters"), and its capitals are the heading's, not a name's.
-	refs map[string]struct{}
+	// refs holds the document's headings, lower-cased from first word to
+	// last, each with its kind (refTask, refTitle): running text that
+	// repeats one may refer to that section ("see Filter Maintenance"),
+	// and then its capitals are the heading's, not a name's.
+	refs map[string]uint8
+	// refLongest is the number of tokens of the longest key of refs.
+	refLongest int
 	// The sentence's case (sentenceCase), worked out when first needed.
 	known, lowerText, names bool
 }
@@ -148,7 +151,7 @@ func (r *runningText) read(e *Evidence, toks []doc.Token) {
 				continue // "of" in "Ministry of Water Supply"; not "the" after "Mount"
 			}
 			if counts && r.sentenceCase(toks).names {
-				r.addNames(e, toks[start:last+1])
+				r.addNames(e, toks, start, last+1)
 			}
 			start = -1
 		}
@@ -157,7 +160,7 @@ func (r *runningText) read(e *Evidence, toks []doc.Token) {
 		}
 	}
 	if start >= 0 && counts && r.sentenceCase(toks).names {
-		r.addNames(e, toks[start:last+1])
+		r.addNames(e, toks, start, last+1)
 	}
 }
 
@@ -218,17 +221,17 @@ func (r *runningText) sentenceCase(toks []doc.Token) *runningText {
 	return r
 }
 
-// addNames records the run of capitalized words and small words run, and
-// each of its parts between small words that has two words or more
-// ("Official Journal" of "Official Journal of the Water Board"), as far as
-// they are made of heading words. A part of one word is left out: "Board"
-// alone is no evidence that a heading's "Board" is a name.
-func (r *runningText) addNames(e *Evidence, run []doc.Token) {
-	all := r.headingWordsOnly(run)
-	if all && len(r.refs) > 0 {
-		if _, ok := r.refs[string(r.key(run))]; ok {
-			return // a reference to a section, by its heading
-		}
+// addNames records the run of capitalized words and small words
+// toks[start:end], and each of its parts between small words that has
+// two words or more ("Official Journal" of "Official Journal of the Water
+// Board"), as far as they are made of heading words. A part of one word is
+// left out: "Board" alone is no evidence that a heading's "Board" is a
+// name. A run that refers to sections of the document (isReference) is no
+// evidence at all.
+func (r *runningText) addNames(e *Evidence, toks []doc.Token, start, end int) {
+	run := toks[start:end]
+	if r.isReference(toks, start, end) {
+		return
 	}
 	from := 0 // the current part's first token
 	for k := 0; k <= len(run); k++ {
@@ -240,7 +243,7 @@ func (r *runningText) addNames(e *Evidence, run []doc.Token) {
 		}
 		from = k + 1
 	}
-	if all {
+	if r.headingWordsOnly(run) {
 		r.addName(e, run)
 	}
 }
@@ -256,10 +259,22 @@ func (r *runningText) headingWordsOnly(run []doc.Token) bool {
 	return true
 }
 
-// addTaskTitle adds a heading to r.refs when it names a task: its first
-// word is an -ing form ("Cleaning", "Installing") and another follows.
-// Names seldom start so; manuals' section titles often do.
-func (r *runningText) addTaskTitle(toks []doc.Token) {
+// Kinds of heading in runningText.refs.
+const (
+	// refTitle: a heading that running text refers to only with a cue
+	// (isReferenceCue); without one the same words may be a name ("Mount
+	// the Climate Master", heading "Climate Master").
+	refTitle uint8 = 1 + iota
+	// refTask: a heading that names a task, its first word an -ing form
+	// and another following ("Cleaning the Drip Emitters"). Names seldom
+	// start so, manuals' section titles often do: running text repeating
+	// one refers to it, cue or none.
+	refTask
+)
+
+// addHeading adds the heading toks to r.refs, from its first word to its
+// last ("4.2 Filter Maintenance" as "filter maintenance").
+func (r *runningText) addHeading(toks []doc.Token) {
 	first, last := -1, -1
 	for k := range toks {
 		if c, _ := utf8.DecodeRuneInString(toks[k].Form); unicode.IsLetter(c) {
@@ -269,13 +284,114 @@ func (r *runningText) addTaskTitle(toks []doc.Token) {
 			last = k
 		}
 	}
-	if first < 0 || first == last || !strings.HasSuffix(strings.ToLower(toks[first].Form), "ing") {
+	if first < 0 {
 		return
 	}
-	if r.refs == nil {
-		r.refs = map[string]struct{}{}
+	kind := refTitle
+	if first != last && strings.HasSuffix(strings.ToLower(toks[first].Form), "ing") {
+		kind = refTask
 	}
-	r.refs[string(r.key(toks[first:last+1]))] = struct{}{}
+	if r.refs == nil {
+		r.refs = map[string]uint8{}
+	}
+	r.refs[string(r.key(toks[first:last+1]))] = kind
+	r.refLongest = max(r.refLongest, last+1-first)
+}
+
+// isReference reports whether the run toks[start:end] refers to sections
+// of the document, as a careful reader takes it: the whole run repeats a
+// heading, first word to last, or several joined by "and", perhaps after
+// "Section" or "Chapter"; and either each is a task's heading (refTask),
+// or a cue points to a section (isReferenceCue): "see Filter
+// Maintenance", "refer to Filter Maintenance", "described in Filter
+// Maintenance", "in Section Filter Maintenance", "the Filter Maintenance
+// section", "see Filter Maintenance and Valve Care".
+//
+// A run that is more than headings ("see Filter Maintenance Records") or
+// has no cue ("Mount the Climate Master", heading "Climate Master") stays
+// evidence of a name. Quotation marks need no rule here: a capital after
+// an opening quote is the writing's (mayStartName), so a quoted run ("see
+// “Filter Maintenance”") never counts as a name, nor does a quoted product
+// name ("the “Climate Master” controller"), whose evidence comes from
+// where the text writes it unquoted. Nor does a run at a sentence's start
+// ("Filter Maintenance describes the intervals", "Climate Master units
+// ship with a bracket"): its capital is the writing's, name or reference.
+func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
+	if len(r.refs) == 0 {
+		return false
+	}
+	run := toks[start:end]
+	i, section := 0, false
+	if len(run) > 1 && isSectionWord(run[0].Form) {
+		i, section = 1, true
+	}
+	tasks := true
+	for {
+		to, kind := r.longestHeading(run, i)
+		if kind == 0 {
+			return false
+		}
+		tasks = tasks && kind == refTask
+		if to == len(run) {
+			break
+		}
+		if !strings.EqualFold(run[to].Form, "and") {
+			return false
+		}
+		i = to + 1
+	}
+	return tasks || section || isReferenceCue(toks, start, end)
+}
+
+// longestHeading returns the end of the longest heading of r.refs that
+// run repeats from its token i, and its kind; 0 for none. A heading's
+// words in run are heading words or small words.
+func (r *runningText) longestHeading(run []doc.Token, i int) (to int, kind uint8) {
+	r.buf = r.buf[:0]
+	for j := i; j < len(run) && j-i < r.refLongest; j++ {
+		if !r.inHead[j] && !isSmallWord(run[j].Form) {
+			break
+		}
+		if j > i {
+			r.buf = append(r.buf, ' ')
+		}
+		r.buf = appendLower(r.buf, run[j].Form)
+		if k, ok := r.refs[string(r.buf)]; ok {
+			to, kind = j+1, k
+		}
+	}
+	return to, kind
+}
+
+// isReferenceCue reports whether the words around toks[from:to] point to
+// a section: "see", "under", "section" or "chapter" right before it, "see
+// also", "refer to" or "described in" before it, or "section" or
+// "chapter" right after it; in any case, "sections" and "chapters" too.
+func isReferenceCue(toks []doc.Token, from, to int) bool {
+	is := func(k int, w string) bool { return k >= 0 && k < len(toks) && strings.EqualFold(toks[k].Form, w) }
+	if to < len(toks) && isSectionWord(toks[to].Form) {
+		return true
+	}
+	switch {
+	case from < 1:
+		return false
+	case is(from-1, "see"), is(from-1, "under"), isSectionWord(toks[from-1].Form):
+		return true
+	}
+	return is(from-1, "also") && is(from-2, "see") ||
+		is(from-1, "to") && is(from-2, "refer") ||
+		is(from-1, "in") && is(from-2, "described")
+}
+
+// isSectionWord reports the words that name a part of a document
+// ("section", "Chapter", "sections"), in any case.
+func isSectionWord(form string) bool {
+	for _, w := range [...]string{"section", "sections", "chapter", "chapters"} {
+		if strings.EqualFold(form, w) {
+			return true
+		}
+	}
+	return false
 }
 
 // key returns the lower case of toks' forms joined by spaces, in r.buf.
