@@ -44,7 +44,9 @@ added or wrong, or two swapped (never the first), that is no English word the
 tagger knows ("value" is not taken for "valve") and no word of the termbase;
 a capitalized word too where the capital is the writing's (a sentence's first
 word, a heading's words, a heading or line in capitals), unless the running
-text writes it capitalized as a name or acronym.
+text writes it capitalized as a name or acronym; there a capitalized plural
+the tagger takes for a name is read by its regular singular too ("Thermisters"
+for the deprecated "thermister").
 With --variants, also every variant group (grouped as the terms command
 groups them) spelled more than one way, with its counts in each document and
 in all, and the majority spelling to use.

@@ -16,9 +16,12 @@ type docCapitals struct {
 	sents []doc.Sentence
 	// own holds the words the running text writes with capitals of their
 	// own (titlecase.OwnCapitals), built when a capitalized word first
-	// reads as a misspelling; nil before.
+	// reads as a misspelling or a term's plural; nil before.
 	own map[string]struct{}
-	buf []byte // the lower case of the word being read
+	// keep tells the lower-case words own is to record: those that may be
+	// misspellings or plurals of the glossary's words at all.
+	keep func([]byte) bool
+	buf  []byte // the lower case of the word being read
 	// capsLine tells whether the heading sentence, or the tokens of
 	// sentence on line (-1 for a heading), are in capitals: worked out once
 	// for all their words. sentence is -1 before.
@@ -76,11 +79,10 @@ func (c *docCapitals) lowered(si, k int) bool {
 }
 
 // ownCapitals reports whether the document's running text writes the
-// lower-cased word w with capitals of its own. keep limits the words
-// recorded to those that may be misspellings at all.
-func (c *docCapitals) ownCapitals(w []byte, keep func([]byte) bool) bool {
+// lower-cased word w, one that c.keep keeps, with capitals of its own.
+func (c *docCapitals) ownCapitals(w []byte) bool {
 	if c.own == nil {
-		c.own = titlecase.OwnCapitals(c.sents, keep)
+		c.own = titlecase.OwnCapitals(c.sents, c.keep)
 	}
 	_, ok := c.own[string(w)]
 	return ok

@@ -58,7 +58,14 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 		var spans []span
 		var miss []misspelt
 		var fixed []doc.Token
-		dc := docCapitals{sents: d.Sentences, sentence: -1}
+		ms := opt.Misspellings
+		if ms != nil && ms.m != opt.Glossary {
+			ms = nil
+		}
+		dc := docCapitals{sents: d.Sentences, sentence: -1, keep: opt.Glossary.hasSingular}
+		if ms != nil {
+			dc.keep = func(w []byte) bool { return ms.mayBeMisspelt(w) || opt.Glossary.hasSingular(w) }
+		}
 		add := func(f *Finding) {
 			f.File = d.Name
 			l.span(f)
@@ -70,13 +77,24 @@ func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 		}
 		for si := range d.Sentences {
 			toks := d.Sentences[si].Tokens
-			spans = sc.find(spans[:0], toks)
+			read := sc.readSingulars(&dc, si)
+		scan:
+			spans = sc.find(spans[:0], read)
+			n, suppressed := len(res.Findings), res.Suppressed
 			for _, sp := range spans {
-				if f, ok := opt.Glossary.classify(d, toks, sp); ok {
-					add(&f)
+				f, ok := opt.Glossary.classify(d, read, sp)
+				if !ok {
+					continue
 				}
+				if len(sc.singulars) > 0 && sc.dropNames(&dc, si, sp) {
+					// a name read as a term's plural: the sentence is
+					// scanned again without that reading
+					res.Findings, res.Suppressed = res.Findings[:n], suppressed
+					goto scan
+				}
+				add(&f)
 			}
-			if ms := opt.Misspellings; ms != nil && ms.m == opt.Glossary {
+			if ms != nil {
 				miss = ms.find(miss[:0], sc, &dc, si, spans, &fixed)
 				for _, sp := range miss {
 					if f := opt.Glossary.classifyMisspelt(d, toks, sp); f != nil {

@@ -35,6 +35,10 @@ type Matcher struct {
 	// folded holds each form's text as compared with the text found
 	// (foldSpace), per entry and form.
 	folded [][]string
+	// wordKeys holds the hashes (keyHash) of the keys of the forms and
+	// of their words: a capitalized plural is read as its singular only
+	// when that is one (singular).
+	wordKeys map[uint64]struct{}
 }
 
 // trieNode is a node of the matcher's trie.
@@ -130,10 +134,12 @@ func Compile(g Glossary) *Matcher {
 		nd.table = int32(len(m.tables))
 	}
 	m.folded = make([][]string, len(g.Entries))
+	m.wordKeys = make(map[uint64]struct{}, len(g.Entries)*4)
 	for ei, e := range g.Entries {
 		m.folded[ei] = make([]string, len(e.Forms))
 		for fi, f := range e.Forms {
 			m.folded[ei][fi] = foldSpace(f.Text)
+			addWordKeys(m.wordKeys, f.Text)
 		}
 	}
 	nodes := make([]int32, 0, len(finals))
@@ -211,7 +217,7 @@ func (m *Matcher) walk(n int32, s string, scratch *[]byte) int32 {
 func appendKey(dst []byte, s string) []byte {
 	for _, r := range s {
 		switch {
-		case r == '-' || r == '\u2010' || r == '\u2011' || r == '\u00ad' || unicode.IsSpace(r):
+		case isKeySeparator(r):
 			continue
 		case r < utf8.RuneSelf:
 			if 'A' <= r && r <= 'Z' {
@@ -223,6 +229,20 @@ func appendKey(dst []byte, s string) []byte {
 		}
 	}
 	return dst
+}
+
+// isKeySeparator reports whether a key leaves r out: white space and the
+// hyphens (ASCII, U+2010, U+2011 and the soft hyphen).
+func isKeySeparator(r rune) bool {
+	if r < utf8.RuneSelf {
+		return r == '-' || r == ' ' || '\t' <= r && r <= '\r'
+	}
+	return wideKeySeparator(r)
+}
+
+// wideKeySeparator is isKeySeparator for the runes outside ASCII.
+func wideKeySeparator(r rune) bool {
+	return r == '\u2010' || r == '\u2011' || r == '\u00ad' || unicode.IsSpace(r)
 }
 
 func isHyphen(s string) bool { return s == "-" || s == "‐" || s == "‑" }
@@ -257,6 +277,11 @@ type scanner struct {
 	next     []int32
 	scratch  []byte
 	terminal []int32
+	// singulars are the words of the sentence scanned that are read also
+	// as their singular, and read is the sentence with those words'
+	// lemmas so (readSingulars); mostly none.
+	singulars []singular
+	read      []doc.Token
 }
 
 // find appends to out the leftmost-longest spans of toks whose key is the

@@ -236,7 +236,7 @@ func (ms *Misspellings) fixCapitalized(dc *docCapitals, si, k int) string {
 		return ""
 	}
 	r := ms.readingOf(dc.buf)
-	if r.fix == "" || ms.pluralOfWord(dc.buf) || dc.ownCapitals(dc.buf, ms.mayBeMisspelt) {
+	if r.fix == "" || ms.pluralOfWord(dc.buf) || dc.ownCapitals(dc.buf) {
 		return ""
 	}
 	return r.fix
