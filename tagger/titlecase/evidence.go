@@ -96,6 +96,9 @@ type runningText struct {
 	refs map[string]uint8
 	// refLongest is the number of tokens of the longest key of refs.
 	refLongest int
+	// What headings found: each a task's heading; a word pointing to a
+	// section leads.
+	tasks, cued bool
 	// The sentence's case (sentenceCase), worked out when first needed.
 	known, lowerText, names bool
 }
@@ -300,12 +303,13 @@ func (r *runningText) addHeading(toks []doc.Token) {
 
 // isReference reports whether the run toks[start:end] refers to sections
 // of the document, as a careful reader takes it: the whole run repeats a
-// heading, first word to last, or several joined by "and", perhaps after
-// "Section" or "Chapter"; and either each is a task's heading (refTask),
-// or a cue points to a section (isReferenceCue): "see Filter
-// Maintenance", "refer to Filter Maintenance", "described in Filter
-// Maintenance", "in Section Filter Maintenance", "the Filter Maintenance
-// section", "see Filter Maintenance and Valve Care".
+// heading, first word to last, or several joined by "and" (headings), and
+// either each is a task's heading (refTask), or a cue points to a section
+// (isReferenceCue): "see Filter Maintenance", "refer to Filter
+// Maintenance", "described in Filter Maintenance", "in Section Filter
+// Maintenance", "the Filter Maintenance section", "see Filter Maintenance
+// and Valve Care"; or it goes on a list of references after a comma or
+// "or" ("see Filter Maintenance, Valve Care or Winter Storage").
 //
 // A run that is more than headings ("see Filter Maintenance Records") or
 // has no cue ("Mount the Climate Master", heading "Climate Master") stays
@@ -317,50 +321,89 @@ func (r *runningText) addHeading(toks []doc.Token) {
 // ("Filter Maintenance describes the intervals", "Climate Master units
 // ship with a bracket"): its capital is the writing's, name or reference.
 func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
-	if len(r.refs) == 0 {
+	if len(r.refs) == 0 || !r.inHead[0] && !(end-start > 1 && r.inHead[1] && isLeadWord(toks[start].Form)) {
+		return false // most runs: not starting with a heading word
+	}
+	if !r.headings(toks, start, end) {
 		return false
 	}
-	run := toks[start:end]
-	i, section := 0, false
-	if len(run) > 1 && isSectionWord(run[0].Form) {
-		i, section = 1, true
+	if r.tasks || r.cued || isReferenceCue(toks, start, end) {
+		return true
 	}
-	tasks := true
+	// Back along a list, item by item, to a cue.
+	for to := start - 1; to > 0 && (toks[to].Form == "," || strings.EqualFold(toks[to].Form, "or")); {
+		from := to
+		for from > 0 && isRunWord(toks[from-1].Form) {
+			from--
+		}
+		for from < to && !r.headings(toks, from, to) {
+			from++ // "Filter Maintenance" of "Refer to Filter Maintenance"
+		}
+		if from == to {
+			return false
+		}
+		if r.tasks || r.cued || isReferenceCue(toks, from, to) {
+			return true
+		}
+		to = from - 1
+	}
+	return false
+}
+
+// headings reports whether toks[from:to] repeats headings of r.refs, one
+// or several joined by "and", perhaps after a word that points to a
+// section ("See", "Section", "Chapter"); it sets r.tasks when each is a
+// task's heading, and r.cued when such a word leads.
+func (r *runningText) headings(toks []doc.Token, from, to int) bool {
+	r.tasks, r.cued = true, false
+	i := from
+	if to-from > 1 && isLeadWord(toks[from].Form) {
+		i, r.cued = from+1, true
+	}
 	for {
-		to, kind := r.longestHeading(run, i)
+		end, kind := r.longestHeading(toks[:to], i)
 		if kind == 0 {
 			return false
 		}
-		tasks = tasks && kind == refTask
-		if to == len(run) {
-			break
+		r.tasks = r.tasks && kind == refTask
+		if end == to {
+			return true
 		}
-		if !strings.EqualFold(run[to].Form, "and") {
+		if !strings.EqualFold(toks[end].Form, "and") {
 			return false
 		}
-		i = to + 1
+		i = end + 1
 	}
-	return tasks || section || isReferenceCue(toks, start, end)
 }
 
 // longestHeading returns the end of the longest heading of r.refs that
-// run repeats from its token i, and its kind; 0 for none. A heading's
-// words in run are heading words or small words.
-func (r *runningText) longestHeading(run []doc.Token, i int) (to int, kind uint8) {
+// toks repeats from its token i, and its kind; 0 for none.
+func (r *runningText) longestHeading(toks []doc.Token, i int) (to int, kind uint8) {
 	r.buf = r.buf[:0]
-	for j := i; j < len(run) && j-i < r.refLongest; j++ {
-		if !r.inHead[j] && !isSmallWord(run[j].Form) {
-			break
-		}
+	for j := i; j < len(toks) && j-i < r.refLongest; j++ {
 		if j > i {
 			r.buf = append(r.buf, ' ')
 		}
-		r.buf = appendLower(r.buf, run[j].Form)
+		r.buf = appendLower(r.buf, toks[j].Form)
 		if k, ok := r.refs[string(r.buf)]; ok {
 			to, kind = j+1, k
 		}
 	}
 	return to, kind
+}
+
+// isLeadWord reports a word that, capitalized before a heading in a run,
+// points to a section ("See Filter Maintenance", "Section Filter
+// Maintenance").
+func isLeadWord(form string) bool {
+	return isSectionWord(form) || strings.EqualFold(form, "see")
+}
+
+// isRunWord reports a token that may stand in a run of capitalized words:
+// capitalized, or one of the small words of names.
+func isRunWord(form string) bool {
+	upper, _ := caseOf(form)
+	return upper || isSmallWord(form)
 }
 
 // isReferenceCue reports whether the words around toks[from:to] point to
