@@ -11,6 +11,7 @@ import (
 	"net/url"
 	"os"
 	"os/user"
+	"path/filepath"
 	"strconv"
 	"time"
 
@@ -143,11 +144,33 @@ func Open(path string) (*Store, error) {
 	return open(path, SchemaVersion)
 }
 
+// creatable reports a folder, named in a missing termbase's path, that is
+// not there or not a folder, in words rather than SQLite's "unable to open
+// database file (14)".
+func creatable(path string) error {
+	dir := filepath.Dir(path)
+	fi, err := os.Stat(dir)
+	switch {
+	case errors.Is(err, os.ErrNotExist):
+		return fmt.Errorf("termbase %s: there is no folder %s to create it in", path, dir)
+	case err != nil:
+		return fmt.Errorf("termbase %s: %w", path, err)
+	case !fi.IsDir():
+		return fmt.Errorf("termbase %s: %s is a file, not a folder", path, dir)
+	}
+	return nil
+}
+
 // open opens or creates path and brings it to schema version target (tests
 // make older versions with a lower target).
 func open(path string, target int) (*Store, error) {
 	fresh := false
 	fi, err := os.Stat(path)
+	if err != nil {
+		if err := creatable(path); err != nil {
+			return nil, err
+		}
+	}
 	switch {
 	case errors.Is(err, os.ErrNotExist):
 		fresh = true

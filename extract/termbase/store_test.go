@@ -415,3 +415,24 @@ func TestKey(t *testing.T) {
 		assert.Equal(t, want, Key(in), "%q", in)
 	}
 }
+
+// A termbase to create in a folder that is not there, or under a file,
+// is refused with the folder named, and nothing is created.
+func TestOpenNamesAMissingFolder(t *testing.T) {
+	dir := t.TempDir()
+	notes := filepath.Join(dir, "notes.md")
+	require.NoError(t, os.WriteFile(notes, []byte("# notes\n"), 0o644))
+	for _, c := range []struct{ name, path, want string }{
+		{"missing folder", filepath.Join(dir, "glossaries", "cold-store.db"), "there is no folder " + filepath.Join(dir, "glossaries") + " to create it in"},
+		{"missing folders", filepath.Join(dir, "a", "b", "cold-store.db"), "there is no folder " + filepath.Join(dir, "a", "b") + " to create it in"},
+		{"a file for a folder", filepath.Join(notes, "cold-store.db"), notes + " is a file, not a folder"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := Open(c.path)
+			require.Error(t, err)
+			assert.Equal(t, "termbase "+c.path+": "+c.want, err.Error())
+			assert.NoDirExists(t, filepath.Join(dir, "glossaries"))
+			assert.NoDirExists(t, filepath.Join(dir, "a"))
+		})
+	}
+}
