@@ -1,6 +1,9 @@
 package termbase
 
 import (
+	"database/sql"
+	"encoding/json"
+	"errors"
 	"fmt"
 	"slices"
 	"strings"
@@ -128,6 +131,11 @@ func (s *Store) Decide(st Status, cs ...Proposal) (Change, error) {
 
 // decide records one decision (see Decide).
 func (t *Tx) decide(st Status, c Proposal) error {
+	if len(c.Forms) == 0 && len(c.Contexts) == 0 {
+		if err := t.seenInRuns(&c); err != nil {
+			return err
+		}
+	}
 	e, term, created, err := t.findOrCreate(c, st)
 	if err != nil {
 		return err
@@ -138,6 +146,12 @@ func (t *Tx) decide(st Status, c Proposal) error {
 		}
 		return nil
 	}
+	// A form that is a term of the entry itself (a spelling with its own
+	// status) is not one of this term's forms, as in RecordRun.
+	c.Forms = slices.DeleteFunc(slices.Clone(c.Forms), func(f string) bool {
+		k := Key(f)
+		return k != term.Key && slices.ContainsFunc(e.Terms, func(x *Term) bool { return x.Key == k })
+	})
 	n := *term
 	n.Deferred = false
 	switch st {
@@ -158,6 +172,36 @@ func (t *Tx) decide(st Status, c Proposal) error {
 	}
 	n.Forms, n.Contexts = c.Forms, c.Contexts
 	return t.setTerm(term, &n)
+}
+
+// seenInRuns gives a proposal that comes without them (a term named on
+// the command line or in a review sheet) the surface forms, contexts and
+// part of speech of the latest recorded run that has it as a candidate: a
+// term decided after its run was recorded shows them, in termbase show and
+// the review sheet's contexts, as one decided before does.
+func (t *Tx) seenInRuns(c *Proposal) error {
+	if t.s.schema < 2 { // no recorded runs before schema 2
+		return nil
+	}
+	var pos, forms, ctxs string
+	err := t.tx.QueryRowContext(t.ctx, "SELECT rt.pos, rt.forms, rt.contexts FROM runs r JOIN run_terms rt ON rt.run_id = r.id AND rt.key = ? ORDER BY r.id DESC LIMIT 1", Key(c.Text)).
+		Scan(&pos, &forms, &ctxs)
+	if errors.Is(err, sql.ErrNoRows) {
+		return nil
+	}
+	if err != nil {
+		return t.s.errf(err)
+	}
+	var fs []Form
+	_ = json.Unmarshal([]byte(forms), &fs)
+	for _, f := range fs {
+		c.Forms = append(c.Forms, f.Text)
+	}
+	_ = json.Unmarshal([]byte(ctxs), &c.Contexts)
+	if c.POS == "" {
+		c.POS = pos
+	}
+	return nil
 }
 
 // Verdict is one row of a review: a term, the decision on it (a Status;
@@ -269,6 +313,18 @@ func (t *Tx) setStatus(term, form string, st Status) error {
 				}
 			}
 		}
+	}
+	// A spelling with a status of its own is no longer a surface form of
+	// the entry's other terms (what RecordRun keeps of forms).
+	if err := t.touch(e.ID); err != nil {
+		return err
+	}
+	res, err := t.exec("DELETE FROM forms WHERE key = ? AND term_id IN (SELECT id FROM terms WHERE entry_id = ? AND id != ?)", Key(form), e.ID, target.ID)
+	if err != nil {
+		return err
+	}
+	if k, _ := res.RowsAffected(); k > 0 {
+		t.changed = true
 	}
 	n := *target
 	n.Status, n.Deferred = st, false

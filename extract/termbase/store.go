@@ -119,6 +119,9 @@ type Store struct {
 	// Lang is the language given to terms created without one: "en".
 	Lang string
 	now  func() time.Time
+	// schema is the schema version of the file (SchemaVersion but in
+	// tests of migrations, which make older files).
+	schema int
 }
 
 // Path returns the file the store was opened from.
@@ -287,8 +290,10 @@ func (s *Store) prepare(fresh bool, target int) error {
 		}
 	}
 	if version >= target {
+		s.schema = version
 		return nil
 	}
+	s.schema = target
 	if !fresh {
 		if err := s.backup(version); err != nil {
 			return err
