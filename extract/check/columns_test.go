@@ -246,3 +246,54 @@ func TestSkipMarkerLines(t *testing.T) {
 		assert.Equal(t, tc.lines, got, tc.name)
 	}
 }
+
+// A document in UTF-16 (with a byte order mark, little or big endian) has
+// the findings of the same document in UTF-8, at the same lines and
+// columns: its code (HTML code and pre elements, Markdown code spans) and
+// the lines after its skip comments are left out as in UTF-8. The
+// documents hold characters of two and four bytes in UTF-8 (one and two
+// UTF-16 units) before findings and code, and CRLF line ends.
+func TestUTF16FindingsAsUTF8(t *testing.T) {
+	cases := []struct {
+		name, file, content string
+		lines               []int // of the findings in UTF-8
+	}{
+		{name: "html", file: "page.html", lines: []int{1, 7, 7, 9},
+			content: "<p>Fit the magnet valve, not the <code>magnet valve</code>.</p>\r\n" +
+				"<!-- glossmith:skip-next-line -->\r\n<p>A magnet valve.</p>\r\n" +
+				"<pre>\r\nset magnet valve\r\n</pre>\r\n" +
+				"<p>Café 𝛥T: a magnet valve; <kbd>𝛥 magnet valve</kbd>, the flowrate.</p>\r\n" +
+				"<p>Then <!-- glossmith:skip-next-line --> the magnet valve</p>\n<p>and 𝛥 the magnet valve.</p>"},
+		{name: "markdown", file: "page.md", lines: []int{1, 5, 5},
+			content: "Fit the magnet valve, not the `magnet valve`.\r\n" +
+				"<!-- glossmith:skip-next-line -->\r\nA magnet valve.\r\n\r\n" +
+				"Café 𝛥T: a magnet valve; `𝛥 magnet valve`, the flowrate.\r\n"},
+	}
+	m := Compile(pumpGlossary())
+	type at struct {
+		text                       string
+		line, col, endLine, endCol int
+	}
+	findings := func(name, content string) []at {
+		d, src := annotate(t, name, content)
+		var out []at
+		for _, f := range Check(d, src, Options{Glossary: m}).Findings {
+			out = append(out, at{f.Text, f.Line, f.Column, f.EndLine, f.EndColumn})
+		}
+		return out
+	}
+	for _, tc := range cases {
+		want := findings(tc.file, tc.content)
+		var lines []int
+		for _, f := range want {
+			lines = append(lines, f.line)
+		}
+		require.Equal(t, tc.lines, lines, "%s in UTF-8: %v", tc.name, want)
+		for _, enc := range []struct {
+			name  string
+			order unicode.Endianness
+		}{{"UTF-16 LE", unicode.LittleEndian}, {"UTF-16 BE", unicode.BigEndian}} {
+			assert.Equal(t, want, findings(tc.file, utf16File(t, enc.order, tc.content)), "%s in %s", tc.name, enc.name)
+		}
+	}
+}

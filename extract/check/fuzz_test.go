@@ -23,6 +23,10 @@ func FuzzCheck(f *testing.F) {
 	f.Add("The solenoid vavle, the set-piont and both solenoid vavles; `magnet vavle`.\n", "md")
 	f.Add("# Replacing the Solenoid Vavle\n\nMagnte valves. SOLENOID VAVLE\nThe Magnte crew; the MAGNTE board.\n", "md")
 	f.Add("<h2>SOLENOID <b>VAVLE</b></h2><p>Set-Piont: Magnte valve</p>", "html")
+	// UTF-16 LE
+	f.Add("\xff\xfe<\x00p\x00>\x00<\x00c\x00o\x00d\x00e\x00>\x00P\x00L\x00C\x00<\x00/\x00c\x00o\x00d\x00e\x00>\x00 \x00P\x00L\x00C\x00", "html")
+	// UTF-16 BE, cut off in a surrogate pair
+	f.Add("\xfe\xff\x00<\x00!\x00-\x00-\x00 \x00g\x00l\x00o\x00s\x00s\x00m\x00i\x00t\x00h\x00:\x00s\x00k\x00i\x00p\x00-\x00n\x00e\x00x\x00t\x00-\x00l\x00i\x00n\x00e\x00-\x00-\x00>\x00\n\x00P\x00L\x00C\xd8\x35", "html")
 	m, ms := fuzzGlossary()
 	dir := f.TempDir()
 	f.Fuzz(func(t *testing.T, src, format string) {

@@ -73,8 +73,10 @@ func newLayout(d *doc.Document, src []byte) *layout {
 			}
 		}
 	case "html":
-		if src != nil && !bytes.HasPrefix(src, []byte{0xFF, 0xFE}) && !bytes.HasPrefix(src, []byte{0xFE, 0xFF}) {
-			l.htmlMarks(src) // tags are ASCII in any encoding but UTF-16
+		if u := newUTF16Source(src); u != nil {
+			l.htmlMarks(u.decoded(), u.fileOffset)
+		} else if src != nil {
+			l.htmlMarks(src, nil) // tags are ASCII in any encoding but UTF-16
 		}
 	}
 	if d.Format != "html" && strings.Contains(d.Text, SkipMarker) { // lines of the text are lines of the file (or all there is)
@@ -103,10 +105,13 @@ func gunzipped(src []byte) []byte {
 	return src
 }
 
-// decodeSource returns a source file's bytes as text, without a UTF-8
-// byte order mark; nil when it is not UTF-8 (the columns then come from
-// the text).
+// decodeSource returns a source file's bytes as text, without a byte
+// order mark, UTF-16 decoded; nil when it is neither UTF-8 nor UTF-16 with
+// a byte order mark (the columns then come from the text).
 func decodeSource(src []byte) []byte {
+	if u := newUTF16Source(src); u != nil {
+		return u.decoded()
+	}
 	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
 	if !utf8.Valid(src) {
 		return nil
@@ -288,11 +293,19 @@ func codeSpans(s []rune) [][2]int {
 	return out
 }
 
-// htmlMarks finds, in an HTML file, the code elements and the skip
-// comments: code is a range of the file's bytes, which the reader's
+// htmlMarks finds, in an HTML file's text src, the code elements and the
+// skip comments: code is a range of the file's bytes, which the reader's
 // offsets (doc.Document.ReadOffset) are compared with; a skip comment
-// silences the line of the first text after it.
-func (l *layout) htmlMarks(src []byte) {
+// silences the line of the first text after it. fileOffset turns offsets
+// of src into the file's bytes, for a text decoded from the file (UTF-16);
+// nil when src is the file's bytes.
+func (l *layout) htmlMarks(src []byte, fileOffset func(int) int) {
+	at := func(off int) int {
+		if fileOffset == nil {
+			return off
+		}
+		return fileOffset(off)
+	}
 	z := html.NewTokenizer(bytes.NewReader(src))
 	off, codeDepth, codeStart := 0, 0, 0
 	for {
@@ -304,7 +317,7 @@ func (l *layout) htmlMarks(src []byte) {
 		switch tt {
 		case html.CommentToken:
 			if strings.Contains(string(z.Text()), SkipMarker) {
-				l.skipAfter(off + n)
+				l.skipAfter(at(off + n))
 			}
 		case html.StartTagToken, html.EndTagToken:
 			name, _ := z.TagName()
@@ -313,19 +326,19 @@ func (l *layout) htmlMarks(src []byte) {
 			}
 			if tt == html.StartTagToken {
 				if codeDepth == 0 {
-					codeStart = off + n
+					codeStart = at(off + n)
 				}
 				codeDepth++
 			} else if codeDepth > 0 {
 				if codeDepth--; codeDepth == 0 {
-					l.code = append(l.code, [2]int{codeStart, off})
+					l.code = append(l.code, [2]int{codeStart, at(off)})
 				}
 			}
 		}
 		off += n
 	}
 	if codeDepth > 0 {
-		l.code = append(l.code, [2]int{codeStart, off})
+		l.code = append(l.code, [2]int{codeStart, at(off)})
 	}
 }
 
