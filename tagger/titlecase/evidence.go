@@ -96,8 +96,9 @@ type runningText struct {
 	refs map[string]uint8
 	// refLongest is the number of tokens of the longest key of refs.
 	refLongest int
-	// What headings found: each a task's heading; a word pointing to a
-	// section leads.
+	// What headings found: the end of the repeat; each a task's heading;
+	// a word pointing to a section leads.
+	end         int
 	tasks, cued bool
 	// The sentence's case (sentenceCase), worked out when first needed.
 	known, lowerText, names bool
@@ -303,7 +304,9 @@ func (r *runningText) addHeading(toks []doc.Token) {
 
 // isReference reports whether the run toks[start:end] refers to sections
 // of the document, as a careful reader takes it: the whole run repeats a
-// heading, first word to last, or several joined by "and" (headings), and
+// heading, first word to last, or several joined by "and" (headings), the
+// last perhaps going on past the run ("see Filter Maintenance: Daily
+// Checks"), and
 // either each is a task's heading (refTask), or a cue points to a section
 // (isReferenceCue): "see Filter Maintenance", "refer to Filter
 // Maintenance", "described in Filter Maintenance", "in Section Filter
@@ -327,7 +330,7 @@ func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
 	if !r.headings(toks, start, end) {
 		return false
 	}
-	if r.tasks || r.cued || isReferenceCue(toks, start, end) {
+	if r.tasks || r.cued || isReferenceCue(toks, start, r.end) {
 		return true
 	}
 	// Back along a list, item by item, to a cue.
@@ -342,7 +345,7 @@ func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
 		if from == to {
 			return false
 		}
-		if r.tasks || r.cued || isReferenceCue(toks, from, to) {
+		if r.tasks || r.cued || isReferenceCue(toks, from, r.end) {
 			return true
 		}
 		to = from - 1
@@ -352,8 +355,10 @@ func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
 
 // headings reports whether toks[from:to] repeats headings of r.refs, one
 // or several joined by "and", perhaps after a word that points to a
-// section ("See", "Section", "Chapter"); it sets r.tasks when each is a
-// task's heading, and r.cued when such a word leads.
+// section ("See", "Section", "Chapter"); the last may go on past to, over
+// the punctuation that ends a run ("Filter Maintenance: Daily Checks"). It
+// sets r.end to the end of the repeat, r.tasks when each is a task's
+// heading, and r.cued when such a word leads.
 func (r *runningText) headings(toks []doc.Token, from, to int) bool {
 	r.tasks, r.cued = true, false
 	i := from
@@ -361,12 +366,13 @@ func (r *runningText) headings(toks []doc.Token, from, to int) bool {
 		i, r.cued = from+1, true
 	}
 	for {
-		end, kind := r.longestHeading(toks[:to], i)
+		end, kind := r.longestHeading(toks, i)
 		if kind == 0 {
 			return false
 		}
 		r.tasks = r.tasks && kind == refTask
-		if end == to {
+		if end >= to {
+			r.end = end
 			return true
 		}
 		if !strings.EqualFold(toks[end].Form, "and") {

@@ -24,7 +24,7 @@ const (
 		"installing\t3\t4\nclimate\t4\t4\nmaster\t4\t4\nreports\t4\t4\nto\t7\t4\nof\t7\t4\nministry\t3\t3\nwater\t5\t4\n" +
 		"supply\t4\t4\nnotices\t3\t4\nin\t7\t4\nofficial\t4\t4\njournal\t4\t4\nchecking\t3\t4\nsetting\t4\t4\nup\t6\t4\n" +
 		"pan\t3\t4\nmodule\t3\t4\nplanning\t3\t4\nschedule\t4\t4\nform\t5\t4\nseries\t4\t4\nemissions\t3\t4\nby\t7\t4\nyear\t6\t4\n" +
-		"filter\t4\t4\nmaintenance\t4\t4\ncare\t5\t4\nsetup\t3\t4\nwinter\t5\t4\nstorage\t4\t4\n"
+		"filter\t4\t4\nmaintenance\t4\t4\ncare\t5\t4\nsetup\t3\t4\nwinter\t5\t4\nstorage\t4\t4\ndaily\t5\t4\nchecks\t4\t4\n"
 	wnTable = "anti\tn0\t\ncorruption\tn3\t\nsensor\tn2\t\ntensiometer\tn0\t\n"
 )
 
