@@ -157,6 +157,33 @@ func TestAlign(t *testing.T) {
 	}, lines)
 }
 
+// Wide characters take two columns of a terminal and combining marks
+// none (East Asian Width, Unicode Standard Annex #11: 蒸, コ, 😀 are W;
+// U+0308 is Mn, U+200B Cf): a table of Japanese terms, or of an accent
+// written as a combining mark, lines up.
+func TestAlignWideAndCombining(t *testing.T) {
+	for _, c := range []struct {
+		cell  string
+		width int
+	}{
+		{"drip line", 9},
+		{"Kältetechnik", 12},
+		{"Ka\u0308ltetechnik", 12},
+		{"蒸発器コイル", 12},
+		{"ｺｲﾙ", 3}, // halfwidth katakana: H
+		{"صمام التمدد", 11},
+		{"😀 button", 9},
+		{"zero\u200bwidth", 9},
+	} {
+		t.Run(c.cell, func(t *testing.T) {
+			assert.Equal(t, c.width, Width(c.cell))
+			lines := Align([][]string{{c.cell, "status"}, {"x", "preferred"}}, nil)
+			pad := strings.Repeat(" ", c.width-1)
+			assert.Equal(t, []string{c.cell + "  status", "x" + pad + "  preferred"}, lines)
+		})
+	}
+}
+
 // pandas.read_csv, the data-frame reader, reads TSV (sep "\t") and CSV
 // (sep ",", CRLF records, with and without a byte-order mark) back to the
 // very fields written — quotes, tabs, commas and line breaks inside fields,
