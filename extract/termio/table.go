@@ -60,10 +60,15 @@ func ReadTable(r io.Reader, name string, sep rune, lang string) (*Import, error)
 	if data, err = plainText(data); err != nil {
 		return nil, fmt.Errorf("%s: %w", name, err)
 	}
-	br.Reset(data)
-	cr := csv.NewReader(br)
-	cr.Comma = sep
-	cr.FieldsPerRecord = -1
+	newReader := func(from []byte) *csv.Reader {
+		br.Reset(from)
+		cr := csv.NewReader(br)
+		cr.Comma = sep
+		cr.FieldsPerRecord = -1
+		return cr
+	}
+	cr := newReader(data)
+	base := 0 // lines of data before what cr reads
 	header, err := cr.Read()
 	if errors.Is(err, io.EOF) {
 		return nil, fmt.Errorf("%s: empty file, no header", name)
@@ -79,15 +84,24 @@ func ReadTable(r io.Reader, name string, sep rune, lang string) (*Import, error)
 			break
 		}
 		var pe *csv.ParseError
+		if errors.As(err, &pe) && errors.Is(pe.Err, csv.ErrQuote) && pe.StartLine < pe.Line {
+			// A quote opened and never closed took the rest of the file
+			// for one field: name the line it opens on, then read the
+			// lines after it as rows again.
+			start := base + pe.StartLine
+			problems = append(problems, Problem{name, start, `a quoted field starts here and is not closed (a '"' is missing); the lines after it are read as rows`})
+			cr, base = newReader(afterLine(data, start)), start
+			continue
+		}
 		if errors.As(err, &pe) {
-			problems = append(problems, Problem{name, pe.Line, pe.Err.Error()})
+			problems = append(problems, Problem{name, base + pe.Line, pe.Err.Error()})
 			continue
 		}
 		if err != nil {
 			return nil, fmt.Errorf("%s: %w", name, err)
 		}
 		line, _ := cr.FieldPos(0)
-		rows = append(rows, row{line, rec})
+		rows = append(rows, row{base + line, rec})
 	}
 	imp, err := fromRows(header, rows, name, lang)
 	if err != nil {
@@ -95,6 +109,18 @@ func ReadTable(r io.Reader, name string, sep rune, lang string) (*Import, error)
 	}
 	imp.Problems = append(problems, imp.Problems...)
 	return imp, nil
+}
+
+// afterLine returns data from the start of line n+1 (lines counted from 1).
+func afterLine(data []byte, n int) []byte {
+	for ; n > 0; n-- {
+		i := bytes.IndexByte(data, '\n')
+		if i < 0 {
+			return nil
+		}
+		data = data[i+1:]
+	}
+	return data
 }
 
 type row struct {

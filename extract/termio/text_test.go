@@ -2,6 +2,7 @@ package termio
 
 import (
 	"bytes"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -58,5 +59,45 @@ func TestReadTableUTF16(t *testing.T) {
 		require.NoError(t, err)
 		assert.Empty(t, got.Problems)
 		assert.Equal(t, want.Entries, got.Entries)
+	}
+}
+
+// A quote a glossary's row opens and never closes is reported at the row
+// that opens it, and the rows after it are read: the CSV rules (RFC 4180,
+// section 2) let a quoted field run over lines, so the reader takes the
+// rest of the file for one field and gives up at its end — the file's
+// last line was named and every later row lost.
+func TestReadTableRecoversFromAnUnclosedQuote(t *testing.T) {
+	for _, c := range []struct {
+		name, text string
+		problems   []string
+		terms      []string
+	}{
+		{"unclosed quote", "term,status\nvalve a,preferred\n\"valve b,preferred\nvalve c,preferred\nvalve d,admitted\n",
+			[]string{`g.csv:3: a quoted field starts here and is not closed (a '"' is missing); the lines after it are read as rows`},
+			[]string{"valve a", "valve c", "valve d"}},
+		{"two unclosed quotes", "term,status\n\"valve a,preferred\nvalve b,preferred\n\"valve c,preferred\nvalve d,admitted\n",
+			[]string{`g.csv:2: a quoted field starts here`, `g.csv:4: a quoted field starts here`},
+			[]string{"valve b", "valve d"}},
+		{"a closed field over two lines", "term,status,note\nvalve a,preferred,\"seen in\nthe v2 manual\"\nvalve b,admitted,\n",
+			nil, []string{"valve a", "valve b"}},
+		{"unclosed on the last line", "term,status\nvalve a,preferred\n\"valve b,preferred\n",
+			[]string{`g.csv:3: extraneous or missing " in quoted-field`}, []string{"valve a"}},
+		{"bare quote", "term,status\nvalve a,preferred\nvalve \"b\",preferred\nvalve c,preferred\n",
+			[]string{`g.csv:3: bare " in non-quoted-field`}, []string{"valve a", "valve c"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			imp, err := ReadTable(strings.NewReader(c.text), "g.csv", ',', "en")
+			require.NoError(t, err)
+			require.Len(t, imp.Problems, len(c.problems))
+			for i, p := range c.problems {
+				assert.Contains(t, imp.Problems[i].Error(), p)
+			}
+			var got []string
+			for _, e := range imp.Entries {
+				got = append(got, e.Terms[0].Text)
+			}
+			assert.Equal(t, c.terms, got)
+		})
 	}
 }
