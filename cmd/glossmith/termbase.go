@@ -96,10 +96,23 @@ Every command takes --termbase FILE (default: $GLOSSMITH_TERMBASE) and
   glossmith termbase --termbase gloss.db export -o glossary.tbx`,
 	}
 	tf.register(cmd.PersistentFlags())
+	cmd.SetFlagErrorFunc(termAsFlagHint)
 	cmd.AddCommand(newTermbaseImportCmd(tf), newTermbaseDecideCmd(tf, "accept"), newTermbaseDecideCmd(tf, "reject"),
 		newTermbaseDecideCmd(tf, "defer"), newTermbaseSetCmd(tf), newTermbaseMergeCmd(tf), newTermbaseUndoCmd(tf),
 		newTermbaseListCmd(tf), newTermbaseShowCmd(tf), newTermbaseDiffCmd(tf), newTermbaseExportCmd(tf), newTermbaseRunsCmd(tf))
 	return cmd
+}
+
+// termAsFlagHint adds to the error of a term read as flags ("-20 °C mode"
+// or "-40 series valve": unknown shorthand flag '2') how to give it.
+func termAsFlagHint(c *cobra.Command, err error) error {
+	msg := err.Error()
+	i := strings.Index(msg, " in -")
+	if !strings.HasPrefix(msg, "unknown shorthand flag") || i < 0 {
+		return err
+	}
+	term := msg[i+len(" in "):]
+	return usageError("%s (a term that starts with \"-\" goes after \"--\", the flags before it: %s -- %q)", msg, c.CommandPath(), term)
 }
 
 // withStore runs fn on the open termbase (validated first; a missing file

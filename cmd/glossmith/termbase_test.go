@@ -409,3 +409,22 @@ func TestReadingCommandsRefuseAMissingTermbase(t *testing.T) {
 		})
 	}
 }
+
+// A term that starts with a hyphen ("-20 °C mode") reads as flags; the
+// error says how to give it, and that way works.
+func TestTermStartingWithAHyphen(t *testing.T) {
+	tb := filepath.Join(t.TempDir(), "gloss.db")
+	for _, args := range [][]string{
+		{"termbase", "--termbase", tb, "accept", "-20 °C mode"},
+		{"termbase", "--termbase", tb, "reject", "valve", "-40 series"},
+		{"termbase", "--termbase", tb, "set", "-20 °C mode", "--note", "frost"},
+	} {
+		r := run(t, "", args...)
+		assert.Equal(t, 2, r.code, r.stderr)
+		assert.Contains(t, r.stderr, `(a term that starts with "-" goes after "--", the flags before it: glossmith termbase `+args[3]+" -- ")
+	}
+	r := run(t, "", "termbase", "--termbase", tb, "accept", "--", "-20 °C mode")
+	require.Equal(t, 0, r.code, r.stderr)
+	r = run(t, "", "termbase", "--termbase", tb, "list")
+	assert.Contains(t, r.stdout, "-20 °C mode  preferred")
+}
