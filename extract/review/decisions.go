@@ -99,6 +99,7 @@ type Store interface {
 	Lookup(terms []string) (map[string]Decision, error)
 	// Apply records one action.
 	Apply(a Action) error
-	// Undo takes back the latest change; false when there is none.
+	// Undo takes back the latest change made through this store, unless a
+	// change made elsewhere came after it (an error); false when there is none.
 	Undo() (bool, error)
 }

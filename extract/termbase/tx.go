@@ -21,6 +21,8 @@ type Tx struct {
 	before  map[int64]*Entry // nil: the entry did not exist before
 	runs    []int64          // runs recorded
 	changed bool
+	undoes  int64  // the change an undo takes back, set by fn (0: updateUndo's)
+	summary string // the change's summary, when fn sets it
 }
 
 // restore is what the change log keeps to undo a change.
@@ -53,6 +55,9 @@ func (s *Store) updateUndo(action, summary string, undoes int64, fn func(*Tx) er
 	}
 	if !t.changed {
 		return Change{}, nil
+	}
+	if t.undoes != 0 {
+		undoes, summary = t.undoes, t.summary
 	}
 	r := restore{Runs: t.runs}
 	for _, id := range slices.Sorted(maps.Keys(t.before)) {
@@ -326,33 +331,69 @@ func (t *Tx) restoreEntries(r restore) error {
 func (s *Store) Undo(n int) ([]Change, error) {
 	var done []Change
 	for range n {
-		var id int64
-		var action, summary string
-		var blob []byte
-		err := s.db.QueryRow(`SELECT c.id, c.action, c.summary, c.restore FROM changes c
-			WHERE c.undoes IS NULL AND NOT EXISTS (SELECT 1 FROM changes u WHERE u.undoes = c.id)
-			ORDER BY c.id DESC LIMIT 1`).Scan(&id, &action, &summary, &blob)
-		if errors.Is(err, sql.ErrNoRows) {
+		c, err := s.undoLatest(0)
+		if errors.Is(err, errNothingToUndo) {
 			break
 		}
-		if err != nil {
-			return done, s.errf(err)
-		}
-		var r restore
-		if err := json.Unmarshal(blob, &r); err != nil {
-			return done, fmt.Errorf("termbase %s: change %d cannot be undone: %w", s.path, id, err)
-		}
-		c, err := s.updateUndo("undo", fmt.Sprintf("undo #%d %s: %s", id, action, summary), id, func(t *Tx) error {
-			if err := t.restoreEntries(r); err != nil {
-				return err
-			}
-			t.changed = true // an undo of a no-op is still logged, so it is not offered again
-			return nil
-		})
 		if err != nil {
 			return done, err
 		}
 		done = append(done, c)
 	}
 	return done, nil
+}
+
+// ErrUndone is UndoIfLatest's error for a change that is undone already.
+var ErrUndone = errors.New("undone already")
+
+var errNothingToUndo = errors.New("nothing to undo")
+
+// UndoIfLatest undoes change id when it is the latest change not undone,
+// so that one person's undo (the review page's) never takes back a change
+// someone else made after theirs: then it names that change and undoes
+// nothing. A change undone already is ErrUndone.
+func (s *Store) UndoIfLatest(id int64) (Change, error) {
+	return s.undoLatest(id)
+}
+
+// undoLatest undoes the latest change that is not an undo and not undone
+// (it must be change want, unless want is 0), reading it inside the
+// transaction so that two undos at once never take back one change twice.
+func (s *Store) undoLatest(want int64) (Change, error) {
+	return s.updateUndo("undo", "", 0, func(t *Tx) error {
+		if want != 0 {
+			var undone bool
+			if err := t.tx.QueryRowContext(t.ctx, "SELECT EXISTS(SELECT 1 FROM changes WHERE undoes = ?)", want).Scan(&undone); err != nil {
+				return t.s.errf(err)
+			}
+			if undone {
+				return fmt.Errorf("termbase %s: change #%d: %w", s.path, want, ErrUndone)
+			}
+		}
+		var id int64
+		var user, action, summary string
+		var blob []byte
+		err := t.tx.QueryRowContext(t.ctx, `SELECT c.id, c.user, c.action, c.summary, c.restore FROM changes c
+			WHERE c.undoes IS NULL AND NOT EXISTS (SELECT 1 FROM changes u WHERE u.undoes = c.id)
+			ORDER BY c.id DESC LIMIT 1`).Scan(&id, &user, &action, &summary, &blob)
+		if errors.Is(err, sql.ErrNoRows) {
+			return errNothingToUndo
+		}
+		if err != nil {
+			return t.s.errf(err)
+		}
+		if want != 0 && id != want {
+			return fmt.Errorf("change #%d, %s by %s (%s), came after; undo it first (termbase undo)", id, action, user, clip(summary, 120))
+		}
+		var r restore
+		if err := json.Unmarshal(blob, &r); err != nil {
+			return fmt.Errorf("termbase %s: change %d cannot be undone: %w", s.path, id, err)
+		}
+		if err := t.restoreEntries(r); err != nil {
+			return err
+		}
+		t.changed = true // an undo of a no-op is still logged, so it is not offered again
+		t.undoes, t.summary = id, fmt.Sprintf("undo #%d %s: %s", id, action, summary)
+		return nil
+	})
 }

@@ -4,6 +4,7 @@
 package tbstore
 
 import (
+	"errors"
 	"fmt"
 
 	"glossmith/extract/review"
@@ -19,6 +20,7 @@ type Store struct {
 	tb    *termbase.Store
 	forms map[string][]string // a candidate's surface forms, for the labels
 	pairs map[string]pair     // a candidate's acronym or full form, for the labels
+	mine  []int64             // the changes Apply made, oldest first, for Undo
 }
 
 // pair is the acronym and the full form the documents link a candidate to.
@@ -157,30 +159,34 @@ func (s *Store) Apply(a review.Action) error {
 	if err := a.Check(); err != nil {
 		return err
 	}
+	var c termbase.Change
 	var err error
 	switch a.Kind {
 	case review.Accept:
-		_, err = s.tb.Decide(termbase.Preferred, s.proposal(a.Term))
+		c, err = s.tb.Decide(termbase.Preferred, s.proposal(a.Term))
 	case review.Reject:
-		_, err = s.tb.Decide(termbase.Rejected, s.proposal(a.Term))
+		c, err = s.tb.Decide(termbase.Rejected, s.proposal(a.Term))
 	case review.Defer:
-		_, err = s.tb.Decide(termbase.Candidate, s.proposal(a.Term))
+		c, err = s.tb.Decide(termbase.Candidate, s.proposal(a.Term))
 	case review.Prefer:
-		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Preferred)
+		c, err = s.tb.SetStatus(a.Term, a.Form, termbase.Preferred)
 	case review.Admit:
-		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Admitted)
+		c, err = s.tb.SetStatus(a.Term, a.Form, termbase.Admitted)
 	case review.Deprecate:
-		_, err = s.tb.SetStatus(a.Term, a.Form, termbase.Deprecated)
+		c, err = s.tb.SetStatus(a.Term, a.Form, termbase.Deprecated)
 	case review.Merge:
-		_, err = s.tb.Merge(a.Term, a.Other)
+		c, err = s.tb.Merge(a.Term, a.Other)
 	case review.Definition:
-		_, err = s.tb.SetDefinition(a.Term, a.Text, "")
+		c, err = s.tb.SetDefinition(a.Term, a.Text, "")
 	case review.Note:
-		_, err = s.tb.SetNote(a.Term, a.Text)
+		c, err = s.tb.SetNote(a.Term, a.Text)
 	case review.SetPOS:
-		_, err = s.tb.SetPOS(a.Term, a.Text)
+		c, err = s.tb.SetPOS(a.Term, a.Text)
 	default:
 		err = fmt.Errorf("unknown action %q", a.Kind)
+	}
+	if err == nil && c.ID != 0 {
+		s.mine = append(s.mine, c.ID)
 	}
 	return err
 }
@@ -191,10 +197,25 @@ func (s *Store) proposal(term string) termbase.Proposal {
 	return termbase.Proposal{Text: term, Forms: s.forms[term]}
 }
 
-// Undo takes back the termbase's latest change.
+// Undo takes back the latest change made here (by Apply) that is not
+// undone, when no change made elsewhere — termbase commands, another
+// page — came after it: one reviewer's undo never takes back another's
+// decision. False when there is none left.
 func (s *Store) Undo() (bool, error) {
-	done, err := s.tb.Undo(1)
-	return len(done) > 0, err
+	for len(s.mine) > 0 {
+		id := s.mine[len(s.mine)-1]
+		_, err := s.tb.UndoIfLatest(id)
+		if errors.Is(err, termbase.ErrUndone) {
+			s.mine = s.mine[:len(s.mine)-1] // undone elsewhere
+			continue
+		}
+		if err != nil {
+			return false, err
+		}
+		s.mine = s.mine[:len(s.mine)-1]
+		return true, nil
+	}
+	return false, nil
 }
 
 // FromRun is the review dataset of a run recorded in the termbase

@@ -240,3 +240,53 @@ func TestRecordedRunLabelsAcronymPairs(t *testing.T) {
 		require.NoError(t, tb.Close())
 	}
 }
+
+// The page's undo takes back its own latest change, and never a change
+// made after it elsewhere (here termbase commands on the same file, as
+// another person would): that one is named and nothing is undone.
+func TestPageUndoesOnlyItsOwnChanges(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "t.gtb")
+	tb, err := termbase.Open(path)
+	require.NoError(t, err)
+	t.Cleanup(func() { tb.Close() })
+	other, err := termbase.Open(path)
+	require.NoError(t, err)
+	t.Cleanup(func() { other.Close() })
+	other.User = "colleague"
+	s := New(tb, dataset(nil))
+	look := func(term string) review.Status {
+		got, err := s.Lookup([]string{term})
+		require.NoError(t, err)
+		return got[term].Status
+	}
+
+	// The colleague undoes their latest change, then the page its own.
+	otherUndoesThenPage := func() {
+		t.Helper()
+		_, err := other.Undo(1)
+		require.NoError(t, err)
+		undone, err := s.Undo()
+		require.NoError(t, err)
+		assert.True(t, undone)
+		assert.Empty(t, look("drip line"), "undecided again")
+	}
+
+	undone, err := s.Undo()
+	require.NoError(t, err)
+	assert.False(t, undone, "nothing of the page's to undo")
+
+	require.NoError(t, s.Apply(review.Action{Kind: review.Accept, Term: "drip line"}))
+	_, err = other.Reject("valve body")
+	require.NoError(t, err)
+	_, err = s.Undo()
+	assert.ErrorContains(t, err, `reject by colleague ("valve body"), came after`)
+	assert.Equal(t, review.Accepted, look("drip line"))
+	assert.Equal(t, review.Rejected, look("valve body"), "the colleague's decision stays")
+
+	otherUndoesThenPage()
+
+	// A change of the page's that was undone elsewhere is passed over.
+	require.NoError(t, s.Apply(review.Action{Kind: review.Accept, Term: "drip line"}))
+	require.NoError(t, s.Apply(review.Action{Kind: review.Reject, Term: "magnet valve"}))
+	otherUndoesThenPage()
+}

@@ -240,8 +240,15 @@ type dataReply struct {
 
 func (s *Server) data(w http.ResponseWriter, r *http.Request) {
 	s.mu.Lock()
+	// Read back from the termbase: decisions made since by termbase
+	// commands or another page show on a reload.
+	err := s.reload()
 	d := append([]review.Decision(nil), s.decisions...)
 	s.mu.Unlock()
+	if err != nil {
+		http.Error(w, "could not read the termbase: "+err.Error(), http.StatusInternalServerError)
+		return
+	}
 	writeJSON(w, dataReply{s.ds, d, true})
 }
 

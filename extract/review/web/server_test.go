@@ -175,3 +175,22 @@ func TestReportEscapesAndPins(t *testing.T) {
 	assert.Contains(t, page, "script-src 'sha256-"+base64.StdEncoding.EncodeToString(sum[:])+"'")
 	assert.Contains(t, page, "connect-src 'none'")
 }
+
+// A reload of the page shows decisions made since by others (termbase
+// commands, another page), not those the server saw at its start.
+func TestDataReadsTheStoreAgain(t *testing.T) {
+	st := &memStore{d: map[string]review.Decision{}}
+	base, _, c := session(t, st)
+	get := func() []review.Decision {
+		resp, err := c.Get(base + "/api/data")
+		require.NoError(t, err)
+		defer resp.Body.Close()
+		require.Equal(t, 200, resp.StatusCode)
+		var d dataReply
+		require.NoError(t, json.NewDecoder(resp.Body).Decode(&d))
+		return d.Decisions
+	}
+	assert.Equal(t, review.New, get()[1].Status)
+	st.d["solenoid valve"] = review.Decision{Status: review.Rejected} // decided elsewhere
+	assert.Equal(t, review.Rejected, get()[1].Status)
+}
