@@ -39,7 +39,17 @@ func ReadFile(path, lang string) (*Import, error) {
 		if doc.Lang == "" {
 			doc.Lang = lang
 		}
-		return &Import{Entries: FromTBX(doc)}, nil
+		imp := &Import{}
+		for _, e := range FromTBX(doc) {
+			if len(e.Terms) == 0 {
+				// An entry of empty <term> elements only: stored, it would
+				// be an entry nothing lists, exports or checks.
+				imp.Problems = append(imp.Problems, Problem{path, 0, fmt.Sprintf("concept entry %q has no term: left out", e.ExtID)})
+				continue
+			}
+			imp.Entries = append(imp.Entries, e)
+		}
+		return imp, nil
 	case ext == ".csv":
 		return ReadTable(bytes.NewReader(data), path, ',', lang)
 	case ext == ".tsv" || ext == ".tab" || ext == ".txt":

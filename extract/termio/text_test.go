@@ -2,6 +2,8 @@ package termio
 
 import (
 	"bytes"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -100,4 +102,29 @@ func TestReadTableRecoversFromAnUnclosedQuote(t *testing.T) {
 			assert.Equal(t, c.terms, got)
 		})
 	}
+}
+
+// A TBX concept entry whose terms are all empty is reported and left
+// out, not stored as an entry without terms that list counts but never
+// shows; an empty term beside a real one is passed over.
+func TestTBXEntryWithoutTermsIsReported(t *testing.T) {
+	const doc = `<?xml version="1.0" encoding="UTF-8"?>
+<tbx type="TBX-Core" style="dca" xml:lang="en" xmlns="urn:iso:std:iso:30042:ed-2"><text><body>
+<conceptEntry id="c1"><langSec xml:lang="en"><termSec><term>fan guard</term></termSec></langSec></conceptEntry>
+<conceptEntry id="c2"><langSec xml:lang="en"><termSec><term></term></termSec><termSec><term>  </term></termSec></langSec></conceptEntry>
+<conceptEntry id="c3"><langSec xml:lang="en"><termSec><term/></termSec><termSec><term>drip tray</term></termSec></langSec></conceptEntry>
+</body></text></tbx>`
+	path := filepath.Join(t.TempDir(), "g.tbx")
+	require.NoError(t, os.WriteFile(path, []byte(doc), 0o644))
+	imp, err := ReadFile(path, "en")
+	require.NoError(t, err)
+	require.Len(t, imp.Problems, 1)
+	assert.Equal(t, path+`: concept entry "c2" has no term: left out`, imp.Problems[0].Error())
+	var got []string
+	for _, e := range imp.Entries {
+		for _, x := range e.Terms {
+			got = append(got, e.ExtID+" "+x.Text)
+		}
+	}
+	assert.Equal(t, []string{"c1 fan guard", "c3 drip tray"}, got)
 }
