@@ -100,6 +100,10 @@ type runningText struct {
 	// a word pointing to a section leads.
 	end         int
 	tasks, cued bool
+	// The answer of isReference for the last run of the sentence asked,
+	// and the end of that run or of the headings it repeats; -1 for none.
+	lastEnd int
+	lastRef bool
 	// The sentence's case (sentenceCase), worked out when first needed.
 	known, lowerText, names bool
 }
@@ -113,7 +117,7 @@ type runningText struct {
 // says nothing). Most words of running text are in lower case and in no
 // heading: for them read costs a look at two bytes (Evidence.filter).
 func (r *runningText) read(e *Evidence, toks []doc.Token) {
-	r.known = false
+	r.known, r.lastEnd = false, -1
 	start, last := -1, -1 // the current run's first and last capitalized token
 	counts := false       // the current run may be a name: not a sentence's first words
 	for k := range toks {
@@ -324,33 +328,51 @@ func (r *runningText) addHeading(toks []doc.Token) {
 // ("Filter Maintenance describes the intervals", "Climate Master units
 // ship with a bracket"): its capital is the writing's, name or reference.
 func (r *runningText) isReference(toks []doc.Token, start, end int) bool {
+	ref, to := r.reference(toks, start, end)
+	r.lastEnd, r.lastRef = to, ref
+	return ref
+}
+
+// maxListItems bounds how far isReference walks back along a list whose
+// items the last run's answer does not cover (runs at a sentence's start
+// or after a quote are not asked): a sentence of thousands of repeated
+// headings costs linear time.
+const maxListItems = 8
+
+// reference is isReference, also returning the end of the run or of the
+// headings it repeats.
+func (r *runningText) reference(toks []doc.Token, start, end int) (bool, int) {
 	if len(r.refs) == 0 || !r.inHead[0] && !(end-start > 1 && r.inHead[1] && isLeadWord(toks[start].Form)) {
-		return false // most runs: not starting with a heading word
+		return false, end // most runs: not starting with a heading word
 	}
 	if !r.headings(toks, start, end) {
-		return false
+		return false, end
 	}
-	if r.tasks || r.cued || isReferenceCue(toks, start, r.end) {
-		return true
+	if end = r.end; r.tasks || r.cued || isReferenceCue(toks, start, end) {
+		return true, end
 	}
 	// Back along a list, item by item, to a cue.
-	for to := start - 1; to > 0 && (toks[to].Form == "," || strings.EqualFold(toks[to].Form, "or")); {
+	to := start - 1
+	for items := 0; items < maxListItems && to > 0 && (toks[to].Form == "," || strings.EqualFold(toks[to].Form, "or")); items++ {
+		if to == r.lastEnd {
+			return r.lastRef, end // the item before, as its run was answered
+		}
 		from := to
-		for from > 0 && isRunWord(toks[from-1].Form) {
+		for from > 0 && to-from <= 2*r.refLongest+2 && isRunWord(toks[from-1].Form) {
 			from--
 		}
 		for from < to && !r.headings(toks, from, to) {
 			from++ // "Filter Maintenance" of "Refer to Filter Maintenance"
 		}
 		if from == to {
-			return false
+			return false, end
 		}
 		if r.tasks || r.cued || isReferenceCue(toks, from, r.end) {
-			return true
+			return true, end
 		}
 		to = from - 1
 	}
-	return false
+	return false, end
 }
 
 // headings reports whether toks[from:to] repeats headings of r.refs, one
@@ -383,10 +405,15 @@ func (r *runningText) headings(toks []doc.Token, from, to int) bool {
 }
 
 // longestHeading returns the end of the longest heading of r.refs that
-// toks repeats from its token i, and its kind; 0 for none.
+// toks repeats from its token i, and its kind; 0 for none. It looks no
+// further than a word in lower case that is not a small word: where a
+// run of capitalized words ends, mostly, and headings seldom go on.
 func (r *runningText) longestHeading(toks []doc.Token, i int) (to int, kind uint8) {
 	r.buf = r.buf[:0]
 	for j := i; j < len(toks) && j-i < r.refLongest; j++ {
+		if _, lower := caseOf(toks[j].Form); lower && !isSmallWord(toks[j].Form) {
+			break
+		}
 		if j > i {
 			r.buf = append(r.buf, ' ')
 		}

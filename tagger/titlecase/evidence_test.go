@@ -4,6 +4,7 @@ import (
 	"maps"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -246,6 +247,29 @@ func BenchmarkGather(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(tokens), "ns/token")
+}
+
+// BenchmarkGatherList measures the evidence of a sentence that lists one
+// heading thousands of times without a cue, per token: each item asks
+// whether the list began with a reference, which must not make the cost
+// grow with the list (ns/token alike for both sizes).
+func BenchmarkGatherList(b *testing.B) {
+	for _, n := range []int{1000, 10000} {
+		b.Run(strconv.Itoa(n), func(b *testing.B) {
+			text := "# Valve Care\n\nOur partners " + strings.Repeat("Valve Care, ", n) + "and others clean the housings.\n"
+			d := &doc.Document{Text: text, Headings: []doc.LineRange{{First: 1, Last: 1}}}
+			tokenize.Document(d)
+			tokens := 0
+			for _, s := range d.Sentences {
+				tokens += len(s.Tokens)
+			}
+			b.ResetTimer()
+			for b.Loop() {
+				Gather(d.Sentences)
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(tokens), "ns/token")
+		})
+	}
 }
 
 // A capital is the writing's at a sentence's start and after the tokens
