@@ -102,8 +102,16 @@ func writeJSON(w *bufio.Writer, v any) {
 func printTaggingReport(w io.Writer, r hmm.Report) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintf(tw, "\tall\tknown\tunknown\t\n")
+	// A column over no tokens (every word known) has no accuracy: "–",
+	// not a 0.00% that reads as all wrong.
+	pct := func(s hmm.Score) string {
+		if s.Total == 0 {
+			return "–"
+		}
+		return fmt.Sprintf("%.2f%%", s.Accuracy)
+	}
 	row := func(name string, s hmm.Split) {
-		fmt.Fprintf(tw, "%s\t%.2f%%\t%.2f%%\t%.2f%%\t\n", name, s.Accuracy, s.Known.Accuracy, s.Unknown.Accuracy)
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t\n", name, pct(s.Score), pct(s.Known), pct(s.Unknown))
 	}
 	row("UPOS", r.UPOS)
 	row("XPOS", r.XPOS)
@@ -115,6 +123,9 @@ func printTaggingReport(w io.Writer, r hmm.Report) {
 		list []hmm.Confusion
 	}{{"UPOS", r.UPOSConfusions}, {"XPOS", r.XPOSConfusions}} {
 		fmt.Fprintf(w, "\nmost frequent %s confusions (gold → tagged):\n", c.name)
+		if len(c.list) == 0 {
+			fmt.Fprintln(w, "  none")
+		}
 		for _, x := range c.list {
 			fmt.Fprintf(w, "  %6d  %s → %s\n", x.Count, x.Gold, x.Predicted)
 		}

@@ -30,6 +30,15 @@ func conlluRows(id string, rows ...[3]string) string {
 	return b.String() + "\n"
 }
 
+// valvesOpen is n tagged CoNLL-U sentences "Valves open .".
+func valvesOpen(n int) string {
+	var b strings.Builder
+	for i := 0; i < n; i++ {
+		b.WriteString(conlluRows("g"+strconv.Itoa(i), [3]string{"Valves", "NOUN", "NNS"}, [3]string{"open", "VERB", "VBP"}, [3]string{".", "PUNCT", "."}))
+	}
+	return b.String()
+}
+
 // eval tagging on input without gold tags — plain text, or CoNLL-U whose
 // tag columns are empty — prints its errors, no table, and fails.
 func TestEvalTaggingWithoutGoldTags(t *testing.T) {
@@ -86,11 +95,7 @@ func TestTrainRefusesBadTagsByFileAndLine(t *testing.T) {
 // reports it, and the commands that read gold files go on with the others
 // and exit 1 at the end (an input problem, not a usage error: exit 2).
 func TestGoldReadersGoOnPastUnreadableFiles(t *testing.T) {
-	var good strings.Builder
-	for i := 0; i < 5; i++ {
-		good.WriteString(conlluRows("g"+strconv.Itoa(i), [3]string{"Valves", "NOUN", "NNS"}, [3]string{"open", "VERB", "VBP"}, [3]string{".", "PUNCT", "."}))
-	}
-	in := writeTemp(t, "gold.conllu", good.String())
+	in := writeTemp(t, "gold.conllu", valvesOpen(5))
 	missing := filepath.Join(t.TempDir(), "missing.conllu")
 	dir := t.TempDir()
 	model := filepath.Join(t.TempDir(), "m.glsm")
@@ -121,4 +126,24 @@ func TestGoldReadersGoOnPastUnreadableFiles(t *testing.T) {
 			assert.True(t, c.produced(r), "the readable input was not used: %s", r.stdout)
 		})
 	}
+}
+
+// A column over no tokens has no accuracy: eval tagging with a model that
+// knows every word of the gold file prints "–" for unknown words, not a
+// 0.00% that reads as all wrong, and "none" under a confusion list
+// without confusions.
+func TestEvalTaggingEmptyColumns(t *testing.T) {
+	in := writeTemp(t, "gold.conllu", valvesOpen(5))
+	model := filepath.Join(t.TempDir(), "m.glsm")
+	r := run(t, "", "train", "-q", "--method", "hmm", "-o", model, in)
+	require.Equal(t, 0, r.code, r.stderr)
+
+	r = run(t, "", "eval", "tagging", "--model", model, in)
+	require.Equal(t, 0, r.code, r.stderr)
+	lines := strings.Split(r.stdout, "\n")
+	require.GreaterOrEqual(t, len(lines), 5, r.stdout)
+	assert.Equal(t, []string{"UPOS", "100.00%", "100.00%", "–"}, strings.Fields(lines[1]))
+	assert.Equal(t, []string{"tokens", "15", "15", "0"}, strings.Fields(lines[4]))
+	assert.NotContains(t, r.stdout, " 0.00%")
+	assert.Contains(t, r.stdout, "(gold → tagged):\n  none\n")
 }
