@@ -119,11 +119,32 @@ func createTemp(target string) (*os.File, string, error) {
 		}
 		unregister(name)
 		if !errors.Is(err, fs.ErrExist) {
+			var pe *fs.PathError
+			if errors.As(err, &pe) {
+				err = &dirError{dir: filepath.Dir(target), err: pe.Err}
+			}
 			return nil, "", err
 		}
 	}
 	return nil, "", errors.New("no free temporary file name")
 }
+
+// dirError is a failure to create a file in dir: the user named the
+// target, not the hidden temporary file, so the message names the
+// directory ("no directory out", "directory out: permission denied").
+type dirError struct {
+	dir string
+	err error
+}
+
+func (e *dirError) Error() string {
+	if errors.Is(e.err, fs.ErrNotExist) {
+		return "no directory " + e.dir
+	}
+	return "directory " + e.dir + ": " + e.err.Error()
+}
+
+func (e *dirError) Unwrap() error { return e.err }
 
 // Write writes to the temporary file (or through to the device).
 func (a *File) Write(p []byte) (int, error) { return a.f.Write(p) }

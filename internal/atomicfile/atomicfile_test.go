@@ -138,6 +138,18 @@ func TestDirectoryRefused(t *testing.T) {
 	assert.Error(t, write(t, t.TempDir(), "x"))
 }
 
+// A missing directory is named in the error, not the hidden temporary
+// file that could not be created in it.
+func TestMissingDirectoryNamed(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "reports")
+	path := filepath.Join(dir, "terms.tsv")
+	err := write(t, path, "x")
+	require.Error(t, err)
+	assert.ErrorIs(t, err, fs.ErrNotExist)
+	assert.Equal(t, "cannot write "+path+": no directory "+dir, err.Error())
+	assert.NotContains(t, err.Error(), ".tmp")
+}
+
 func TestAbortKeepsOld(t *testing.T) {
 	dir := t.TempDir()
 	path := filepath.Join(dir, "list.csv")
