@@ -76,7 +76,7 @@ func (o *findOptions) register(cmd *cobra.Command) {
 	fl.BoolVar(&o.count, "count", false, "print a frequency list of the matched strings")
 	fl.StringVar(&o.by, "by", "word", "with --count: count "+strings.Join(countKeys, " or "))
 	fl.StringVar(&o.to, "to", "text", "output format: "+strings.Join(findFormats, ", ")+" (default: from the -o extension, else text)")
-	fl.IntVar(&o.width, "width", 40, "characters of context on each side (text output)")
+	fl.IntVar(&o.width, "width", 40, "terminal columns of context on each side (text output)")
 	fl.BoolVar(&o.nested, "nested", false, "report every matching span, not only leftmost-longest ones")
 	fl.IntVar(&o.limit, "limit", 0, "print at most this many lines and stop reading (0: no limit)")
 	fl.StringVarP(&o.outPath, "output", "o", "", "write to this file (complete or not at all) instead of standard output")

@@ -81,7 +81,7 @@ func span(d *doc.Document, toks []doc.Token, a, b int) string {
 
 // Style tells the text writer how to print.
 type Style struct {
-	Width     int  // characters of context on each side (default 40)
+	Width     int  // terminal columns of context on each side (default 40)
 	Highlight bool // mark the match with terminal colours
 	BOM       bool // csv: start with a UTF-8 byte order mark, for spreadsheet programs
 }
@@ -159,19 +159,21 @@ func (h *HitWriter) writeText(hits []Hit) error {
 	where := 0
 	for i, x := range hits {
 		locs[i] = printable.Escape(fmt.Sprintf("%s:%d", x.Doc, x.Line))
-		where = max(where, utf8.RuneCountInString(locs[i]))
+		where = max(where, tabular.Width(locs[i]))
 	}
 	w := h.style.Width
 	for i, x := range hits {
-		left := lastRunes(printable.Escape(x.Left), w)
-		right := firstRunes(printable.Escape(x.Right), w)
+		left := lastColumns(printable.Escape(x.Left), w)
+		right := firstColumns(printable.Escape(x.Right), w)
 		match := printable.Escape(x.Text)
 		if h.style.Highlight {
 			match = "\x1b[1;33m" + match + "\x1b[0m"
 		} else {
 			match = "[" + match + "]"
 		}
-		fmt.Fprintf(h.text, "%-*s  %*s%s%s\n", where, locs[i], w, left, match, right)
+		// Padded by hand: fmt pads to a count of characters, not columns.
+		fmt.Fprintf(h.text, "%s%s  %s%s%s%s\n", locs[i], pad(where-tabular.Width(locs[i])),
+			pad(w-tabular.Width(left)), left, match, right)
 	}
 	return nil
 }
@@ -188,23 +190,46 @@ func (h *HitWriter) Flush() error {
 	return h.jsonl.Flush()
 }
 
-// lastRunes keeps the last n characters of s, marking a cut with "…".
-func lastRunes(s string, n int) string {
+// lastColumns keeps the last n terminal columns of s (tabular.Width),
+// marking a cut with "…"; a wide character is never split.
+func lastColumns(s string, n int) string {
 	s = strings.TrimLeft(s, " ")
-	r := []rune(s)
-	if len(r) <= n {
+	if tabular.Width(s) <= n {
 		return s
 	}
-	return "…" + string(r[len(r)-n+1:])
+	used, cut := 1, len(s) // "…" takes one column
+	for cut > 0 {
+		_, size := utf8.DecodeLastRuneInString(s[:cut])
+		w := tabular.Width(s[cut-size : cut])
+		if used+w > n {
+			break
+		}
+		used += w
+		cut -= size
+	}
+	return "…" + s[cut:]
 }
 
-// firstRunes keeps the first n characters of s, marking a cut with "…".
-func firstRunes(s string, n int) string {
-	r := []rune(s)
-	if len(r) <= n {
+// pad is n spaces (none for n <= 0).
+func pad(n int) string { return strings.Repeat(" ", max(n, 0)) }
+
+// firstColumns keeps the first n terminal columns of s, marking a cut
+// with "…".
+func firstColumns(s string, n int) string {
+	if tabular.Width(s) <= n {
 		return s
 	}
-	return string(r[:n-1]) + "…"
+	used, cut := 1, 0
+	for cut < len(s) {
+		_, size := utf8.DecodeRuneInString(s[cut:])
+		w := tabular.Width(s[cut : cut+size])
+		if used+w > n {
+			break
+		}
+		used += w
+		cut += size
+	}
+	return s[:cut] + "…"
 }
 
 // Counter is a frequency list of matched strings.
