@@ -13,7 +13,12 @@ import (
 )
 
 func main() {
-	if err := newRootCmd().Execute(); err != nil {
+	root := newRootCmd()
+	err := unknownSubcommand(root, os.Args[1:])
+	if err == nil {
+		err = root.Execute()
+	}
+	if err != nil {
 		var ex exitError
 		if errors.As(err, &ex) {
 			if ex.msg != "" {

@@ -101,6 +101,38 @@ func TestVersionAndHelp(t *testing.T) {
 	}
 }
 
+// A mistyped subcommand of a command group is a usage error (exit status 2
+// naming the word), as a mistyped command is: "rules chek FILE" printed the
+// group's help and exited 0, so a script or CI job passed without checking.
+func TestUnknownSubcommandRefused(t *testing.T) {
+	tests := []struct {
+		args []string
+		want string // in the message
+	}{
+		{[]string{"rules", "chek", "x.gsr"}, `unknown command "chek" for "glossmith rules": did you mean "check"?`},
+		{[]string{"eval", "taging", "gold.conllu"}, `unknown command "taging" for "glossmith eval": did you mean "tagging"?`},
+		{[]string{"termbase", "--termbase", "tb.db", "lst"}, `unknown command "lst" for "glossmith termbase": did you mean "list"?`},
+		{[]string{"completion", "tcsh"}, `unknown command "tcsh" for "glossmith completion"`},
+	}
+	for _, tt := range tests {
+		t.Run(strings.Join(tt.args, " "), func(t *testing.T) {
+			r := run(t, "", tt.args...)
+			assert.Equal(t, 2, r.code, r.stderr)
+			assert.Contains(t, r.stderr, tt.want)
+			assert.Empty(t, r.stdout)
+		})
+	}
+	// A group alone, or asked for help, still shows its help.
+	for _, args := range [][]string{{"rules"}, {"rules", "--help"}, {"termbase", "help"}, {"completion"}} {
+		r := run(t, "", args...)
+		assert.Equal(t, 0, r.code, "%v: %s", args, r.stderr)
+		assert.Contains(t, r.stdout, "Usage:", "%v", args)
+	}
+	r := run(t, "", "completion", "bash")
+	assert.Equal(t, 0, r.code, r.stderr)
+	assert.Contains(t, r.stdout, "bash completion")
+}
+
 // The demo corpus gives a stable top 20: a golden file keeps it, and the
 // same input gives the same bytes on every run.
 func TestDemoTermsGolden(t *testing.T) {

@@ -8,6 +8,8 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+
+	"glossmith/internal/suggest"
 )
 
 // version is set at build time with -ldflags "-X main.version=..."; by
@@ -71,6 +73,40 @@ value, checked before any input is read).`,
 	root.AddCommand(newCheckCmd())
 	hideExtensionDefaults(root)
 	return root
+}
+
+// unknownSubcommand refuses a word after a command group that names none
+// of its commands ("rules chek FILE", "completion tcsh"). cobra checks this
+// only under the root: a group, which has no run of its own, printed its
+// help and exited 0, so a mistyped command in a script passed unnoticed.
+// A group alone, with --help or with "help", still shows its help.
+func unknownSubcommand(root *cobra.Command, args []string) error {
+	root.InitDefaultCompletionCmd(args...) // added by Execute otherwise, too late to be found
+	c, rest, err := root.Find(args)
+	if err != nil || c == root || c.Runnable() || !c.HasSubCommands() {
+		return nil // cobra's own checks and messages apply
+	}
+	if err := c.ParseFlags(rest); err != nil {
+		return nil
+	}
+	if help, _ := c.Flags().GetBool("help"); help {
+		return nil
+	}
+	words := c.Flags().Args()
+	if len(words) == 0 || words[0] == "help" {
+		return nil
+	}
+	var names []string
+	for _, sub := range c.Commands() {
+		if sub.IsAvailableCommand() {
+			names = append(names, sub.Name())
+		}
+	}
+	msg := fmt.Sprintf("unknown command %q for %q", words[0], c.CommandPath())
+	if h := suggest.Hint(words[0], names); h != "" {
+		msg += ": " + h
+	}
+	return exitError{2, msg}
 }
 
 // hideExtensionDefaults keeps the help of a --to whose default follows the
