@@ -133,6 +133,20 @@ func TestUnknownSubcommandRefused(t *testing.T) {
 	assert.Contains(t, r.stdout, "bash completion")
 }
 
+// A pattern error in --include or --exclude is shown as find shows it: at
+// its column in the pattern as typed, with a caret, not at a column of the
+// anchored form the filter compiles ("NOUN (" was reported at column 10
+// of a pattern six characters long).
+func TestTermsFilterPatternErrorsAtTheirColumn(t *testing.T) {
+	for _, flag := range []string{"--include", "--exclude"} {
+		r := run(t, "", "terms", flag, "NOUN (", "testdata/demo/maintenance-schedule.txt")
+		assert.Equal(t, 2, r.code, r.stderr)
+		assert.Contains(t, r.stderr, "pattern:1:7: unexpected end of pattern\n    NOUN (\n          ^\n", flag)
+		assert.Contains(t, r.stderr, "glossmith: "+flag+": the pattern did not compile", flag)
+		assert.Empty(t, r.stdout)
+	}
+}
+
 // The demo corpus gives a stable top 20: a golden file keeps it, and the
 // same input gives the same bytes on every run.
 func TestDemoTermsGolden(t *testing.T) {

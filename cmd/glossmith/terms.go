@@ -299,19 +299,29 @@ func readStopLists(paths []string) (map[string]bool, error) {
 // spanFilter compiles --include and --exclude into a test on a candidate's
 // tokens: the pattern must match the whole candidate.
 func spanFilter(include, exclude string, rs *grammar.RuleSet) (func([]doc.Token) bool, error) {
-	compile := func(src string) (*pattern.Matcher, error) {
+	compile := func(flag, src string) (*pattern.Matcher, error) {
 		if src == "" {
 			return nil, nil
 		}
-		return pattern.CompilePattern("^ ( "+src+" ) $", rs)
+		// The pattern as typed first, so that an error has its column
+		// there, shown as find shows it; then anchored to the whole span.
+		if _, err := pattern.CompilePattern(src, rs); err != nil {
+			printGrammarErrors(os.Stderr, err)
+			return nil, exitError{2, flag + ": the pattern did not compile"}
+		}
+		m, err := pattern.CompilePattern("^ ( "+src+" ) $", rs)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", flag, err)
+		}
+		return m, nil
 	}
-	inc, err := compile(include)
+	inc, err := compile("--include", include)
 	if err != nil {
-		return nil, fmt.Errorf("--include: %w", err)
+		return nil, err
 	}
-	exc, err := compile(exclude)
+	exc, err := compile("--exclude", exclude)
 	if err != nil {
-		return nil, fmt.Errorf("--exclude: %w", err)
+		return nil, err
 	}
 	if inc == nil && exc == nil {
 		return nil, nil
