@@ -5,6 +5,7 @@ import (
 
 	"glossmith/tagger/doc"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
 
@@ -20,5 +21,30 @@ func TestUnknownPluralLemma(t *testing.T) {
 		if got := s.Tokens[1].Lemma; got != want {
 			t.Errorf("%s: lemma %q (tag %s), want %q", form, got, s.Tokens[1].XPOS, want)
 		}
+	}
+}
+
+// A singular noun the treebank does not know is its own lemma: suffix
+// rules learned from the treebank's typo corrections ("rode" → "road")
+// turned "corrode" into "corroad" and "endorphin" into "endorphing". A
+// rewrite stands only when WordNet 3.0 lists its result (Latin and Greek
+// plurals tagged NN: "clostridia" → "clostridium").
+func TestUnknownSingularLemma(t *testing.T) {
+	m, err := Default()
+	require.NoError(t, err)
+	tests := []struct{ form, want string }{
+		{"corrode", "corrode"},
+		{"endorphin", "endorphin"},
+		{"deposer", "deposer"},
+		{"principalship", "principalship"},
+		{"nematoda", "nematoda"},
+		{"paramecia", "paramecium"},
+	}
+	for _, tt := range tests {
+		s := doc.Sentence{Tokens: []doc.Token{{Form: "The"}, {Form: "storage"}, {Form: "tank"}, {Form: tt.form}, {Form: "is"}, {Form: "here"}, {Form: "."}}}
+		m.Tag(&s)
+		tok := s.Tokens[3]
+		require.Equal(t, "NN", tok.XPOS, "%s: the check is of singular nouns", tt.form)
+		assert.Equal(t, tt.want, tok.Lemma, tt.form)
 	}
 }

@@ -370,6 +370,16 @@ func (m *Model) unknownLemma(form, upos, xpos string) string {
 			}
 		}
 	}
+	// A singular noun or a plain adjective rewritten to something neither
+	// the treebank nor WordNet knows is the work of rules learned from the
+	// treebank's typo corrections ("rode" → "road" made "corrode"
+	// "corroad"): the word is its own lemma. (Numbers keep their rules:
+	// the treebank writes "12,000" as "12000" on purpose.)
+	if (xpos == "NN" || xpos == "JJ") && bestN == 0 && m.wn != nil {
+		if lb := strings.ToLower(best); lb != low && !m.wn.Classes(lb).Listed() {
+			best = low
+		}
+	}
 	return best
 }
 
