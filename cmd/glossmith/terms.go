@@ -262,7 +262,7 @@ func (o *termsOptions) run(args []string) error {
 		return err
 	}
 	src := fmt.Sprintf("%d document(s), %d words.", corpus.Documents(), corpus.Tokens())
-	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Highlight: o.to == "text" && useColor(o.color, out.toTerminal()), Source: src, BOM: o.bom, Lang: o.lang, TermStatus: o.tb.termStatus()})); err != nil {
+	if err := out.commit(terms.Write(out, o.to, ranked, terms.WriteOptions{Contexts: o.contexts, Sort: o.sortKey, Highlight: o.to == "text" && useColor(o.color, out.toTerminal()), Source: src, BOM: o.bom, Lang: o.lang, TermStatus: o.tb.termStatus()})); err != nil {
 		return err
 	}
 	return runErr

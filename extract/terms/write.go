@@ -28,6 +28,10 @@ type WriteOptions struct {
 	Source    string // TBX header: what the list was made from
 	Lang      string // TBX: the documents' language (BCP 47), "" for English
 	BOM       bool   // csv: start with a UTF-8 byte order mark, for spreadsheet programs
+	// Sort is the measure the list is sorted by (RankOptions.Sort): text
+	// adds it as a column when it is not one already (cvalue, weirdness),
+	// so that the order can be read.
+	Sort string
 	// TermStatus, with a termbase, is what it holds of a term's text: a
 	// TBX-Basic administrative status (tbx.PreferredStatus …; "" for none)
 	// and whether it rejected the text. The TBX writers use it (writeTBX).
@@ -117,13 +121,19 @@ func writeJSONL(w *bufio.Writer, terms []*Term) error {
 }
 
 // writeText prints an aligned table: rank, term (with its acronym or full
-// form, see displayTerm), score, freq, docs,
-// keyness, dp, the longer candidate it mostly occurs in (when any term of
+// form, see displayTerm), score, freq, docs, the sort measure when it is
+// cvalue or weirdness, keyness, dp, the longer candidate it mostly occurs in (when any term of
 // the list has one) and the most frequent other spellings; with Contexts > 0
 // the example sentences follow each row, indented.
 func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 	within := hasWithin(terms)
 	head := []string{"#", "term", "score", "freq", "docs", "keyness", "dp", "variants"}
+	right := []bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
+	sortCol := opt.Sort == "cvalue" || opt.Sort == "weirdness"
+	if sortCol {
+		head = slices.Insert(head, 5, opt.Sort)
+		right = append(right, true)
+	}
 	if within {
 		head = slices.Insert(head, len(head)-1, "within")
 	}
@@ -141,6 +151,12 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 		row := []string{strconv.Itoa(t.Rank), displayTerm(t), strconv.FormatFloat(t.Score, 'f', 2, 64),
 			strconv.Itoa(t.Freq), strconv.Itoa(t.Docs), strconv.FormatFloat(t.Keyness, 'f', 1, 64),
 			strconv.FormatFloat(t.DP, 'f', 2, 64), strings.Join(other, ", ")}
+		switch {
+		case sortCol && opt.Sort == "cvalue":
+			row = slices.Insert(row, 5, strconv.FormatFloat(t.CValue, 'f', 2, 64))
+		case sortCol:
+			row = slices.Insert(row, 5, strconv.FormatFloat(t.Weirdness, 'f', 1, 64))
+		}
 		if within {
 			row = slices.Insert(row, len(row)-1, t.Within)
 		}
@@ -149,7 +165,6 @@ func writeText(w *bufio.Writer, terms []*Term, opt WriteOptions) error {
 	if hasStatus(terms) {
 		addStatusColumn(rows, terms)
 	}
-	right := []bool{0: true, 2: true, 3: true, 4: true, 5: true, 6: true}
 	for ri, line := range tabular.Align(rows, right) {
 		w.WriteString(line + "\n")
 		if ri > 0 && opt.Contexts > 0 {
