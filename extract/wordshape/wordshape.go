@@ -51,14 +51,20 @@ func IsAcronym(s string) bool {
 // KeepsCase reports whether the case of s carries meaning, so that
 // lower-casing would lose it: an upper-case letter right after another
 // letter, as in acronyms and units or mixed-case words ("PLC", "kPa",
-// "pH", "MWh", "HAWTs", "EC-3"). A capital that starts a word ("Valve" at
-// the start of a sentence, "Drip-Line" in a heading) carries none.
+// "pH", "MWh", "HAWTs", "EC-3"), or right before a digit, as in codes
+// (error "E1", terminal "Q12", screw "M6"). A capital that starts a word
+// ("Valve" at the start of a sentence, "Drip-Line" in a heading) carries
+// none.
 func KeepsCase(s string) bool {
-	// Most words are lower-case ASCII: one comparison a byte says so. The
-	// first byte cannot be a capital after a letter.
+	// Most words are lower-case ASCII: a comparison or two a byte says so.
+	// The first byte cannot be a capital after a letter.
 	for i := 1; i < len(s); i++ {
-		if c := s[i]; c-'A' < 26 || c >= utf8.RuneSelf {
+		c := s[i]
+		if c-'A' < 26 || c >= utf8.RuneSelf {
 			return keepsCaseRunes(s)
+		}
+		if c-'0' < 10 && s[i-1]-'A' < 26 {
+			return true
 		}
 	}
 	return false
@@ -66,12 +72,13 @@ func KeepsCase(s string) bool {
 
 // keepsCaseRunes is KeepsCase for any text.
 func keepsCaseRunes(s string) bool {
-	prevLetter := false
+	prevLetter, prevUpper := false, false
 	for _, r := range s {
-		if prevLetter && unicode.IsUpper(r) {
+		upper := unicode.IsUpper(r)
+		if prevLetter && upper || prevUpper && unicode.IsDigit(r) {
 			return true
 		}
-		prevLetter = unicode.IsLetter(r)
+		prevLetter, prevUpper = unicode.IsLetter(r), upper
 	}
 	return false
 }

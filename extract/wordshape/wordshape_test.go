@@ -32,6 +32,10 @@ func TestKeepsCase(t *testing.T) {
 	for s, want := range map[string]bool{
 		"PLC": true, "EC-3": true, "kPa": true, "pH": true, "MWh": true, "HAWTs": true, "3-MW": true, "ÉDF": true, "mΩ": true, "ÖKo": true,
 		"A": false, "Valve": false, "Drip-Line": false, "valve": false, "": false, "X-Ray": false, "Émetteur": false,
+		// Codes: a capital then a digit (error "E1", terminal "Q12", screw
+		// "M6", "H2O") keep theirs; lower-cased, "e1" is no longer the code.
+		"E1": true, "Q12": true, "M6": true, "H2O": true, "É2": true,
+		"e1": false, "Valve1": false, "Step-1": false, "3D": false,
 	} {
 		assert.Equal(t, want, KeepsCase(s), "KeepsCase(%q)", s)
 	}
