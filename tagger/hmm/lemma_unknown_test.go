@@ -1,6 +1,7 @@
 package hmm
 
 import (
+	"strings"
 	"testing"
 
 	"glossmith/tagger/doc"
@@ -46,5 +47,21 @@ func TestUnknownSingularLemma(t *testing.T) {
 		tok := s.Tokens[3]
 		require.Equal(t, "NN", tok.XPOS, "%s: the check is of singular nouns", tt.form)
 		assert.Equal(t, tt.want, tok.Lemma, tt.form)
+	}
+}
+
+// A singular noun in capitals is an acronym, and its letters are no word
+// for the suffix rules learned from lower-case words: "LED" had the lemma
+// "le" and "OLED" "ole" (the rule of "used"), so terms listed "LED" under
+// "le".
+func TestAcronymSingularLemma(t *testing.T) {
+	m, err := Default()
+	require.NoError(t, err)
+	for _, form := range []string{"LED", "OLED", "GPS", "HVAC", "RCD"} {
+		s := doc.Sentence{Tokens: []doc.Token{{Form: "Check"}, {Form: "the"}, {Form: form}, {Form: "now"}, {Form: "."}}}
+		m.Tag(&s)
+		tok := s.Tokens[2]
+		require.Equal(t, "NN", tok.XPOS, "%s: the check is of singular nouns", form)
+		assert.Equal(t, strings.ToLower(form), tok.Lemma, form)
 	}
 }

@@ -214,7 +214,27 @@ func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 		}
 		return strings.ToLower(stem)
 	}
+	if xpos == "NN" && isCapitals(form) {
+		// A singular acronym: its letters are no word for the suffix
+		// rules ("LED" → "le" by the rule of "used").
+		return strings.ToLower(form)
+	}
 	return l.byRule(form, upos, xpos)
+}
+
+// isCapitals reports whether s has two or more capital letters A–Z and
+// no lower-case one (digits and hyphens may come between): an acronym.
+func isCapitals(s string) bool {
+	upper := 0
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c >= 'A' && c <= 'Z':
+			upper++
+		case c >= 'a' && c <= 'z', c >= 0x80:
+			return false
+		}
+	}
+	return upper >= 2
 }
 
 // acronymPlural returns the acronym of a plural written as an acronym with
