@@ -124,6 +124,21 @@ func TestReferenceProblemGoesOn(t *testing.T) {
 	assert.Len(t, strings.Split(strings.TrimSpace(r.stdout), "\n"), 4, "a header and three terms")
 }
 
+// A reference of which nothing could be read stops the run, and the
+// closing line says it was the reference (the message lost its
+// "reference:" and read as if the inputs were unreadable).
+func TestReferenceUnreadableNamed(t *testing.T) {
+	empty := filepath.Join(t.TempDir(), "empty.txt")
+	require.NoError(t, os.WriteFile(empty, nil, 0o644))
+	for _, ref := range []string{"testdata/no-such-reference.txt", empty} {
+		r := run(t, "", "terms", "--reference", ref, "testdata/demo/maintenance-schedule.txt")
+		assert.Equal(t, 1, r.code, r.stderr)
+		assert.Contains(t, r.stderr, ref)
+		assert.Regexp(t, `(?m)^glossmith: reference: `, r.stderr)
+		assert.Empty(t, r.stdout)
+	}
+}
+
 // tag -o writes the file whole.
 func TestTagOutputFile(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "demo.conllu")

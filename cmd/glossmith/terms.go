@@ -221,7 +221,9 @@ func (o *termsOptions) run(args []string) error {
 		counts := &terms.Counts{}
 		st, err := runDocs(&o.in, o.reference, model, terms.CountWords, func(_ *doc.Document, dc *terms.DocCounts) { counts.Add(dc); dc.Release() })
 		if st.Documents == 0 {
-			return fmt.Errorf("reference: %w", err)
+			// An exitError is printed by its message alone: the prefix
+			// must be in it, or the line reads as if the inputs failed.
+			return exitError{1, fmt.Sprintf("reference: %v", err)}
 		}
 		if err != nil {
 			refErr = exitError{1, fmt.Sprintf("reference: %v", err)}
