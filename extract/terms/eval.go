@@ -7,6 +7,10 @@ import (
 	"io"
 	"strings"
 	"unicode/utf8"
+
+	"golang.org/x/text/encoding/unicode"
+	"golang.org/x/text/transform"
+	"golang.org/x/text/unicode/norm"
 )
 
 // Gold is a reference term list: lower-cased surface forms.
@@ -14,10 +18,13 @@ type Gold map[string]bool
 
 // ReadGold reads a gold list with one term per line, optionally followed by
 // a tab and a label (the layout of the ACTER term lists); blank lines and
-// lines starting with "#" are ignored. Terms are lower-cased.
+// lines starting with "#" are ignored. Terms are lower-cased and put in
+// Unicode NFC, as documents are.
 func ReadGold(r io.Reader, name string) (Gold, error) {
 	g := Gold{}
-	sc := bufio.NewScanner(r)
+	// Lists saved by Windows tools: a UTF-8 byte-order mark is dropped,
+	// UTF-16 with one decoded (golang.org/x/text, as termio reads lists).
+	sc := bufio.NewScanner(transform.NewReader(r, unicode.BOMOverride(transform.Nop)))
 	sc.Buffer(make([]byte, 64<<10), 1<<20)
 	line := 0
 	for sc.Scan() {
@@ -30,7 +37,9 @@ func ReadGold(r io.Reader, name string) (Gold, error) {
 			continue
 		}
 		term, _, _ := strings.Cut(text, "\t")
-		term = strings.ToLower(strings.TrimSpace(term))
+		// In the form documents are read in: "café" typed with a
+		// combining accent is the same term.
+		term = norm.NFC.String(strings.ToLower(strings.TrimSpace(term)))
 		if term == "" {
 			return nil, fmt.Errorf("%s:%d: empty term", name, line)
 		}
