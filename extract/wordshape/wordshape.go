@@ -51,8 +51,8 @@ func IsAcronym(s string) bool {
 // KeepsCase reports whether the case of s carries meaning, so that
 // lower-casing would lose it: an upper-case letter right after another
 // letter, as in acronyms and units or mixed-case words ("PLC", "kPa",
-// "pH", "MWh", "HAWTs", "EC-3"), or right before a digit, as in codes
-// (error "E1", terminal "Q12", screw "M6"). A capital that starts a word
+// "pH", "MWh", "HAWTs", "EC-3", and "°C" after a degree sign), or right
+// before a digit, as in codes (error "E1", terminal "Q12", screw "M6"). A capital that starts a word
 // ("Valve" at the start of a sentence, "Drip-Line" in a heading) carries
 // none.
 func KeepsCase(s string) bool {
@@ -78,7 +78,8 @@ func keepsCaseRunes(s string) bool {
 		if prevLetter && upper || prevUpper && unicode.IsDigit(r) {
 			return true
 		}
-		prevLetter, prevUpper = unicode.IsLetter(r), upper
+		// A degree sign counts as a letter before a capital: "°C".
+		prevLetter, prevUpper = unicode.IsLetter(r) || r == '°', upper
 	}
 	return false
 }

@@ -36,6 +36,9 @@ func TestKeepsCase(t *testing.T) {
 		// "M6", "H2O") keep theirs; lower-cased, "e1" is no longer the code.
 		"E1": true, "Q12": true, "M6": true, "H2O": true, "É2": true,
 		"e1": false, "Valve1": false, "Step-1": false, "3D": false,
+		// A capital after a degree sign is a unit (ISO 80000-5: "°C"),
+		// which lower-cased reads as no unit at all.
+		"°C": true, "°F": true, "°": false, "°c": false,
 	} {
 		assert.Equal(t, want, KeepsCase(s), "KeepsCase(%q)", s)
 	}
