@@ -310,13 +310,12 @@ func (r *runningText) addHeading(toks []doc.Token) {
 // of the document, as a careful reader takes it: the whole run repeats a
 // heading, first word to last, or several joined by "and" (headings), the
 // last perhaps going on past the run ("see Filter Maintenance: Daily
-// Checks"), and
-// either each is a task's heading (refTask), or a cue points to a section
-// (isReferenceCue): "see Filter Maintenance", "refer to Filter
-// Maintenance", "described in Filter Maintenance", "in Section Filter
-// Maintenance", "the Filter Maintenance section", "see Filter Maintenance
-// and Valve Care"; or it goes on a list of references after a comma or
-// "or" ("see Filter Maintenance, Valve Care or Winter Storage").
+// Checks"); and either each is a task's heading (refTask), or a cue
+// points to a section (isReferenceCue): "see Filter Maintenance", "refer
+// to Filter Maintenance", "described in Filter Maintenance", "in Section
+// Filter Maintenance", "the Filter Maintenance section", "see Filter
+// Maintenance and Valve Care"; or it goes on a list of references after a
+// comma or "or" ("see Filter Maintenance, Valve Care or Winter Storage").
 //
 // A run that is more than headings ("see Filter Maintenance Records") or
 // has no cue ("Mount the Climate Master", heading "Climate Master") stays
