@@ -1,8 +1,11 @@
 package main
 
 import (
+	"bytes"
 	"fmt"
+	"io"
 	"os"
+	"slices"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -11,6 +14,7 @@ import (
 	"glossmith/extract/termbase"
 	"glossmith/pattern"
 	"glossmith/tagger/doc"
+	"glossmith/tagger/read"
 )
 
 // checkOptions are the flags of the check command.
@@ -160,8 +164,12 @@ func (o *checkOptions) run(args []string) error {
 	}
 	rep := check.NewReport(opt.Glossary)
 	o.in.reuseTokens = true // results hold strings and positions, not tokens
+	stdin, err := o.readStdin(args)
+	if err != nil {
+		return err
+	}
 	st, runErr := runDocs(&o.in, args, model,
-		func(d *doc.Document) *check.DocResult { return check.Check(d, readSource(d), opt) },
+		func(d *doc.Document) *check.DocResult { return check.Check(d, readSource(d, stdin), opt) },
 		func(_ *doc.Document, r *check.DocResult) { rep.Add(r) })
 	if st.Documents == 0 {
 		return runErr
@@ -216,17 +224,34 @@ func (o *checkOptions) run(args []string) error {
 	return nil
 }
 
+// readStdin reads standard input whole when "-" is among the inputs and
+// has the document reader take it from there: the check reads a
+// document's source twice (see readSource), and a pipe can be read once.
+// Reading stops one byte past the reader's cap, which then refuses it.
+func (o *checkOptions) readStdin(args []string) ([]byte, error) {
+	if !slices.Contains(args, "-") {
+		return nil, nil
+	}
+	data, err := io.ReadAll(io.LimitReader(os.Stdin, read.DefaultMaxBytes+1))
+	if err != nil {
+		return nil, fmt.Errorf("-: cannot read standard input: %w", err)
+	}
+	o.in.stdin = bytes.NewReader(data)
+	return data, nil
+}
+
 // readSource returns the bytes of the file a document was read from, from
 // which the check takes code and skip comments (positions come with the
-// document); nil for standard input or a file that cannot be read again.
-func readSource(d *doc.Document) []byte {
+// document): stdin for standard input; nil for a file that cannot be read
+// again.
+func readSource(d *doc.Document, stdin []byte) []byte {
 	switch d.Format {
 	case "md", "txt", "html":
 	default:
 		return nil
 	}
 	if d.Name == "-" {
-		return nil
+		return stdin
 	}
 	b, err := os.ReadFile(d.Name)
 	if err != nil {

@@ -368,3 +368,27 @@ func TestHTMLPositionsInTheFile(t *testing.T) {
 	}
 	assert.Greater(t, words, 50)
 }
+
+// TestCheckStdinSameAsFile: a document piped in on standard input (an
+// editor's or a pre-commit hook's way) has the findings of the same file
+// named on the command line — code, inline code, pre elements and skip
+// comments left out alike — only under the name "-".
+func TestCheckStdinSameAsFile(t *testing.T) {
+	tb := pumpsTermbase(t)
+	for _, tc := range []struct{ file, from string }{
+		{"installation-guide.md", "md"},
+		{"maintenance-log.md", "md"},
+		{"service-bulletin.html", "html"},
+		{"repair-sheet.html", "html"},
+		{"field-notes.txt", "txt"},
+	} {
+		path := pumpsDir + "/" + tc.file
+		data, err := os.ReadFile(filepath.Join("../..", path))
+		require.NoError(t, err)
+		fromFile := run(t, "", "check", "-q", "--termbase", tb, "--from", tc.from, path)
+		require.NotEmpty(t, fromFile.stdout, "%s has findings", tc.file)
+		fromStdin := run(t, string(data), "check", "-q", "--termbase", tb, "--from", tc.from, "-")
+		assert.Equal(t, fromFile.code, fromStdin.code, "%s: exit status; %s", tc.file, fromStdin.stderr)
+		assert.Equal(t, strings.ReplaceAll(fromFile.stdout, path+":", "-:"), fromStdin.stdout, tc.file)
+	}
+}

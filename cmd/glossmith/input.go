@@ -34,6 +34,9 @@ type inputFlags struct {
 	// ctx, if set, stops the run early when it is cancelled (find's
 	// --limit, a failed write).
 	ctx context.Context
+	// stdin, if set, is read for the input "-" instead of os.Stdin (check
+	// reads standard input first, as it needs its bytes again).
+	stdin io.Reader
 }
 
 func (f *inputFlags) register(cmd *cobra.Command, tagging bool) {
@@ -107,7 +110,7 @@ func runDocs[R any](f *inputFlags, args []string, tagger pipeline.Tagger,
 	}
 	pp := &problemPrinter{w: os.Stderr, quiet: f.quiet}
 	opt := pipeline.Options{
-		Read:    read.Options{Format: f.from, Encoding: f.encoding},
+		Read:    read.Options{Format: f.from, Encoding: f.encoding, Stdin: f.stdin},
 		Tagger:  tagger,
 		Workers: f.workers,
 		Report:  pp.report,
