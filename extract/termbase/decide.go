@@ -108,6 +108,10 @@ func candidates(texts []string) []Proposal {
 // the entry holds), Rejected, Candidate (defer) or Deprecated. Forms, contexts and
 // a part of speech the candidates carry are added to their terms.
 func (s *Store) Decide(st Status, cs ...Proposal) (Change, error) {
+	cs = slices.Clone(cs)
+	for i := range cs {
+		cs[i].Text, cs[i].Forms = nfc(cs[i].Text), nfcAll(cs[i].Forms)
+	}
 	action := map[Status]string{Preferred: "accept", Admitted: "accept", Rejected: "reject", Candidate: "defer", Deprecated: "deprecate"}[st]
 	if action == "" {
 		return Change{}, fmt.Errorf("termbase: no decision %q", st)
@@ -215,6 +219,10 @@ type Verdict struct {
 // Review records a reviewer's verdicts — from a review sheet — as one
 // change.
 func (s *Store) Review(what string, vs []Verdict) (Change, error) {
+	vs = slices.Clone(vs)
+	for i := range vs {
+		vs[i].Term = nfc(vs[i].Term)
+	}
 	return s.update("review", fmt.Sprintf("%s: %d verdict(s)", what, len(vs)), func(t *Tx) error {
 		for _, v := range vs {
 			if v.Status != "" {
@@ -251,6 +259,7 @@ func (t *Tx) markDeferred(entryID int64, term *Term) error {
 // one (moved out of another entry if it is a term there). Setting
 // Preferred makes the entry's former preferred term admitted.
 func (s *Store) SetStatus(term, form string, st Status) (Change, error) {
+	term, form = nfc(term), nfc(form)
 	if _, err := ParseStatus(string(st)); err != nil {
 		return Change{}, err
 	}
@@ -349,6 +358,7 @@ func (t *Tx) dropIfEmpty(id int64) error {
 // term1's entry has one), empty fields are filled from it, its notes are
 // added, and it is deleted.
 func (s *Store) Merge(term1, term2 string) (Change, error) {
+	term1, term2 = nfc(term1), nfc(term2)
 	return s.update("merge", fmt.Sprintf("%q and %q", term1, term2), func(t *Tx) error {
 		e1, _, _, err := t.findOrCreate(Proposal{Text: term1}, Candidate)
 		if err != nil {
@@ -410,6 +420,7 @@ func (s *Store) SetSubject(term, subject string) (Change, error) {
 }
 
 func (s *Store) setEntryField(action, term, value string, fn func(*Entry)) (Change, error) {
+	term = nfc(term)
 	return s.update(action, fmt.Sprintf("%q: %q", term, value), func(t *Tx) error {
 		e, _, _, err := t.findOrCreate(Proposal{Text: term}, Candidate)
 		if err != nil {
@@ -423,6 +434,7 @@ func (s *Store) setEntryField(action, term, value string, fn func(*Entry)) (Chan
 
 // SetPOS sets the part of speech of the term text names.
 func (s *Store) SetPOS(term, pos string) (Change, error) {
+	term = nfc(term)
 	if err := CheckPOS(pos); err != nil {
 		return Change{}, err
 	}
@@ -454,6 +466,8 @@ type Edit struct {
 // Edit applies an Edit to the entry term names (created when there is
 // none) as one change.
 func (s *Store) Edit(term string, ed Edit) (Change, error) {
+	term, ed.Preferred = nfc(term), nfc(ed.Preferred)
+	ed.Admitted, ed.Deprecated = nfcAll(ed.Admitted), nfcAll(ed.Deprecated)
 	if err := CheckPOS(ed.POS); err != nil {
 		return Change{}, err
 	}

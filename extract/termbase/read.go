@@ -166,6 +166,7 @@ func encodeNotes(notes []string) string {
 // Lookup returns the entries that hold text as a term or a surface form:
 // those with the exact text if any, else those with its Key.
 func (s *Store) Lookup(text string) ([]*Entry, error) {
+	text = nfc(text)
 	ids, err := lookupIDs(context.Background(), s.db, text)
 	if err != nil {
 		return nil, s.errf(err)

@@ -38,6 +38,7 @@ func (s *Store) Import(what string, entries []*Entry) (Change, error) {
 				if x.Lang == "" {
 					x.Lang = s.Lang
 				}
+				x.Text, x.Forms = nfc(x.Text), nfcAll(x.Forms)
 				if id, ok := index[x.Lang+"\x00"+x.Text]; ok {
 					target = id
 					break
