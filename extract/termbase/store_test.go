@@ -272,31 +272,14 @@ func TestConcurrentWriters(t *testing.T) {
 	first, err := Open(path)
 	require.NoError(t, err)
 	first.Close()
-	var wg sync.WaitGroup
-	errs := make(chan error, 2)
-	for w := range 2 {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			s, err := Open(path)
-			if err != nil {
-				errs <- err
-				return
+	inParallel(t, path, 2, func(s *Store, w int) error {
+		for i := range 50 {
+			if _, err := s.Accept(string(rune('a'+w)) + "-term " + string(rune('a'+i%26)) + string(rune('a'+i/26))); err != nil {
+				return err
 			}
-			defer s.Close()
-			for i := range 50 {
-				if _, err := s.Accept(string(rune('a'+w)) + "-term " + string(rune('a'+i%26)) + string(rune('a'+i/26))); err != nil {
-					errs <- err
-					return
-				}
-			}
-		}()
-	}
-	wg.Wait()
-	close(errs)
-	for err := range errs {
-		require.NoError(t, err)
-	}
+		}
+		return nil
+	})
 	s, err := Open(path)
 	require.NoError(t, err)
 	defer s.Close()
@@ -434,5 +417,74 @@ func TestOpenNamesAMissingFolder(t *testing.T) {
 			assert.NoDirExists(t, filepath.Join(dir, "glossaries"))
 			assert.NoDirExists(t, filepath.Join(dir, "a"))
 		})
+	}
+}
+
+// Undos at once, from processes of their own (here stores of their own on
+// one file), each take back a different change: none is undone twice and
+// none is lost, as if they had run one after another.
+func TestConcurrentUndos(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "tb.sqlite")
+	first, err := Open(path)
+	require.NoError(t, err)
+	for i := range 8 {
+		_, err := first.Accept("term " + strconv.Itoa(i))
+		require.NoError(t, err)
+	}
+	first.Close()
+	const undoers = 4
+	undone := make(chan int64, undoers*2)
+	inParallel(t, path, undoers, func(s *Store, _ int) error {
+		for range 2 {
+			cs, err := s.Undo(1)
+			if err != nil {
+				return err
+			}
+			for _, c := range cs {
+				undone <- c.Undoes
+			}
+		}
+		return nil
+	})
+	close(undone)
+	var got []int64
+	for id := range undone {
+		got = append(got, id)
+	}
+	assert.ElementsMatch(t, []int64{1, 2, 3, 4, 5, 6, 7, 8}, got, "each change undone once")
+	s, err := Open(path)
+	require.NoError(t, err)
+	defer s.Close()
+	es, err := s.Entries()
+	require.NoError(t, err)
+	assert.Empty(t, es)
+}
+
+// inParallel runs fn in n goroutines at once, each with a store of its
+// own on path (as processes of their own would have), and fails on any
+// error.
+func inParallel(t *testing.T, path string, n int, fn func(s *Store, w int) error) {
+	t.Helper()
+	var wg sync.WaitGroup
+	errs := make(chan error, n)
+	for w := range n {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			s, err := Open(path)
+			if err != nil {
+				errs <- err
+				return
+			}
+			defer s.Close()
+			if err := fn(s, w); err != nil {
+				errs <- err
+			}
+		}()
+	}
+	wg.Wait()
+	close(errs)
+	for err := range errs {
+		require.NoError(t, err)
 	}
 }
