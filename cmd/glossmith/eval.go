@@ -14,6 +14,7 @@ import (
 	"glossmith/extract/terms"
 	"glossmith/tagger/doc"
 	"glossmith/tagger/hmm"
+	"glossmith/tagger/read"
 )
 
 func newEvalCmd() *cobra.Command {
@@ -182,7 +183,7 @@ func (o *evalTermsOptions) validate(cmd *cobra.Command, args []string) error {
 func (o *evalTermsOptions) run(args []string) error {
 	f, err := os.Open(o.goldPath)
 	if err != nil {
-		return err
+		return usageError("--gold %s: cannot open: %s", o.goldPath, read.Describe(err))
 	}
 	gold, err := terms.ReadGold(f, o.goldPath)
 	f.Close()

@@ -147,3 +147,14 @@ func TestEvalTaggingEmptyColumns(t *testing.T) {
 	assert.NotContains(t, r.stdout, " 0.00%")
 	assert.Contains(t, r.stdout, "(gold → tagged):\n  none\n")
 }
+
+// A gold list that cannot be opened is named with the flag that gave it,
+// as the other inputs are named ("open FILE: no such file or directory"
+// did not say which of the command's files it was).
+func TestEvalTermsGoldUnreadableNamed(t *testing.T) {
+	missing := filepath.Join(t.TempDir(), "gold.tsv")
+	r := run(t, "", "eval", "terms", "--gold", missing, "testdata/demo/maintenance-schedule.txt")
+	assert.Equal(t, 2, r.code, r.stderr)
+	assert.Equal(t, "glossmith: --gold "+missing+": cannot open: no such file or directory\n", r.stderr)
+	assert.Empty(t, r.stdout)
+}
