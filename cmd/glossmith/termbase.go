@@ -32,7 +32,7 @@ type termbaseFlags struct {
 func (f *termbaseFlags) register(fl interface {
 	StringVar(*string, string, string, string)
 }) {
-	fl.StringVar(&f.path, "termbase", "", "termbase file (default: $"+termbaseEnv+"); created on first use")
+	fl.StringVar(&f.path, "termbase", "", "termbase file (default: $"+termbaseEnv+"); created by the commands that write to it")
 	fl.StringVar(&f.user, "user", "", "name written to the change log (default: the login name)")
 }
 
