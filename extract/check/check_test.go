@@ -51,6 +51,7 @@ func pumpGlossary() Glossary {
 		{ID: "e5", Forms: []Form{{Text: "flow rate", Status: Preferred, POS: "noun"}}},
 		{ID: "e6", Forms: []Form{{Text: "power-up", Status: Preferred, POS: "noun"}}},
 		{ID: "e7", Forms: []Form{{Text: "bill of materials", Status: Preferred, POS: "noun"}}},
+		{ID: "e8", Forms: []Form{{Text: "heat seal", Status: Preferred, POS: "noun"}, {Text: "hot seal", Status: Deprecated}}},
 	}}
 }
 
@@ -90,6 +91,18 @@ func TestClassify(t *testing.T) {
 		{"Both bills of materials list the pump.", "", 0, "", ""},
 		{"The bill of materials lists the pump.", "", 0, "", ""},
 		{"Both bills-of-materials list the pump.", "bills-of-materials", KindSpelling, "bill of materials", "e7"},
+		// A verb's past or participle read through its lemma is the verb,
+		// not the noun term ("heat-sealed" is no spelling of the noun "heat
+		// seal"); the noun's own inflections still are the term.
+		{"The pouches are heat-sealed at the top.", "", 0, "", ""},
+		{"The pouches are heatsealed at the top.", "", 0, "", ""},
+		{"The pouches were hot sealed by hand.", "", 0, "", ""},
+		{"The pouches were hot-sealed by hand.", "", 0, "", ""},
+		{"Check each heat seal for leaks.", "", 0, "", ""},
+		{"Two heat seals failed.", "", 0, "", ""},
+		{"Two hot seals failed.", "hot seals", KindDeprecated, "heat seal", "e8"},
+		{"Check the hot seal first.", "hot seal", KindDeprecated, "heat seal", "e8"},
+		{"Check the heatseal first.", "heatseal", KindSpelling, "heat seal", "e8"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.text, func(t *testing.T) {

@@ -32,6 +32,7 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) (Finding,
 	lemmasMade := false
 	var bad, spell, worse *formRef
 	caseOnly := false
+	verbHead := verbInflection(head)
 	for k := range sp.ends {
 		r := &sp.ends[k]
 		f := &m.g.Entries[r.entry].Forms[r.form]
@@ -39,6 +40,9 @@ func (m *Matcher) classify(d *doc.Document, toks []doc.Token, sp span) (Finding,
 			continue
 		}
 		want := m.folded[r.entry][r.form]
+		if verbHead && nounOrUnknown(f.POS) && !sameKey(surface, want) {
+			continue // "heat-sealed", "hot sealed": the verb, not the noun "heat seal"
+		}
 		exact := same(surface, want, f.CaseSensitive)
 		if !exact && !lemmasMade {
 			headLemma, lemmas, lemmasMade = lemmaSurface(toks[sp.i:sp.j], true), lemmaSurface(toks[sp.i:sp.j], false), true
@@ -212,6 +216,39 @@ func sameUpToCase(a, b rune) bool {
 // up" is no use of the noun "power-up"): the tagger takes a rare noun for
 // a verb or an adjective often enough ("both magnet valves" came out VERB)
 // that content-word tags cannot veto, and an untagged word fits anything.
+// verbInflection reports whether the tagger read t as a verb's past or
+// participle (VBD, VBN, VBG) and gave it a lemma of its own: a span that
+// reaches a noun term's key only through that lemma ("heat-sealed",
+// "hot sealed" through "seal") is the verb, whose -ed and -ing forms are
+// no inflection of the noun.
+func verbInflection(t *doc.Token) bool {
+	if t.UPOS != "VERB" || t.Lemma == "" || strings.EqualFold(t.Lemma, t.Form) {
+		return false
+	}
+	switch t.XPOS {
+	case "VBD", "VBN", "VBG":
+		return true
+	}
+	return false
+}
+
+// nounOrUnknown reports whether a form's part of speech is a noun's or not
+// given (glossaries are mostly nouns, and mostly say so by leaving it out).
+func nounOrUnknown(pos string) bool {
+	switch strings.ToLower(pos) {
+	case "", "noun", "n", "propn", "proper noun", "propernoun":
+		return true
+	}
+	return strings.HasSuffix(strings.ToUpper(pos), "NOUN") // a UPOS sequence: "ADJ NOUN"
+}
+
+// sameKey reports whether two texts have the same key (appendKey): the
+// same letters but for case, spaces and hyphens.
+func sameKey(a, b string) bool {
+	var ka, kb [64]byte
+	return string(appendKey(ka[:0], a)) == string(appendKey(kb[:0], b))
+}
+
 func posFits(pos, upos string) bool {
 	if pos == "" || upos == "" {
 		return true
