@@ -2,6 +2,7 @@ package main
 
 import (
 	"bufio"
+	"bytes"
 	"fmt"
 	"io"
 	"os"
@@ -15,6 +16,7 @@ import (
 	"glossmith/extract/tbx"
 	"glossmith/extract/termbase"
 	"glossmith/extract/termio"
+	"glossmith/internal/printable"
 	"glossmith/internal/suggest"
 	"glossmith/internal/tabular"
 	"glossmith/tagger/doc"
@@ -113,6 +115,19 @@ func termAsFlagHint(c *cobra.Command, err error) error {
 	}
 	term := msg[i+len(" in "):]
 	return usageError("%s (a term that starts with \"-\" goes after \"--\", the flags before it: %s -- %q)", msg, c.CommandPath(), term)
+}
+
+// escapedTable is tabular.Align over cells with their control characters
+// escaped (printable.Escape): a term, note or file name holding an escape
+// sequence, from an imported glossary or a document, must not reach the
+// terminal as one.
+func escapedTable(rows [][]string, right []bool) []string {
+	for _, r := range rows {
+		for i, c := range r {
+			r[i] = printable.Escape(c)
+		}
+	}
+	return tabular.Align(rows, right)
 }
 
 // withStore runs fn on the open termbase (validated first; a missing file
@@ -564,7 +579,7 @@ func (o *termbaseListOptions) run() error {
 		rows = append(rows, []string{strconv.FormatInt(e.ID, 10), p.Text, termStatusName(p), p.POS, strings.Join(others, ", ")})
 	}
 	bw := bufio.NewWriter(out)
-	for _, l := range tabular.Align(rows, []bool{true}) {
+	for _, l := range escapedTable(rows, []bool{true}) {
 		bw.WriteString(l + "\n")
 	}
 	fmt.Fprintf(bw, "%d %s\n", len(keep), plural(len(keep), "entry", "entries"))
@@ -601,7 +616,8 @@ func newTermbaseShowCmd(tf *termbaseFlags) *cobra.Command {
 				if len(es) == 0 {
 					return fmt.Errorf("%q is not in %s", args[0], tf.path)
 				}
-				w := bufio.NewWriter(cmd.OutOrStdout())
+				var text bytes.Buffer
+				w := bufio.NewWriter(&text)
 				for i, e := range es {
 					if i > 0 {
 						w.WriteString("\n")
@@ -612,7 +628,15 @@ func newTermbaseShowCmd(tf *termbaseFlags) *cobra.Command {
 					}
 					writeEntry(w, e, hist)
 				}
-				return w.Flush()
+				w.Flush()
+				out := bufio.NewWriter(cmd.OutOrStdout())
+				for _, line := range strings.SplitAfter(text.String(), "\n") {
+					out.WriteString(printable.Escape(strings.TrimSuffix(line, "\n")))
+					if strings.HasSuffix(line, "\n") {
+						out.WriteString("\n")
+					}
+				}
+				return out.Flush()
 			})
 		},
 	}
@@ -776,7 +800,7 @@ func writeDiff(w io.Writer, format string, rows []termbase.DiffRow, a, b string)
 		table = append(table, []string{r.Kind, r.Term, strconv.Itoa(r.Freq1), strconv.Itoa(r.Freq2), strconv.FormatFloat(r.G2, 'f', 1, 64)})
 	}
 	bw := bufio.NewWriter(w)
-	for _, l := range tabular.Align(table, []bool{false, false, true, true, true}) {
+	for _, l := range escapedTable(table, []bool{false, false, true, true, true}) {
 		bw.WriteString(l + "\n")
 	}
 	fmt.Fprintf(bw, "%d new, %d gone, %d rose, %d fell\n", count["new"], count["gone"], count["rose"], count["fell"])
@@ -911,7 +935,7 @@ func newTermbaseRunsCmd(tf *termbaseFlags) *cobra.Command {
 					rows = append(rows, []string{r.Label, r.Time.Local().Format("2006-01-02 15:04"), strconv.Itoa(r.Documents), strconv.Itoa(r.Tokens), strings.Join(r.Inputs, " ")})
 				}
 				w := bufio.NewWriter(cmd.OutOrStdout())
-				for _, l := range tabular.Align(rows, []bool{false, false, true, true}) {
+				for _, l := range escapedTable(rows, []bool{false, false, true, true}) {
 					w.WriteString(l + "\n")
 				}
 				return w.Flush()

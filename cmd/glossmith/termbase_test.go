@@ -428,3 +428,27 @@ func TestTermStartingWithAHyphen(t *testing.T) {
 	r = run(t, "", "termbase", "--termbase", tb, "list")
 	assert.Contains(t, r.stdout, "-20 °C mode  preferred")
 }
+
+// Control characters of a termbase's texts — an escape sequence or a
+// bidirectional override in an imported glossary — never reach the
+// terminal: list and show write them escaped (printable.Escape), as find
+// does with documents.
+func TestTermbaseOutputEscapesControls(t *testing.T) {
+	dir := t.TempDir()
+	tb := filepath.Join(dir, "gloss.db")
+	csv := filepath.Join(dir, "g.csv")
+	require.NoError(t, os.WriteFile(csv, []byte("concept,term,status,definition\nc1,\"red\x1b[31m valve\",preferred,\"Clears\x1b[2J the screen \u202eevlav\"\n"), 0o644))
+	r := run(t, "", "termbase", "--termbase", tb, "import", csv)
+	require.Equal(t, 0, r.code, r.stderr)
+	for _, args := range [][]string{{"list"}, {"show", "red\x1b[31m valve"}} {
+		t.Run(args[0], func(t *testing.T) {
+			r := run(t, "", append([]string{"termbase", "--termbase", tb}, args...)...)
+			require.Equal(t, 0, r.code, r.stderr)
+			assert.NotContains(t, r.stdout, "\x1b")
+			assert.NotContains(t, r.stdout, "\u202e")
+			assert.Contains(t, r.stdout, `red\x1b[31m valve`)
+		})
+	}
+	r = run(t, "", "termbase", "--termbase", tb, "show", "red\x1b[31m valve")
+	assert.Contains(t, r.stdout, `Clears\x1b[2J the screen \u202eevlav`)
+}
