@@ -135,7 +135,7 @@ func (o *checkOptions) validate(cmd *cobra.Command, args []string) error {
 }
 
 func (o *checkOptions) run(args []string) error {
-	var opt check.Options
+	opt := check.Options{Encoding: o.in.encoding}
 	if o.termbase != "" {
 		tb, err := termbase.Open(o.termbase)
 		if err != nil {

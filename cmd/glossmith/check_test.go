@@ -15,6 +15,7 @@ import (
 	"github.com/santhosh-tekuri/jsonschema/v6"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"golang.org/x/text/encoding/japanese"
 
 	"glossmith/extract/termbase"
 	"glossmith/internal/testenv"
@@ -391,4 +392,18 @@ func TestCheckStdinSameAsFile(t *testing.T) {
 		assert.Equal(t, fromFile.code, fromStdin.code, "%s: exit status; %s", tc.file, fromStdin.stderr)
 		assert.Equal(t, strings.ReplaceAll(fromFile.stdout, path+":", "-:"), fromStdin.stdout, tc.file)
 	}
+}
+
+// TestCheckEncodingLeavesCodeOut: a Markdown file in the encoding named by
+// --encoding (Shift_JIS here) has its code spans and skip comments left
+// out as in UTF-8.
+func TestCheckEncodingLeavesCodeOut(t *testing.T) {
+	tb := pumpsTermbase(t)
+	text := "日本語 `magnet valve` と magnet valve。\n<!-- glossmith:skip-next-line -->\nmagnet valve\n"
+	sjis, err := japanese.ShiftJIS.NewEncoder().String(text)
+	require.NoError(t, err)
+	path := filepath.Join(t.TempDir(), "sj.md")
+	require.NoError(t, os.WriteFile(path, []byte(sjis), 0o644))
+	r := run(t, "", "check", "-q", "--termbase", tb, "--encoding", "shift_jis", path)
+	assert.Equal(t, path+`:1:22: error: "magnet valve" is a deprecated term: use "solenoid valve"`+"\n", r.stdout, r.stderr)
 }

@@ -21,6 +21,11 @@ type Options struct {
 	// set) whose matches are grouped into variants as the terms command
 	// groups them, for the mixed-spelling report (see Mixed).
 	Candidates *pattern.Matcher
+	// Encoding is the encoding the documents were read in when the reader
+	// was told one (the CLI's --encoding), by its WHATWG label; empty when
+	// it detected it. The check reads a Markdown source again for its
+	// code spans and skip comments, in the same encoding.
+	Encoding string
 }
 
 // DocResult is what one document contributes: its glossary findings in
@@ -52,7 +57,7 @@ type docSpelling struct {
 // on several documents at once.
 func Check(d *doc.Document, src []byte, opt Options) *DocResult {
 	res := &DocResult{Name: d.Name}
-	l := newLayout(d, src)
+	l := newLayout(d, src, opt.Encoding)
 	if opt.Glossary != nil {
 		sc := &scanner{m: opt.Glossary}
 		var spans []span

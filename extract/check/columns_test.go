@@ -297,3 +297,32 @@ func TestUTF16FindingsAsUTF8(t *testing.T) {
 		}
 	}
 }
+
+// A Markdown document in Windows-1252, the reader's fallback for text that
+// is not UTF-8, has the findings of the same document in UTF-8, at the
+// same lines and columns: its code spans and the lines after its skip
+// comments are left out as in UTF-8.
+func TestWindows1252FindingsAsUTF8(t *testing.T) {
+	content := "Fit the magnet valve, not the `magnet valve`.\r\n" +
+		"<!-- glossmith:skip-next-line -->\r\nA magnet valve.\r\n\r\n" +
+		"Café « a magnet valve » ; `é magnet valve`, the flowrate.\r\n"
+	m := Compile(pumpGlossary())
+	type at struct {
+		text                       string
+		line, col, endLine, endCol int
+	}
+	findings := func(content string) []at {
+		d, src := annotate(t, "page.md", content)
+		var out []at
+		for _, f := range Check(d, src, Options{Glossary: m}).Findings {
+			out = append(out, at{f.Text, f.Line, f.Column, f.EndLine, f.EndColumn})
+		}
+		return out
+	}
+	want := findings(content)
+	require.Len(t, want, 3, "in UTF-8: %v", want)
+	cp1252, err := charmap.Windows1252.NewEncoder().String(content)
+	require.NoError(t, err)
+	require.False(t, utf8.ValidString(cp1252), "the test needs bytes that are not UTF-8")
+	assert.Equal(t, want, findings(cp1252))
+}

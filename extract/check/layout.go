@@ -9,6 +9,9 @@ import (
 	"unicode/utf8"
 
 	"golang.org/x/net/html"
+	"golang.org/x/text/encoding"
+	"golang.org/x/text/encoding/charmap"
+	"golang.org/x/text/encoding/htmlindex"
 
 	"glossmith/tagger/doc"
 )
@@ -45,8 +48,8 @@ type layout struct {
 
 // newLayout reads what the check needs of a document's source file, src
 // (nil when there is none to read, as for standard input: columns then
-// count the text's characters).
-func newLayout(d *doc.Document, src []byte) *layout {
+// count the text's characters), in encoding enc (see Options.Encoding).
+func newLayout(d *doc.Document, src []byte, enc string) *layout {
 	l := &layout{d: d, lineStart: []int{0}, skip: map[int]bool{}}
 	for i := 0; ; {
 		j := strings.IndexByte(d.Text[i:], '\n')
@@ -63,7 +66,7 @@ func newLayout(d *doc.Document, src []byte) *layout {
 		if d.Format == "txt" && !bytes.Contains(src, []byte(SkipMarker)) {
 			break
 		}
-		if src = decodeSource(src); src != nil {
+		if src = decodeSource(src, enc); src != nil {
 			l.src = strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n")
 			for i, s := range l.src {
 				l.src[i] = strings.TrimSuffix(s, "\r")
@@ -106,17 +109,31 @@ func gunzipped(src []byte) []byte {
 }
 
 // decodeSource returns a source file's bytes as text, without a byte
-// order mark, UTF-16 decoded; nil when it is neither UTF-8 nor UTF-16 with
-// a byte order mark (the columns then come from the text).
-func decodeSource(src []byte) []byte {
+// order mark, decoded as the reader decodes a text file: UTF-16 by its
+// byte order mark; else in enc when one is named; else UTF-8 when valid,
+// else Windows-1252. Nil when enc is unknown.
+func decodeSource(src []byte, enc string) []byte {
 	if u := newUTF16Source(src); u != nil {
 		return u.decoded()
 	}
-	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
-	if !utf8.Valid(src) {
+	if bytes.HasPrefix(src, []byte("\xef\xbb\xbf")) {
+		return src[3:]
+	}
+	if enc == "" && utf8.Valid(src) {
+		return src
+	}
+	var e encoding.Encoding = charmap.Windows1252
+	if enc != "" {
+		var err error
+		if e, err = htmlindex.Get(enc); err != nil {
+			return nil
+		}
+	}
+	out, err := e.NewDecoder().Bytes(src)
+	if err != nil {
 		return nil
 	}
-	return src
+	return out
 }
 
 // textLine returns text line n (1-based) without its newline.
