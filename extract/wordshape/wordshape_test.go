@@ -53,3 +53,26 @@ func TestIsAddress(t *testing.T) {
 		assert.Equal(t, want, IsAddress(s), "IsAddress(%q)", s)
 	}
 }
+
+// TestKeepsCaseSIUnits: symbols of the SI units with special names (SI
+// Brochure, BIPM, 9th edition 2019, Table 4), with the SI prefixes of
+// Table 7. A prefixed symbol has a capital after a letter and keeps its
+// case ("mS" millisiemens is not "ms" millisecond, "MW" megawatt not "mW"
+// milliwatt). A symbol that starts with its only capital ("Hz", "Pa", "V")
+// has the shape of any capitalized word ("Pa" as "Pa" at a sentence start):
+// its shape alone does not decide.
+func TestKeepsCaseSIUnits(t *testing.T) {
+	cases := []struct {
+		symbols []string
+		want    bool
+	}{
+		{[]string{"mS", "µS", "kPa", "MPa", "MHz", "GHz", "mV", "kV", "MW", "mW", "kJ", "MJ", "kN", "nF", "kΩ", "MΩ", "mT", "µH", "mC", "kWb", "kBq", "mGy", "µSv", "°C"}, true},
+		{[]string{"Hz", "Pa", "V", "N", "J", "W", "C", "F", "Ω", "S", "Wb", "T", "H", "Bq", "Gy", "Sv"}, false},
+		{[]string{"rad", "sr", "lm", "lx", "kat", "ms", "mm", "klx"}, false}, // lower-case: nothing to keep
+	}
+	for _, c := range cases {
+		for _, s := range c.symbols {
+			assert.Equal(t, c.want, KeepsCase(s), "KeepsCase(%q)", s)
+		}
+	}
+}

@@ -7,8 +7,8 @@
 // (word, tag) pairs of the training data whose lemma the rules get wrong
 // ("went"/VBD → "go", "I"/PRP → "I"), so every word seen in training gets
 // the lemma it had there. Only exceptions are stored, which keeps the model
-// small. Proper nouns keep their case; other words are lower-cased first,
-// as Universal Dependencies lemmas are.
+// small. Proper nouns and unit symbols ("mS", "kPa") keep their case;
+// other words are lower-cased first, as Universal Dependencies lemmas are.
 package lemma
 
 import (
@@ -21,6 +21,7 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"unicode"
 )
 
 // MaxSuffix is the longest word ending (in bytes) a rule is keyed on.
@@ -196,8 +197,8 @@ func makeRule(form, lemma string) rule {
 
 // Lemma returns the lemma of form read with the given tags: the
 // treebank's lemma for a word seen in training that the rules miss, else
-// the lemma of a Latin or Greek plural (see classical.txt), else what the
-// suffix rules give.
+// the lemma of a Latin or Greek plural (see classical.txt), the form of a
+// unit symbol (isUnitSymbol), else what the suffix rules give.
 func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 	tag := tagKey(upos, xpos)
 	if m := l.exceptions[tag]; m != nil {
@@ -214,12 +215,47 @@ func (l *Lemmatizer) Lemma(form, upos, xpos string) string {
 		}
 		return strings.ToLower(stem)
 	}
+	if (upos == "NOUN" || IsProper(upos, xpos)) && isUnitSymbol(form) {
+		// A unit symbol is its own lemma, case and all: the rule of "-s"
+		// plurals made millisiemens "mS" the metre "m", and lower-cased it
+		// would be the millisecond "ms".
+		return form
+	}
 	if xpos == "NN" && isCapitals(form) {
 		// A singular acronym: its letters are no word for the suffix
 		// rules ("LED" → "le" by the rule of "used").
 		return strings.ToLower(form)
 	}
 	return l.byRule(form, upos, xpos)
+}
+
+// isUnitSymbol reports whether form has the shape of a prefixed or
+// compound unit symbol: two to four letters, a capital after the first and
+// a lower-case one ("mS", "kPa", "MHz", "MWh", "µS", "kΩ"), whose case SI
+// writing makes meaningful ("mS" millisiemens, "ms" millisecond). All
+// capitals are an acronym's ("MS", "LEDS" in a heading), and a lower-case
+// "s" right after a capital an acronym's plural ("PCs", "IDs"): no symbol.
+// A few byte tests for most words: no table look-up, no allocation.
+func isUnitSymbol(form string) bool {
+	if len(form) < 2 || len(form) > 8 { // four letters of up to two bytes
+		return false
+	}
+	n, capital, lower, prevUpper := 0, false, false, false
+	for i, r := range form {
+		upper := unicode.IsUpper(r)
+		switch {
+		case !unicode.IsLetter(r) || n == 4:
+			return false
+		case upper && i > 0:
+			capital = true
+		case r == 's' && prevUpper && i == len(form)-1:
+			return false
+		case !upper:
+			lower = true
+		}
+		n, prevUpper = n+1, upper
+	}
+	return capital && lower
 }
 
 // isCapitals reports whether s has two or more capital letters A–Z and

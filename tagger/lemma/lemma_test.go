@@ -130,3 +130,51 @@ func TestEWTGoldTags(t *testing.T) {
 	t.Logf("EWT dev with gold tags: lemma %.2f%% (unseen words %.2f%% of %d)", acc, 100*float64(unseenRight)/float64(unseen), unseen)
 	assert.GreaterOrEqual(t, acc, 98.0, "lemma accuracy (case-insensitive) on EWT dev with gold tags")
 }
+
+// siUnitSymbols are symbols of the SI units with special names (SI
+// Brochure, BIPM, 9th edition 2019, Table 4) written with SI prefixes
+// (Table 7) so that a capital follows the first letter: the shape whose
+// case carries meaning ("mS" millisiemens, "ms" millisecond, "MS" no unit).
+var siUnitSymbols = []string{
+	"mS", "µS", "kPa", "MPa", "hPa", "MHz", "kHz", "GHz", "mV", "kV", "mW", "kWb",
+	"kJ", "mJ", "kN", "mN", "nF", "µF", "kΩ", "mΩ", "mT", "µH", "mC", "kBq", "mGy", "µSv",
+}
+
+// TestUnitSymbolLemma: a prefixed SI unit symbol is its own lemma, case and
+// all, whatever its tag, where the "-s" rule made "mS" the metre "m" and
+// "µS" the prefix "µ".
+func TestUnitSymbolLemma(t *testing.T) {
+	l := Train([]Example{
+		{"valves", "valve", "NOUN", "NNS"}, {"pumps", "pump", "NOUN", "NNS"}, {"cms", "cm", "NOUN", "NNS"},
+		{"Greenhouses", "Greenhouse", "PROPN", "NNPS"},
+	})
+	require.Equal(t, "m", l.Lemma("ms", "NOUN", "NNS"), "precondition: the rule strips a final s")
+	for _, sym := range siUnitSymbols {
+		for _, tag := range [][2]string{{"NOUN", "NN"}, {"NOUN", "NNS"}, {"PROPN", "NNP"}, {"PROPN", "NNPS"}} {
+			assert.Equal(t, sym, l.Lemma(sym, tag[0], tag[1]), "Lemma(%q, %s)", sym, tag[1])
+		}
+	}
+	cases := []struct{ form, upos, xpos, want string }{
+		{"PCs", "NOUN", "NNS", "pc"}, // an acronym's plural
+		{"MS", "NOUN", "NN", "ms"},   // all capitals: an acronym
+		{"Valves", "NOUN", "NNS", "valve"},
+		{"Hz", "NOUN", "NN", "hz"},  // capital first: no case to keep by shape
+		{"aS", "VERB", "VBZ", "as"}, // not a noun: the rules as before
+	}
+	for _, c := range cases {
+		assert.Equal(t, c.want, l.Lemma(c.form, c.upos, c.xpos), "Lemma(%q, %s)", c.form, c.xpos)
+	}
+}
+
+func TestIsUnitSymbol(t *testing.T) {
+	for _, sym := range siUnitSymbols {
+		assert.True(t, isUnitSymbol(sym), "isUnitSymbol(%q)", sym)
+	}
+	for _, s := range []string{
+		"", "m", "ms", "Hz", "Pa", "MW", "MΩ", "MS", "LEDS", // no capital after the first letter, or no lower-case one
+		"PCs", "IDs", "UFOs", // an acronym's plural
+		"kPa2", "k-Pa", "MegaHz", "iPhones", // a digit, a hyphen, more than four letters
+	} {
+		assert.False(t, isUnitSymbol(s), "isUnitSymbol(%q)", s)
+	}
+}
