@@ -33,8 +33,9 @@ func FuzzGatherOnlyHeadingWords(f *testing.F) {
 		d := document(t, text)
 		want := Gather(d.Sentences)
 
-		// Words of no heading: every form holds "qx", which text lacks.
-		other := document(t, "Qxa qxb Qxc Qxd QXE qxf, see Qxg Qxh.\n- Qxi of the Qxj\nqxk QXL qxm.")
+		// Words of no heading: every form holds "qx", which text lacks (no
+		// "see" or "the" either: a heading may have them).
+		other := document(t, "Qxa qxb Qxc Qxd QXE qxf, qxg Qxh Qxi.\n- Qxj Qxk\nqxl QXM qxn.")
 		var sents []doc.Sentence
 		sents = append(sents, d.Sentences...)
 		sents = append(sents, other.Sentences...)
