@@ -2,17 +2,17 @@ package check
 
 import (
 	"bytes"
-	"unicode/utf16"
 	"unicode/utf8"
+
+	"glossmith/tagger/read"
 )
 
 // utf16Source is a source file in UTF-16 with a byte order mark, decoded
 // to UTF-8 for the check's look at its markup (code elements, skip
 // comments), with the way back from offsets of the decoded text to the
 // file's bytes, which the reader's offsets (doc.Document.ReadOffset) are.
-// It decodes as the reader does (tagger/read): a unit a character, a
-// surrogate pair one, an unpaired surrogate or a cut-off last byte
-// U+FFFD.
+// It decodes as the reader does, with the reader's own step
+// (read.UTF16Rune).
 type utf16Source struct {
 	data      []byte // the file, byte order mark included
 	bigEndian bool
@@ -44,27 +44,11 @@ func (u *utf16Source) decoded() []byte {
 	return out
 }
 
-// next returns the character at byte f of the file and the bytes it takes.
+// next returns the character at byte f of the file and the bytes it
+// takes, as the reader decodes it (read.UTF16Rune).
 func (u *utf16Source) next(f int) (rune, int) {
-	if f+1 >= len(u.data) {
-		return utf8.RuneError, 1
-	}
-	unit := func(i int) rune {
-		if u.bigEndian {
-			return rune(u.data[i])<<8 | rune(u.data[i+1])
-		}
-		return rune(u.data[i+1])<<8 | rune(u.data[i])
-	}
-	r := unit(f)
-	if !utf16.IsSurrogate(r) {
-		return r, 2
-	}
-	if r < 0xDC00 && f+3 < len(u.data) {
-		if p := utf16.DecodeRune(r, unit(f+2)); p != utf8.RuneError {
-			return p, 4
-		}
-	}
-	return utf8.RuneError, 2
+	r, n, _ := read.UTF16Rune(u.data, f, u.bigEndian)
+	return r, n
 }
 
 // fileOffset returns the byte of the file where offset off of the

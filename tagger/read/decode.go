@@ -99,39 +99,50 @@ func (r *reader) decodeUTF16(data []byte, bigEndian bool) string {
 	b.Grow(len(data))
 	w := encodingWarnings{r: r}
 	line := 1
-	unit := func(i int) uint16 {
-		if bigEndian {
-			return uint16(data[i])<<8 | uint16(data[i+1])
-		}
-		return uint16(data[i+1])<<8 | uint16(data[i])
-	}
-	i := 0
-	for ; i+1 < len(data); i += 2 {
-		u := unit(i)
+	for i := 0; i < len(data); {
+		ru, n, ok := UTF16Rune(data, i, bigEndian)
 		switch {
-		case u == '\n':
-			line++
-			b.WriteByte('\n')
-		case utf16.IsSurrogate(rune(u)):
-			if u < 0xDC00 && i+3 < len(data) {
-				if ru := utf16.DecodeRune(rune(u), rune(unit(i+2))); ru != utf8.RuneError {
-					b.WriteRune(ru)
-					i += 2
-					continue
-				}
-			}
+		case !ok:
 			b.WriteRune(utf8.RuneError)
 			w.bad(line)
+		case ru == '\n':
+			line++
+			b.WriteByte('\n')
 		default:
-			b.WriteRune(rune(u))
+			b.WriteRune(ru)
 		}
-	}
-	if i < len(data) { // odd byte count: a cut-off last unit
-		b.WriteRune(utf8.RuneError)
-		w.bad(line)
+		i += n
 	}
 	w.flush("invalid UTF-16")
 	return b.String()
+}
+
+// UTF16Rune decodes the character at byte i of UTF-16 data (after any
+// byte order mark): one unit, or a surrogate pair of two; ok is false for
+// an unpaired surrogate (2 bytes) or a cut-off last byte (1), which the
+// reader reads as U+FFFD. It is the reader's step, exported for code that
+// must map offsets of the decoded text back to the file's bytes (the
+// document check) and so decodes the file again, the same way.
+func UTF16Rune(data []byte, i int, bigEndian bool) (r rune, size int, ok bool) {
+	if i+1 >= len(data) {
+		return utf8.RuneError, len(data) - i, false
+	}
+	unit := func(i int) rune {
+		if bigEndian {
+			return rune(data[i])<<8 | rune(data[i+1])
+		}
+		return rune(data[i+1])<<8 | rune(data[i])
+	}
+	u := unit(i)
+	if !utf16.IsSurrogate(u) {
+		return u, 2, true
+	}
+	if u < 0xDC00 && i+3 < len(data) {
+		if p := utf16.DecodeRune(u, unit(i+2)); p != utf8.RuneError {
+			return p, 4, true
+		}
+	}
+	return utf8.RuneError, 2, false
 }
 
 // encodingWarnings gathers the lines with invalid bytes into at most
